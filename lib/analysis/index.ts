@@ -1,0 +1,2 @@
+export * from "./ber.ts";
+export * from "./prbs.ts";
