@@ -1,0 +1,29 @@
+// The demo workspace (never in production): an invented company, Quillfeather Systems, with one
+// person per role. Idempotent: running it again adds only what is missing.
+import { ensurePerson } from "@/features/people/people.server";
+import { pool } from "@/server/db.server";
+
+export const DEMO_PASSWORD = process.env.DEMO_PASSWORD ?? "tapwright-demo";
+
+const people = [
+  { email: "admin@tapwright.test", name: "Odile Marchetti", role: "admin" },
+  { email: "designer@tapwright.test", name: "Tomas Ekwueme", role: "designer" },
+  { email: "firmware@tapwright.test", name: "Priya Halvorsen", role: "firmware" },
+  { email: "reviewer@tapwright.test", name: "Jun Castellanos", role: "reviewer" },
+] as const;
+
+async function main() {
+  if (process.env.NODE_ENV === "production") {
+    console.log("[tapwright] Production mode: no demo data is seeded.");
+    return;
+  }
+  for (const p of people) await ensurePerson(p.email, p.name, p.role, DEMO_PASSWORD);
+  console.log(`[tapwright] Demo accounts: ${people.map((p) => p.email).join(", ")} — password: ${DEMO_PASSWORD}`);
+}
+
+main()
+  .catch((e) => {
+    console.error("[tapwright] Seeding failed:", e);
+    process.exitCode = 1;
+  })
+  .finally(() => pool.end());

@@ -1,0 +1,81 @@
+#!/usr/bin/env node
+// `npm test`: the same set-up as `npm start` on a separate test database (and ports), then every
+// suite — unit, integration against MariaDB and the running server, browser tests in Chromium —
+// ending with the line `N passed, N failed[, N skipped]`. Extra arguments go to vitest as filters.
+import { spawnSync } from "node:child_process";
+import { mkdirSync, readFileSync, existsSync, rmSync } from "node:fs";
+import { join } from "node:path";
+import { ensureChromium, ensureNpmPackages, chromiumPath } from "./lib/deps.mjs";
+import { root, settings } from "./lib/config.mjs";
+import { log } from "./lib/log.mjs";
+
+const outDir = join(root, "tests", "output");
+const report = join(outDir, "vitest.json");
+
+function summarize() {
+  if (!existsSync(report)) return { passed: 0, failed: 1, skipped: 0 };
+  const r = JSON.parse(readFileSync(report, "utf8"));
+  // A file that fails to load has no test results; count it as one failure.
+  const brokenFiles = r.testResults.filter((f) => f.status === "failed" && f.assertionResults.length === 0).length;
+  return {
+    passed: r.numPassedTests,
+    failed: r.numFailedTests + brokenFiles,
+    skipped: r.numPendingTests + r.numTodoTests,
+  };
+}
+
+let cleanup = async () => {};
+let code = 1;
+try {
+  ensureNpmPackages();
+  await ensureChromium();
+  process.env.TAPWRIGHT_DB_FAST ??= "1";
+  const cfg = settings("test");
+  const { startMariadb, ensureDatabase, stopMariadb } = await import("./lib/mariadb.mjs");
+  const { migrate } = await import("./lib/migrate.mjs");
+  const { startFakeSmtp } = await import("./lib/fake-smtp.mjs");
+  const { build, seed, serve } = await import("./lib/server.mjs");
+
+  const env = { ...cfg.env, TAPWRIGHT_SIGN_IN_LIMIT: process.env.TAPWRIGHT_SIGN_IN_LIMIT ?? "1000/60" };
+  const database = await startMariadb(cfg.db);
+  await ensureDatabase(cfg.db, { fresh: true });
+  await migrate(env.DATABASE_URL);
+  seed(env);
+  const smtp = await startFakeSmtp({ port: cfg.smtp.port, databaseUrl: env.DATABASE_URL });
+  if (process.env.TAPWRIGHT_SKIP_BUILD !== "1") build(env);
+  const server = await serve(env, { quiet: true });
+  log(`Test server on ${env.BETTER_AUTH_URL}; running every suite…`);
+  cleanup = async () => {
+    server.kill("SIGTERM");
+    await smtp.close();
+    if (!database.reused) await stopMariadb(cfg.db);
+  };
+
+  mkdirSync(outDir, { recursive: true });
+  rmSync(report, { force: true });
+  spawnSync(
+    join(root, "node_modules", ".bin", "vitest"),
+    ["run", "--config", "tests/vitest.config.ts", "--reporter=default", "--reporter=json", `--outputFile.json=${report}`, ...process.argv.slice(2)],
+    {
+      cwd: root,
+      stdio: "inherit",
+      env: {
+        ...process.env,
+        ...env,
+        TAPWRIGHT_BASE_URL: env.BETTER_AUTH_URL,
+        TAPWRIGHT_DB_DIR: cfg.db.dir,
+        DEMO_PASSWORD: process.env.DEMO_PASSWORD ?? "tapwright-demo",
+        CHROMIUM_PATH: chromiumPath,
+      },
+    },
+  );
+  const s = summarize();
+  code = s.failed > 0 || s.passed === 0 ? 1 : 0;
+  await cleanup();
+  console.log(`${s.passed} passed, ${s.failed} failed${s.skipped ? `, ${s.skipped} skipped` : ""}`);
+} catch (e) {
+  console.error(`[tapwright] ${e.message}`);
+  await cleanup().catch(() => {});
+  console.log("0 passed, 1 failed");
+}
+process.exit(code);

@@ -1,0 +1,115 @@
+// People: the list, role changes, invitations and their acceptance. Admin actions are audited.
+import { createHash, randomBytes } from "node:crypto";
+import { and, asc, count, eq, gt, isNull } from "drizzle-orm";
+import { db } from "@/server/db.server";
+import { accounts, invitations, users, type Role } from "@/db/schema";
+import { ApiError, conflict, notFound } from "@/server/http/errors";
+import { recordAudit } from "@/server/audit/audit.server";
+import { enqueueMail, deliverQueuedMail } from "@/server/mail/mail.server";
+import { hashPassword } from "@/server/auth/password.server";
+import type { SessionUser } from "@/server/auth/sessionUser";
+
+const INVITATION_DAYS = 7;
+const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
+
+export async function listPeople() {
+  return db
+    .select({ id: users.id, name: users.name, email: users.email, role: users.role, createdAt: users.createdAt })
+    .from(users)
+    .orderBy(asc(users.email));
+}
+
+export async function listOpenInvitations() {
+  return db
+    .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt, createdAt: invitations.createdAt })
+    .from(invitations)
+    .where(and(isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
+    .orderBy(asc(invitations.email));
+}
+
+/** Changes a person's role; refuses to leave the workspace without an admin. */
+export async function setRole(actor: SessionUser, userId: string, role: Role) {
+  await db.transaction(async (tx) => {
+    const [target] = await tx.select().from(users).where(eq(users.id, userId)).for("update");
+    if (!target) throw notFound("That person");
+    if (target.role === role) return;
+    if (target.role === "admin") {
+      const [{ n }] = await tx.select({ n: count() }).from(users).where(eq(users.role, "admin"));
+      if (n <= 1) throw conflict("This is the only admin; make someone else admin first.");
+    }
+    await tx.update(users).set({ role }).where(eq(users.id, userId));
+    await recordAudit(tx, actor, "user.role", "user", userId, { email: target.email, from: target.role, to: role });
+  });
+}
+
+/**
+ * Invites a person by e-mail: stores the invitation (secret hashed) and queues the e-mail with the
+ * link in one transaction. Returns the link too, so an admin can pass it on by hand.
+ */
+export async function invite(actor: SessionUser, email: string, role: Role, baseUrl: string) {
+  const secret = randomBytes(24).toString("base64url");
+  const link = new URL(`/invite/${secret}`, baseUrl).toString();
+  await db.transaction(async (tx) => {
+    const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, email));
+    if (existing) throw conflict(`${email} already has an account; change their role instead.`);
+    const expiresAt = new Date(Date.now() + INVITATION_DAYS * 86_400_000);
+    const [{ id }] = await tx
+      .insert(invitations)
+      .values({ email, role, tokenHash: sha256(secret), invitedBy: actor.id, expiresAt })
+      .$returningId();
+    await enqueueMail(tx, {
+      to: [email],
+      subject: `You are invited to Tapwright as ${role}`,
+      text:
+        `${actor.name} (${actor.email}) invited you to the Tapwright workspace as ${role}.\n\n` +
+        `Choose your name and password here (the link works for ${INVITATION_DAYS} days, once):\n${link}\n`,
+    });
+    await recordAudit(tx, actor, "user.invite", "invitation", id, { email, role });
+  });
+  void deliverQueuedMail().catch(() => {});
+  return { email, role, link };
+}
+
+/** The open invitation behind a link, or null when it is unknown, used or expired. */
+export async function findInvitation(secret: string) {
+  const [row] = await db
+    .select()
+    .from(invitations)
+    .where(and(eq(invitations.tokenHash, sha256(secret)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())));
+  return row ?? null;
+}
+
+/** Creates the person and their password in one transaction, and uses up the invitation. */
+export async function acceptInvitation(secret: string, name: string, password: string) {
+  const passwordHash = await hashPassword(password);
+  return db.transaction(async (tx) => {
+    const [inv] = await tx
+      .select()
+      .from(invitations)
+      .where(and(eq(invitations.tokenHash, sha256(secret)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
+      .for("update");
+    if (!inv) throw new ApiError(404, "This invitation link is unknown, already used or expired; ask an admin for a new one.");
+    const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, inv.email));
+    if (existing) throw conflict(`${inv.email} already has an account; sign in instead.`);
+    const id = crypto.randomUUID();
+    await tx.insert(users).values({ id, name, email: inv.email, role: inv.role, emailVerified: true });
+    await tx.insert(accounts).values({ id: crypto.randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
+    await tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, inv.id));
+    const person = { id, email: inv.email, name, role: inv.role };
+    await recordAudit(tx, person, "user.join", "user", id, { role: inv.role });
+    return person;
+  });
+}
+
+/** Creates a person with a password directly (the demo seed; never reachable from the web). */
+export async function ensurePerson(email: string, name: string, role: Role, password: string) {
+  const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, email));
+  if (existing) return existing.id;
+  const passwordHash = await hashPassword(password);
+  const id = crypto.randomUUID();
+  await db.transaction(async (tx) => {
+    await tx.insert(users).values({ id, name, email, role, emailVerified: true });
+    await tx.insert(accounts).values({ id: crypto.randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
+  });
+  return id;
+}

@@ -1,0 +1,24 @@
+// Request schemas for people, roles and invitations (shared by the API and the admin page).
+import { z } from "zod";
+import { roles } from "@/db/schema/auth";
+
+export const roleSchema = z.enum(roles, { message: `Role must be one of ${roles.join(", ")}.` });
+
+export const inviteRequest = z.object({
+  email: z.email({ message: "Give a valid e-mail address." }).max(254).transform((s) => s.toLowerCase()),
+  role: roleSchema,
+});
+
+export const setRoleRequest = z.object({ role: roleSchema });
+
+export const acceptInvitationRequest = z.object({
+  name: z.string().trim().min(1, "Give your name.").max(200),
+  password: z.string().min(10, "Use at least 10 characters.").max(128, "Use at most 128 characters."),
+});
+
+export const roleLabels: Record<(typeof roles)[number], string> = {
+  admin: "Admin",
+  designer: "Designer",
+  firmware: "Firmware",
+  reviewer: "Reviewer",
+};

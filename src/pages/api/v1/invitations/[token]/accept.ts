@@ -1,0 +1,12 @@
+// Public: accept an invitation, choosing a name and a password.
+import { z } from "zod";
+import { endpoint, readJson, readParams } from "@/server/http/handler";
+import { json } from "@/server/http/errors";
+import { acceptInvitation } from "@/features/people/people.server";
+import { acceptInvitationRequest } from "@/features/people/people";
+
+export const POST = endpoint(async (ctx) => {
+  const { token } = readParams(ctx.params, z.object({ token: z.string().min(10).max(100) }));
+  const { name, password } = await readJson(ctx.request, acceptInvitationRequest);
+  return json(await acceptInvitation(token, name, password), 201);
+});

@@ -1,0 +1,81 @@
+// Outgoing e-mail: written to mail_outbox inside the action's transaction, then delivered through
+// nodemailer to the configured SMTP server (the local fake in development and tests), with retries.
+import nodemailer from "nodemailer";
+import { and, asc, desc, eq, lt } from "drizzle-orm";
+import { db, type DbOrTx } from "@/server/db.server";
+import { devMailbox, mailOutbox } from "@/db/schema";
+
+const MAX_ATTEMPTS = 5;
+
+function transport() {
+  return nodemailer.createTransport({
+    host: process.env.SMTP_HOST ?? "127.0.0.1",
+    port: Number(process.env.SMTP_PORT ?? 2525),
+    secure: process.env.SMTP_SECURE === "1",
+    ignoreTLS: process.env.SMTP_HOST === undefined || process.env.SMTP_HOST === "127.0.0.1",
+    auth: process.env.SMTP_USER ? { user: process.env.SMTP_USER, pass: process.env.SMTP_PASSWORD ?? "" } : undefined,
+  });
+}
+
+export interface Mail {
+  to: string[];
+  subject: string;
+  text: string;
+}
+
+/** Queues a message as part of the caller's transaction; call `deliverQueuedMail()` after commit. */
+export async function enqueueMail(tx: DbOrTx, mail: Mail): Promise<void> {
+  await tx.insert(mailOutbox).values({ toAddress: mail.to.join(", "), subject: mail.subject, bodyText: mail.text });
+}
+
+let delivering: Promise<void> | null = null;
+
+/** Sends every queued message (one delivery loop at a time); failures stay queued for a retry. */
+export function deliverQueuedMail(): Promise<void> {
+  delivering ??= (async () => {
+    try {
+      const queued = await db
+        .select()
+        .from(mailOutbox)
+        .where(and(eq(mailOutbox.status, "queued"), lt(mailOutbox.attempts, MAX_ATTEMPTS)))
+        .orderBy(asc(mailOutbox.id))
+        .limit(50);
+      if (queued.length === 0) return;
+      const t = transport();
+      for (const m of queued) {
+        try {
+          await t.sendMail({
+            from: process.env.MAIL_FROM ?? "Tapwright <no-reply@tapwright.test>",
+            to: m.toAddress,
+            subject: m.subject,
+            text: m.bodyText,
+          });
+          await db.update(mailOutbox).set({ status: "sent", sentAt: new Date(), attempts: m.attempts + 1 }).where(eq(mailOutbox.id, m.id));
+        } catch (e) {
+          const attempts = m.attempts + 1;
+          await db
+            .update(mailOutbox)
+            .set({ attempts, lastError: String((e as Error).message).slice(0, 1000), status: attempts >= MAX_ATTEMPTS ? "failed" : "queued" })
+            .where(eq(mailOutbox.id, m.id));
+        }
+      }
+      t.close();
+    } finally {
+      delivering = null;
+    }
+  })();
+  return delivering;
+}
+
+let retryTimer: NodeJS.Timeout | undefined;
+/** Retries queued mail every 30 s in the background (started once per process). */
+export function startMailRetries(): void {
+  retryTimer ??= setInterval(() => void deliverQueuedMail().catch(() => {}), 30_000).unref();
+}
+
+/** Messages the fake SMTP server caught (development and tests), newest first. */
+export async function listDevMail(limit: number) {
+  return db.select().from(devMailbox).orderBy(desc(devMailbox.id)).limit(limit);
+}
+
+export const devMailEnabled = () => process.env.TAPWRIGHT_DEV_MAIL === "1" && process.env.NODE_ENV !== "production";
