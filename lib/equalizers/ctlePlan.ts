@@ -1,0 +1,69 @@
+// CTLE applied to one pulse many times: the pulse's spectrum is computed once, each setting costs one IFFT.
+import type { Pulse } from "../types.ts";
+import { assertPulse } from "../pulse/assertPulse.ts";
+import { peakIndex } from "../pulse/peakIndex.ts";
+import { FftPlan, nextPowerOfTwo } from "../signal/fftPlan.ts";
+import { checkCtleParams, ctleAt, type CtleParams } from "./ctleResponse.ts";
+
+/** Options of {@link createCtlePlan}. */
+export interface CtlePlanOptions {
+  /**
+   * UIs of room kept after the input pulse for the CTLE's tail (default 32). The output is
+   * `values.length + tail_UI·samplesPerUi` samples long; the FFT grid is at least twice that,
+   * so the slow tail of a low-frequency stage does not wrap around.
+   */
+  readonly tail_UI?: number;
+}
+
+/** A pulse prepared for filtering by many CTLE settings. */
+export interface CtlePlan {
+  /** Frequencies of the FFT grid in Hz, bins 0 … N/2. */
+  readonly freqs_Hz: Float64Array;
+  /**
+   * The pulse through the CTLE with these settings: a fresh pulse whose `mainIndex` is the
+   * peak of the filtered response.
+   */
+  apply(params: CtleParams): Pulse;
+}
+
+/**
+ * Prepares `pulse` for CTLE filtering: zero-pads it, transforms it once, and returns a plan whose
+ * `apply(params)` multiplies by `H(f)` (see {@link ctleResponse}) and transforms back. Filtering on
+ * the grid is a circular convolution; the padding keeps it equal to the linear one.
+ */
+export function createCtlePlan(pulse: Pulse, options: CtlePlanOptions = {}): CtlePlan {
+  assertPulse(pulse);
+  const tail_UI = options.tail_UI ?? 32;
+  if (!Number.isInteger(tail_UI) || tail_UI < 0 || tail_UI > 4096) {
+    throw new RangeError(`tail_UI must be an integer 0…4096, got ${String(tail_UI)}`);
+  }
+  const spu = pulse.samplesPerUi;
+  const outLength = pulse.values_V.length + tail_UI * spu;
+  const size = nextPowerOfTwo(2 * outLength);
+  const fft = new FftPlan(size);
+  const spectrum = fft.realForward(pulse.values_V);
+  const dt = pulse.ui_s / spu;
+  const half = size / 2 + 1;
+  const freqs_Hz = new Float64Array(half);
+  for (let k = 0; k < half; k++) freqs_Hz[k] = k / (size * dt);
+  const re = new Float64Array(half);
+  const im = new Float64Array(half);
+  const h = new Float64Array(2);
+  return {
+    freqs_Hz,
+    apply(params: CtleParams): Pulse {
+      checkCtleParams(params);
+      const g1 = 10 ** (params.gDc_dB / 20);
+      const g2 = 10 ** ((params.gDc2_dB ?? 0) / 20);
+      for (let k = 0; k < half; k++) {
+        ctleAt(params, g1, g2, freqs_Hz[k], h);
+        const xr = spectrum.re[k];
+        const xi = spectrum.im[k];
+        re[k] = xr * h[0] - xi * h[1];
+        im[k] = xr * h[1] + xi * h[0];
+      }
+      const values_V = fft.realInverse({ re, im }).slice(0, outLength);
+      return { ui_s: pulse.ui_s, samplesPerUi: spu, values_V, mainIndex: peakIndex(values_V) };
+    },
+  };
+}
