@@ -4,11 +4,16 @@ import node from "@astrojs/node";
 import react from "@astrojs/react";
 import tailwindcss from "@tailwindcss/vite";
 
+// Host names the server trusts in the Host header (Astro ignores it otherwise, and then its own
+// origin check cannot match same-origin requests). Add more with TAPWRIGHT_ALLOWED_HOSTS=a,b.
+const allowedHosts = ["127.0.0.1", "localhost", process.env.HOST, ...(process.env.TAPWRIGHT_ALLOWED_HOSTS ?? "").split(",")]
+  .filter((h) => h && h !== "0.0.0.0" && h !== "::");
+
 export default defineConfig({
   output: "server",
   adapter: node({ mode: "standalone" }),
   integrations: [react()],
-  security: { checkOrigin: true },
+  security: { checkOrigin: true, allowedDomains: [...new Set(allowedHosts)].map((hostname) => ({ hostname })) },
   server: { host: process.env.HOST ?? "127.0.0.1", port: Number(process.env.PORT ?? 4321) },
   vite: {
     plugins: [tailwindcss()],

@@ -2,7 +2,7 @@
 // `npm test`: the same set-up as `npm start` on a separate test database (and ports), then every
 // suite — unit, integration against MariaDB and the running server, browser tests in Chromium —
 // ending with the line `N passed, N failed[, N skipped]`. Extra arguments go to vitest as filters.
-import { spawnSync } from "node:child_process";
+import { spawn } from "node:child_process";
 import { mkdirSync, readFileSync, existsSync, rmSync } from "node:fs";
 import { join } from "node:path";
 import { ensureChromium, ensureNpmPackages, chromiumPath } from "./lib/deps.mjs";
@@ -53,7 +53,8 @@ try {
 
   mkdirSync(outDir, { recursive: true });
   rmSync(report, { force: true });
-  spawnSync(
+  // Asynchronous on purpose: the fake SMTP server lives in this process and must keep answering.
+  const vitest = spawn(
     join(root, "node_modules", ".bin", "vitest"),
     ["run", "--config", "tests/vitest.config.ts", "--reporter=default", "--reporter=json", `--outputFile.json=${report}`, ...process.argv.slice(2)],
     {
@@ -69,6 +70,7 @@ try {
       },
     },
   );
+  await new Promise((resolve) => vitest.once("exit", resolve));
   const s = summarize();
   code = s.failed > 0 || s.passed === 0 ? 1 : 0;
   await cleanup();

@@ -66,7 +66,7 @@ export async function invite(actor: SessionUser, email: string, role: Role, base
     });
     await recordAudit(tx, actor, "user.invite", "invitation", id, { email, role });
   });
-  void deliverQueuedMail().catch(() => {});
+  void deliverQueuedMail().catch((e) => console.error("[tapwright] mail delivery:", e));
   return { email, role, link };
 }
 

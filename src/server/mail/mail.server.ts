@@ -12,6 +12,9 @@ function transport() {
     host: process.env.SMTP_HOST ?? "127.0.0.1",
     port: Number(process.env.SMTP_PORT ?? 2525),
     secure: process.env.SMTP_SECURE === "1",
+    connectionTimeout: 10_000,
+    greetingTimeout: 10_000,
+    socketTimeout: 20_000,
     ignoreTLS: process.env.SMTP_HOST === undefined || process.env.SMTP_HOST === "127.0.0.1",
     auth: process.env.SMTP_USER ? { user: process.env.SMTP_USER, pass: process.env.SMTP_PASSWORD ?? "" } : undefined,
   });
@@ -70,7 +73,7 @@ export function deliverQueuedMail(): Promise<void> {
 let retryTimer: NodeJS.Timeout | undefined;
 /** Retries queued mail every 30 s in the background (started once per process). */
 export function startMailRetries(): void {
-  retryTimer ??= setInterval(() => void deliverQueuedMail().catch(() => {}), 30_000).unref();
+  retryTimer ??= setInterval(() => void deliverQueuedMail().catch((e) => console.error("[tapwright] mail delivery:", e)), 30_000).unref();
 }
 
 /** Messages the fake SMTP server caught (development and tests), newest first. */

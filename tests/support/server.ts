@@ -1,0 +1,44 @@
+// A second web server process for tests that restart it or give it other settings.
+import { spawn, type ChildProcess } from "node:child_process";
+import { join } from "node:path";
+
+const root = join(import.meta.dirname, "..", "..");
+
+export interface TestServer {
+  base: string;
+  stop(): Promise<void>;
+}
+
+export async function startServer(port: number, extraEnv: Record<string, string> = {}): Promise<TestServer> {
+  const base = `http://127.0.0.1:${port}`;
+  const child: ChildProcess = spawn(process.execPath, [join(root, "dist", "server", "entry.mjs")], {
+    cwd: root,
+    env: { ...process.env, PORT: String(port), HOST: "127.0.0.1", BETTER_AUTH_URL: base, ...extraEnv },
+    stdio: ["ignore", "ignore", "inherit"],
+  });
+  const until = Date.now() + 30_000;
+  for (;;) {
+    try {
+      if ((await fetch(`${base}/api/v1/health`)).ok) break;
+    } catch {
+      /* not up yet */
+    }
+    if (child.exitCode !== null) throw new Error(`test server exited with ${child.exitCode}`);
+    if (Date.now() > until) throw new Error(`test server on ${port} did not start`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    base,
+    stop: () =>
+      new Promise<void>((resolve) => {
+        if (child.exitCode !== null) return resolve();
+        child.once("exit", () => resolve());
+        child.kill("SIGTERM");
+      }),
+  };
+}
+
+/** A port near the test server's own, so parallel checkouts with other PORTs do not collide. */
+export function sparePort(offset: number): number {
+  return Number(process.env.PORT ?? 4399) + offset;
+}
