@@ -13,8 +13,9 @@ export function runStep(label, command, args, env) {
 }
 
 export function build(env) {
-  log("Building the app (astro build)…");
+  log("Building the app (astro build and the engine worker)…");
   runStep("astro build", bin("astro"), ["build", "--silent"], env);
+  runStep("Engine worker build", process.execPath, ["scripts/build-worker.mjs"], env);
 }
 
 export function seed(env) {

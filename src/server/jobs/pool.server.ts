@@ -1,0 +1,40 @@
+// The worker-thread pool (piscina) that runs the engine off the web server's event loop. The
+// worker is bundled to dist/engine-worker.mjs by scripts/build-worker.mjs.
+import { existsSync } from "node:fs";
+import { availableParallelism } from "node:os";
+import { dirname, join, resolve } from "node:path";
+import { MessageChannel } from "node:worker_threads";
+import { Piscina } from "piscina";
+import type { JobKind } from "@/db/schema";
+
+function workerFile(): string {
+  const candidates = [
+    process.env.TAPWRIGHT_WORKER,
+    process.argv[1] ? resolve(dirname(process.argv[1]), "..", "engine-worker.mjs") : undefined,
+    join(process.cwd(), "dist", "engine-worker.mjs"),
+  ].filter((p): p is string => Boolean(p));
+  const found = candidates.find((p) => existsSync(p));
+  if (!found) throw new Error("The engine worker is not built; run `npm run build`.");
+  return found;
+}
+
+let pool: Piscina | undefined;
+function thePool(): Piscina {
+  pool ??= new Piscina({
+    filename: workerFile(),
+    maxThreads: Math.max(1, Math.min(Number(process.env.TAPWRIGHT_WORKERS) || 2, availableParallelism())),
+    idleTimeout: 60_000,
+  });
+  return pool;
+}
+
+/** Runs one job in a worker; `onProgress` hears 0…1 as the engine reports it. */
+export async function runInPool(kind: JobKind, input: unknown, onProgress: (p: number) => void): Promise<unknown> {
+  const { port1, port2 } = new MessageChannel();
+  port1.on("message", (p: number) => onProgress(p));
+  try {
+    return await thePool().run({ kind, input, port: port2 }, { transferList: [port2] });
+  } finally {
+    port1.close();
+  }
+}
