@@ -1,0 +1,2 @@
+export * from "./jitterTransfer.ts";
+export * from "./samplingPhase.ts";
