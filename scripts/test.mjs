@@ -2,7 +2,7 @@
 // `npm test`: the same set-up as `npm start` on a separate test database (and ports), then every
 // suite — unit, integration against MariaDB and the running server, browser tests in Chromium —
 // ending with the line `N passed, N failed[, N skipped]`. Extra arguments go to vitest as filters.
-import { spawn } from "node:child_process";
+import { spawn, spawnSync } from "node:child_process";
 import { mkdirSync, readFileSync, existsSync, rmSync } from "node:fs";
 import { join } from "node:path";
 import { ensureChromium, ensureNpmPackages, chromiumPath } from "./lib/deps.mjs";
@@ -72,6 +72,17 @@ try {
   );
   await new Promise((resolve) => vitest.once("exit", resolve));
   const s = summarize();
+  // The type check counts as one more test: pages, islands, lib and tests must all type-check.
+  if (process.argv.length <= 2 && process.env.TAPWRIGHT_SKIP_TYPECHECK !== "1") {
+    log("Type-checking (astro check)…");
+    const check = spawnSync(join(root, "node_modules", ".bin", "astro"), ["check", "--minimumSeverity", "error"], {
+      cwd: root,
+      stdio: "inherit",
+      env: { ...process.env, ASTRO_TELEMETRY_DISABLED: "1" },
+    });
+    if (check.status === 0) s.passed += 1;
+    else s.failed += 1;
+  }
   code = s.failed > 0 || s.passed === 0 ? 1 : 0;
   await cleanup();
   console.log(`${s.passed} passed, ${s.failed} failed${s.skipped ? `, ${s.skipped} skipped` : ""}`);

@@ -5,8 +5,8 @@ import { api, formatWhen } from "@/components/api";
 type Role = "admin" | "designer" | "firmware" | "reviewer";
 const ROLES: Role[] = ["admin", "designer", "firmware", "reviewer"];
 
-interface Person { id: string; name: string; email: string; role: Role; createdAt: string }
-interface Invitation { id: number; email: string; role: Role; expiresAt: string }
+interface Person { id: string; name: string; email: string; role: Role; createdAt: string | Date }
+interface Invitation { id: number; email: string; role: Role; expiresAt: string | Date }
 
 export default function PeoplePanel(props: { people: Person[]; invitations: Invitation[]; selfId: string }) {
   const [people, setPeople] = useState(props.people);

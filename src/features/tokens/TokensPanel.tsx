@@ -7,9 +7,9 @@ interface Token {
   id: number;
   name: string;
   prefix: string;
-  createdAt: string;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
+  createdAt: string | Date;
+  lastUsedAt: string | Date | null;
+  revokedAt: string | Date | null;
   owner?: { id: string; email: string };
 }
 
