@@ -11,6 +11,8 @@ const allowedHosts = ["127.0.0.1", "localhost", process.env.HOST, ...(process.en
 
 export default defineConfig({
   output: "server",
+  // Another build folder lets two checkouts' test runs share one working tree (TAPWRIGHT_OUT_DIR).
+  outDir: process.env.TAPWRIGHT_OUT_DIR ?? "./dist",
   adapter: node({ mode: "standalone" }),
   integrations: [react()],
   security: { checkOrigin: true, allowedDomains: [...new Set(allowedHosts)].map((hostname) => ({ hostname })) },

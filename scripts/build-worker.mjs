@@ -1,13 +1,13 @@
 #!/usr/bin/env node
 // Bundles the engine worker (src/server/jobs/engine.worker.ts and the lib/ code it calls) into
-// dist/engine-worker.mjs for the worker-thread pool. Packages stay external (node_modules).
+// dist/engine-worker.mjs (in TAPWRIGHT_OUT_DIR when set) for the worker-thread pool. Packages stay external (node_modules).
 import { build } from "esbuild";
 import { join } from "node:path";
-import { root } from "./lib/config.mjs";
+import { distDir, root } from "./lib/config.mjs";
 
 await build({
   entryPoints: [join(root, "src", "server", "jobs", "engine.worker.ts")],
-  outfile: join(root, "dist", "engine-worker.mjs"),
+  outfile: join(distDir, "engine-worker.mjs"),
   bundle: true,
   platform: "node",
   format: "esm",

@@ -7,6 +7,8 @@ import { fileURLToPath } from "node:url";
 
 export const root = resolve(dirname(fileURLToPath(import.meta.url)), "..", "..");
 export const dataDir = resolve(process.env.TAPWRIGHT_DATA_DIR ?? join(root, ".data"));
+/** The build folder (`dist/` unless TAPWRIGHT_OUT_DIR names another). */
+export const distDir = resolve(root, process.env.TAPWRIGHT_OUT_DIR ?? "dist");
 
 /** The secret that signs sessions: from the environment, or one generated once per checkout. */
 function sessionSecret() {

@@ -2,7 +2,7 @@
 import { spawn, spawnSync } from "node:child_process";
 import { join } from "node:path";
 import { setTimeout as sleep } from "node:timers/promises";
-import { root } from "./config.mjs";
+import { distDir, root } from "./config.mjs";
 import { log } from "./log.mjs";
 
 const bin = (name) => join(root, "node_modules", ".bin", name);
@@ -24,7 +24,7 @@ export function seed(env) {
 
 /** Starts `node dist/server/entry.mjs`; resolves once /api/v1/health answers. */
 export async function serve(env, { quiet = false } = {}) {
-  const child = spawn(process.execPath, [join(root, "dist", "server", "entry.mjs")], {
+  const child = spawn(process.execPath, [join(distDir, "server", "entry.mjs")], {
     cwd: root,
     env: { ...process.env, ...env },
     stdio: quiet ? ["ignore", "ignore", "inherit"] : "inherit",
