@@ -9,7 +9,8 @@ import { afterAll, describe, expect, it } from "vitest";
 
 const root = join(import.meta.dirname, "..", "..");
 const dataDir = mkdtempSync(join(tmpdir(), "tapwright-db-"));
-const port = Number(process.env.DB_PORT ?? 3307) + 40;
+// A port derived from the web port, so parallel test runs (other PORTs) do not collide.
+const port = 20000 + (Number(process.env.PORT ?? 4399) % 1000);
 const env = { ...process.env, TAPWRIGHT_DATA_DIR: dataDir, DB_PORT: String(port), DB_NAME: "scripts_check", TAPWRIGHT_DB_FAST: "0" };
 const db = (command: string) => execFileSync(process.execPath, [join(root, "scripts", "db.mjs"), command], { env, encoding: "utf8" });
 const pid = () => Number(readFileSync(join(dataDir, "mariadb", "mariadbd.pid"), "utf8").trim());
