@@ -1,0 +1,177 @@
+// S21 → pulse: delay line, attenuator, first-order low-pass, area = S21(0)·UI, DC extrapolation, grids, taper.
+import { describe, expect, it } from "vitest";
+import { formatTouchstone, pulseFromS21, pulseFromTouchstone, pulseFromSamples, type NetworkData } from "../../../lib/channel/index.ts";
+import { pulseArea } from "../../../lib/pulse/index.ts";
+
+const UI = 1 / 25e9;
+const linspace = (a: number, b: number, n: number) => Float64Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));
+const sample = (f: Float64Array, h: (f: number) => [number, number]) => {
+  const re = new Float64Array(f.length);
+  const im = new Float64Array(f.length);
+  f.forEach((x, i) => ([re[i], im[i]] = h(x)));
+  return { re, im };
+};
+const delay = (tau: number, gain = 1) => (f: number): [number, number] => [gain * Math.cos(-2 * Math.PI * f * tau), gain * Math.sin(-2 * Math.PI * f * tau)];
+const lowPass = (tau: number) => (f: number): [number, number] => {
+  const w = 2 * Math.PI * f * tau; // 1/(1 + jw) = (1 − jw)/(1 + w²)
+  return [1 / (1 + w * w), -w / (1 + w * w)];
+};
+const timeOf = (r: { start_s: number; pulse: { samplesPerUi: number; ui_s: number } }, i: number) =>
+  r.start_s + (i * r.pulse.ui_s) / r.pulse.samplesPerUi;
+
+describe("pulseFromS21 — analytic cases [source: shared/references.md, 'From S21 to a pulse']", () => {
+  it("lossless delay exp(−j2πfτ): a one-UI rectangle starting at τ (phase sign: the delay is positive)", () => {
+    const f = linspace(0, 100e9, 10001);
+    const tau = 1.5e-9;
+    const r = pulseFromS21(f, sample(f, delay(tau)), { ui_s: UI, samplesPerUi: 32 });
+    const p = r.pulse.values_V;
+    const at = (t: number) => p[Math.round((t - r.start_s) / (UI / 32))];
+    expect(Math.abs(at(tau + UI / 2) - 1)).toBeLessThan(0.05);
+    expect(Math.abs(at(tau - UI))).toBeLessThan(0.02);
+    expect(Math.abs(at(tau + 2 * UI))).toBeLessThan(0.02);
+    expect(Math.abs(timeOf(r, r.pulse.mainIndex) - (tau + UI / 2))).toBeLessThan(UI / 2);
+    expect(pulseArea(r.pulse) / UI).toBeCloseTo(1, 2);
+  });
+
+  it("attenuator S21 = 0.3: a rectangle of height 0.3, area 0.3·UI within 1 %", () => {
+    const f = linspace(0, 200e9, 2001);
+    const r = pulseFromS21(f, sample(f, () => [0.3, 0]), { ui_s: UI, samplesPerUi: 16 });
+    expect(Math.abs(pulseArea(r.pulse) / (0.3 * UI) - 1)).toBeLessThan(0.01);
+    expect(Math.abs(r.pulse.values_V[r.pulse.mainIndex] - 0.3)).toBeLessThan(0.03);
+  });
+
+  // The data must reach far above 1/(2πτ): a band cut at fc rings the step by about 1/(π·2πfc·τ).
+  it("first-order low-pass 1/(1 + j2πfτ): the step reaches 63.2 % at τ (pulse = step while t < UI) [source]", () => {
+    const tau = 50e-12;
+    const ui = 1e-9; // UI ≫ τ, so the pulse equals the step response for t < UI
+    const f = linspace(0, 500e9, 50001);
+    const r = pulseFromS21(f, sample(f, lowPass(tau)), { ui_s: ui, samplesPerUi: 1024 });
+    const dt = ui / 1024;
+    const at = (t: number) => r.pulse.values_V[Math.round((t - r.start_s) / dt)];
+    expect(Math.abs(at(tau) - (1 - Math.exp(-1)))).toBeLessThan(0.01);
+    for (const k of [0.5, 2, 4]) expect(Math.abs(at(k * tau) - (1 - Math.exp(-k)))).toBeLessThan(0.01);
+    expect(Math.abs(pulseArea(r.pulse) / ui - 1)).toBeLessThan(0.01);
+  });
+
+  it("area = S21(0)·UI within 1 % for delays, attenuators and low-pass channels, with and without a DC point", () => {
+    const cases: [number, (f: number) => [number, number]][] = [
+      [0.8, delay(0.7e-9, 0.8)],
+      [1, lowPass(30e-12)],
+      [0.5, (x) => { const [a, b] = lowPass(20e-12)(x); const [c, d] = delay(1e-9, 0.5)(x); return [a * c - b * d, a * d + b * c]; }],
+    ];
+    for (const [dc, h] of cases) {
+      for (const f of [linspace(0, 50e9, 5001), linspace(10e6, 50e9, 5000)]) {
+        const r = pulseFromS21(f, sample(f, h), { ui_s: UI, samplesPerUi: 32 });
+        expect(Math.abs(pulseArea(r.pulse) / (dc * UI) - 1)).toBeLessThan(0.01);
+      }
+    }
+  });
+});
+
+describe("pulseFromS21 — pitfalls and identities", () => {
+  it("missing DC: extrapolation from 50 MHz gives nearly the same pulse as data with the DC point", () => {
+    const h = (x: number): [number, number] => { const [a, b] = lowPass(25e-12)(x); const [c, d] = delay(0.4e-9)(x); return [a * c - b * d, a * d + b * c]; };
+    const withDc = linspace(0, 40e9, 801);
+    const noDc = linspace(50e6, 40e9, 800);
+    const a = pulseFromS21(withDc, sample(withDc, h), { ui_s: UI, samplesPerUi: 16 });
+    const b = pulseFromS21(noDc, sample(noDc, h), { ui_s: UI, samplesPerUi: 16 });
+    const n = Math.min(a.pulse.values_V.length, b.pulse.values_V.length, 1000);
+    for (let i = 0; i < n; i++) expect(Math.abs(a.pulse.values_V[i] - b.pulse.values_V[i])).toBeLessThan(0.01);
+  });
+
+  it("an inverted channel (S21(0) = −0.9 from extrapolation) keeps its sign", () => {
+    const f = linspace(100e6, 40e9, 400);
+    const r = pulseFromS21(f, sample(f, delay(0.2e-9, -0.9)), { ui_s: UI, samplesPerUi: 16 });
+    expect(pulseArea(r.pulse) / UI).toBeCloseTo(-0.9, 2);
+    expect(r.pulse.values_V[r.pulse.mainIndex]).toBeLessThan(-0.8);
+  });
+
+  it("non-uniform grid: logarithmic frequency points give the same pulse as a uniform grid (tol 0.01)", () => {
+    const uniform = linspace(0, 60e9, 6001);
+    const log = Float64Array.from({ length: 600 }, (_, i) => 10e6 * (6000 ** (i / 599)));
+    const h = lowPass(20e-12);
+    const a = pulseFromS21(uniform, sample(uniform, h), { ui_s: UI, samplesPerUi: 16, minWindow_UI: 4096 });
+    const b = pulseFromS21(log, sample(log, h), { ui_s: UI, samplesPerUi: 16, minWindow_UI: 4096 });
+    const n = Math.min(a.pulse.values_V.length, b.pulse.values_V.length);
+    expect(n).toBeGreaterThan(200);
+    for (let i = 0; i < n; i++) expect(Math.abs(a.pulse.values_V[i] - b.pulse.values_V[i])).toBeLessThan(0.01);
+  });
+
+  it("frequency spacing sets the window: a 5 ns delay needs Δf < 200 MHz (10 MHz is the usual ceiling)", () => {
+    const f = linspace(0, 40e9, 401); // Δf = 100 MHz → window 10 ns
+    const r = pulseFromS21(f, sample(f, delay(5e-9)), { ui_s: UI, samplesPerUi: 8 });
+    expect(Math.abs(timeOf(r, r.pulse.mainIndex) - 5e-9)).toBeLessThan(UI);
+  });
+
+  it("taper: rolling off the top of the band lowers the truncation ringing of a delay line", () => {
+    const f = linspace(0, 30e9, 3001);
+    const s = sample(f, delay(1e-9));
+    const hard = pulseFromS21(f, s, { ui_s: UI, samplesPerUi: 32, taperFraction: 0 });
+    const soft = pulseFromS21(f, s, { ui_s: UI, samplesPerUi: 32, taperFraction: 0.3 });
+    // Largest ringing from 3 to 20 UI after the pulse.
+    const ringing = (r: typeof hard) => {
+      let m = 0;
+      for (let i = 0; i < r.pulse.values_V.length; i++) {
+        const t = r.start_s + (i * UI) / 32;
+        if (t > 1e-9 + 4 * UI && t < 1e-9 + 20 * UI) m = Math.max(m, Math.abs(r.pulse.values_V[i]));
+      }
+      return m;
+    };
+    expect(ringing(soft)).toBeLessThan(ringing(hard) / 3);
+  });
+
+  // Exact up to what the circular shift carries from the window's end into its negative-time guard.
+  it("identity: a delay Δ later in S21 moves the pulse Δ later, sample for sample (tol 1e-5)", () => {
+    const f = linspace(0, 50e9, 5001);
+    const dt = UI / 16;
+    const a = pulseFromS21(f, sample(f, delay(1e-9)), { ui_s: UI, samplesPerUi: 16 });
+    const b = pulseFromS21(f, sample(f, delay(1e-9 + 10 * dt)), { ui_s: UI, samplesPerUi: 16 });
+    const n = Math.min(a.pulse.values_V.length, b.pulse.values_V.length - 10);
+    expect(n).toBeGreaterThan(500);
+    for (let i = 0; i < n; i++) expect(Math.abs(b.pulse.values_V[i + 10] - a.pulse.values_V[i])).toBeLessThan(1e-5);
+  });
+
+  it("identity: the rise-time filter acts alike on a flat S21 and on a sampled rectangle", () => {
+    const f = linspace(0, 400e9, 4001);
+    const viaS21 = pulseFromS21(f, sample(f, delay(0)), { ui_s: UI, samplesPerUi: 16, riseTime_s: 15e-12, taperFraction: 0 });
+    const rect = Float64Array.from({ length: 16 * 8 }, (_, i) => (i >= 64 && i < 80 ? 1 : 0));
+    const viaSamples = pulseFromSamples({ response: "pulse", values: rect, dt_s: UI / 16 }, { ui_s: UI, samplesPerUi: 16, riseTime_s: 15e-12 });
+    const peakA = viaS21.pulse.values_V[viaS21.pulse.mainIndex];
+    const peakB = viaSamples.pulse.values_V[viaSamples.pulse.mainIndex];
+    expect(Math.abs(peakA - peakB)).toBeLessThan(0.03);
+  });
+
+  it("oracle: the Touchstone route (write a .s4p, read it, SDD21) equals S21 given directly", () => {
+    const f = linspace(10e6, 40e9, 400);
+    const thru = sample(f, (x) => { const [a, b] = lowPass(15e-12)(x); const [c, d] = delay(0.5e-9)(x); return [a * c - b * d, a * d + b * c]; });
+    const n = 4;
+    const s = new Float64Array(f.length * n * n * 2);
+    for (let k = 0; k < f.length; k++) {
+      for (const [o, i] of [[3, 1], [1, 3], [4, 2], [2, 4]]) {
+        const at = 2 * ((k * n + (o - 1)) * n + (i - 1));
+        s[at] = thru.re[k];
+        s[at + 1] = thru.im[k];
+      }
+    }
+    const net: NetworkData = { ports: 4, freqs_Hz: f, s, referenceOhms: new Float64Array(4).fill(50) };
+    const text = formatTouchstone(net, { version: 2, format: "RI" });
+    const a = pulseFromTouchstone(text, { ui_s: UI, samplesPerUi: 16 });
+    const b = pulseFromS21(f, thru, { ui_s: UI, samplesPerUi: 16 });
+    expect(a.pulse.values_V.length).toBe(b.pulse.values_V.length);
+    for (let i = 0; i < a.pulse.values_V.length; i++) expect(Math.abs(a.pulse.values_V[i] - b.pulse.values_V[i])).toBeLessThan(1e-12);
+    expect(a.insertionLoss.magnitude_dB[0]).toBeCloseTo(0, 3);
+  });
+
+  it("edges: too few points, non-ascending, non-finite, huge FFTs and bad options are refused by name", () => {
+    const f = Float64Array.of(0, 1e9);
+    const s = { re: Float64Array.of(1, 1), im: Float64Array.of(0, 0) };
+    const g = { ui_s: UI, samplesPerUi: 8 };
+    expect(() => pulseFromS21(Float64Array.of(1e9), { re: Float64Array.of(1), im: Float64Array.of(0) }, g)).toThrow(/at least 2/);
+    expect(() => pulseFromS21(Float64Array.of(1e9, 1e9), s, g)).toThrow(/ascend/);
+    expect(() => pulseFromS21(f, { re: Float64Array.of(1, Number.NaN), im: Float64Array.of(0, 0) }, g)).toThrow(/s21\[1\]/);
+    expect(() => pulseFromS21(f, { re: Float64Array.of(1), im: Float64Array.of(0) }, g)).toThrow(/2 values/);
+    expect(() => pulseFromS21(Float64Array.of(0, 1), s, { ui_s: UI, samplesPerUi: 1024 })).toThrow(/FFT of/);
+    expect(() => pulseFromS21(f, s, { ...g, taperFraction: 2 })).toThrow(/taperFraction/);
+    expect(() => pulseFromS21(f, s, { ...g, guard_UI: -1 })).toThrow(/guard_UI/);
+  });
+});
