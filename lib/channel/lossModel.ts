@@ -1,4 +1,5 @@
 // A synthetic lossy line: skin (√f) and dielectric (f) loss with causal phase, plus a delay.
+import { magnitudeDb } from "../signal/decibels.ts";
 import type { ComplexArray } from "../signal/fftPlan.ts";
 import { nextPowerOfTwo } from "../signal/fftPlan.ts";
 import { raisedCosineRolloff } from "../signal/windows.ts";
@@ -89,7 +90,6 @@ export function pulseFromLossModel(model: LossModel, grid: PulseGrid, options: S
   const { pulse, start_s } = pulseFromSpectrum(h, size, grid, options);
   const plotF = Float64Array.from({ length: 201 }, (_, i) => (i * 2 * nyquist) / 200);
   const plotH = lossModelS21(plotF, model, nyquist);
-  const magnitude_dB = new Float64Array(201);
-  for (let i = 0; i < 201; i++) magnitude_dB[i] = 10 * Math.log10(plotH.re[i] ** 2 + plotH.im[i] ** 2);
+  const magnitude_dB = magnitudeDb(plotH.re, plotH.im);
   return { pulse, start_s, insertionLoss: { freqs_Hz: plotF, magnitude_dB } };
 }

@@ -1,5 +1,6 @@
 // Pulse response of a channel measured in the frequency domain (S21 or SDD21 on any frequency grid).
 import type { MagnitudeCurve } from "../types.ts";
+import { magnitudeDb } from "../signal/decibels.ts";
 import { nextPowerOfTwo, type ComplexArray } from "../signal/fftPlan.ts";
 import { interpolateLinear } from "../signal/interpolateLinear.ts";
 import { raisedCosineRolloff } from "../signal/windows.ts";
@@ -16,7 +17,7 @@ export interface S21PulseOptions extends PulseGrid, SpectrumPulseOptions {
 
 /** A pulse from frequency-domain data, with the insertion loss for plotting. */
 export interface FrequencyPulse extends PulseWithTime {
-  /** `−20·log10|S21|` is the loss; this holds `20·log10|S21|` (≤ 0 dB for a passive channel) at the data's frequencies. */
+  /** `20·log10|S21|` in dB at the data's frequencies (≤ 0 for a passive channel; floored at −400 dB). */
   readonly insertionLoss: MagnitudeCurve;
 }
 
@@ -114,7 +115,6 @@ export function pulseFromS21(freqs_Hz: Float64Array, s21: ComplexArray, options:
     im[k] = w * gm[k] * Math.sin(gp[k]);
   }
   const { pulse, start_s } = pulseFromSpectrum({ re, im }, size, options, options);
-  const magnitude_dB = new Float64Array(count);
-  for (let i = 0; i < count; i++) magnitude_dB[i] = 20 * Math.log10(mag[i]);
+  const magnitude_dB = magnitudeDb(s21.re, s21.im);
   return { pulse, start_s, insertionLoss: { freqs_Hz: Float64Array.from(freqs_Hz), magnitude_dB } };
 }

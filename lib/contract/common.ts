@@ -5,8 +5,13 @@ import { pulseFromJson } from "../pulse/pulseJson.ts";
 /** Largest sample array accepted in a request (pulse values, cursors, frequency grids). */
 export const MAX_ARRAY_LENGTH = 1 << 22;
 
+/** An error message for a field: "required" when it is missing, `text` when it is wrong. */
+export function fieldError(text: string): (issue: { input?: unknown }) => string {
+  return (issue) => (issue.input === undefined ? "this field is required" : text);
+}
+
 /** A finite JSON number (zod 4 refuses NaN and ±Infinity). */
-export const finiteNumber = z.number({ error: "expected a finite number" });
+export const finiteNumber = z.number({ error: fieldError("expected a finite number") });
 
 /** A finite number > 0. */
 export const positiveNumber = finiteNumber.positive({ error: "expected a number > 0" });
@@ -15,20 +20,20 @@ export const positiveNumber = finiteNumber.positive({ error: "expected a number 
 export const nonNegativeNumber = finiteNumber.nonnegative({ error: "expected a number ≥ 0" });
 
 /** An integer ≥ 1 (safe range). */
-export const positiveInt = z.int({ error: "expected an integer" }).min(1, { error: "expected an integer ≥ 1" });
+export const positiveInt = z.int({ error: fieldError("expected an integer") }).min(1, { error: "expected an integer ≥ 1" });
 
 /** An integer ≥ 0 (safe range). */
-export const nonNegativeInt = z.int({ error: "expected an integer" }).min(0, { error: "expected an integer ≥ 0" });
+export const nonNegativeInt = z.int({ error: fieldError("expected an integer") }).min(0, { error: "expected an integer ≥ 0" });
 
 /** A non-empty array of finite numbers of bounded length. */
 export const numberArray = z
-  .array(finiteNumber, { error: "expected an array of numbers" })
+  .array(finiteNumber, { error: fieldError("expected an array of numbers") })
   .min(1, { error: "expected at least one value" })
   .max(MAX_ARRAY_LENGTH, { error: `expected at most ${MAX_ARRAY_LENGTH} values` });
 
 /** A frequency grid in Hz: finite values ≥ 0. */
 export const freqsSchema = z
-  .array(nonNegativeNumber, { error: "expected an array of frequencies in Hz" })
+  .array(nonNegativeNumber, { error: fieldError("expected an array of frequencies in Hz") })
   .min(1, { error: "expected at least one frequency" })
   .max(MAX_ARRAY_LENGTH, { error: `expected at most ${MAX_ARRAY_LENGTH} frequencies` });
 

@@ -1,4 +1,5 @@
 // The continuous-time linear equalizer of IEEE 802.3 Annex 93A, with the optional low-frequency stage.
+import { magnitudeDb } from "../signal/decibels.ts";
 import type { ComplexArray } from "../signal/fftPlan.ts";
 
 /** CTLE settings: DC gains in dB and pole/zero frequencies in Hz. */
@@ -93,7 +94,5 @@ export function ctleResponse(params: CtleParams, freqs_Hz: ArrayLike<number>): C
 /** `20·log10|H(f)|` of the CTLE in dB on the given frequencies (see {@link ctleResponse}). */
 export function ctleMagnitudeDb(params: CtleParams, freqs_Hz: ArrayLike<number>): Float64Array {
   const { re, im } = ctleResponse(params, freqs_Hz);
-  const out = new Float64Array(re.length);
-  for (let k = 0; k < re.length; k++) out[k] = 10 * Math.log10(re[k] * re[k] + im[k] * im[k]);
-  return out;
+  return magnitudeDb(re, im);
 }

@@ -1,4 +1,5 @@
 // Frequency response of a symbol-spaced FIR, referenced to its main tap.
+import { DB_FLOOR } from "../signal/decibels.ts";
 import { checkTaps } from "./checkTaps.ts";
 
 /** A complex frequency response with its magnitude and phase. */
@@ -16,7 +17,7 @@ export interface FrequencyResponse {
  * @param pre - number of pre-cursor taps.
  * @param ui_s - unit interval in seconds (> 0).
  * @param freqs_Hz - frequencies in Hz.
- * @returns real/imaginary parts, `20·log10|H|` in dB (−Infinity at an exact zero) and `arg H` in rad.
+ * @returns real/imaginary parts, `20·log10|H|` in dB (floored at −400 dB, an exact zero) and `arg H` in rad.
  */
 export function firResponse(
   taps: ArrayLike<number>,
@@ -43,7 +44,7 @@ export function firResponse(
     }
     re[k] = sr;
     im[k] = si;
-    magnitude_dB[k] = 10 * Math.log10(sr * sr + si * si);
+    magnitude_dB[k] = Math.max(DB_FLOOR, 10 * Math.log10(sr * sr + si * si));
     phase_rad[k] = Math.atan2(si, sr);
   }
   return { re, im, magnitude_dB, phase_rad };

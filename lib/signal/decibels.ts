@@ -1,5 +1,8 @@
 // Decibel conversions for amplitude (voltage) and power ratios.
 
+/** Floor of magnitudes in dB reported for plotting and JSON: an exact zero reads as −400 dB, not −Infinity. */
+export const DB_FLOOR = -400;
+
 /** Amplitude ratio for a gain in dB: `10^(gain_dB/20)`. */
 export function dbToLinear(gain_dB: number): number {
   if (!Number.isFinite(gain_dB)) throw new RangeError(`gain_dB must be finite, got ${String(gain_dB)}`);
@@ -24,10 +27,17 @@ export function powerRatioToDb(ratio: number): number {
   return 10 * Math.log10(ratio);
 }
 
-/** `20·log10|re + i·im|` element-wise: the magnitude in dB of a complex response. */
-export function magnitudeDb(re: Float64Array, im: Float64Array): Float64Array {
+/**
+ * `20·log10|re + i·im|` element-wise: the magnitude in dB of a complex response, floored at
+ * {@link DB_FLOOR}.
+ */
+export function magnitudeDb(re: ArrayLike<number>, im: ArrayLike<number>): Float64Array {
   if (re.length !== im.length) throw new RangeError("re and im must have equal length");
   const out = new Float64Array(re.length);
-  for (let i = 0; i < re.length; i++) out[i] = 10 * Math.log10(re[i] * re[i] + im[i] * im[i]);
+  for (let i = 0; i < re.length; i++) {
+    const p = re[i] * re[i] + im[i] * im[i];
+    if (Number.isNaN(p)) throw new RangeError(`re[${i}] or im[${i}] is NaN`);
+    out[i] = Math.max(DB_FLOOR, 10 * Math.log10(p));
+  }
   return out;
 }

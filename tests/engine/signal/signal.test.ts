@@ -2,6 +2,7 @@
 import { describe, expect, it } from "vitest";
 import {
   convolve,
+  DB_FLOOR,
   dbToLinear,
   dbToPowerRatio,
   hannWindow,
@@ -115,10 +116,12 @@ describe("windows and decibels", () => {
       expect(powerRatioToDb(dbToPowerRatio(g))).toBeCloseTo(g, 12);
     }
     expect(linearToDb(0)).toBe(Number.NEGATIVE_INFINITY);
-    expect(Array.from(magnitudeDb(Float64Array.of(3, 0), Float64Array.of(4, 0.1)))).toEqual([
+    expect(Array.from(magnitudeDb(Float64Array.of(3, 0, 0), Float64Array.of(4, 0.1, 0)))).toEqual([
       20 * Math.log10(5),
       -20,
+      DB_FLOOR,
     ]);
+    expect(() => magnitudeDb([Number.NaN], [0])).toThrow(/NaN/);
     expect(() => dbToLinear(Number.NaN)).toThrow(/gain_dB/);
     expect(() => powerRatioToDb(-1)).toThrow(/ratio/);
     expect(() => linearToDb(Number.NaN)).toThrow(/NaN/);

@@ -1,0 +1,9 @@
+// Entry of `npm run --silent engine -- <command>`: reads the request from stdin, prints one JSON response.
+import process from "node:process";
+import { runCommand } from "./runCommand.ts";
+
+const chunks: Uint8Array[] = [];
+for await (const chunk of process.stdin) chunks.push(chunk as Uint8Array);
+const result = runCommand(process.argv[2], Buffer.concat(chunks).toString("utf8"));
+process.stdout.write(`${result.text}\n`);
+process.exitCode = result.exitCode;
