@@ -1,0 +1,80 @@
+// A synthetic channel from the loss model: loss at Nyquist (skin √f and dielectric f terms with
+// causal phase) and an optional delay.
+import { useState } from "react";
+import { api } from "@/components/api";
+
+export default function SyntheticForm() {
+  const [f, setF] = useState({ name: "", bitRate_Gbps: "28", modulation: "nrz", loss_dB: "20", delay_ns: "", skin: "" });
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const set = (k: keyof typeof f) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement>) => setF({ ...f, [k]: e.target.value });
+
+  async function submit(e: React.FormEvent) {
+    e.preventDefault();
+    setError(null);
+    setBusy(true);
+    try {
+      const r = await api<{ id: number }>("/api/v1/channels", {
+        method: "POST",
+        json: {
+          name: f.name.trim() || `Synthetic ${f.loss_dB} dB at Nyquist`,
+          bitRate_bps: Number(f.bitRate_Gbps) * 1e9,
+          modulation: f.modulation,
+          lossModel: {
+            lossAtNyquist_dB: Number(f.loss_dB),
+            ...(f.delay_ns.trim() ? { delay_s: Number(f.delay_ns) * 1e-9 } : {}),
+            ...(f.skin.trim() ? { skinFraction: Number(f.skin) } : {}),
+          },
+        },
+      });
+      location.href = `/channels/${r.id}`;
+    } catch (err) {
+      setError((err as Error).message);
+      setBusy(false);
+    }
+  }
+
+  return (
+    <form className="flex flex-col gap-4" onSubmit={submit} aria-label="Synthetic channel">
+      <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+        <label className="field">
+          <span>Name</span>
+          <input className="input" value={f.name} onChange={set("name")} placeholder="Synthetic 20 dB at Nyquist" maxLength={200} />
+          <span className="help">Leave empty to name it after its loss.</span>
+        </label>
+        <label className="field">
+          <span>Bit rate (Gb/s)</span>
+          <input className="input num" inputMode="decimal" value={f.bitRate_Gbps} onChange={set("bitRate_Gbps")} required />
+          <span className="help">Nyquist is half the symbol rate.</span>
+        </label>
+        <label className="field">
+          <span>Modulation</span>
+          <select className="input" value={f.modulation} onChange={set("modulation")}>
+            <option value="nrz">NRZ</option>
+            <option value="pam4">PAM4</option>
+          </select>
+          <span className="help">PAM4 halves the symbol rate for the same bit rate.</span>
+        </label>
+        <label className="field">
+          <span>Loss at Nyquist (dB)</span>
+          <input className="input num" inputMode="decimal" value={f.loss_dB} onChange={set("loss_dB")} required />
+          <span className="help">0.5 … 60 dB. Roughly: under 10 dB short reach, 20–30 dB backplane, above 30 dB very long.</span>
+        </label>
+        <label className="field">
+          <span>Delay (ns, optional)</span>
+          <input className="input num" inputMode="decimal" value={f.delay_ns} onChange={set("delay_ns")} placeholder="0" />
+          <span className="help">Flight time; it shifts the pulse but changes no eye.</span>
+        </label>
+        <label className="field">
+          <span>Skin-loss share (0–1, optional)</span>
+          <input className="input num" inputMode="decimal" value={f.skin} onChange={set("skin")} placeholder="0.35" />
+          <span className="help">Share of the Nyquist loss from the √f conductor term; the rest is dielectric.</span>
+        </label>
+      </div>
+      {error && <p className="notice notice-bad" role="alert">{error}</p>}
+      <div>
+        <button className="btn btn-primary" type="submit" disabled={busy}>{busy ? "Deriving…" : "Create the synthetic channel"}</button>
+      </div>
+    </form>
+  );
+}

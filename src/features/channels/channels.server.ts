@@ -1,0 +1,359 @@
+// Channels in MariaDB: reading uploads (with the size limit), creating a channel and its original
+// file in one transaction, the list with sorting, filtering and paging, detail, the original bytes,
+// and deletion (tuning runs keep their own copy of the inputs).
+import { createHash } from "node:crypto";
+import { and, asc, count, desc, eq, like, type SQL } from "drizzle-orm";
+import { db, type Tx } from "@/server/db.server";
+import { channels, channelSources, programs, runs, users } from "@/db/schema";
+import { ApiError, badRequest, conflict, notFound, zodToApiError } from "@/server/http/errors";
+import { recordAudit } from "@/server/audit/audit.server";
+import type { SessionUser } from "@/server/auth/sessionUser";
+import {
+  MAX_UPLOAD_BYTES,
+  formatBytes,
+  syntheticRequest,
+  uploadFields,
+  type ChannelDetail,
+  type ChannelListItem,
+  type DerivedChannel,
+  type ListQuery,
+  type ModulationName,
+  type SyntheticRequest,
+  type UploadFields,
+} from "./channels";
+import { deriveFromFile, deriveSynthetic } from "./derive";
+
+/** Room for the multipart envelope around the file. */
+const MULTIPART_OVERHEAD = 256 * 1024;
+const tooLarge = () =>
+  new ApiError(413, `The file is larger than the ${formatBytes(MAX_UPLOAD_BYTES)} limit; trim the frequency range or the record length and upload again.`, "file");
+
+/**
+ * Reads a request body up to `limit` bytes. Beyond it the rest is read and dropped (so the client
+ * gets the answer instead of a reset connection) and a 413 is thrown.
+ */
+async function readBodyLimited(request: Request, limit: number): Promise<Uint8Array<ArrayBuffer>> {
+  const declared = Number(request.headers.get("content-length") ?? NaN);
+  const reader = request.body?.getReader();
+  if (!reader) return new Uint8Array();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  let over = Number.isFinite(declared) && declared > limit;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.length;
+    if (total > limit) over = true;
+    if (!over) chunks.push(value);
+  }
+  if (over) throw tooLarge();
+  const out = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.length;
+  }
+  return out;
+}
+
+export interface UploadedFile {
+  filename: string;
+  contentType: string;
+  bytes: Uint8Array;
+}
+
+/** A parsed channel request: a file upload (multipart) or a synthetic channel (JSON). */
+export type ChannelRequest =
+  | { source: "file"; fields: UploadFields; file: UploadedFile }
+  | { source: "synthetic"; body: SyntheticRequest };
+
+/**
+ * Reads POST /api/v1/channels (and the preview): multipart with `file` and the fields of
+ * {@link uploadFields}, or JSON for a synthetic channel. 413 above the size limit, 415 for another
+ * content type, 400 for missing or invalid fields.
+ */
+export async function readChannelRequest(request: Request, { fileOnly = false } = {}): Promise<ChannelRequest> {
+  const type = request.headers.get("content-type") ?? "";
+  if (!fileOnly && type.startsWith("application/json")) {
+    const body = await readBodyLimited(request, 1024 * 1024);
+    let raw: unknown;
+    try {
+      raw = JSON.parse(new TextDecoder().decode(body));
+    } catch {
+      throw badRequest("The request body must be JSON: { name, bitRate_bps, lossModel: { lossAtNyquist_dB } }.");
+    }
+    const parsed = syntheticRequest.safeParse(raw);
+    if (!parsed.success) throw zodToApiError(parsed.error);
+    return { source: "synthetic", body: parsed.data };
+  }
+  if (!type.startsWith("multipart/form-data")) {
+    throw new ApiError(
+      415,
+      fileOnly
+        ? "Send the file as multipart/form-data (fields file, name, bitRate_bps…)."
+        : "Send a file as multipart/form-data (fields file, name, bitRate_bps…) or a synthetic channel as JSON.",
+    );
+  }
+  const body = await readBodyLimited(request, MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD);
+  let form: FormData;
+  try {
+    form = await new Response(body as Uint8Array<ArrayBuffer>, { headers: { "content-type": type } }).formData();
+  } catch {
+    throw badRequest("The multipart body cannot be read; send it as a browser or curl -F would.");
+  }
+  const file = form.get("file");
+  if (!(file instanceof File)) throw badRequest("Attach the file in the field 'file'.", "file");
+  if (file.size > MAX_UPLOAD_BYTES) throw tooLarge();
+  const text: Record<string, string> = {};
+  for (const [k, v] of form.entries()) if (typeof v === "string" && v !== "") text[k] = v;
+  if (fileOnly && !text.name) text.name = file.name;
+  const parsed = uploadFields.safeParse(text);
+  if (!parsed.success) throw zodToApiError(parsed.error);
+  return {
+    source: "file",
+    fields: parsed.data,
+    file: { filename: file.name || "upload", contentType: file.type || "application/octet-stream", bytes: new Uint8Array(await file.arrayBuffer()) },
+  };
+}
+
+/** Runs the engine on a request: the derived pulse, insertion loss and their provenance. */
+export function deriveChannel(req: ChannelRequest): DerivedChannel {
+  if (req.source === "synthetic") return deriveSynthetic(req.body.bitRate_bps, req.body.modulation, req.body.lossModel);
+  const f = req.fields;
+  return deriveFromFile({
+    filename: req.file.filename,
+    bytes: req.file.bytes,
+    bitRate_bps: f.bitRate_bps,
+    modulation: f.modulation,
+    kind: f.kind,
+    pairs: f.pairs,
+    riseTime_s: f.riseTime_s,
+  });
+}
+
+const DEFAULT_PROGRAM = "General";
+
+/** The program a channel goes to: the named one (created when new), or the oldest program. */
+async function programFor(tx: Tx, name: string | undefined): Promise<number> {
+  if (name) {
+    const [found] = await tx.select({ id: programs.id }).from(programs).where(eq(programs.name, name));
+    if (found) return found.id;
+    const [{ id }] = await tx.insert(programs).values({ name }).$returningId();
+    return id;
+  }
+  const [first] = await tx.select({ id: programs.id }).from(programs).orderBy(asc(programs.id)).limit(1);
+  if (first) return first.id;
+  const [{ id }] = await tx.insert(programs).values({ name: DEFAULT_PROGRAM }).$returningId();
+  return id;
+}
+
+export const sha256Hex = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
+
+/**
+ * Stores a derived channel and, for uploads, the original file byte for byte, in one transaction
+ * with its audit event. Returns the new channel's list item.
+ */
+export async function saveChannel(
+  user: SessionUser | null,
+  input: { name: string; bitRate_bps: number; modulation: ModulationName; program?: string; file?: UploadedFile },
+  derived: DerivedChannel,
+): Promise<ChannelListItem & { sha256?: string }> {
+  const { id, sha256 } = await db.transaction(async (tx) => {
+    const programId = await programFor(tx, input.program);
+    const [{ id }] = await tx
+      .insert(channels)
+      .values({
+        programId,
+        name: input.name,
+        kind: derived.kind,
+        bitRate_bps: input.bitRate_bps,
+        pulse: derived.pulse,
+        insertionLoss: derived.insertionLoss,
+        lossAtNyquist_dB: derived.lossAtNyquist_dB,
+        mainCursor_V: derived.mainCursor_V,
+        derivation: derived.derivation,
+        createdBy: user?.id ?? null,
+      })
+      .$returningId();
+    let sha256: string | undefined;
+    if (input.file) {
+      sha256 = sha256Hex(input.file.bytes);
+      await tx.insert(channelSources).values({
+        channelId: id,
+        filename: input.file.filename.slice(0, 255),
+        contentType: input.file.contentType.slice(0, 100),
+        size_bytes: input.file.bytes.length,
+        sha256,
+        bytes: Buffer.from(input.file.bytes.buffer, input.file.bytes.byteOffset, input.file.bytes.byteLength),
+      });
+    }
+    await recordAudit(tx, user, input.file ? "channel.upload" : "channel.synthesize", "channel", id, {
+      name: input.name,
+      kind: derived.kind,
+      ...(input.file ? { filename: input.file.filename, bytes: input.file.bytes.length, sha256 } : {}),
+    });
+    return { id, sha256 };
+  });
+  const [item] = await listRows(eq(channels.id, id), [asc(channels.id)], 1, 0);
+  return sha256 ? { ...item, sha256 } : item;
+}
+
+/** POST /api/v1/channels: derive, then store. */
+export async function createChannel(user: SessionUser, req: ChannelRequest) {
+  const derived = deriveChannel(req);
+  if (req.source === "synthetic") return saveChannel(user, req.body, derived);
+  return saveChannel(user, { ...req.fields, file: req.file }, derived);
+}
+
+/** POST /api/v1/channels/preview: what the engine derives, without storing anything. */
+export function previewChannel(req: ChannelRequest) {
+  return deriveChannel(req);
+}
+
+const listColumns = {
+  id: channels.id,
+  name: channels.name,
+  kind: channels.kind,
+  program: programs.name,
+  programId: channels.programId,
+  bitRate_bps: channels.bitRate_bps,
+  derivation: channels.derivation,
+  lossAtNyquist_dB: channels.lossAtNyquist_dB,
+  mainCursor_V: channels.mainCursor_V,
+  createdBy: users.name,
+  createdAt: channels.createdAt,
+};
+
+type ListRow = { [K in keyof typeof listColumns]: unknown } & Record<string, unknown>;
+
+function toItem(r: ListRow): ChannelListItem {
+  const derivation = (r.derivation ?? {}) as { modulation?: ModulationName };
+  return {
+    id: r.id as number,
+    name: r.name as string,
+    kind: r.kind as ChannelListItem["kind"],
+    program: r.program as string,
+    bitRate_bps: r.bitRate_bps as number,
+    modulation: derivation.modulation ?? "nrz",
+    lossAtNyquist_dB: r.lossAtNyquist_dB as number | null,
+    mainCursor_V: r.mainCursor_V as number,
+    createdBy: (r.createdBy as string | null) ?? null,
+    createdAt: r.createdAt as Date,
+  };
+}
+
+async function listRows(where: SQL | undefined, order: SQL[], limit: number, offset: number): Promise<ChannelListItem[]> {
+  const rows = await db
+    .select(listColumns)
+    .from(channels)
+    .innerJoin(programs, eq(programs.id, channels.programId))
+    .leftJoin(users, eq(users.id, channels.createdBy))
+    .where(where)
+    .orderBy(...order)
+    .limit(limit)
+    .offset(offset);
+  return rows.map(toItem);
+}
+
+const sortColumns = {
+  name: channels.name,
+  kind: channels.kind,
+  bitRate: channels.bitRate_bps,
+  loss: channels.lossAtNyquist_dB,
+  mainCursor: channels.mainCursor_V,
+  createdBy: users.name,
+  createdAt: channels.createdAt,
+} as const;
+
+/** The channel list: filtered by name, kind and program, sorted, paged by an offset cursor. */
+export async function listChannels(q: ListQuery) {
+  const where: SQL[] = [];
+  if (q.q) where.push(like(channels.name, `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`));
+  if (q.kind) where.push(eq(channels.kind, q.kind));
+  if (q.program) where.push(eq(channels.programId, q.program));
+  const dir = q.dir === "asc" ? asc : desc;
+  const offset = q.cursor ?? 0;
+  const rows = await listRows(where.length ? and(...where) : undefined, [dir(sortColumns[q.sort]), dir(channels.id)], q.limit + 1, offset);
+  const items = rows.slice(0, q.limit);
+  return { items, nextCursor: rows.length > q.limit ? String(offset + q.limit) : null };
+}
+
+export async function listPrograms() {
+  return db.select({ id: programs.id, name: programs.name }).from(programs).orderBy(asc(programs.name));
+}
+
+/** Channel names and rates for pickers (the run form). */
+export async function channelChoices() {
+  const rows = await db
+    .select({ id: channels.id, name: channels.name, bitRate_bps: channels.bitRate_bps, derivation: channels.derivation, lossAtNyquist_dB: channels.lossAtNyquist_dB })
+    .from(channels)
+    .orderBy(asc(channels.name));
+  return rows.map((r) => ({
+    id: r.id,
+    name: r.name,
+    bitRate_bps: r.bitRate_bps,
+    modulation: ((r.derivation ?? {}) as { modulation?: ModulationName }).modulation ?? "nrz",
+    lossAtNyquist_dB: r.lossAtNyquist_dB,
+  }));
+}
+
+/** GET /api/v1/channels/:id. */
+export async function getChannel(id: number): Promise<ChannelDetail> {
+  const [row] = await db
+    .select({ ...listColumns, pulse: channels.pulse, insertionLoss: channels.insertionLoss })
+    .from(channels)
+    .innerJoin(programs, eq(programs.id, channels.programId))
+    .leftJoin(users, eq(users.id, channels.createdBy))
+    .where(eq(channels.id, id));
+  if (!row) throw notFound(`Channel ${id}`);
+  const [source] = await db
+    .select({ filename: channelSources.filename, contentType: channelSources.contentType, bytes: channelSources.size_bytes, sha256: channelSources.sha256 })
+    .from(channelSources)
+    .where(eq(channelSources.channelId, id));
+  const [{ n }] = await db.select({ n: count() }).from(runs).where(eq(runs.channelId, id));
+  return {
+    ...toItem(row),
+    programId: row.programId,
+    pulse: row.pulse,
+    insertionLoss: row.insertionLoss ?? null,
+    derivation: row.derivation,
+    source: source ?? null,
+    runCount: n,
+  };
+}
+
+/** GET /api/v1/channels/:id/original: the uploaded file, byte for byte. */
+export async function originalFile(id: number): Promise<Response> {
+  const [src] = await db.select().from(channelSources).where(eq(channelSources.channelId, id));
+  if (!src) throw notFound(`An uploaded file for channel ${id}`);
+  const safeName = src.filename.replace(/["\\\r\n]/g, "_");
+  return new Response(new Uint8Array(src.bytes), {
+    headers: {
+      "content-type": src.contentType || "application/octet-stream",
+      "content-length": String(src.size_bytes),
+      "content-disposition": `attachment; filename="${safeName}"; filename*=UTF-8''${encodeURIComponent(src.filename)}`,
+      "x-content-sha256": src.sha256,
+      "cache-control": "private, max-age=0",
+    },
+  });
+}
+
+/**
+ * Deletes a channel and its original file. When tuning runs used it, `confirm` must be set: the
+ * runs keep their copy of the pulse and lose only the link.
+ */
+export async function deleteChannel(user: SessionUser, id: number, confirm: boolean) {
+  return db.transaction(async (tx) => {
+    const [row] = await tx.select({ id: channels.id, name: channels.name }).from(channels).where(eq(channels.id, id)).for("update");
+    if (!row) throw notFound(`Channel ${id}`);
+    const [{ n }] = await tx.select({ n: count() }).from(runs).where(eq(runs.channelId, id));
+    if (n > 0 && !confirm) {
+      throw conflict(
+        `${row.name} is used by ${n} tuning run${n === 1 ? "" : "s"}. They keep their own copy of its pulse; delete again with ?confirm=true to go ahead.`,
+      );
+    }
+    await tx.delete(channels).where(eq(channels.id, id));
+    await recordAudit(tx, user, "channel.delete", "channel", id, { name: row.name, runs: n });
+    return { id, deleted: true, runsKept: n };
+  });
+}

@@ -1,0 +1,159 @@
+// Tuning runs in MariaDB: starting one (a copy of its inputs and a queued job in one transaction),
+// running it again, reading one, listing them. The job queue runs them in the worker pool.
+import { and, desc, eq, sql, type SQL } from "drizzle-orm";
+import { db, type Tx } from "@/server/db.server";
+import { budgets, channels, jobs, runs, users, type RunInputs } from "@/db/schema";
+import { enqueueJob, pumpJobs } from "@/server/jobs/queue.server";
+import { notFound, unprocessable } from "@/server/http/errors";
+import { recordAudit } from "@/server/audit/audit.server";
+import type { SessionUser } from "@/server/auth/sessionUser";
+import { listQuery, type RunListItem, type RunListQuery, type RunSummary, type RunView, type StartRunRequest } from "./runs";
+
+/** Adds the run and its queued job; the job's target is the run (so the job comes first, then points back). */
+async function insertRun(tx: Tx, user: SessionUser | null, inputs: RunInputs, links: { channelId: number | null; budgetId: number | null; rerunOf?: number }) {
+  const jobId = await enqueueJob(tx, "run", 0);
+  const [{ id }] = await tx
+    .insert(runs)
+    .values({ jobId, channelId: links.channelId, budgetId: links.budgetId, inputs, rerunOf: links.rerunOf ?? null, createdBy: user?.id ?? null })
+    .$returningId();
+  await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
+  return id;
+}
+
+/** Copies the channel's pulse and the budget into a new run and queues it. Answers 202's body. */
+export async function startRun(user: SessionUser | null, req: StartRunRequest) {
+  const id = await db.transaction(async (tx) => {
+    const [channel] = await tx
+      .select({ id: channels.id, name: channels.name, bitRate_bps: channels.bitRate_bps, pulse: channels.pulse })
+      .from(channels)
+      .where(eq(channels.id, req.channelId));
+    if (!channel) throw unprocessable(`There is no channel ${req.channelId}.`, "channelId");
+    const [budget] = await tx.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).where(eq(budgets.id, req.budgetId));
+    if (!budget) throw unprocessable(`There is no budget ${req.budgetId}.`, "budgetId");
+    const id = await insertRun(tx, user, { channel, budget }, { channelId: channel.id, budgetId: budget.id });
+    await recordAudit(tx, user, "run.start", "run", id, { channel: channel.name, budget: budget.name });
+    return id;
+  });
+  void pumpJobs();
+  return { id, status: "queued" as const };
+}
+
+/** Runs a finished (or failed) run again from its own copy of the inputs. */
+export async function rerun(user: SessionUser, runId: number) {
+  const id = await db.transaction(async (tx) => {
+    const [old] = await tx.select().from(runs).where(eq(runs.id, runId));
+    if (!old) throw notFound(`Run ${runId}`);
+    const id = await insertRun(tx, user, old.inputs, { channelId: old.channelId, budgetId: old.budgetId, rerunOf: old.id });
+    await recordAudit(tx, user, "run.rerun", "run", id, { of: old.id });
+    return id;
+  });
+  void pumpJobs();
+  return { id, status: "queued" as const };
+}
+
+const listColumns = {
+  id: runs.id,
+  jobId: runs.jobId,
+  status: jobs.status,
+  progress: jobs.progress,
+  error: jobs.error,
+  channelId: runs.channelId,
+  budgetId: runs.budgetId,
+  // Names from the run's own copy of its inputs (read in SQL, so lists never load the pulse).
+  channelName: sql<string>`JSON_VALUE(${runs.inputs}, '$.channel.name')`,
+  budgetName: sql<string>`JSON_VALUE(${runs.inputs}, '$.budget.name')`,
+  summary: runs.summary,
+  createdBy: users.name,
+  createdAt: runs.createdAt,
+  finishedAt: jobs.finishedAt,
+};
+
+interface Row {
+  id: number;
+  status: RunListItem["status"];
+  progress: number;
+  error: string | null;
+  channelId: number | null;
+  budgetId: number | null;
+  channelName: string;
+  budgetName: string;
+  summary: RunSummary | null;
+  createdBy: string | null;
+  createdAt: Date;
+  finishedAt: Date | null;
+}
+
+function toItem(r: Row): RunListItem {
+  return {
+    id: r.id,
+    status: r.status,
+    progress: r.progress,
+    channel: { id: r.channelId, name: r.channelName },
+    budget: { id: r.budgetId, name: r.budgetName },
+    summary: r.summary ?? null,
+    error: r.error ?? null,
+    createdBy: r.createdBy ?? null,
+    createdAt: r.createdAt,
+    finishedAt: r.finishedAt ?? null,
+  };
+}
+
+/** Newest first, optionally for one channel or budget. */
+export async function listRuns(query: RunListQuery) {
+  const q = listQuery.parse(query);
+  const where: SQL[] = [];
+  if (q.channelId) where.push(eq(runs.channelId, q.channelId));
+  if (q.budgetId) where.push(eq(runs.budgetId, q.budgetId));
+  const offset = q.cursor ?? 0;
+  const rows = await db
+    .select(listColumns)
+    .from(runs)
+    .innerJoin(jobs, eq(jobs.id, runs.jobId))
+    .leftJoin(users, eq(users.id, runs.createdBy))
+    .where(where.length ? and(...where) : undefined)
+    .orderBy(desc(runs.id))
+    .limit(q.limit + 1)
+    .offset(offset);
+  const items = rows.slice(0, q.limit).map(toItem);
+  return { items, nextCursor: rows.length > q.limit ? String(offset + q.limit) : null };
+}
+
+/** GET /api/v1/runs/:id: status, progress, inputs, and the result when done. */
+export async function getRun(id: number): Promise<RunView> {
+  const [r] = await db
+    .select({
+      ...listColumns,
+      inputs: runs.inputs,
+      result: runs.result,
+      engineVersion: runs.engineVersion,
+      rerunOf: runs.rerunOf,
+      queuedAt: jobs.createdAt,
+      startedAt: jobs.startedAt,
+      compute_ms: jobs.compute_ms,
+    })
+    .from(runs)
+    .innerJoin(jobs, eq(jobs.id, runs.jobId))
+    .leftJoin(users, eq(users.id, runs.createdBy))
+    .where(eq(runs.id, id));
+  if (!r) throw notFound(`Run ${id}`);
+  return {
+    ...toItem(r),
+    jobId: r.jobId,
+    inputs: r.inputs,
+    result: r.result ?? null,
+    engineVersion: r.engineVersion ?? null,
+    rerunOf: r.rerunOf ?? null,
+    timings: { queuedAt: r.queuedAt, startedAt: r.startedAt, finishedAt: r.finishedAt, compute_ms: r.compute_ms },
+  };
+}
+
+/** Status and progress only (for polling). */
+export async function runStatus(id: number) {
+  const [r] = await db
+    .select({ id: runs.id, status: jobs.status, progress: jobs.progress, error: jobs.error, startedAt: jobs.startedAt, finishedAt: jobs.finishedAt })
+    .from(runs)
+    .innerJoin(jobs, eq(jobs.id, runs.jobId))
+    .where(eq(runs.id, id));
+  if (!r) throw notFound(`Run ${id}`);
+  return { id: r.id, status: r.status, progress: r.progress, ...(r.error ? { error: { message: r.error } } : {}), startedAt: r.startedAt, finishedAt: r.finishedAt };
+}
