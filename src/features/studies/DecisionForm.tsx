@@ -1,0 +1,57 @@
+// Record (or revise) the architecture a study chose and why; the page reloads to show the record.
+import { useState } from "react";
+import { api } from "@/components/api";
+
+interface Props {
+  studyId: number;
+  candidates: { key: string; label: string }[];
+  current: { candidateKey: string; rationale: string } | null;
+}
+
+export default function DecisionForm(props: Props) {
+  const [candidateKey, setKey] = useState(props.current?.candidateKey ?? props.candidates[0]?.key ?? "");
+  const [rationale, setRationale] = useState(props.current?.rationale ?? "");
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+
+  async function submit(e: React.SubmitEvent<HTMLFormElement>) {
+    e.preventDefault();
+    setBusy(true);
+    setError(null);
+    try {
+      await api(`/api/v1/studies/${props.studyId}/decision`, { method: "PUT", json: { candidateKey, rationale } });
+      location.reload();
+    } catch (err) {
+      setError((err as Error).message);
+      setBusy(false);
+    }
+  }
+
+  return (
+    <form onSubmit={submit} aria-label="Record the decision" className="flex flex-col gap-3">
+      <label className="field">
+        <span>Chosen architecture</span>
+        <select className="input max-w-md" value={candidateKey} onChange={(e) => setKey(e.target.value)}>
+          {props.candidates.map((c) => (
+            <option key={c.key} value={c.key}>{c.label}</option>
+          ))}
+        </select>
+      </label>
+      <label className="field">
+        <span>Rationale</span>
+        <textarea
+          className="input min-h-24"
+          value={rationale}
+          onChange={(e) => setRationale(e.target.value)}
+          maxLength={4000}
+          placeholder="Why this architecture: the headroom it leaves on the worst channel, what more taps would buy, power and area…"
+        />
+        <span className="help">Reviewers read this beside every tap table built on the study.</span>
+      </label>
+      {error && <p className="notice notice-bad" role="alert">{error}</p>}
+      <div>
+        <button className="btn btn-primary" type="submit" disabled={busy}>{busy ? "Saving…" : props.current ? "Revise the decision" : "Record the decision"}</button>
+      </div>
+    </form>
+  );
+}

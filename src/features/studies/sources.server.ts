@@ -1,0 +1,73 @@
+// Copies of the budget and the channels a study or a tap table version is computed from, read
+// inside the caller's transaction so that the copy and the work it starts agree.
+import { inArray, eq } from "drizzle-orm";
+import { budgetSchema, type Budget } from "@lib/contract/budget";
+import { budgets, channels, type StoredPulse } from "@/db/schema";
+import type { DbOrTx } from "@/server/db.server";
+import { notFound, unprocessable } from "@/server/http/errors";
+
+export interface BudgetCopy {
+  id: number;
+  name: string;
+  params: Record<string, unknown>;
+  /** The params with every default filled in. */
+  budget: Budget;
+}
+
+export interface ChannelCopy {
+  id: number;
+  name: string;
+  lossAtNyquist_dB: number | null;
+  pulse: StoredPulse;
+}
+
+/** A budget with its validated params; 404 when missing, 422 when its params no longer validate. */
+export async function budgetCopy(tx: DbOrTx, id: number): Promise<BudgetCopy> {
+  const [row] = await tx.select().from(budgets).where(eq(budgets.id, id));
+  if (!row) throw notFound(`Budget ${id}`);
+  return { id: row.id, name: row.name, params: row.params, budget: parseBudget(row.params, row.name) };
+}
+
+/** A stored budget's params with defaults filled in; 422 naming the field when they do not validate. */
+export function parseBudget(params: Record<string, unknown>, name: string): Budget {
+  const parsed = budgetSchema.safeParse(params);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    throw unprocessable(`The budget “${name}” is not usable: ${issue.path.join(".")}: ${issue.message}. Fix it on the Budgets page.`, "budgetId");
+  }
+  return parsed.data;
+}
+
+/** The channels among these ids that exist (deleted ones are left out). */
+export async function findChannels(tx: DbOrTx, ids: readonly number[]): Promise<ChannelCopy[]> {
+  if (ids.length === 0) return [];
+  return tx
+    .select({ id: channels.id, name: channels.name, lossAtNyquist_dB: channels.lossAtNyquist_dB, pulse: channels.pulse })
+    .from(channels)
+    .where(inArray(channels.id, [...ids]));
+}
+
+/** One default setting serves channels of one symbol rate: 422 naming the first channel that differs. */
+export function checkOneRate(list: readonly ChannelCopy[], path: string): void {
+  if (list.length === 0) return;
+  const ui = list[0].pulse.ui_s;
+  const other = list.find((c) => Math.abs(c.pulse.ui_s - ui) > ui * 1e-9);
+  if (other) {
+    throw unprocessable(`“${other.name}” runs at another symbol rate than “${list[0].name}”; choose channels of one bit rate.`, path);
+  }
+}
+
+/** The channels with these ids, in the order asked; 404 naming the first missing one, 422 for mixed rates. */
+export async function channelCopies(tx: DbOrTx, ids: readonly number[], path = "channelIds"): Promise<ChannelCopy[]> {
+  const byId = new Map((await findChannels(tx, ids)).map((r) => [r.id, r]));
+  const missing = ids.find((id) => !byId.has(id));
+  if (missing !== undefined) throw notFound(`Channel ${missing}`);
+  const list = ids.map((id) => byId.get(id)!);
+  checkOneRate(list, path);
+  return list;
+}
+
+/** The channels without their pulses (for API answers: pulses are large). */
+export function withoutPulses<T extends { pulse: StoredPulse }>(list: readonly T[]): Omit<T, "pulse">[] {
+  return list.map(({ pulse: _pulse, ...rest }) => rest);
+}

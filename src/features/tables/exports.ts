@@ -1,0 +1,196 @@
+// The three export formats of a tap table version, in Tapwright's own layout (documented in the
+// README): CSV (one row per class, register codes), JSON (everything, codes and physical values)
+// and a C header (the register map as macros and one array of default settings per class).
+import type { VersionState } from "@/db/schema/tables";
+import type { Architecture } from "@/features/studies/architecture";
+import type { RegisterField } from "./registerMap";
+import type { ClassResult, ExportFormat } from "./tables";
+
+/** Everything an export holds. */
+export interface ExportModel {
+  table: { id: number; name: string };
+  version: number;
+  state: VersionState;
+  approval: { by: string; at: Date } | null;
+  budget: { name: string; modulation: string; bitRate_bps: number | null; targetBer: number; requiredHeadroom_V: number };
+  architecture: Architecture;
+  registerMap: RegisterField[];
+  classes: ClassResult[];
+  engineVersion: string;
+  generatedAt: Date;
+}
+
+/** JSON export's format tag; a change of layout changes the number. */
+export const JSON_FORMAT = "tapwright.tap-table/1";
+
+const mediaTypes: Record<ExportFormat, string> = {
+  csv: "text/csv; charset=utf-8",
+  json: "application/json; charset=utf-8",
+  c: "text/x-c; charset=utf-8",
+};
+const extensions: Record<ExportFormat, string> = { csv: "csv", json: "json", c: "h" };
+
+/** A lowercase identifier from a name: "Quillfeather NRZ backplane" → "quillfeather_nrz_backplane". */
+export function slug(name: string, max = 40): string {
+  const s = name
+    .normalize("NFKD")
+    .replace(/[^\x00-\x7f]/g, "")
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, "_")
+    .replace(/^_+|_+$/g, "")
+    .slice(0, max)
+    .replace(/_+$/, "");
+  return /^[a-z]/.test(s) ? s : `t_${s || "table"}`;
+}
+
+/** File name of an export: `<table>_v<n>.<ext>`. */
+export function exportFilename(model: Pick<ExportModel, "table" | "version">, format: ExportFormat): string {
+  return `${slug(model.table.name)}_v${model.version}.${extensions[format]}`;
+}
+
+export function exportMediaType(format: ExportFormat): string {
+  return mediaTypes[format];
+}
+
+function csvCell(value: string | number | null): string {
+  if (value === null) return "";
+  const s = String(value);
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/**
+ * CSV: a header row, then one row per class: `class_index, class_name, loss_min_dB, loss_max_dB,
+ * channel_count, worst_headroom_mV`, then one column per register field holding its code.
+ */
+export function toCsv(m: ExportModel): string {
+  const header = ["class_index", "class_name", "loss_min_dB", "loss_max_dB", "channel_count", "worst_headroom_mV", ...m.registerMap.map((f) => f.name)];
+  const rows = m.classes.map((c) => [
+    c.index,
+    c.name,
+    c.lossRange_dB?.[0] ?? null,
+    c.lossRange_dB?.[1] ?? null,
+    c.channels.length,
+    Number((c.worstHeadroom_V * 1e3).toFixed(3)),
+    ...m.registerMap.map((f) => c.codes[f.name]),
+  ]);
+  return [header, ...rows].map((r) => r.map(csvCell).join(",")).join("\r\n") + "\r\n";
+}
+
+/** JSON: the whole version — budget summary, architecture, register map, classes with codes and values. */
+export function toJson(m: ExportModel): string {
+  return (
+    JSON.stringify(
+      {
+        format: JSON_FORMAT,
+        table: m.table,
+        version: m.version,
+        state: m.state,
+        approval: m.approval ? { by: m.approval.by, at: m.approval.at.toISOString() } : null,
+        generatedAt: m.generatedAt.toISOString(),
+        engineVersion: m.engineVersion,
+        budget: m.budget,
+        architecture: m.architecture,
+        registerMap: m.registerMap,
+        classes: m.classes.map((c) => ({
+          index: c.index,
+          name: c.name,
+          lossRange_dB: c.lossRange_dB,
+          channels: c.channels.map((ch) => ({
+            name: ch.name,
+            lossAtNyquist_dB: ch.lossAtNyquist_dB,
+            defaultHeadroom_V: ch.defaultHeadroom_V,
+            ownHeadroom_V: ch.ownHeadroom_V,
+          })),
+          worstHeadroom_V: c.worstHeadroom_V,
+          codes: c.codes,
+          values: c.values,
+        })),
+        caution:
+          "Estimates from linear models and statistical assumptions; confirm on real hardware under your qualification rules before production.",
+      },
+      null,
+      2,
+    ) + "\n"
+  );
+}
+
+/** The smallest C99 integer type holding a field's codes. */
+function cType(f: RegisterField): string {
+  const width = f.bits <= 8 ? 8 : f.bits <= 16 ? 16 : 32;
+  return `${f.signed ? "int" : "uint"}${width}_t`;
+}
+
+/** A comment-safe one-liner (no comment terminators, no line breaks). */
+function commentText(s: string): string {
+  return s.replace(/\*\//g, "* /").replace(/[\r\n]+/g, " ");
+}
+
+function cNumber(v: number): string {
+  const s = Number(v.toPrecision(12)).toString();
+  return /[.e]/.test(s) ? s : `${s}.0`;
+}
+
+/**
+ * C header: an include guard, `<P>_VERSION`, `<P>_CLASS_COUNT`; per field `<P>_<FIELD>_BITS`,
+ * `_SIGNED`, `_LSB` (physical units, a double), `_MIN_CODE`, `_MAX_CODE`; an enum of the classes;
+ * a struct with one member per field (the smallest stdint type); and `<p>_defaults[]`, one
+ * initializer per class in enum order. `<P>` is `TW_` + the table's name as an identifier.
+ */
+export function toCHeader(m: ExportModel): string {
+  const p = `tw_${slug(m.table.name)}`;
+  const P = p.toUpperCase();
+  const guard = `${P}_V${m.version}_H`;
+  const lines: string[] = [];
+  lines.push(`/* ${commentText(`Tapwright tap table "${m.table.name}" v${m.version} — ${m.state === "approved" ? "signed off" : `NOT SIGNED OFF (${m.state})`}`)}`);
+  if (m.approval) lines.push(` * ${commentText(`Approved by ${m.approval.by} on ${m.approval.at.toISOString()}`)}`);
+  lines.push(` * ${commentText(`Budget: ${m.budget.name} (${m.budget.modulation.toUpperCase()}, target BER ${m.budget.targetBer})`)}`);
+  lines.push(` * ${commentText(`Architecture: ${m.architecture.label}`)}`);
+  lines.push(` * ${commentText(`Generated ${m.generatedAt.toISOString()} by engine ${m.engineVersion}.`)}`);
+  lines.push(" * Estimates from linear models; confirm on real hardware before production.");
+  lines.push(" */");
+  lines.push(`#ifndef ${guard}`, `#define ${guard}`, "", "#include <stdint.h>", "");
+  lines.push(`#define ${P}_VERSION ${m.version}u`);
+  lines.push(`#define ${P}_CLASS_COUNT ${m.classes.length}u`);
+  lines.push(`#define ${P}_FIELD_COUNT ${m.registerMap.length}u`, "");
+  for (const f of m.registerMap) {
+    const F = `${P}_${f.name.toUpperCase()}`;
+    const lo = Math.round(f.min / f.lsb);
+    const hi = Math.round(f.max / f.lsb);
+    lines.push(`/* ${commentText(`${f.name}: ${f.parameter}, LSB ${f.lsb} ${f.unit}, range ${f.min} … ${f.max} ${f.unit}`)} */`);
+    lines.push(`#define ${F}_BITS ${f.bits}u`);
+    lines.push(`#define ${F}_SIGNED ${f.signed ? 1 : 0}`);
+    lines.push(`#define ${F}_LSB ${cNumber(f.lsb)}`);
+    lines.push(`#define ${F}_MIN_CODE (${lo})`);
+    lines.push(`#define ${F}_MAX_CODE (${hi})`, "");
+  }
+  const classIds = uniqueIdentifiers(m.classes.map((c) => slug(c.name, 32).toUpperCase()));
+  lines.push(`enum ${p}_class {`);
+  m.classes.forEach((c, i) => lines.push(`  ${P}_CLASS_${classIds[i]} = ${i}, /* ${commentText(c.name)} */`));
+  lines.push("};", "");
+  lines.push("typedef struct {");
+  for (const f of m.registerMap) lines.push(`  ${cType(f)} ${f.name};`);
+  lines.push(`} ${p}_setting_t;`, "");
+  lines.push(`static const ${p}_setting_t ${p}_defaults[${P}_CLASS_COUNT] = {`);
+  m.classes.forEach((c, i) => {
+    lines.push(`  /* ${commentText(`${c.name}: ${c.channels.length} channels, worst limiter headroom ${(c.worstHeadroom_V * 1e3).toFixed(1)} mV`)} */`);
+    const members = m.registerMap.map((f) => `.${f.name} = ${c.codes[f.name]}`).join(", ");
+    lines.push(`  [${P}_CLASS_${classIds[i]}] = { ${members} },`);
+  });
+  lines.push("};", "", `#endif /* ${guard} */`, "");
+  return lines.join("\n");
+}
+
+/** Makes identifiers unique by suffixing repeats with _2, _3, … */
+function uniqueIdentifiers(ids: string[]): string[] {
+  const seen = new Map<string, number>();
+  return ids.map((id) => {
+    const n = (seen.get(id) ?? 0) + 1;
+    seen.set(id, n);
+    return n === 1 ? id : `${id}_${n}`;
+  });
+}
+
+/** The export in one format. */
+export function renderExport(m: ExportModel, format: ExportFormat): string {
+  return format === "csv" ? toCsv(m) : format === "c" ? toCHeader(m) : toJson(m);
+}

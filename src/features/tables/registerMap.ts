@@ -1,0 +1,134 @@
+// The register map a tap table is quantized to: one field per equalizer parameter of the
+// architecture, each with a name, bit width, signedness, LSB in physical units and a range.
+// The default map follows the architecture and the budget; people edit it per field.
+import { z } from "zod";
+import type { Architecture } from "@/features/studies/architecture";
+
+/** Physical unit of a field: transmit/FFE taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */
+export const fieldUnits = ["fraction", "dB", "V"] as const;
+export type FieldUnit = (typeof fieldUnits)[number];
+
+export const unitLabels: Record<FieldUnit, string> = { fraction: "× peak swing", dB: "dB", V: "V" };
+
+/**
+ * Which equalizer parameter a field holds: `tx[k]` (transmit FIR tap at offset k from the main tap,
+ * k < 0 pre-cursor), `ctle.gDc_dB`, `ctle.gDc2_dB`, `dfe[n]` (n = 1 …), `ffe[k]` (receive FFE tap).
+ */
+export const parameterPattern = /^(tx\[-?\d+\]|ctle\.gDc_dB|ctle\.gDc2_dB|dfe\[\d+\]|ffe\[-?\d+\])$/;
+
+export const registerFieldSchema = z
+  .object({
+    name: z
+      .string()
+      .trim()
+      .regex(/^[a-z][a-z0-9_]{0,31}$/, "A field name is a C identifier in lowercase: a letter, then letters, digits or _ (at most 32)."),
+    parameter: z.string().regex(parameterPattern, "parameter must be tx[k], ctle.gDc_dB, ctle.gDc2_dB, dfe[n] or ffe[k]."),
+    bits: z.int({ error: "bits is a whole number." }).min(1, "A field has at least 1 bit.").max(16, "A field has at most 16 bits."),
+    signed: z.boolean({ error: "signed is true or false." }),
+    lsb: z.number({ error: "lsb is a number in the field's unit." }).positive("The LSB must be > 0."),
+    unit: z.enum(fieldUnits, { error: 'unit must be "fraction", "dB" or "V".' }),
+    min: z.number({ error: "min is a number in the field's unit." }),
+    max: z.number({ error: "max is a number in the field's unit." }),
+  })
+  .superRefine((f, ctx) => {
+    if (f.min > f.max) ctx.addIssue({ code: "custom", path: ["min"], message: `${f.name}: min (${f.min}) must not exceed max (${f.max}).` });
+    if (!f.signed && f.min < 0) {
+      ctx.addIssue({ code: "custom", path: ["signed"], message: `${f.name}: the range goes below 0, so the field must be signed.` });
+    }
+  });
+export type RegisterField = z.infer<typeof registerFieldSchema>;
+
+export const registerMapSchema = z
+  .array(registerFieldSchema, { error: "The register map is a list of fields." })
+  .min(1, "The register map needs at least one field.")
+  .max(64, "At most 64 fields.")
+  .refine((fs) => new Set(fs.map((f) => f.name)).size === fs.length, "Two fields have the same name; names must be unique.")
+  .refine((fs) => new Set(fs.map((f) => f.parameter)).size === fs.length, "Two fields hold the same parameter.");
+
+/** The budget fields the default map reads (a subset of lib/contract/budget.ts's Budget). */
+export interface BudgetForMap {
+  txSwing_Vppd: number;
+  tx?: { pre?: number; post?: number; step?: number; ranges?: [number, number][] };
+  ctle: { gDc_dB: [number, number, number]; gDc2_dB?: number | [number, number, number] };
+  dfe?: { taps?: number; limits_V?: number | number[] };
+}
+
+/** Transmit/FFE tap names: tx_pre2, tx_pre1, tx_main, tx_post1, … */
+function tapName(prefix: string, k: number): string {
+  if (k === 0) return `${prefix}_main`;
+  return k < 0 ? `${prefix}_pre${-k}` : `${prefix}_post${k}`;
+}
+
+/** Smallest width holding every code of `[min, max]` at this LSB (a sign bit when min < 0). */
+function widthFor(min: number, max: number, lsb: number): { bits: number; signed: boolean } {
+  const signed = min < 0;
+  const top = Math.max(Math.abs(Math.round(min / lsb)), Math.abs(Math.round(max / lsb)));
+  const magnitude = Math.max(1, Math.ceil(Math.log2(top + 1)));
+  return { bits: Math.min(16, magnitude + (signed ? 1 : 0)), signed };
+}
+
+function field(name: string, parameter: string, unit: FieldUnit, lsb: number, min: number, max: number): RegisterField {
+  return { name, parameter, unit, lsb, min, max, ...widthFor(min, max, lsb) };
+}
+
+/** Transmit tap range when the budget gives none: pre/post taps de-emphasize (≤ 0), the main tap drives. */
+function defaultTxRange(k: number): [number, number] {
+  if (k === 0) return [0.5, 1];
+  return k < 0 ? [-0.25, 0] : [-0.5, 0];
+}
+
+/**
+ * The default register map of an architecture under a budget: transmit taps at the budget's step
+ * (1/64 of the swing otherwise) within its ranges, the CTLE gains at the grid's step over the grid,
+ * DFE taps at a 7-bit signed resolution of their limit (half the swing when unlimited), and FFE
+ * taps at 1/64.
+ */
+export function defaultRegisterMap(a: Architecture, budget: BudgetForMap): RegisterField[] {
+  const fields: RegisterField[] = [];
+  if (a.tx) {
+    const step = budget.tx?.step ?? 1 / 64;
+    const sameShape = budget.tx?.ranges && (budget.tx.pre ?? 1) === a.tx.pre && (budget.tx.post ?? 1) === a.tx.post;
+    for (let k = -a.tx.pre; k <= a.tx.post; k++) {
+      const [min, max] = sameShape ? budget.tx!.ranges![k + a.tx.pre] : defaultTxRange(k);
+      fields.push(field(tapName("tx", k), `tx[${k}]`, "fraction", step, min, max));
+    }
+  }
+  if (a.ctle) {
+    const [lo, hi, step] = budget.ctle.gDc_dB;
+    fields.push(field("ctle_gdc", "ctle.gDc_dB", "dB", step, lo, hi));
+    const g2 = budget.ctle.gDc2_dB;
+    if (Array.isArray(g2) && g2[1] > g2[0]) fields.push(field("ctle_gdc2", "ctle.gDc2_dB", "dB", g2[2], g2[0], g2[1]));
+  }
+  if (a.ffe) {
+    for (let k = -a.ffe.pre; k <= a.ffe.post; k++) {
+      fields.push(field(tapName("ffe", k), `ffe[${k}]`, "fraction", 1 / 64, k === 0 ? 0 : -1, 1));
+    }
+  }
+  const limits = budget.dfe?.limits_V;
+  for (let n = 1; n <= a.dfeTaps; n++) {
+    const limit = Array.isArray(limits) ? limits[Math.min(n - 1, limits.length - 1)] : (limits ?? budget.txSwing_Vppd / 2);
+    const lsb = limit > 0 ? limit / 63 : 1e-3;
+    fields.push(field(`dfe_tap${n}`, `dfe[${n}]`, "V", lsb, -limit, limit));
+  }
+  return fields;
+}
+
+/** The parameters an architecture needs a field for (in register-map order). */
+export function requiredParameters(a: Architecture, budget: BudgetForMap): string[] {
+  return defaultRegisterMap(a, budget).map((f) => f.parameter);
+}
+
+/** A field's value for people, in its unit (DFE taps in mV). */
+export function formatFieldValue(f: Pick<RegisterField, "unit">, value: number): string {
+  if (f.unit === "V") return `${(value * 1e3).toFixed(2)} mV`;
+  if (f.unit === "dB") return `${Number(value.toFixed(3))} dB`;
+  return Number(value.toFixed(4)).toString();
+}
+
+/** A field's LSB for people. */
+export function formatLsb(f: Pick<RegisterField, "unit" | "lsb">): string {
+  if (f.unit === "V") return `${Number((f.lsb * 1e3).toPrecision(4))} mV`;
+  if (f.unit === "dB") return `${Number(f.lsb.toPrecision(4))} dB`;
+  const inv = 1 / f.lsb;
+  return Number.isInteger(Math.round(inv * 1e9) / 1e9) ? `1/${Math.round(inv)}` : Number(f.lsb.toPrecision(4)).toString();
+}

@@ -1,0 +1,480 @@
+// Tap tables: create a table and its versions (each computed as a job in the worker pool), read
+// them with the diff against the previous version, edit what is not frozen, and export. Every
+// write is one transaction with its audit event.
+import { and, asc, desc, eq, lt, max } from "drizzle-orm";
+import { db, type DbOrTx } from "@/server/db.server";
+import { jobs, signOffs, studies, tapTableRows, tapTables, tapTableVersions, users, type TapTableVersion } from "@/db/schema";
+import { ApiError, badRequest, conflict, notFound, unprocessable } from "@/server/http/errors";
+import { recordAudit } from "@/server/audit/audit.server";
+import { enqueueJob, jobStatus, pumpJobs, registerJobKind } from "@/server/jobs/queue.server";
+import type { SessionUser } from "@/server/auth/sessionUser";
+import type { Architecture } from "@/features/studies/architecture";
+import type { StudyInputs } from "@/features/studies/studies";
+import { budgetCopy, channelCopies, checkOneRate, findChannels, parseBudget, type BudgetCopy, type ChannelCopy } from "@/features/studies/sources.server";
+import { classesOf, groupingChannelIds, GroupingError } from "./grouping";
+import { defaultRegisterMap, type RegisterField } from "./registerMap";
+import { checkRegisterMap } from "./registerCheck";
+import { diffVersions } from "./diff";
+import { renderExport, exportFilename, exportMediaType, type ExportModel } from "./exports";
+import {
+  isEditable,
+  type CreateTableRequest,
+  type CreateVersionRequest,
+  type ExportFormat,
+  type Grouping,
+  type UpdateVersionRequest,
+  type VersionInputs,
+  type VersionResult,
+} from "./tables";
+
+type ResolvedArchitecture = Pick<VersionInputs, "architecture" | "study">;
+
+/** The architecture and study record behind a version: a study's decision, or one given by hand. */
+async function resolveArchitecture(tx: DbOrTx, studyId: number | undefined, given: Architecture | undefined): Promise<ResolvedArchitecture> {
+  if (studyId === undefined) {
+    if (!given) throw badRequest("Give the architecture, or a studyId whose decision names it.", "architecture");
+    return { architecture: given, study: null };
+  }
+  const [s] = await tx.select().from(studies).where(eq(studies.id, studyId));
+  if (!s) throw notFound(`Study ${studyId}`);
+  if (!s.decision) throw unprocessable(`The study “${s.name}” has no recorded decision yet; record the chosen architecture first.`, "studyId");
+  const inputs = s.inputs as unknown as StudyInputs;
+  const chosen = inputs.candidates.find((c) => c.key === s.decision!.candidateKey);
+  if (!chosen) throw unprocessable(`The study's decision names an unknown candidate.`, "studyId");
+  if (given && given.key !== chosen.key) {
+    throw unprocessable(`The architecture “${given.key}” differs from the study's decision “${chosen.key}”; leave one out.`, "architecture");
+  }
+  const [by] = s.decidedBy ? await tx.select({ name: users.name }).from(users).where(eq(users.id, s.decidedBy)) : [];
+  return {
+    architecture: chosen,
+    study: {
+      id: s.id,
+      name: s.name,
+      decision: {
+        candidateKey: s.decision.candidateKey,
+        rationale: s.decision.rationale,
+        decidedBy: by?.name ?? null,
+        decidedAt: s.decidedAt ? s.decidedAt.toISOString() : null,
+      },
+    },
+  };
+}
+
+/** Builds a version's inputs; 422 with the field's path for what cannot be grouped or mapped. */
+function versionInputs(
+  budget: BudgetCopy,
+  arch: ResolvedArchitecture,
+  registerMap: RegisterField[] | undefined,
+  grouping: Grouping,
+  chans: ReadonlyMap<number, ChannelCopy>,
+): VersionInputs {
+  const map = registerMap ?? defaultRegisterMap(arch.architecture, budget.budget);
+  checkRegisterMap(map, arch.architecture, budget.budget);
+  let classes;
+  try {
+    classes = classesOf(grouping, chans);
+  } catch (e) {
+    if (e instanceof GroupingError) throw unprocessable(e.message, e.path);
+    throw e;
+  }
+  return {
+    budget: { id: budget.id, name: budget.name, params: budget.params },
+    architecture: arch.architecture,
+    study: arch.study,
+    registerMap: map,
+    grouping: grouping.mode === "loss-bins" ? { mode: "loss-bins", edges_dB: grouping.edges_dB } : { mode: "manual" },
+    classes,
+  };
+}
+
+/** Inserts a version and its job (computing), with the audit event. */
+async function insertVersion(tx: DbOrTx, user: SessionUser, tableId: number, version: number, inputs: VersionInputs, note: string | undefined) {
+  const jobId = await enqueueJob(tx, "table-version", 0);
+  const [{ id }] = await tx
+    .insert(tapTableVersions)
+    .values({
+      tableId,
+      version,
+      jobId,
+      budgetId: inputs.budget.id,
+      inputs: inputs as unknown as Record<string, unknown>,
+      note: note ?? null,
+      createdBy: user.id,
+    })
+    .$returningId();
+  await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
+  await recordAudit(tx, user, "table.version", "tap-table", tableId, {
+    version,
+    architecture: inputs.architecture.key,
+    budget: inputs.budget.name,
+    classes: inputs.classes.map((c) => ({ name: c.name, channels: c.channels.length })),
+  });
+  return id;
+}
+
+/** POST /api/v1/tap-tables: a table and its v1, queued. */
+export async function createTable(user: SessionUser, req: CreateTableRequest) {
+  const tableId = await db.transaction(async (tx) => {
+    const [taken] = await tx.select({ id: tapTables.id }).from(tapTables).where(eq(tapTables.name, req.name));
+    if (taken) throw conflict(`A tap table named “${req.name}” exists; choose another name or add a version to it.`);
+    const budget = await budgetCopy(tx, req.budgetId);
+    const arch = await resolveArchitecture(tx, req.studyId, req.architecture);
+    const chans = await channelCopies(tx, groupingChannelIds(req.grouping), "grouping");
+    const inputs = versionInputs(budget, arch, req.registerMap, req.grouping, new Map(chans.map((c) => [c.id, c])));
+    const [{ id }] = await tx
+      .insert(tapTables)
+      .values({ name: req.name, description: req.description ?? null, studyId: arch.study?.id ?? null, createdBy: user.id })
+      .$returningId();
+    await recordAudit(tx, user, "table.create", "tap-table", id, { name: req.name });
+    await insertVersion(tx, user, id, 1, inputs, req.note);
+    return id;
+  });
+  void pumpJobs();
+  return { id: tableId, version: 1, status: "queued" as const };
+}
+
+/** The grouping a version was made with, rebuilt from its inputs (to carry into a new version). */
+function groupingOf(inputs: VersionInputs): Grouping {
+  if (inputs.grouping.mode === "loss-bins") {
+    return { mode: "loss-bins", edges_dB: inputs.grouping.edges_dB ?? [], channelIds: inputs.classes.flatMap((c) => c.channels.map((ch) => ch.id)) };
+  }
+  return { mode: "manual", classes: inputs.classes.map((c) => ({ name: c.name, channelIds: c.channels.map((ch) => ch.id) })) };
+}
+
+/**
+ * POST /api/v1/tap-tables/:id/versions: the next version. What the request leaves out comes from
+ * the latest version: its budget (re-read, so budget edits count), architecture, register map and
+ * grouping (channels re-read; a channel deleted since keeps its copy).
+ */
+export async function createVersion(user: SessionUser, tableId: number, req: CreateVersionRequest) {
+  const version = await db.transaction(async (tx) => {
+    const [table] = await tx.select().from(tapTables).where(eq(tapTables.id, tableId)).for("update");
+    if (!table) throw notFound(`Tap table ${tableId}`);
+    const [latest] = await tx
+      .select()
+      .from(tapTableVersions)
+      .where(eq(tapTableVersions.tableId, tableId))
+      .orderBy(desc(tapTableVersions.version))
+      .limit(1);
+    const prev = latest.inputs as unknown as VersionInputs;
+    const budget = req.budgetId !== undefined ? await budgetCopy(tx, req.budgetId) : await budgetCopy(tx, prev.budget.id).catch((e) => {
+      if (e instanceof ApiError && e.status === 404) return { ...prev.budget, budget: parseBudget(prev.budget.params, prev.budget.name) };
+      throw e;
+    });
+    const arch: ResolvedArchitecture =
+      req.studyId !== undefined || req.architecture !== undefined
+        ? await resolveArchitecture(tx, req.studyId, req.architecture)
+        : { architecture: prev.architecture, study: prev.study };
+    const prevGrouping = groupingOf(prev);
+    const grouping: Grouping =
+      req.grouping ??
+      (req.edges_dB
+        ? { mode: "loss-bins", edges_dB: req.edges_dB, channelIds: groupingChannelIds(prevGrouping) }
+        : prevGrouping);
+    const known = new Map<number, ChannelCopy>(prev.classes.flatMap((c) => c.channels.map((ch) => [ch.id, ch] as const)));
+    const ids = groupingChannelIds(grouping);
+    for (const c of await findChannels(tx, ids)) known.set(c.id, c);
+    const missing = ids.find((id) => !known.has(id));
+    if (missing !== undefined) throw notFound(`Channel ${missing}`);
+    checkOneRate(ids.map((id) => known.get(id)!), "grouping");
+    const sameArchitecture = arch.architecture.key === prev.architecture.key && budget.id === prev.budget.id;
+    const registerMap = req.registerMap ?? (sameArchitecture ? prev.registerMap : undefined);
+    const inputs = versionInputs(budget, arch, registerMap, grouping, known);
+    const next = latest.version + 1;
+    await insertVersion(tx, user, tableId, next, inputs, req.note);
+    if (arch.study && arch.study.id !== table.studyId) await tx.update(tapTables).set({ studyId: arch.study.id }).where(eq(tapTables.id, tableId));
+    return next;
+  });
+  void pumpJobs();
+  return { id: tableId, version, status: "queued" as const };
+}
+
+async function versionRow(tableId: number, v: number) {
+  const [row] = await db
+    .select({ version: tapTableVersions, job: jobs, table: tapTables })
+    .from(tapTableVersions)
+    .innerJoin(jobs, eq(jobs.id, tapTableVersions.jobId))
+    .innerJoin(tapTables, eq(tapTables.id, tapTableVersions.tableId))
+    .where(and(eq(tapTableVersions.tableId, tableId), eq(tapTableVersions.version, v)));
+  if (!row) throw notFound(`Version ${v} of tap table ${tableId}`);
+  return row;
+}
+
+/** The inputs without pulses (for answers). */
+function inputsView(inputs: VersionInputs) {
+  return {
+    budget: { id: inputs.budget.id, name: inputs.budget.name, params: inputs.budget.params },
+    architecture: inputs.architecture,
+    study: inputs.study,
+    registerMap: inputs.registerMap,
+    grouping: inputs.grouping,
+    classes: inputs.classes.map((c) => ({
+      name: c.name,
+      lossRange_dB: c.lossRange_dB,
+      channels: c.channels.map((ch) => ({ id: ch.id, name: ch.name, lossAtNyquist_dB: ch.lossAtNyquist_dB })),
+    })),
+  };
+}
+
+/** GET /api/v1/tap-tables/:id/versions/:v: inputs, status, result, the diff against the previous computed version, sign-offs. */
+export async function getVersion(tableId: number, v: number) {
+  const { version, job, table } = await versionRow(tableId, v);
+  const result = version.result as unknown as VersionResult | null;
+  let diff = null;
+  if (result && v > 1) {
+    const [prev] = await db
+      .select({ version: tapTableVersions.version, result: tapTableVersions.result })
+      .from(tapTableVersions)
+      .where(and(eq(tapTableVersions.tableId, tableId), lt(tapTableVersions.version, v)))
+      .orderBy(desc(tapTableVersions.version))
+      .limit(1);
+    const prevResult = prev?.result as unknown as VersionResult | null;
+    if (prev && prevResult) diff = diffVersions(prev.version, prevResult.classes, result.classes);
+  }
+  const reviews = await db
+    .select({ s: signOffs, reviewer: users.name })
+    .from(signOffs)
+    .innerJoin(users, eq(users.id, signOffs.reviewerId))
+    .where(eq(signOffs.versionId, version.id))
+    .orderBy(asc(signOffs.id));
+  const [creator] = version.createdBy ? await db.select({ name: users.name }).from(users).where(eq(users.id, version.createdBy)) : [];
+  return {
+    table: { id: table.id, name: table.name, description: table.description },
+    id: version.id,
+    version: version.version,
+    state: version.state,
+    note: version.note,
+    frozenAt: version.frozenAt,
+    createdBy: creator?.name ?? null,
+    createdAt: version.createdAt,
+    job: jobStatus(job),
+    inputs: inputsView(version.inputs as unknown as VersionInputs),
+    result,
+    engineVersion: version.engineVersion,
+    diff,
+    signOffs: reviews.map(({ s, reviewer }) => ({ id: s.id, state: s.state, reviewer, createdAt: s.createdAt, decidedAt: s.decidedAt, decisionComment: s.decisionComment })),
+  };
+}
+export type VersionView = Awaited<ReturnType<typeof getVersion>>;
+
+/** GET /api/v1/tap-tables/:id: the table and its versions (newest first). */
+export async function getTable(tableId: number) {
+  const [table] = await db.select().from(tapTables).where(eq(tapTables.id, tableId));
+  if (!table) throw notFound(`Tap table ${tableId}`);
+  const rows = await db
+    .select({ v: tapTableVersions, job: jobs, by: users.name })
+    .from(tapTableVersions)
+    .innerJoin(jobs, eq(jobs.id, tapTableVersions.jobId))
+    .leftJoin(users, eq(users.id, tapTableVersions.createdBy))
+    .where(eq(tapTableVersions.tableId, tableId))
+    .orderBy(desc(tapTableVersions.version));
+  return {
+    id: table.id,
+    name: table.name,
+    description: table.description,
+    studyId: table.studyId,
+    createdAt: table.createdAt,
+    versions: rows.map(({ v, job, by }) => {
+      const inputs = v.inputs as unknown as VersionInputs;
+      const result = v.result as unknown as VersionResult | null;
+      return {
+        version: v.version,
+        state: v.state,
+        status: job.status,
+        progress: job.progress,
+        error: job.error,
+        note: v.note,
+        architecture: inputs.architecture.label,
+        budget: inputs.budget.name,
+        classCount: inputs.classes.length,
+        channelCount: inputs.classes.reduce((n, c) => n + c.channels.length, 0),
+        worstHeadroom_V: result ? Math.min(...result.classes.map((c) => c.worstHeadroom_V)) : null,
+        frozenAt: v.frozenAt,
+        createdBy: by,
+        createdAt: v.createdAt,
+      };
+    }),
+  };
+}
+export type TableView = Awaited<ReturnType<typeof getTable>>;
+
+/** GET /api/v1/tap-tables: newest first, with the latest version's state. */
+export async function listTables(limit: number, cursor?: number) {
+  const tables = await db
+    .select({ t: tapTables, by: users.name })
+    .from(tapTables)
+    .leftJoin(users, eq(users.id, tapTables.createdBy))
+    .where(cursor ? lt(tapTables.id, cursor) : undefined)
+    .orderBy(desc(tapTables.id))
+    .limit(limit + 1);
+  const page = tables.slice(0, limit);
+  const items = [];
+  for (const { t, by } of page) {
+    const [latest] = await db
+      .select({ version: tapTableVersions.version, state: tapTableVersions.state, inputs: tapTableVersions.inputs })
+      .from(tapTableVersions)
+      .where(eq(tapTableVersions.tableId, t.id))
+      .orderBy(desc(tapTableVersions.version))
+      .limit(1);
+    const [approved] = await db
+      .select({ v: max(tapTableVersions.version) })
+      .from(tapTableVersions)
+      .where(and(eq(tapTableVersions.tableId, t.id), eq(tapTableVersions.state, "approved")));
+    const inputs = latest?.inputs as unknown as VersionInputs | undefined;
+    items.push({
+      id: t.id,
+      name: t.name,
+      description: t.description,
+      latestVersion: latest?.version ?? 0,
+      latestState: latest?.state ?? "computing",
+      signedOffVersion: approved?.v ?? null,
+      architecture: inputs?.architecture.label ?? "",
+      budget: inputs?.budget.name ?? "",
+      classCount: inputs?.classes.length ?? 0,
+      createdBy: by,
+      createdAt: t.createdAt,
+    });
+  }
+  return { items, nextCursor: tables.length > limit ? String(page[page.length - 1].t.id) : null };
+}
+export type TableListItem = Awaited<ReturnType<typeof listTables>>["items"][number];
+
+/** Refuses changes to a version that is signed off, in review or computing (409 with the reason). */
+export function assertEditable(v: Pick<TapTableVersion, "state" | "version">): void {
+  if (v.state === "approved") throw conflict(`v${v.version} is signed off and frozen; create a new version to change it.`);
+  if (v.state === "in-review") throw conflict(`v${v.version} is in review; wait for the reviewer's decision, or create a new version.`);
+  if (v.state === "computing") throw conflict(`v${v.version} is still computing; change it when it is done.`);
+  if (!isEditable(v.state)) throw conflict(`v${v.version} cannot be changed in its state (${v.state}).`);
+}
+
+/** PUT /api/v1/tap-tables/:id/versions/:v: the note, or the register map (which recomputes the version). */
+export async function updateVersion(user: SessionUser, tableId: number, v: number, req: UpdateVersionRequest) {
+  const recompute = await db.transaction(async (tx) => {
+    const [row] = await tx
+      .select()
+      .from(tapTableVersions)
+      .where(and(eq(tapTableVersions.tableId, tableId), eq(tapTableVersions.version, v)))
+      .for("update");
+    if (!row) throw notFound(`Version ${v} of tap table ${tableId}`);
+    assertEditable(row);
+    const inputs = row.inputs as unknown as VersionInputs;
+    const changes: Partial<typeof tapTableVersions.$inferInsert> = {};
+    if (req.note !== undefined) changes.note = req.note;
+    const mapChanged = req.registerMap !== undefined && JSON.stringify(req.registerMap) !== JSON.stringify(inputs.registerMap);
+    if (mapChanged) {
+      checkRegisterMap(req.registerMap!, inputs.architecture, parseBudget(inputs.budget.params, inputs.budget.name));
+      changes.inputs = { ...inputs, registerMap: req.registerMap! } as unknown as Record<string, unknown>;
+      changes.state = "computing";
+      changes.result = null;
+      changes.jobId = await enqueueJob(tx, "table-version", row.id);
+      await tx.delete(tapTableRows).where(eq(tapTableRows.versionId, row.id));
+    }
+    await tx.update(tapTableVersions).set(changes).where(eq(tapTableVersions.id, row.id));
+    await recordAudit(tx, user, "table.version-edit", "tap-table", tableId, {
+      version: v,
+      ...(req.note !== undefined ? { note: true } : {}),
+      ...(mapChanged ? { registerMap: req.registerMap!.map((f) => f.name) } : {}),
+    });
+    return mapChanged;
+  });
+  if (recompute) void pumpJobs();
+  return getVersion(tableId, v);
+}
+
+/** GET …/export?format=: the file, with the export recorded in the audit trail. */
+export async function exportVersion(user: SessionUser, via: "session" | "token" | null, tableId: number, v: number, format: ExportFormat) {
+  const { version, table } = await versionRow(tableId, v);
+  if (!version.result) {
+    throw conflict(version.state === "failed" ? `v${v} failed to compute; there is nothing to export.` : `v${v} is still computing; export it when it is done.`);
+  }
+  const model = await exportModel(table, version);
+  const body = renderExport(model, format);
+  await recordAudit(db, user, "table.export", "tap-table", tableId, { version: v, format, state: version.state, via });
+  return new Response(body, {
+    status: 200,
+    headers: {
+      "content-type": exportMediaType(format),
+      "content-disposition": `attachment; filename="${exportFilename(model, format)}"`,
+      "cache-control": "no-store",
+    },
+  });
+}
+
+/** The approval behind a version (the approving sign-off's reviewer and time), if any. */
+async function approvalOf(versionId: number) {
+  const [row] = await db
+    .select({ at: signOffs.decidedAt, by: users.name })
+    .from(signOffs)
+    .innerJoin(users, eq(users.id, signOffs.reviewerId))
+    .where(and(eq(signOffs.versionId, versionId), eq(signOffs.state, "approved")))
+    .limit(1);
+  return row && row.at ? { by: row.by, at: row.at } : null;
+}
+
+async function exportModel(table: typeof tapTables.$inferSelect, version: TapTableVersion): Promise<ExportModel> {
+  const inputs = version.inputs as unknown as VersionInputs;
+  const result = version.result as unknown as VersionResult;
+  const b = parseBudget(inputs.budget.params, inputs.budget.name);
+  return {
+    table: { id: table.id, name: table.name },
+    version: version.version,
+    state: version.state,
+    approval: await approvalOf(version.id),
+    budget: {
+      name: inputs.budget.name,
+      modulation: b.modulation,
+      bitRate_bps: b.bitRate_bps ?? null,
+      targetBer: b.targetBer,
+      requiredHeadroom_V: b.requiredHeadroom_V,
+    },
+    architecture: inputs.architecture,
+    registerMap: inputs.registerMap,
+    classes: result.classes,
+    engineVersion: result.engineVersion,
+    generatedAt: new Date(),
+  };
+}
+
+/** Everything the printable report shows. */
+export async function reportOf(tableId: number, v: number) {
+  const view = await getVersion(tableId, v);
+  const { version } = await versionRow(tableId, v);
+  const inputs = version.inputs as unknown as VersionInputs;
+  return {
+    ...view,
+    budgetParams: parseBudget(inputs.budget.params, inputs.budget.name),
+    approval: await approvalOf(version.id),
+  };
+}
+
+registerJobKind("table-version", {
+  async input(targetId) {
+    const [row] = await db.select({ inputs: tapTableVersions.inputs }).from(tapTableVersions).where(eq(tapTableVersions.id, targetId));
+    if (!row) throw new Error(`Tap table version ${targetId} no longer exists.`);
+    return row.inputs;
+  },
+  async save(tx, targetId, result) {
+    const r = result as VersionResult;
+    await tx
+      .update(tapTableVersions)
+      .set({ result: r as unknown as Record<string, unknown>, engineVersion: r.engineVersion, state: "ready" })
+      .where(eq(tapTableVersions.id, targetId));
+    await tx.delete(tapTableRows).where(eq(tapTableRows.versionId, targetId));
+    if (r.classes.length > 0) {
+      await tx.insert(tapTableRows).values(
+        r.classes.map((c) => ({
+          versionId: targetId,
+          classIndex: c.index,
+          className: c.name,
+          codes: c.codes,
+          values: c.values,
+          worstHeadroom_V: c.worstHeadroom_V,
+          channelCount: c.channels.length,
+        })),
+      );
+    }
+  },
+  async fail(tx, targetId) {
+    await tx.update(tapTableVersions).set({ state: "failed" }).where(eq(tapTableVersions.id, targetId));
+  },
+});

@@ -1,0 +1,232 @@
+// Tap tables: the request schemas (API and forms), the shapes a version stores and the API answers,
+// and small presentation helpers. No server code here: islands import this file.
+import { z } from "zod";
+import type { VersionState } from "@/db/schema/tables";
+import type { StoredPulse } from "@/db/schema/channels";
+import type { ContourSet, DensityImage } from "@/components/charts/DensityEye";
+import { architectureSchema, type Architecture } from "@/features/studies/architecture";
+import { registerMapSchema, type RegisterField } from "./registerMap";
+
+export { architectureSchema, type Architecture };
+
+const name = z.string({ error: "Give the tap table a name." }).trim().min(1, "Give the tap table a name.").max(200, "Keep the name under 200 characters.");
+const note = z.string().trim().max(2000, "Keep the note under 2000 characters.");
+const channelIds = z
+  .array(z.int({ error: "Channel ids are whole numbers." }).positive(), { error: "Give the channels as a list of ids." })
+  .min(1, "Choose at least one channel.")
+  .max(200, "A tap table covers at most 200 channels.")
+  .refine((ids) => new Set(ids).size === ids.length, "A channel appears twice; list each channel once.");
+
+/** Largest number of channel classes in one table. */
+export const MAX_CLASSES = 16;
+
+const edgesSchema = z
+  .array(z.number({ error: "Bin edges are numbers of dB." }).min(0, "Bin edges are ≥ 0 dB.").max(80, "Bin edges are ≤ 80 dB."), {
+    error: "Give the bin edges in dB, e.g. [12, 20, 28].",
+  })
+  .max(MAX_CLASSES - 1, `At most ${MAX_CLASSES - 1} edges (${MAX_CLASSES} classes).`)
+  .refine((e) => e.every((x, i) => i === 0 || x > e[i - 1]), "Bin edges must ascend, e.g. [12, 20, 28].");
+
+/**
+ * How channels are grouped into classes: by insertion loss at Nyquist in bins (edges in dB, each
+ * class holding `lo ≤ loss < hi`), or by hand (named classes listing their channels).
+ */
+export const groupingSchema = z.discriminatedUnion(
+  "mode",
+  [
+    z.object({
+      mode: z.literal("loss-bins"),
+      channelIds,
+      edges_dB: edgesSchema,
+    }),
+    z.object({
+      mode: z.literal("manual"),
+      classes: z
+        .array(
+          z.object({
+            name: z.string().trim().min(1, "Name every class.").max(100, "Keep class names under 100 characters."),
+            channelIds,
+          }),
+        )
+        .min(1, "Give at least one class.")
+        .max(MAX_CLASSES, `At most ${MAX_CLASSES} classes.`)
+        .refine((cs) => new Set(cs.map((c) => c.name.toLowerCase())).size === cs.length, "Two classes have the same name.")
+        .refine((cs) => {
+          const all = cs.flatMap((c) => c.channelIds);
+          return new Set(all).size === all.length;
+        }, "A channel is in two classes; put each channel in one class."),
+    }),
+  ],
+  { error: 'grouping.mode must be "loss-bins" or "manual".' },
+);
+export type Grouping = z.infer<typeof groupingSchema>;
+
+/** POST /api/v1/tap-tables: a new table and its first version. */
+export const createTableRequest = z.object({
+  name,
+  description: z.string().trim().max(2000).optional(),
+  budgetId: z.int({ error: "Choose a budget." }).positive(),
+  /** The study whose recorded decision gives the architecture; or give `architecture` by hand. */
+  studyId: z.int().positive().optional(),
+  architecture: architectureSchema.optional(),
+  registerMap: registerMapSchema.optional(),
+  grouping: groupingSchema,
+  note: note.optional(),
+});
+export type CreateTableRequest = z.infer<typeof createTableRequest>;
+
+/** POST /api/v1/tap-tables/:id/versions: a new version; what is left out is taken from the latest one. */
+export const createVersionRequest = z
+  .object({
+    budgetId: z.int().positive().optional(),
+    studyId: z.int().positive().optional(),
+    architecture: architectureSchema.optional(),
+    registerMap: registerMapSchema.optional(),
+    grouping: groupingSchema.optional(),
+    /** New loss-bin edges for the same channels (instead of a whole grouping). */
+    edges_dB: edgesSchema.optional(),
+    note: note.optional(),
+  })
+  .refine((r) => !(r.grouping && r.edges_dB), { message: "Give either grouping or edges_dB, not both.", path: ["edges_dB"] });
+export type CreateVersionRequest = z.infer<typeof createVersionRequest>;
+
+/** PUT /api/v1/tap-tables/:id/versions/:v: edit a version that is not frozen or in review. */
+export const updateVersionRequest = z
+  .object({ note: note.optional(), registerMap: registerMapSchema.optional() })
+  .refine((r) => r.note !== undefined || r.registerMap !== undefined, "Give a note or a registerMap to change.");
+export type UpdateVersionRequest = z.infer<typeof updateVersionRequest>;
+
+export const exportFormats = ["csv", "json", "c"] as const;
+export type ExportFormat = (typeof exportFormats)[number];
+export const exportQuery = z.object({
+  format: z.enum(exportFormats, { error: 'format must be "csv", "json" or "c".' }).default("json"),
+});
+
+export const tableParams = z.object({ id: z.coerce.number({ error: "The table id must be a number." }).int().positive() });
+export const versionParams = tableParams.extend({
+  v: z.coerce.number({ error: "The version must be a number (1, 2, …)." }).int().positive(),
+});
+export const listQuery = z.object({
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+  cursor: z.coerce.number().int().positive().optional(),
+});
+
+/** A channel as a version keeps it (a copy taken when the version was created). */
+export interface VersionChannel {
+  id: number;
+  name: string;
+  lossAtNyquist_dB: number | null;
+  pulse: StoredPulse;
+}
+
+/** One class as a version keeps it. */
+export interface VersionClass {
+  name: string;
+  /** `[lo, hi)` in dB for loss bins (null ends are open); null for classes made by hand. */
+  lossRange_dB: [number | null, number | null] | null;
+  channels: VersionChannel[];
+}
+
+/** What a version was computed from, copied at its creation so that it never changes afterwards. */
+export interface VersionInputs {
+  budget: { id: number; name: string; params: Record<string, unknown> };
+  architecture: Architecture;
+  /** The study and its decision record, when the architecture came from one. */
+  study: { id: number; name: string; decision: { candidateKey: string; rationale: string; decidedBy: string | null; decidedAt: string | null } } | null;
+  registerMap: RegisterField[];
+  grouping: { mode: Grouping["mode"]; edges_dB?: number[] };
+  classes: VersionClass[];
+}
+
+/** A channel's figures in a computed version. */
+export interface ChannelHeadroom {
+  id: number;
+  name: string;
+  lossAtNyquist_dB: number | null;
+  /** Limiter headroom with the class default (quantized), volts. */
+  defaultHeadroom_V: number;
+  /** Limiter headroom with the channel's own optimum, volts. */
+  ownHeadroom_V: number;
+  /** Eye height at the target BER with the class default, volts. */
+  defaultEyeHeight_V: number;
+}
+
+/** One class's result: its default in codes and physical values, and its channels. */
+export interface ClassResult {
+  index: number;
+  name: string;
+  lossRange_dB: [number | null, number | null] | null;
+  codes: Record<string, number>;
+  values: Record<string, number>;
+  worstHeadroom_V: number;
+  channels: ChannelHeadroom[];
+}
+
+/** A density eye with its BER contours, in the shapes of the shared eye canvas. */
+export interface EyeFigure {
+  image: DensityImage;
+  contours: ContourSet[];
+}
+
+/** The eye of the worst channel of the whole table with its class default. */
+export interface WorstEye {
+  channelId: number;
+  channelName: string;
+  className: string;
+  headroom_V: number;
+  eyeHeight_V: number;
+  eye: EyeFigure;
+}
+
+/** What a computed version holds. */
+export interface VersionResult {
+  engineVersion: string;
+  requiredHeadroom_V: number;
+  targetBer: number;
+  classes: ClassResult[];
+  worstEye: WorstEye | null;
+}
+
+export const stateLabels: Record<VersionState, string> = {
+  computing: "Computing",
+  failed: "Failed",
+  ready: "Ready for sign-off",
+  "in-review": "In review",
+  approved: "Signed off",
+  "changes-requested": "Changes requested",
+};
+
+/** Badge classes per state (theme tokens). */
+export const stateBadge: Record<VersionState, string> = {
+  computing: "bg-paper text-ink-soft",
+  failed: "bg-bad-soft text-bad",
+  ready: "bg-accent-soft text-accent-strong",
+  "in-review": "bg-warn-soft text-warn",
+  approved: "bg-good-soft text-good",
+  "changes-requested": "bg-bad-soft text-bad",
+};
+
+/** Whether a version may still be edited (not frozen, not under review, not computing). */
+export function isEditable(state: VersionState): boolean {
+  return state === "ready" || state === "changes-requested" || state === "failed";
+}
+
+/** Whether a channel's headroom with its class default meets the budget's required headroom. */
+export function passes(headroom_V: number, required_V: number): boolean {
+  return headroom_V >= required_V;
+}
+
+/** Volts as mV with one decimal and a sign when negative. */
+export function mv(value_V: number, digits = 1): string {
+  return `${(value_V * 1e3).toFixed(digits)} mV`;
+}
+
+/** A loss range for people: "12–20 dB", "< 12 dB", "≥ 28 dB", "by hand". */
+export function formatLossRange(range: [number | null, number | null] | null): string {
+  if (!range) return "by hand";
+  const [lo, hi] = range;
+  if (lo === null && hi === null) return "all";
+  if (lo === null) return `< ${hi} dB`;
+  if (hi === null) return `≥ ${lo} dB`;
+  return `${lo}–${hi} dB`;
+}

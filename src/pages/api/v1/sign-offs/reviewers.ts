@@ -1,0 +1,5 @@
+// The people a sign-off may be asked of (reviewers and admins).
+import { endpoint } from "@/server/http/handler";
+import { reviewers } from "@/features/signoff/signoff.server";
+
+export const GET = endpoint(async () => ({ items: await reviewers(), nextCursor: null }));

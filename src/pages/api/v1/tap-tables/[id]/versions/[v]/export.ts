@@ -1,0 +1,10 @@
+// The export of a version as CSV, JSON or a C header (also with an API token); audited.
+import { currentUser, endpoint, readParams } from "@/server/http/handler";
+import { exportQuery, versionParams } from "@/features/tables/tables";
+import { exportVersion } from "@/features/tables/tables.server";
+
+export const GET = endpoint(async (ctx) => {
+  const { id, v } = readParams(ctx.params, versionParams);
+  const { format } = readParams(Object.fromEntries(ctx.url.searchParams), exportQuery);
+  return exportVersion(currentUser(ctx), ctx.locals.authVia, id, v, format);
+});
