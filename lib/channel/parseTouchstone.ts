@@ -13,8 +13,9 @@ export interface TouchstoneOptions {
   readonly ports?: number;
 }
 
-/** Most ports and frequencies accepted. */
+/** Most ports accepted. */
 export const TOUCHSTONE_MAX_PORTS = 64;
+/** Most frequencies accepted. */
 export const TOUCHSTONE_MAX_FREQUENCIES = 1_000_000;
 
 const UNITS: Record<string, number> = { hz: 1, khz: 1e3, mhz: 1e6, ghz: 1e9 };

@@ -17,4 +17,5 @@ export const berRequestSchema = z
     }
   });
 
+/** A validated request (defaults applied). */
 export type BerRequest = z.output<typeof berRequestSchema>;

@@ -25,4 +25,5 @@ export const ctleResponseRequestSchema = z
   .object({ ...ctleFields, freqs_Hz: freqsSchema.max(100_000, { error: "expected at most 100000 frequencies" }) })
   .superRefine(needsCorner);
 
+/** A validated request (defaults applied). */
 export type CtleResponseRequest = z.output<typeof ctleResponseRequestSchema>;

@@ -16,4 +16,5 @@ export const firResponseRequestSchema = z
     }
   });
 
+/** A validated request (defaults applied). */
 export type FirResponseRequest = z.output<typeof firResponseRequestSchema>;

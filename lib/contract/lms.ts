@@ -27,4 +27,5 @@ export const lmsRequestSchema = z
     }
   });
 
+/** A validated request (defaults applied). */
 export type LmsRequest = z.output<typeof lmsRequestSchema>;

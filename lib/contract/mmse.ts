@@ -7,4 +7,5 @@ export const mmseRequestSchema = z
   .object({ ...cursorWindowShape, noiseRms_V: nonNegativeNumber })
   .superRefine(checkMainInCursors);
 
+/** A validated request (defaults applied). */
 export type MmseRequest = z.output<typeof mmseRequestSchema>;

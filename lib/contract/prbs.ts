@@ -12,4 +12,5 @@ export const prbsRequestSchema = z.object({
   invert: z.boolean({ error: "expected true or false" }).optional(),
 });
 
+/** A validated request (defaults applied). */
 export type PrbsRequest = z.output<typeof prbsRequestSchema>;

@@ -48,4 +48,5 @@ export const pulseRequestSchema = z.object({
   riseTime_s: nonNegativeNumber.optional(),
 });
 
+/** A validated request (defaults applied). */
 export type PulseRequest = z.output<typeof pulseRequestSchema>;

@@ -22,4 +22,5 @@ export const zfRequestSchema = z
     }
   });
 
+/** A validated request (defaults applied). */
 export type ZfRequest = z.output<typeof zfRequestSchema>;

@@ -3,6 +3,7 @@ import { berFromQ, qFromBer } from "../../analysis/ber.ts";
 import { berRequestSchema } from "../../contract/ber.ts";
 import { defineCommand } from "../defineCommand.ts";
 
+/** `ber`: `{ q }` → `{ ber }` with `BER = ½·erfc(Q/√2)`, or `{ ber }` → `{ q }`. */
 export const berCommand = defineCommand({
   name: "ber",
   schema: berRequestSchema,

@@ -3,6 +3,7 @@ import { ctleResponseRequestSchema } from "../../contract/ctle.ts";
 import { ctleMagnitudeDb } from "../../equalizers/ctleResponse.ts";
 import { defineCommand } from "../defineCommand.ts";
 
+/** `ctle-response`: CTLE settings and frequencies → `{ magnitude_dB }`. */
 export const ctleResponseCommand = defineCommand({
   name: "ctle-response",
   schema: ctleResponseRequestSchema,

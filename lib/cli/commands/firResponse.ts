@@ -3,6 +3,7 @@ import { firResponseRequestSchema } from "../../contract/firResponse.ts";
 import { firResponse } from "../../equalizers/firResponse.ts";
 import { defineCommand } from "../defineCommand.ts";
 
+/** `fir-response`: taps, pre, UI and frequencies → `{ magnitude_dB, phase_rad }`. */
 export const firResponseCommand = defineCommand({
   name: "fir-response",
   schema: firResponseRequestSchema,

@@ -3,6 +3,7 @@ import { lmsRequestSchema } from "../../contract/lms.ts";
 import { lmsAdapt } from "../../solvers/lmsAdapt.ts";
 import { defineCommand } from "../defineCommand.ts";
 
+/** `lms`: → `{ taps, trajectory, mse, iterationsAt }` (MSE exact for each recorded tap vector). */
 export const lmsCommand = defineCommand({
   name: "lms",
   schema: lmsRequestSchema,

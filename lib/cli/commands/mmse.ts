@@ -3,6 +3,7 @@ import { mmseRequestSchema } from "../../contract/mmse.ts";
 import { mmseEqualizer } from "../../solvers/mmse.ts";
 import { defineCommand } from "../defineCommand.ts";
 
+/** `mmse`: → `{ taps, mse, equalized, equalizedMain }`. */
 export const mmseCommand = defineCommand({
   name: "mmse",
   schema: mmseRequestSchema,

@@ -3,6 +3,7 @@ import { prbs } from "../../analysis/prbs.ts";
 import { prbsRequestSchema } from "../../contract/prbs.ts";
 import { defineCommand } from "../defineCommand.ts";
 
+/** `prbs`: `{ order, length, invert? }` → `{ bits: "0101…" }` starting at `b[0]`. */
 export const prbsCommand = defineCommand({
   name: "prbs",
   schema: prbsRequestSchema,

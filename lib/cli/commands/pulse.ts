@@ -9,6 +9,10 @@ import { pulseRequestSchema } from "../../contract/pulse.ts";
 import { CliInputError } from "../CliInputError.ts";
 import { defineCommand } from "../defineCommand.ts";
 
+/**
+ * `pulse`: → `{ ui_s, samplesPerUi, values_V, mainIndex, start_s }` plus `insertionLoss` for
+ * Touchstone and loss-model sources; `start_s` is the time of the first sample.
+ */
 export const pulseCommand = defineCommand({
   name: "pulse",
   schema: pulseRequestSchema,

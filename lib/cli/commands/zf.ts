@@ -3,6 +3,7 @@ import { zfRequestSchema } from "../../contract/zf.ts";
 import { zeroForcing } from "../../solvers/zeroForcing.ts";
 import { defineCommand } from "../defineCommand.ts";
 
+/** `zf`: → `{ taps, equalized, equalizedMain }` (`equalized` is the whole combined `g`). */
 export const zfCommand = defineCommand({
   name: "zf",
   schema: zfRequestSchema,
