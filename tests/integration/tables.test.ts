@@ -1,0 +1,153 @@
+// Tap tables through the API against MariaDB: the role matrix, validation with messages that name
+// the field, nothing half-written after a refusal, versions computed as jobs, codes on the register
+// map's grid within its ranges, the minimax property, and a new version's diff.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { anonymous, signIn, type Client } from "../support/http";
+import { closeDb, rowCounts } from "../fixtures/workspace";
+import { auditEvents, population, unique, versionComputed, type Population } from "./handoff.fixture";
+
+let designer: Client;
+let admin: Client;
+let pop: Population;
+
+beforeAll(async () => {
+  designer = await signIn("designer");
+  admin = await signIn("admin");
+  pop = await population(designer, [6, 10, 14, 18, 22, 26]);
+});
+afterAll(closeDb);
+
+const manualArchitecture = { key: "tx-ctle-dfe2", label: "TX FIR + CTLE + DFE 2", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 2, ffe: null };
+
+function tableRequest(extra: Record<string, unknown> = {}) {
+  return {
+    name: unique("Table"),
+    budgetId: pop.budgetId,
+    architecture: manualArchitecture,
+    grouping: { mode: "loss-bins", edges_dB: [15], channelIds: pop.channelIds },
+    ...extra,
+  };
+}
+
+describe("tap tables: who may do what", () => {
+  it("everyone reads; only designers and admins build; anonymous callers must sign in", async () => {
+    expect((await anonymous().get("/api/v1/tap-tables")).status).toBe(401);
+    for (const role of ["admin", "designer", "firmware", "reviewer"] as const) {
+      expect((await (await signIn(role)).get("/api/v1/tap-tables")).status, role).toBe(200);
+    }
+    for (const role of ["firmware", "reviewer"] as const) {
+      const c = await signIn(role);
+      const res = await c.send("POST", "/api/v1/tap-tables", tableRequest());
+      expect(res.status, role).toBe(403);
+      expect((await res.json()).error.message).toMatch(/may not/);
+      expect((await c.send("POST", "/api/v1/tap-tables/1/versions", {})).status, role).toBe(403);
+      expect((await c.send("PUT", "/api/v1/tap-tables/1/versions/1", { note: "x" })).status, role).toBe(403);
+    }
+  });
+});
+
+describe("tap tables: refusals change nothing", () => {
+  const cases: [string, () => Record<string, unknown>, number, string | RegExp][] = [
+    ["a missing name", () => tableRequest({ name: "" }), 400, "name"],
+    ["descending bin edges", () => tableRequest({ grouping: { mode: "loss-bins", edges_dB: [20, 10], channelIds: pop.channelIds } }), 400, "grouping.edges_dB"],
+    ["a channel in two classes", () => tableRequest({ grouping: { mode: "manual", classes: [{ name: "A", channelIds: [pop.channelIds[0]] }, { name: "B", channelIds: [pop.channelIds[0]] }] } }), 400, "grouping.classes"],
+    ["neither architecture nor study", () => tableRequest({ architecture: undefined }), 400, "architecture"],
+    ["an unknown budget", () => tableRequest({ budgetId: 999999 }), 404, /Budget 999999/],
+    ["an unknown channel", () => tableRequest({ grouping: { mode: "loss-bins", edges_dB: [], channelIds: [999999] } }), 404, /Channel 999999/],
+    [
+      "a register map without the CTLE field",
+      () => tableRequest({ registerMap: [{ name: "tx_main", parameter: "tx[0]", bits: 6, signed: false, lsb: 0.05, unit: "fraction", min: 0.5, max: 1 }] }),
+      422,
+      "registerMap",
+    ],
+  ];
+  for (const [what, body, status, path] of cases) {
+    it(`${what} → ${status}`, async () => {
+      const before = await rowCounts();
+      const res = await designer.send("POST", "/api/v1/tap-tables", body());
+      expect(res.status).toBe(status);
+      const { error } = await res.json();
+      expect(error.message.length).toBeGreaterThan(10);
+      if (typeof path === "string") expect(error.path ?? "").toContain(path);
+      else expect(error.message).toMatch(path);
+      const after = await rowCounts();
+      expect(after.jobs).toBe(before.jobs);
+      expect(after.audit_events).toBe(before.audit_events);
+    });
+  }
+
+  it("a table name is taken only once (409)", async () => {
+    const name = unique("Taken");
+    const first = await designer.send("POST", "/api/v1/tap-tables", tableRequest({ name }));
+    expect(first.status).toBe(202);
+    const again = await designer.send("POST", "/api/v1/tap-tables", tableRequest({ name }));
+    expect(again.status).toBe(409);
+  });
+});
+
+describe("tap tables: computing versions", () => {
+  it("v1 computes per class a default whose codes sit on the register map's grid and inside its ranges", async () => {
+    const res = await designer.send("POST", "/api/v1/tap-tables", tableRequest());
+    expect(res.status).toBe(202);
+    const { id, version, status } = await res.json();
+    expect({ version, status }).toEqual({ version: 1, status: "queued" });
+    const v1 = await versionComputed(designer, id, 1);
+    expect(v1.job.status, v1.job.error?.message).toBe("done");
+    expect(v1.state).toBe("ready");
+    expect(v1.result.classes.map((c: { name: string }) => c.name)).toEqual(["Loss < 15 dB", "Loss ≥ 15 dB"]);
+    for (const c of v1.result.classes) {
+      expect(c.channels).toHaveLength(3);
+      expect(c.worstHeadroom_V).toBeCloseTo(Math.min(...c.channels.map((ch: { defaultHeadroom_V: number }) => ch.defaultHeadroom_V)), 12);
+      for (const f of v1.inputs.registerMap) {
+        const code = c.codes[f.name];
+        const value = c.values[f.name];
+        expect(Number.isInteger(code), `${c.name} ${f.name}`).toBe(true);
+        expect(value).toBeCloseTo(code * f.lsb, 12);
+        expect(value).toBeGreaterThanOrEqual(f.min - 1e-12);
+        expect(value).toBeLessThanOrEqual(f.max + 1e-12);
+        const lo = f.signed ? -(2 ** (f.bits - 1)) : 0;
+        const hi = f.signed ? 2 ** (f.bits - 1) - 1 : 2 ** f.bits - 1;
+        expect(code).toBeGreaterThanOrEqual(lo);
+        expect(code).toBeLessThanOrEqual(hi);
+      }
+      for (const ch of c.channels) expect(ch.ownHeadroom_V).toBeGreaterThanOrEqual(ch.defaultHeadroom_V - 1e-9);
+    }
+    const events = await auditEvents(admin, "table.");
+    expect(events.some((e) => e.action === "table.create" && e.targetId === String(id))).toBe(true);
+    expect(events.some((e) => e.action === "table.version" && e.targetId === String(id) && e.detail?.version === 1)).toBe(true);
+  });
+
+  it("a new version with other bin edges shows the diff against the previous one", async () => {
+    const { id } = await (await designer.send("POST", "/api/v1/tap-tables", tableRequest())).json();
+    await versionComputed(designer, id, 1);
+    const res = await designer.send("POST", `/api/v1/tap-tables/${id}/versions`, { edges_dB: [12, 20], note: "three classes" });
+    expect(res.status).toBe(202);
+    expect((await res.json()).version).toBe(2);
+    const v2 = await versionComputed(designer, id, 2);
+    expect(v2.job.status, v2.job.error?.message).toBe("done");
+    expect(v2.note).toBe("three classes");
+    expect(v2.result.classes.map((c: { name: string }) => c.name)).toEqual(["Loss < 12 dB", "Loss 12–20 dB", "Loss ≥ 20 dB"]);
+    expect(v2.diff.fromVersion).toBe(1);
+    const statuses = Object.fromEntries(v2.diff.classes.map((c: { name: string; status: string }) => [c.name, c.status]));
+    expect(statuses).toMatchObject({ "Loss < 12 dB": "added", "Loss < 15 dB": "removed", "Loss ≥ 15 dB": "removed" });
+    expect(v2.diff.channels).toHaveLength(6);
+    const moved = v2.diff.channels.find((c: { id: number }) => c.id === pop.byLoss.get(14));
+    expect(moved).toMatchObject({ fromClass: "Loss < 15 dB", toClass: "Loss 12–20 dB" });
+    const table = await (await designer.get(`/api/v1/tap-tables/${id}`)).json();
+    expect(table.versions.map((v: { version: number }) => v.version)).toEqual([2, 1]);
+  });
+
+  it("an edited register map recomputes the version; the edit is audited", async () => {
+    const { id } = await (await designer.send("POST", "/api/v1/tap-tables", tableRequest())).json();
+    const v1 = await versionComputed(designer, id, 1);
+    const map = v1.inputs.registerMap.map((f: { name: string }) => (f.name === "ctle_gdc" ? { ...f, name: "rx_ctle_boost" } : f));
+    const res = await designer.send("PUT", `/api/v1/tap-tables/${id}/versions/1`, { registerMap: map, note: "silicon names" });
+    expect(res.status).toBe(200);
+    const again = await versionComputed(designer, id, 1);
+    expect(again.state).toBe("ready");
+    expect(again.note).toBe("silicon names");
+    expect(Object.keys(again.result.classes[0].codes)).toContain("rx_ctle_boost");
+    const events = await auditEvents(admin, "table.version-edit");
+    expect(events.some((e) => e.targetId === String(id) && (e.detail?.registerMap as string[])?.includes("rx_ctle_boost"))).toBe(true);
+  });
+});
