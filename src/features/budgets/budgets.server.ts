@@ -112,3 +112,9 @@ export async function deleteBudget(user: SessionUser, id: number) {
     return { id, deleted: true, runsKept: n };
   });
 }
+
+/** How many budgets the workspace holds. */
+export async function countBudgets(): Promise<number> {
+  const [{ n }] = await db.select({ n: count() }).from(budgets);
+  return n;
+}

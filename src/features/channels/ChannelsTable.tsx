@@ -16,7 +16,7 @@ const columns: { key: SortKey; label: string; numeric?: boolean }[] = [
   { key: "kind", label: "Kind" },
   { key: "bitRate", label: "Bit rate", numeric: true },
   { key: "loss", label: "Loss at Nyquist", numeric: true },
-  { key: "mainCursor", label: "Main cursor", numeric: true },
+  { key: "mainCursor", label: "Main cursor (1 V)", numeric: true },
   { key: "createdBy", label: "Added by" },
   { key: "createdAt", label: "When" },
 ];
@@ -69,7 +69,7 @@ export default function ChannelsTable(props: Props) {
           <thead>
             <tr>
               {columns.map((c) => (
-                <th key={c.key} aria-sort={s.sort === c.key ? (s.dir === "asc" ? "ascending" : "descending") : "none"} className={c.numeric ? "text-right" : undefined}>
+                <th key={c.key} aria-sort={s.sort === c.key ? (s.dir === "asc" ? "ascending" : "descending") : "none"} style={c.numeric ? { textAlign: "right" } : undefined}>
                   <button type="button" className="uppercase hover:text-ink" onClick={() => s.sortBy(c.key)}>
                     {c.label}
                     <span aria-hidden className="ml-1 text-accent">{s.sort === c.key ? (s.dir === "asc" ? "▲" : "▼") : ""}</span>

