@@ -26,21 +26,28 @@ export interface Population {
   channelIds: number[];
   /** Channel ids by their loss at Nyquist in dB. */
   byLoss: Map<number, number>;
+  /** Channel names, in the order of `channelIds`. */
+  names: string[];
+  budgetName: string;
 }
 
 /** Synthetic 28 Gb/s channels with these losses at Nyquist, and the quick budget, all uniquely named. */
 export async function population(designer: Client, losses: readonly number[], budget: Record<string, unknown> = quickBudget): Promise<Population> {
   const tag = unique("Hand-off");
-  const b = await designer.send("POST", "/api/v1/budgets", { name: `${tag} budget`, ...budget });
+  const budgetName = `${tag} budget`;
+  const b = await designer.send("POST", "/api/v1/budgets", { name: budgetName, ...budget });
   if (b.status !== 201) throw new Error(`budget: ${b.status} ${await b.text()}`);
   const budgetId = (await b.json()).id as number;
   const byLoss = new Map<number, number>();
+  const names: string[] = [];
   for (const loss of losses) {
-    const r = await designer.send("POST", "/api/v1/channels", { name: `${tag} ${loss} dB`, bitRate_bps: 28e9, lossModel: { lossAtNyquist_dB: loss } });
+    const name = `${tag} ${loss} dB`;
+    const r = await designer.send("POST", "/api/v1/channels", { name, bitRate_bps: 28e9, lossModel: { lossAtNyquist_dB: loss } });
     if (r.status !== 201) throw new Error(`channel: ${r.status} ${await r.text()}`);
     byLoss.set(loss, (await r.json()).id);
+    names.push(name);
   }
-  return { budgetId, channelIds: [...byLoss.values()], byLoss };
+  return { budgetId, budgetName, channelIds: [...byLoss.values()], byLoss, names };
 }
 
 interface JobState {

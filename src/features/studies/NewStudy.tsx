@@ -21,7 +21,9 @@ export default function NewStudy(props: Props) {
   const [store] = useState(() => createNewStudyStore(props.budgets, props.channels.filter((c) => fits(c, props.budgets[0])).map((c) => c.id)));
   const s = useStore(store);
   const budget = props.budgets.find((b) => b.id === s.budgetId);
-  const usable = props.channels.filter((c) => fits(c, budget));
+  const usable = props.channels
+    .filter((c) => fits(c, budget))
+    .sort((a, b) => (a.lossAtNyquist_dB ?? Infinity) - (b.lossAtNyquist_dB ?? Infinity) || a.name.localeCompare(b.name));
 
   if (props.budgets.length === 0 || props.channels.length === 0) {
     return <p className="text-sm text-muted">{props.channels.length === 0 ? "Add channels first." : "Create a budget first."}</p>;

@@ -50,7 +50,9 @@ export default function NewTable(props: Props) {
   const [store] = useState(() => createNewTableStore(props));
   const s = useStore(store);
   const budget = props.budgets.find((b) => b.id === s.budgetId);
-  const usable = props.channels.filter((c) => fits(c, budget));
+  const usable = props.channels
+    .filter((c) => fits(c, budget))
+    .sort((a, b) => (a.lossAtNyquist_dB ?? Infinity) - (b.lossAtNyquist_dB ?? Infinity) || a.name.localeCompare(b.name));
   const arch = architectureOf(s, props.studies);
   const study = props.studies.find((x) => x.id === s.studyId);
   const map = useMemo(() => s.customMap ?? (arch && budget ? defaultRegisterMap(arch, budget.params) : []), [s.customMap, arch, budget]);
@@ -134,7 +136,12 @@ export default function NewTable(props: Props) {
               </span>
             </div>
           )}
-          {arch && <p className="text-sm">Architecture: <strong>{arch.label}</strong> <span className="text-muted">({describeArchitecture(arch)})</span></p>}
+          {arch && (
+            <p className="text-sm">
+              Architecture: <strong>{arch.label}</strong>
+              {arch.label !== describeArchitecture(arch) && <span className="text-muted"> ({describeArchitecture(arch)})</span>}
+            </p>
+          )}
         </div>
       </fieldset>
 

@@ -87,6 +87,13 @@ export function parseEdges(text: string): number[] | null {
   return values.every(Number.isFinite) ? values : null;
 }
 
+/** The transmit FIR of a budget (1 pre / 1 post when it has none). */
+function txOf(b: TableBudgetChoice | undefined): { pre: number; post: number } {
+  const pre = b?.params.tx?.pre ?? 1;
+  const post = b?.params.tx?.post ?? 1;
+  return pre + post > 0 ? { pre, post } : { pre: 1, post: 1 };
+}
+
 export function createNewTableStore(init: { budgets: TableBudgetChoice[]; studies: DecidedStudy[]; channels: TableChannelChoice[] }) {
   const firstStudy = init.studies[0];
   return createStore<NewTableState>()((set, get) => ({
@@ -96,7 +103,7 @@ export function createNewTableStore(init: { budgets: TableBudgetChoice[]; studie
     budgetId: firstStudy?.budgetId ?? init.budgets[0]?.id ?? 0,
     source: firstStudy ? "study" : "manual",
     studyId: firstStudy?.id ?? null,
-    manual: { tx: { pre: 1, post: 1 }, ctle: true, dfeTaps: 0, ffe: null },
+    manual: { tx: txOf(init.budgets[0]), ctle: true, dfeTaps: init.budgets[0]?.params.dfe?.taps ?? 0, ffe: null },
     channelIds: firstStudy?.channelIds ?? [],
     mode: "loss-bins",
     edgesText: "12, 20, 28",
