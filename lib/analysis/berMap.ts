@@ -61,7 +61,7 @@ export function berMap(eye: StatisticalEye, phases: Float64Array, voltage_V: Flo
     const frac = t - base;
     let k = kernels.get(frac);
     if (k === undefined) {
-      k = jitterKernel(eye.jitter, eye.samplesPerUi, frac);
+      k = jitterKernel(eye.jitter, eye.samplesPerUi, frac, eye.kernelFloor);
       kernels.set(frac, k);
     }
     const m = eye.main(t);

@@ -37,19 +37,22 @@ const TAIL = 13;
  * `hat(y) = max(0, 1 − |y|)`.
  *
  * The jitter is the dual-Dirac model: `τ = ±DJ/2` with probability ½ each, plus Gaussian RJ.
- * Weights below 10⁻³⁸ at the ends are dropped (13 σ of the Gaussian).
+ * Weights below `floor` at the two ends are dropped (by default 10⁻³⁸, 13 σ of the Gaussian); a
+ * dropped weight changes any mixed probability by less than itself.
  *
  * @param jitter - RJ rms and DJ peak-to-peak in UI.
  * @param samplesPerUi - samples per UI of the phase grid (integer ≥ 1).
  * @param frac - evaluation point in samples relative to phase 0 (any finite number; default 0).
+ * @param floor - weights below it at the ends are dropped (0 < floor < 0.01, default 1e-38).
  * @see dual-Dirac jitter model: T11.2 "Fibre Channel — Methodologies for Jitter and Signal Quality
  *   Specification" (MJSQ) technical report [memory: recalled, not re-read].
  */
-export function jitterKernel(jitter: Jitter | undefined, samplesPerUi: number, frac = 0): JitterKernel {
+export function jitterKernel(jitter: Jitter | undefined, samplesPerUi: number, frac = 0, floor = 1e-38): JitterKernel {
   if (!Number.isInteger(samplesPerUi) || samplesPerUi < 1) {
     throw new RangeError(`samplesPerUi must be an integer ≥ 1, got ${String(samplesPerUi)}`);
   }
   if (!Number.isFinite(frac)) throw new RangeError(`frac must be a finite number, got ${frac}`);
+  if (!(floor > 0 && floor < 0.01)) throw new RangeError(`floor must be a number in (0, 0.01), got ${floor}`);
   const rj = jitter === undefined ? 0 : jitter.rjRms_UI;
   const dj = jitter === undefined ? 0 : jitter.djPp_UI;
   if (jitter !== undefined) assertJitter(jitter);
@@ -65,8 +68,8 @@ export function jitterKernel(jitter: Jitter | undefined, samplesPerUi: number, f
   }
   let a = 0;
   let b = w.length - 1;
-  while (a < b && w[a] < 1e-38) a++;
-  while (b > a && w[b] < 1e-38) b--;
+  while (a < b && w[a] < floor) a++;
+  while (b > a && w[b] < floor) b--;
   return { first: first + a, weights: w.slice(a, b + 1) };
 }
 

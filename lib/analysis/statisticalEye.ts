@@ -36,6 +36,12 @@ export interface StatisticalEyeOptions {
   readonly dfeTaps?: ArrayLike<number>;
   /** Grid resolution of the ISI law (see {@link sampleDistribution}). */
   readonly halfBins?: number;
+  /**
+   * Jitter weights below this are dropped at the ends of the mixing law (default 1e-38). An eye
+   * evaluated at one error ratio `b` may use e.g. `b·1e-6`: the mixed probabilities then change by
+   * less than a millionth of `b` per dropped weight.
+   */
+  readonly kernelFloor?: number;
 }
 
 /**
@@ -58,6 +64,8 @@ export interface StatisticalEye {
   readonly samplesPerUi: number;
   readonly noiseRms_V: number;
   readonly jitter: Jitter | undefined;
+  /** Jitter weights below this were dropped (see {@link StatisticalEyeOptions.kernelFloor}). */
+  readonly kernelFloor: number;
   readonly dfeTaps: Float64Array;
   /** Symbol values in increasing order. */
   readonly levels: Float64Array;
@@ -139,6 +147,7 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     if (!Number.isFinite(dfe[k])) throw new RangeError(`dfeTaps[${k}] is not finite (${dfe[k]})`);
   }
   const halfBins = options.halfBins ?? DEFAULT_HALF_BINS;
+  const kernelFloor = options.kernelFloor ?? 1e-38;
 
   const mains = new Map<number, number>();
   const laws = new Map<number, SampleDistribution>();
@@ -175,7 +184,7 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     const frac = t - base;
     let kernel = kernels.get(frac);
     if (kernel === undefined) {
-      kernel = jitterKernel(jitter, spu, frac);
+      kernel = jitterKernel(jitter, spu, frac, kernelFloor);
       kernels.set(frac, kernel);
     }
     return { base, kernel };
@@ -265,6 +274,7 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     samplesPerUi: spu,
     noiseRms_V,
     jitter,
+    kernelFloor,
     dfeTaps: dfe,
     levels,
     main,

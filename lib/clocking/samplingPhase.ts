@@ -37,7 +37,8 @@ export function criterionLag(policy: "centre" | "mueller-muller", samplesPerUi: 
  * `F(t) = main(t − lag) − main(t + lag)` changes sign from negative to positive where the pulse is
  * balanced. Among the integer phases `t` of the window with `F(t−1) < 0 ≤ F(t)`, the one nearest to
  * phase 0 is taken, and of `t − 1` and `t` the one with the smaller |F| (the rounded zero). With no
- * sign change in the window, the phase of smallest |F| (nearest 0 on ties).
+ * such sign change the lock point lies beyond the window: its low end when `F(lo) ≥ 0` (sampling
+ * already late), else its high end.
  *
  * - "centre" (lag ½ UI): a bang-bang (Alexander) CDR puts its edge samples where a transition's mean
  *   crossing is, `p(t − UI/2) = p(t + UI/2)`, and samples data half a UI away — the eye centre.
@@ -62,19 +63,7 @@ export function criterionPhase(main: (t: number) => number, lag: number, window:
       if (a < 0 && b >= 0) return -a < b ? t - 1 : t;
     }
   }
-  let best = start;
-  let bestAbs = Math.abs(F(start));
-  for (let d = 1; d <= span; d++) {
-    for (const t of [start - d, start + d]) {
-      if (!inWindow(t)) continue;
-      const v = Math.abs(F(t));
-      if (v < bestAbs) {
-        bestAbs = v;
-        best = t;
-      }
-    }
-  }
-  return best;
+  return F(window.lo) >= 0 ? window.lo : window.hi;
 }
 
 /**

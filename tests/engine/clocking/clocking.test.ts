@@ -30,11 +30,11 @@ describe("sampling-phase policies", () => {
     for (let p = w.lo; p <= w.hi; p++) expect(eye.eyeHeight(p, 1e-12)).toBeLessThanOrEqual(eye.eyeHeight(t, 1e-12));
   });
 
-  it("edges: no sign change takes the smallest |F|; bad windows and policies throw", () => {
-    // F(t) = e^(t−1) − e^(t+1) < 0 everywhere: |F| is smallest at the window's low end.
-    expect(criterionPhase(Math.exp, 1, { lo: -3, hi: 3 })).toBe(-3);
-    // A constant F: every phase ties, the one nearest phase 0 is kept.
-    expect(criterionPhase((t) => t, 1, { lo: -3, hi: 3 })).toBe(0);
+  it("edges: with no sign change the lock point is clamped to the window end; bad windows and policies throw", () => {
+    // F(t) = e^(t−1) − e^(t+1) < 0 everywhere: sampling is early everywhere, so the high end.
+    expect(criterionPhase(Math.exp, 1, { lo: -3, hi: 3 })).toBe(3);
+    // F(t) = e^(−t+1) − e^(−t−1) > 0 everywhere: late everywhere, so the low end.
+    expect(criterionPhase((t) => Math.exp(-t), 1, { lo: -3, hi: 3 })).toBe(-3);
     expect(() => criterionPhase((t) => t, 1, { lo: 2, hi: 1 })).toThrow(/window/);
     const eye = statisticalEye(cursorPulse([0, 1, 0], 1, 8), { modulation: "nrz", noiseRms_V: 0.01 });
     expect(() => samplingPhase(eye, "late" as "centre", 1e-12)).toThrow(/policy/);

@@ -1,0 +1,97 @@
+// The channel after one CTLE setting, prepared for a search: filtered once, noise at the limiter
+// known, and symbol-spaced cursors per sampling phase computed once and kept.
+import { limiterNoise } from "../analysis/limiterNoise.ts";
+import { ctleNoiseGain } from "../equalizers/ctleNoiseGain.ts";
+import type { CtlePlan } from "../equalizers/ctlePlan.ts";
+import type { CtleParams } from "../equalizers/ctleResponse.ts";
+import type { Pulse } from "../types.ts";
+import type { CtleSetting, SearchSpace } from "./searchSpace.ts";
+
+/** The channel through one CTLE setting (pulse for a 1 V symbol, before the transmit FIR). */
+export interface CtleChannel {
+  readonly setting: CtleSetting;
+  readonly params: CtleParams;
+  /** CTLE output for a 1 V symbol; `mainIndex` is its peak. */
+  readonly pulse: Pulse;
+  /** Noise rms at the limiter input with this CTLE, volts. */
+  readonly noiseRms_V: number;
+  /** CTLE noise-power gain applied to the front-end noise (1 when there is none). */
+  readonly noisePowerGain: number;
+  /** Cursors per phase hold offsets `−pre … length − 1 − pre` around the main cursor. */
+  readonly pre: number;
+  readonly length: number;
+  /**
+   * Cursors of the CTLE output at phase `p` (samples from its main index): `h[i]` is the sample
+   * `mainIndex + p + (i − pre)·samplesPerUi` (0 outside the record). Computed once per phase.
+   */
+  cursors(p: number): Float64Array;
+}
+
+/**
+ * Filters the pulse by one CTLE setting (through a shared plan) and prepares its cursors.
+ *
+ * @param plan - CTLE plan of the channel's pulse.
+ * @param space - the resolved budget (corners, noise).
+ * @param setting - the gains of this setting.
+ * @param maxPhase - largest |phase| in samples that will be asked for (sizes the cursor window).
+ */
+export function ctleChannel(plan: CtlePlan, space: SearchSpace, setting: CtleSetting, maxPhase: number): CtleChannel {
+  if (!Number.isInteger(maxPhase) || maxPhase < 0) throw new RangeError(`maxPhase must be an integer ≥ 0, got ${maxPhase}`);
+  const params: CtleParams = { ...space.ctleCorners, gDc_dB: setting.gDc_dB, gDc2_dB: setting.gDc2_dB };
+  const pulse = plan.apply(params);
+  const b = space.budget;
+  const noisePowerGain = b.inputNoiseRms_V > 0 ? ctleNoiseGain(params, space.baud_Hz / 2) : 1;
+  const noiseRms_V = limiterNoise(b.noiseRms_V, b.inputNoiseRms_V, noisePowerGain);
+  const spu = pulse.samplesPerUi;
+  const v = pulse.values_V;
+  const m = pulse.mainIndex;
+  const pre = Math.ceil((m + maxPhase) / spu) + 1;
+  const length = pre + Math.ceil((v.length - m + maxPhase) / spu) + 2;
+  const cache = new Map<number, Float64Array>();
+  return {
+    setting,
+    params,
+    pulse,
+    noiseRms_V,
+    noisePowerGain,
+    pre,
+    length,
+    cursors(p: number): Float64Array {
+      let h = cache.get(p);
+      if (h !== undefined) return h;
+      if (!Number.isInteger(p) || Math.abs(p) > maxPhase) {
+        throw new RangeError(`phase ${p} is outside the prepared window ±${maxPhase} samples`);
+      }
+      h = new Float64Array(length);
+      for (let i = 0; i < length; i++) {
+        const idx = m + p + (i - pre) * spu;
+        if (idx >= 0 && idx < v.length) h[i] = v[idx];
+      }
+      cache.set(p, h);
+      return h;
+    },
+  };
+}
+
+/**
+ * Cursors of the equalized signal at phase `p` at the limiter input: the transmit FIR `taps` (main
+ * tap `taps[pre]`) applied to the CTLE output, times the symbol amplitude `scale_V`.
+ * `g[i] = scale_V·Σ_j taps[j]·h[i − j]`; the main cursor is `g[channel.pre + pre]`.
+ */
+export function equalizedCursors(
+  channel: CtleChannel,
+  taps: ArrayLike<number>,
+  pre: number,
+  p: number,
+  scale_V: number,
+): { h: Float64Array; main: number } {
+  const h = channel.cursors(p);
+  const n = h.length;
+  const g = new Float64Array(n + taps.length - 1);
+  for (let j = 0; j < taps.length; j++) {
+    const c = taps[j] * scale_V;
+    if (c === 0) continue;
+    for (let i = 0; i < n; i++) g[i + j] += c * h[i];
+  }
+  return { h: g, main: channel.pre + pre };
+}

@@ -1,0 +1,556 @@
+// The joint search over CTLE grid × transmit FIR grid × closed-form DFE: branch and bound over the
+// FIR taps with rigorous headroom bounds, so the answer equals exhaustive evaluation of the grid.
+import { jitterKernel } from "../analysis/jitterKernel.ts";
+import { criterionLag, defaultPhaseWindow } from "../clocking/samplingPhase.ts";
+import { createCtlePlan } from "../equalizers/ctlePlan.ts";
+import { resolveTapRanges, TAP_TOLERANCE } from "../equalizers/txFirConstraints.ts";
+import { mmseEqualizer } from "../solvers/mmse.ts";
+import { zeroForcing } from "../solvers/zeroForcing.ts";
+import type { Pulse } from "../types.ts";
+import { type CtleChannel, ctleChannel } from "./ctleChannel.ts";
+import { criterionPhaseOf, finishEye, heavyPhaseBound, type PhaseEye, prepareEye } from "./evaluateSetting.ts";
+import {
+  type BoundSetup,
+  boundSetup,
+  boxBound,
+  boxRange,
+  type CoefficientSource,
+  leafBound,
+  type PhaseCoefficients,
+  phaseCoefficients,
+  type TapBox,
+} from "./headroomBound.ts";
+import type { CtleSetting, SearchSpace } from "./searchSpace.ts";
+
+/** One evaluated setting. */
+export interface Candidate {
+  /** Index of the CTLE setting in `space.ctleSettings`. */
+  readonly ctleIndex: number;
+  readonly ctle: CtleSetting;
+  /** Transmit FIR taps (fractions of the peak swing), main tap `taps[pre]`. */
+  readonly taps: Float64Array;
+  readonly dfeCount: number;
+  /** Sampling phase in samples relative to the equalized pulse's nominal main cursor. */
+  readonly phase: number;
+  readonly dfeTaps: Float64Array;
+  readonly dfeClipped: readonly boolean[];
+  readonly eyeHeight_V: number;
+  readonly limiterHeadroom_V: number;
+}
+
+/** What is known about one CTLE setting after the search. */
+export interface CtleOutcome {
+  /** The best setting found with this CTLE (null when none was evaluated). */
+  readonly best: Candidate | null;
+  /** No FIR setting with this CTLE does better than this (volts; −Infinity when none is legal). */
+  readonly upperBound_V: number;
+  /** True when `best` is this CTLE's optimum (its headroom reaches `upperBound_V`). */
+  readonly exact: boolean;
+}
+
+/** Options of {@link jointSearch}. */
+export interface JointSearchOptions {
+  /** DFE tap counts to optimize for, searched together (e.g. `[budget taps, 0]`). */
+  readonly dfeCounts: readonly number[];
+  /** Number of best settings kept (and proven) for the first DFE count (default 10). */
+  readonly topCount?: number;
+  /**
+   * Feasibility mode: stop at the first setting whose headroom (first DFE count) reaches this value.
+   * Then `best` is that setting, or null when no setting reaches it.
+   */
+  readonly target_V?: number;
+  /** Reports the fraction of CTLE settings done (0 … 1). */
+  readonly onProgress?: (fraction: number) => void;
+}
+
+/** What the search found. */
+export interface JointSearchResult {
+  /** Best setting per DFE count (null when no FIR setting is legal, or none reaches the target). */
+  readonly best: (Candidate | null)[];
+  /** Per DFE count and CTLE setting (in `space.ctleSettings` order), its best and its bound. */
+  readonly perCtle: CtleOutcome[][];
+  /** The best settings for the first DFE count, best first (exact: no other setting beats the last). */
+  readonly top: Candidate[];
+  /** Work done: exact evaluations, single-law bounds, bounded boxes, leaves reached. */
+  readonly stats: { exact: number; heavy: number; boxes: number; leaves: number };
+}
+
+/** The CTLE channels of a search space, filtered once and shared by every pass over the grid. */
+export interface PreparedChannels {
+  readonly channels: readonly CtleChannel[];
+}
+
+/** Largest phase offset (samples) any evaluation asks for: window, jitter kernel, timing criteria. */
+function maxPhaseOf(space: SearchSpace, spu: number): number {
+  const k = jitterKernel(space.jitter, spu, 0);
+  const kernel = Math.max(Math.abs(k.first), Math.abs(k.first + k.weights.length - 1));
+  return Math.floor(spu / 2) + kernel + spu + 2;
+}
+
+/** Filters the pulse through every CTLE setting of the grid (one FFT plan, one inverse per setting). */
+export function prepareChannels(pulse: Pulse, space: SearchSpace): PreparedChannels {
+  const plan = createCtlePlan(pulse);
+  const maxPhase = maxPhaseOf(space, pulse.samplesPerUi);
+  return { channels: space.ctleSettings.map((s) => ctleChannel(plan, space, s, maxPhase)) };
+}
+
+/** Integer grid indices k with k·step in [min, max] (the enumeration's own rule). */
+function gridIndices(min: number, max: number, step: number): number[] {
+  const lo = Math.ceil(min / step - 1e-9);
+  const hi = Math.floor(max / step + 1e-9);
+  const out: number[] = [];
+  for (let k = lo; k <= hi; k++) out.push(k);
+  return out;
+}
+
+function floorStep(x: number, step: number): number {
+  return Math.floor(x / step + 1e-9) * step;
+}
+
+/**
+ * Starting points for one CTLE channel: zero-forcing and MMSE FIRs on the channel's cursors at
+ * phase 0 (MMSE regularized by the noise relative to the swing), scaled to the peak swing and
+ * projected onto the FIR grid (each side tap rounded to the step and clamped into its range, the
+ * main tap as large as the swing allows). Illegal or failing starts are left out.
+ */
+export function startingPoints(channel: CtleChannel, space: SearchSpace): Float64Array[] {
+  const spec = space.firSpec;
+  const ranges = resolveTapRanges(spec);
+  const cursors = { h: channel.cursors(0), main: channel.pre };
+  const raw: Float64Array[] = [];
+  try {
+    const m = mmseEqualizer(cursors, spec.pre, spec.post, channel.noiseRms_V / space.scale_V).taps;
+    let s = 0;
+    for (const c of m) s += Math.abs(c);
+    if (s > 0) raw.push(Float64Array.from(m, (c) => c / s));
+  } catch {
+    // no MMSE start for all-zero cursors without noise
+  }
+  try {
+    raw.push(zeroForcing(cursors, spec.pre, spec.post, { normalize: "peak-swing" }).taps);
+  } catch {
+    // a singular zero-forcing system gives no start
+  }
+  const out: Float64Array[] = [];
+  for (const t of raw) {
+    const q = new Float64Array(t.length);
+    let side = 0;
+    for (let j = 0; j < t.length; j++) {
+      if (j === spec.pre) continue;
+      const [lo, hi] = ranges[j];
+      const k = Math.min(
+        Math.floor(hi / spec.step + 1e-9),
+        Math.max(Math.ceil(lo / spec.step - 1e-9), Math.round(t[j] / spec.step)),
+      );
+      q[j] = k * spec.step;
+      side += Math.abs(k);
+    }
+    const main = floorStep(Math.min(ranges[spec.pre][1], 1 - side * spec.step), spec.step);
+    if (main < ranges[spec.pre][0] - TAP_TOLERANCE) continue;
+    q[spec.pre] = main;
+    out.push(q);
+  }
+  return out;
+}
+
+class Found extends Error {}
+
+/**
+ * Searches the CTLE grid × transmit FIR grid (every setting `enumerateTxFirs` yields) with the DFE in
+ * closed form, for each requested DFE count, maximizing the limiter headroom at the target BER under
+ * the budget's sampling policy.
+ *
+ * The MMSE and zero-forcing starting points of every CTLE setting are bounded first, and the CTLE
+ * settings are then searched best first. Per CTLE setting the side taps are searched depth-first,
+ * one per level; every box of settings is bounded by {@link boxBound} over the sampling phases the
+ * policy can choose for it, and dropped when nothing in it can beat the threshold (the K-th best
+ * headroom found so far for the first DFE count, the best for the others). Leaves pass three tiers:
+ * {@link leafBound}, {@link heavyPhaseBound} (one exact law), then the exact eye. No bound ever
+ * underestimates, so `best` and `top` are what exhaustive evaluation of the grid gives (exact ties
+ * may resolve to an equally good setting), and every CTLE setting reports its optimum or a bound.
+ *
+ * @param pulse - channel pulse for a 1 V symbol (used when `prepared` is not given).
+ * @param space - the resolved budget.
+ * @param options - DFE counts, top-K size, feasibility target, progress callback.
+ * @param prepared - channels from {@link prepareChannels}, to share between passes.
+ */
+export function jointSearch(
+  pulse: Pulse,
+  space: SearchSpace,
+  options: JointSearchOptions,
+  prepared: PreparedChannels = prepareChannels(pulse, space),
+): JointSearchResult {
+  const counts = options.dfeCounts;
+  if (counts.length === 0) throw new RangeError("dfeCounts must hold at least one DFE tap count");
+  for (const n of counts) {
+    if (!Number.isInteger(n) || n < 0 || n > space.dfeCount) {
+      throw new RangeError(`dfeCounts must hold integers 0…${space.dfeCount} (the budget's DFE taps), got ${n}`);
+    }
+  }
+  const topCount = options.topCount ?? 10;
+  if (!Number.isInteger(topCount) || topCount < 1) throw new RangeError(`topCount must be an integer ≥ 1, got ${topCount}`);
+  const target = options.target_V;
+  if (target !== undefined && !Number.isFinite(target)) throw new RangeError(`target_V must be finite, got ${target}`);
+  const channels = prepared.channels;
+  if (channels.length !== space.ctleSettings.length) throw new RangeError("prepared channels do not match the CTLE grid");
+
+  const spec = space.firSpec;
+  const ranges = resolveTapRanges(spec);
+  const T = ranges.length;
+  const step = spec.step;
+  const sides: number[] = [];
+  for (let j = 0; j < T; j++) if (j !== spec.pre) sides.push(j);
+  const grids = sides.map((j) => gridIndices(ranges[j][0], ranges[j][1], step));
+  const [mainMin, mainMax] = ranges[spec.pre];
+  const exactGrid = Math.abs(1 / step - Math.round(1 / step)) < 1e-9 && Math.abs(mainMax / step - Math.round(mainMax / step)) < 1e-9;
+  const maxCount = Math.max(...counts);
+  const O = counts.length;
+  const spu = pulse.samplesPerUi;
+  const window = defaultPhaseWindow(spu);
+  const allPhases: number[] = [0];
+  for (let d = 1; d <= window.hi; d++) allPhases.push(-d, d);
+
+  const best: (Candidate | null)[] = counts.map(() => null);
+  const top: Candidate[] = [];
+  const found: (Candidate | null)[][] = counts.map(() => new Array(channels.length).fill(null));
+  const pruned: Float64Array[] = counts.map(() => new Float64Array(channels.length).fill(Number.NEGATIVE_INFINITY));
+  const stats = { exact: 0, heavy: 0, boxes: 0, leaves: 0 };
+
+  const kth = (): number => (top.length < topCount ? Number.NEGATIVE_INFINITY : top[top.length - 1].limiterHeadroom_V);
+  const threshold = (o: number): number => {
+    if (target !== undefined) return target;
+    if (o === 0) return kth();
+    const b = best[o];
+    return b === null ? Number.NEGATIVE_INFINITY : b.limiterHeadroom_V;
+  };
+  // A bound (or value) is worth pursuing when it can enter the result.
+  const passes = (o: number, v: number): boolean => (target !== undefined ? v >= target : v > threshold(o));
+  const pushTop = (c: Candidate) => {
+    if (top.length >= topCount && !(c.limiterHeadroom_V > kth())) return;
+    let i = top.length;
+    while (i > 0 && top[i - 1].limiterHeadroom_V < c.limiterHeadroom_V) i--;
+    top.splice(i, 0, c);
+    if (top.length > topCount) top.pop();
+  };
+
+  interface Ctx {
+    ci: number;
+    channel: CtleChannel;
+    setup: BoundSetup;
+    coef: CoefficientSource;
+    crit: Map<number, Float64Array>;
+    seen: Set<string>;
+    scratch: Float64Array;
+  }
+  // Criterion F(t) = main(t − lag) − main(t + lag) as coefficients per tap (scale included).
+  const critAt = (ctx: Ctx, t: number): Float64Array => {
+    let v = ctx.crit.get(t);
+    if (v !== undefined) return v;
+    const lag = criterionLag(space.policy as "centre" | "mueller-muller", spu);
+    const mainCoef = (u: number): Float64Array => {
+      const b = Math.floor(u);
+      const f = u - b;
+      const out = new Float64Array(T);
+      for (const [p, w] of f === 0 ? [[b, 1]] : [[b, 1 - f], [b + 1, f]]) {
+        const h = ctx.channel.cursors(p);
+        for (let j = 0; j < T; j++) {
+          const i = ctx.channel.pre + spec.pre - j;
+          if (i >= 0 && i < h.length) out[j] += w * space.scale_V * h[i];
+        }
+      }
+      return out;
+    };
+    const a = mainCoef(t - lag);
+    const c = mainCoef(t + lag);
+    v = Float64Array.from(a, (x, j) => x - c[j]);
+    ctx.crit.set(t, v);
+    return v;
+  };
+
+  const record = (ctx: Ctx, o: number, taps: Float64Array, e: PhaseEye) => {
+    const cand: Candidate = {
+      ctleIndex: ctx.ci,
+      ctle: ctx.channel.setting,
+      taps: Float64Array.from(taps),
+      dfeCount: counts[o],
+      phase: e.phase,
+      dfeTaps: e.dfeTaps,
+      dfeClipped: e.dfeClipped,
+      eyeHeight_V: e.eyeHeight_V,
+      limiterHeadroom_V: e.limiterHeadroom_V,
+    };
+    const f = found[o][ctx.ci];
+    if (f === null || e.limiterHeadroom_V > f.limiterHeadroom_V) found[o][ctx.ci] = cand;
+    const b = best[o];
+    if (b === null || e.limiterHeadroom_V > b.limiterHeadroom_V) best[o] = cand;
+    if (o === 0) pushTop(cand);
+    if (target !== undefined && e.limiterHeadroom_V >= target) throw new Found();
+  };
+  const prune = (ctx: Ctx, o: number, ub: number) => {
+    if (ub > pruned[o][ctx.ci]) pruned[o][ctx.ci] = ub;
+  };
+
+  // Evaluates one FIR setting for the live objectives, through the three tiers.
+  const leaf = (ctx: Ctx, taps: Float64Array, alive: readonly boolean[]) => {
+    const key = Array.from(taps, (c) => Math.round(c / step)).join(",");
+    if (ctx.seen.has(key)) return;
+    ctx.seen.add(key);
+    stats.leaves++;
+    const criterion = space.policy === "max-height" ? null : criterionPhaseOf(ctx.channel, space, taps);
+    const phases = criterion === null ? allPhases : [criterion];
+    for (let o = 0; o < O; o++) {
+      if (!alive[o]) continue;
+      let bestEye: PhaseEye | null = null;
+      let worstPruned = Number.NEGATIVE_INFINITY;
+      for (const t of phases) {
+        const floor = bestEye === null ? Number.NEGATIVE_INFINITY : bestEye.limiterHeadroom_V;
+        const ub1 = leafBound(ctx.setup, ctx.coef, t, taps, counts[o], ctx.scratch);
+        if (!passes(o, ub1) || !(ub1 > floor)) {
+          worstPruned = Math.max(worstPruned, ub1);
+          continue;
+        }
+        const prepared = prepareEye(ctx.channel, space, taps, counts[o], t);
+        const jj = ctx.scratch[ctx.setup.offsets.length];
+        stats.heavy++;
+        const ub2 =
+          ctx.setup.shifts.length === 0
+            ? Number.POSITIVE_INFINITY
+            : heavyPhaseBound(space, prepared, ctx.setup.shifts[jj], ctx.setup.weights[jj]);
+        if (!passes(o, ub2) || !(ub2 > floor)) {
+          worstPruned = Math.max(worstPruned, ub2);
+          continue;
+        }
+        stats.exact++;
+        const e = finishEye(space, prepared);
+        if (bestEye === null || e.limiterHeadroom_V > bestEye.limiterHeadroom_V) bestEye = e;
+      }
+      if (bestEye !== null && bestEye.limiterHeadroom_V >= worstPruned) record(ctx, o, taps, bestEye);
+      else prune(ctx, o, Math.max(worstPruned, bestEye?.limiterHeadroom_V ?? Number.NEGATIVE_INFINITY));
+    }
+  };
+
+  // The box of every setting whose side taps take grid indices within [lo[s], hi[s]] (positions in grids[s]).
+  const makeBox = (lo: Int32Array, hi: Int32Array): TapBox | null => {
+    const base = new Float64Array(T);
+    const free: number[] = [];
+    const flo: number[] = [];
+    const fhi: number[] = [];
+    const slope: number[] = [];
+    let fixedAbs = 0;
+    let mainLo = 0;
+    let freeMin = 0;
+    for (let s = 0; s < sides.length; s++) {
+      const j = sides[s];
+      const ka = grids[s][lo[s]];
+      const kb = grids[s][hi[s]];
+      if (ka === kb) {
+        base[j] = ka * step;
+        fixedAbs += Math.abs(ka);
+        continue;
+      }
+      const a = ka * step;
+      const b = kb * step;
+      free.push(j);
+      flo.push(a);
+      fhi.push(b);
+      if (a >= 0) slope.push(-1);
+      else if (b <= 0) slope.push(1);
+      else {
+        // The main tap is not affine across a sign change: widen its interval instead.
+        slope.push(0);
+        mainLo -= Math.max(-a, b);
+      }
+      freeMin += a >= 0 ? a : b <= 0 ? -b : 0;
+    }
+    const affineMain = 1 - fixedAbs * step;
+    const mHi = floorStep(Math.min(mainMax, affineMain - freeMin), step);
+    if (mHi < mainMin - TAP_TOLERANCE) return null;
+    // Flooring to the grid and the main tap's cap can only lower the main tap.
+    if (!exactGrid) mainLo -= step;
+    const over = affineMain - freeMin - mainMax;
+    if (over > 0) mainLo -= over;
+    base[spec.pre] = affineMain;
+    return {
+      base,
+      free: Int32Array.from(free),
+      lo: Float64Array.from(flo),
+      hi: Float64Array.from(fhi),
+      mainSlope: Float64Array.from(slope),
+      main: spec.pre,
+      mainLo,
+    };
+  };
+
+  // Phases the policy may choose for some setting of the box.
+  const boxPhases = (ctx: Ctx, box: TapBox): number[] => {
+    if (space.policy === "max-height") return allPhases;
+    const r = new Float64Array(2);
+    const range = (t: number): [number, number] => {
+      boxRange(box, critAt(ctx, t), T, r);
+      return [r[0], r[1]];
+    };
+    // A small tolerance keeps rounding differences from hiding a phase the leaf would choose.
+    const eps = 1e-12 * space.scale_V;
+    const out: number[] = [];
+    let prev = range(window.lo);
+    if (prev[1] >= -eps) out.push(window.lo); // some setting may have no crossing and F(lo) ≥ 0
+    for (let t = window.lo + 1; t <= window.hi; t++) {
+      const cur = range(t);
+      if (prev[0] < eps && cur[1] >= -eps) {
+        if (!out.includes(t - 1)) out.push(t - 1);
+        out.push(t);
+      }
+      prev = cur;
+    }
+    if (prev[0] < eps && !out.includes(window.hi)) out.push(window.hi); // or F(lo) < 0 and no crossing
+    return out;
+  };
+
+  // Bound of a box over its phases. Stops at the first phase that passes the threshold (the value then
+  // only orders the halves); a box that fails has every phase bounded, so its value is a true bound.
+  const boxValue = (ctx: Ctx, box: TapBox, phases: number[], o: number): number => {
+    stats.boxes++;
+    const thr = target !== undefined ? target - Number.EPSILON : threshold(o);
+    let v = Number.NEGATIVE_INFINITY;
+    for (const t of phases) {
+      const b = boxBound(ctx.setup, ctx.coef, t, box, counts[o], ctx.scratch, thr);
+      if (b > v) v = b;
+      if (passes(o, v)) break;
+    }
+    return v;
+  };
+
+  // Branch and bound over boxes of grid-index ranges: split the widest range (at the sign change
+  // first, so that the main tap stays affine), bound both halves, visit the better one first.
+  const descend = (ctx: Ctx, lo: Int32Array, hi: Int32Array, alive: readonly boolean[]) => {
+    let split = -1;
+    let width = 0;
+    for (let s = 0; s < sides.length; s++) {
+      if (hi[s] - lo[s] > width) {
+        width = hi[s] - lo[s];
+        split = s;
+      }
+    }
+    if (split < 0) {
+      let side = 0;
+      const taps = new Float64Array(T);
+      for (let s = 0; s < sides.length; s++) {
+        taps[sides[s]] = grids[s][lo[s]] * step;
+        side += Math.abs(grids[s][lo[s]]);
+      }
+      // The enumeration's rule: the main tap is the largest grid value ≤ min(max, 1 − Σ|side|).
+      const main = floorStep(Math.min(mainMax, 1 - side * step), step);
+      if (main < mainMin - TAP_TOLERANCE) return;
+      taps[spec.pre] = main;
+      leaf(ctx, taps, alive);
+      return;
+    }
+    const g = grids[split];
+    let mid = (lo[split] + hi[split]) >> 1;
+    if (g[lo[split]] < 0 && g[hi[split]] > 0) {
+      let z = lo[split];
+      while (g[z + 1] < 0) z++;
+      mid = z; // [negative values] and [0 and positive values]
+    }
+    const halves: { lo: Int32Array; hi: Int32Array; score: number; alive: boolean[] }[] = [];
+    for (const [a, b] of [
+      [lo[split], mid],
+      [mid + 1, hi[split]],
+    ]) {
+      const clo = Int32Array.from(lo);
+      const chi = Int32Array.from(hi);
+      clo[split] = a;
+      chi[split] = b;
+      if (clo.every((v, s) => v === chi[s])) {
+        // A single setting: its own tiers decide.
+        halves.push({ lo: clo, hi: chi, score: Number.POSITIVE_INFINITY, alive: alive.slice() });
+        continue;
+      }
+      const box = makeBox(clo, chi);
+      if (box === null) continue;
+      const phases = boxPhases(ctx, box);
+      const childAlive = alive.map(() => false);
+      let score = Number.NEGATIVE_INFINITY;
+      for (let o = 0; o < O; o++) {
+        if (!alive[o]) continue;
+        const ub = boxValue(ctx, box, phases, o);
+        if (passes(o, ub)) childAlive[o] = true;
+        else prune(ctx, o, ub);
+        if (o === alive.indexOf(true)) score = ub;
+      }
+      // A live half stays live: its bound may be partial (see boxValue), so it is not re-tested here.
+      if (childAlive.some(Boolean)) halves.push({ lo: clo, hi: chi, score, alive: childAlive });
+    }
+    halves.sort((x, y) => y.score - x.score);
+    for (const h of halves) descend(ctx, h.lo, h.hi, h.alive);
+  };
+
+  const contexts: Ctx[] = channels.map((channel, ci) => {
+    const setup = boundSetup(space, channel, maxCount);
+    const cache = new Map<number, PhaseCoefficients>();
+    const coef = (p: number): PhaseCoefficients => {
+      let c = cache.get(p);
+      if (c === undefined) {
+        c = phaseCoefficients(setup, space, channel, p);
+        cache.set(p, c);
+      }
+      return c;
+    };
+    return {
+      ci,
+      channel,
+      setup,
+      coef,
+      crit: new Map(),
+      seen: new Set(),
+      scratch: new Float64Array(setup.offsets.length + 4),
+    };
+  });
+  const everyone = new Array<boolean>(O).fill(true);
+  try {
+    // Order the CTLE settings by the single-law bound of their first starting point.
+    const seeds = contexts.map((ctx) => startingPoints(ctx.channel, space));
+    const keys = contexts.map((ctx, i) => {
+      const s = seeds[i][0];
+      if (s === undefined) return Number.NEGATIVE_INFINITY;
+      const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(ctx.channel, space, s);
+      const ub = leafBound(ctx.setup, ctx.coef, phase, s, counts[0], ctx.scratch);
+      const jj = ctx.scratch[ctx.setup.offsets.length];
+      if (ctx.setup.shifts.length === 0) return ub;
+      return heavyPhaseBound(space, prepareEye(ctx.channel, space, s, counts[0], phase), ctx.setup.shifts[jj], ctx.setup.weights[jj]);
+    });
+    const order = contexts.map((_, i) => i).sort((a, b) => keys[b] - keys[a] || a - b);
+    let done = 0;
+    for (const ci of order) {
+      const ctx = contexts[ci];
+      for (const s of seeds[ci]) leaf(ctx, s, everyone);
+      const lo = new Int32Array(sides.length);
+      const hi = Int32Array.from(grids, (g) => g.length - 1);
+      const root = grids.some((g) => g.length === 0) ? null : makeBox(lo, hi);
+      if (root !== null) {
+        const phases = boxPhases(ctx, root);
+        const alive = everyone.map((_, o) => {
+          const ub = boxValue(ctx, root, phases, o);
+          if (passes(o, ub)) return true;
+          prune(ctx, o, ub);
+          return false;
+        });
+        if (alive.some(Boolean)) descend(ctx, lo, hi, alive);
+      }
+      done++;
+      options.onProgress?.(done / contexts.length);
+    }
+  } catch (e) {
+    if (!(e instanceof Found)) throw e;
+  }
+  if (target !== undefined && best[0] !== null && best[0].limiterHeadroom_V < target) best[0] = null;
+  const perCtle: CtleOutcome[][] = counts.map((_, o) =>
+    channels.map((_, ci) => {
+      const f = found[o][ci];
+      const v = f === null ? Number.NEGATIVE_INFINITY : f.limiterHeadroom_V;
+      const upper = Math.max(v, pruned[o][ci]);
+      return { best: f, upperBound_V: upper, exact: f !== null && v >= pruned[o][ci] };
+    }),
+  );
+  return { best, perCtle, top, stats };
+}

@@ -1,0 +1,214 @@
+// The joint optimizer's entry point: the best setting for a pulse under a budget, with the proof
+// (eye, headroom), the linear-only comparison, the verdict, the headroom surface and the top settings.
+import { eyeWidth } from "../analysis/bathtub.ts";
+import type { BudgetInput } from "../contract/budget.ts";
+import type { Pulse } from "../types.ts";
+import type { CtleChannel } from "./ctleChannel.ts";
+import { type PhaseEye, phaseEye } from "./evaluateSetting.ts";
+import { type Candidate, jointSearch, type PreparedChannels, prepareChannels } from "./jointSearch.ts";
+import { refineFir } from "./refineFir.ts";
+import { type SearchSpace, searchSpace } from "./searchSpace.ts";
+import { type Verdict, verdict } from "./verdict.ts";
+
+/** One equalizer setting with its figures (plain JSON). */
+export interface SettingResult {
+  /** Transmit FIR taps from the earliest pre-cursor tap (fractions of the peak swing). */
+  readonly tx: { readonly taps: number[] };
+  readonly ctle: { readonly gDc_dB: number; readonly gDc2_dB: number };
+  /** DFE taps in volts at the limiter input, their limits (null: none) and which hit them. */
+  readonly dfe: { readonly taps: number[]; readonly limits_V: (number | null)[]; readonly clipped: boolean[] };
+  readonly eye: { readonly eyeHeight_V: number; readonly eyeWidth_UI: number };
+  readonly limiterHeadroom_V: number;
+  /** Sampling phase in UI relative to the equalized pulse's nominal main cursor. */
+  readonly samplingPhase_UI: number;
+  /** Noise rms at the limiter input with this CTLE setting. */
+  readonly noiseRms_V: number;
+}
+
+/** One of the best settings, for plotting. */
+export interface TopSetting {
+  readonly ctle: { readonly gDc_dB: number; readonly gDc2_dB: number };
+  readonly txTaps: number[];
+  readonly dfeTaps: number[];
+  readonly samplingPhase_UI: number;
+  readonly eyeHeight_V: number;
+  readonly limiterHeadroom_V: number;
+}
+
+/** The response of the contract's `optimize` command, with the extras the web app plots. */
+export interface OptimizeResult extends SettingResult {
+  /** The best setting without DFE (transmit FIR + CTLE only). */
+  readonly linearOnly: SettingResult;
+  readonly verdict: Verdict;
+  /** Clocking used: scheme, tracking bandwidth, sampling policy and the jitter left at the sampler. */
+  readonly clocking: {
+    readonly scheme: string;
+    readonly policy: string;
+    readonly bandwidth_Hz: number;
+    readonly rjRms_UI: number;
+    readonly djPp_UI: number;
+  };
+  /**
+   * Best headroom per CTLE setting (rows: `gDc2_dB`, columns: `gDc_dB`). `headroom_V` is exact where
+   * known (null otherwise); `upperBound_V` bounds every cell (null when no FIR setting is legal).
+   */
+  readonly surface: {
+    readonly gDc_dB: number[];
+    readonly gDc2_dB: number[];
+    readonly headroom_V: (number | null)[][];
+    readonly upperBound_V: (number | null)[][];
+  };
+  /** The best settings (with the budget's DFE), best first. */
+  readonly top: TopSetting[];
+  /** When the budget's FIR is continuous: what the Nelder–Mead refinement added over the scaffold grid. */
+  readonly refinement: { readonly gain_V: number; readonly linearGain_V: number; readonly evaluations: number } | null;
+  /** Work done by the search. */
+  readonly search: { readonly exactEvaluations: number; readonly boundedBoxes: number; readonly settingsReached: number };
+}
+
+/** Options of {@link optimize}. */
+export interface OptimizeOptions {
+  /** Progress 0 … 1 (for a progress bar). */
+  readonly onProgress?: (fraction: number) => void;
+  /** Number of top settings returned (default 10). */
+  readonly topCount?: number;
+}
+
+/** The optimizer's result together with what a tuning run needs to draw it. */
+export interface OptimizeDetail {
+  readonly result: OptimizeResult;
+  readonly space: SearchSpace;
+  readonly prepared: PreparedChannels;
+  /** Best setting with the budget's DFE and best linear-only setting, with their channels and eyes. */
+  readonly full: { readonly taps: Float64Array; readonly channel: CtleChannel; readonly eye: PhaseEye };
+  readonly linear: { readonly taps: Float64Array; readonly channel: CtleChannel; readonly eye: PhaseEye };
+}
+
+/**
+ * Optimizes transmit FIR × CTLE × DFE for a pulse under a budget (see {@link jointSearch}): the best
+ * setting with the budget's DFE taps and the best without DFE in one pass, then the fewest DFE taps
+ * that meet the required headroom (feasibility passes, bisecting the tap count: more taps never
+ * remove a setting's ability to cancel), then — for a continuous FIR — Nelder–Mead refinement.
+ *
+ * @param pulse - channel pulse response for a 1 V symbol.
+ * @param budget - the budget (validated; RangeError names the faulty field).
+ * @param options - progress callback, number of top settings.
+ */
+export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: OptimizeOptions = {}): OptimizeDetail {
+  const space = searchSpace(pulse, budget);
+  const report = options.onProgress ?? (() => {});
+  report(0);
+  const prepared = prepareChannels(pulse, space);
+  const N = space.dfeCount;
+  const counts = N > 0 ? [N, 0] : [0];
+  const main = jointSearch(pulse, space, { dfeCounts: counts, topCount: options.topCount, onProgress: (f) => report(0.75 * f) }, prepared);
+  const fullC = main.best[0];
+  const linC = main.best[counts.length - 1];
+  if (fullC === null || linC === null) {
+    throw new RangeError("budget.tx: no transmit FIR setting satisfies the tap ranges, the step and Σ|c| ≤ 1");
+  }
+  let stats = { ...main.stats };
+  const required = space.budget.requiredHeadroom_V;
+
+  // Fewest DFE taps: linear and full are known; bisect between them with feasibility passes.
+  let fewest: number | null = null;
+  if (fullC.limiterHeadroom_V >= required) {
+    if (linC.limiterHeadroom_V >= required) fewest = 0;
+    else {
+      let lo = 0; // fails
+      let hi = N; // succeeds
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        const r = jointSearch(pulse, space, { dfeCounts: [mid], target_V: required }, prepared);
+        stats = { exact: stats.exact + r.stats.exact, heavy: stats.heavy + r.stats.heavy, boxes: stats.boxes + r.stats.boxes, leaves: stats.leaves + r.stats.leaves };
+        if (r.best[0] !== null) hi = mid;
+        else lo = mid;
+      }
+      fewest = hi;
+    }
+  }
+  report(0.9);
+
+  const channelOf = (c: Candidate) => prepared.channels[c.ctleIndex];
+  let full = { taps: fullC.taps, channel: channelOf(fullC), eye: phaseEye(channelOf(fullC), space, fullC.taps, fullC.dfeCount, fullC.phase) };
+  let linear = { taps: linC.taps, channel: channelOf(linC), eye: phaseEye(channelOf(linC), space, linC.taps, 0, linC.phase) };
+  let refinement: OptimizeResult["refinement"] = null;
+  if (space.continuousFir) {
+    const rf = refineFir(full.channel, space, N, [full.taps]);
+    const rl = N > 0 ? refineFir(linear.channel, space, 0, [linear.taps]) : rf;
+    const gain = Math.max(0, rf.eye.limiterHeadroom_V - full.eye.limiterHeadroom_V);
+    const linearGain = Math.max(0, rl.eye.limiterHeadroom_V - linear.eye.limiterHeadroom_V);
+    if (rf.eye.limiterHeadroom_V > full.eye.limiterHeadroom_V) full = { taps: rf.taps, channel: full.channel, eye: rf.eye };
+    if (rl.eye.limiterHeadroom_V > linear.eye.limiterHeadroom_V) {
+      linear = { taps: rl.taps, channel: linear.channel, eye: rl.eye };
+    }
+    refinement = { gain_V: gain, linearGain_V: linearGain, evaluations: rf.evaluations + (N > 0 ? rl.evaluations : 0) };
+  }
+  report(0.97);
+
+  const setting = (s: { taps: Float64Array; channel: CtleChannel; eye: PhaseEye }): SettingResult => {
+    const spu = s.channel.pulse.samplesPerUi;
+    const limits = Array.from(space.dfeLimits_V.subarray(0, s.eye.dfeTaps.length), (l) => (Number.isFinite(l) ? l : null));
+    return {
+      tx: { taps: Array.from(s.taps) },
+      ctle: { gDc_dB: s.channel.setting.gDc_dB, gDc2_dB: s.channel.setting.gDc2_dB },
+      dfe: { taps: Array.from(s.eye.dfeTaps), limits_V: limits, clipped: [...s.eye.dfeClipped] },
+      eye: {
+        eyeHeight_V: s.eye.eyeHeight_V,
+        eyeWidth_UI: eyeWidth(s.eye.eye, s.eye.phase, space.budget.targetBer).eyeWidth_UI,
+      },
+      limiterHeadroom_V: s.eye.limiterHeadroom_V,
+      samplingPhase_UI: s.eye.phase / spu,
+      noiseRms_V: s.channel.noiseRms_V,
+    };
+  };
+  const fullCandidate: Candidate = { ...fullC, taps: full.taps, limiterHeadroom_V: full.eye.limiterHeadroom_V, eyeHeight_V: full.eye.eyeHeight_V };
+  const linCandidate: Candidate = { ...linC, taps: linear.taps, limiterHeadroom_V: linear.eye.limiterHeadroom_V, eyeHeight_V: linear.eye.eyeHeight_V };
+  const v = verdict(
+    space,
+    { candidate: linCandidate, mainCursor_V: linear.eye.eye.main(linear.eye.phase), noiseRms_V: linear.channel.noiseRms_V },
+    { candidate: fullCandidate },
+    fewest,
+  );
+
+  const g1 = space.ctleAxes.gDc_dB;
+  const g2 = space.ctleAxes.gDc2_dB;
+  const cell = (i2: number, i1: number) => main.perCtle[0][i2 * g1.length + i1];
+  const result: OptimizeResult = {
+    ...setting(full),
+    linearOnly: setting(linear),
+    verdict: v,
+    clocking: {
+      scheme: space.jitter.scheme,
+      policy: space.policy,
+      bandwidth_Hz: space.jitter.bandwidth_Hz,
+      rjRms_UI: space.jitter.rjRms_UI,
+      djPp_UI: space.jitter.djPp_UI,
+    },
+    surface: {
+      gDc_dB: [...g1],
+      gDc2_dB: [...g2],
+      headroom_V: g2.map((_, i2) => g1.map((_, i1) => (cell(i2, i1).exact ? (cell(i2, i1).best as Candidate).limiterHeadroom_V : null))),
+      upperBound_V: g2.map((_, i2) =>
+        g1.map((_, i1) => (Number.isFinite(cell(i2, i1).upperBound_V) ? cell(i2, i1).upperBound_V : null)),
+      ),
+    },
+    top: main.top.map((c) => ({
+      ctle: { gDc_dB: c.ctle.gDc_dB, gDc2_dB: c.ctle.gDc2_dB },
+      txTaps: Array.from(c.taps),
+      dfeTaps: Array.from(c.dfeTaps),
+      samplingPhase_UI: c.phase / pulse.samplesPerUi,
+      eyeHeight_V: c.eyeHeight_V,
+      limiterHeadroom_V: c.limiterHeadroom_V,
+    })),
+    refinement,
+    search: { exactEvaluations: stats.exact, boundedBoxes: stats.boxes, settingsReached: stats.leaves },
+  };
+  report(1);
+  return { result, space, prepared, full, linear };
+}
+
+/** {@link optimizeDetailed}'s plain-JSON result: the contract's `optimize` response and its extras. */
+export function optimize(pulse: Pulse, budget: BudgetInput, options: OptimizeOptions = {}): OptimizeResult {
+  return optimizeDetailed(pulse, budget, options).result;
+}

@@ -1,0 +1,122 @@
+// A budget resolved against a pulse: the grids to search, the scale of the signal at the limiter,
+// the jitter left at the sampler, and every check that needs both.
+import type { Jitter } from "../analysis/jitterKernel.ts";
+import { type SamplerJitter, samplerJitter } from "../clocking/jitterTransfer.ts";
+import type { SamplingPolicy } from "../clocking/samplingPhase.ts";
+import { type Budget, type BudgetInput, budgetSchema, gridValues } from "../contract/budget.ts";
+import { formatPath } from "../contract/common.ts";
+import type { CtleParams } from "../equalizers/ctleResponse.ts";
+import type { TxFirSpec } from "../equalizers/txFirConstraints.ts";
+import { assertPulse } from "../pulse/assertPulse.ts";
+import type { Modulation, Pulse } from "../types.ts";
+
+/** Step of the scaffold grid searched before the refinement when the budget's FIR has no step. */
+export const CONTINUOUS_SCAFFOLD_STEP = 0.05;
+
+/** One CTLE setting of the grid. */
+export interface CtleSetting {
+  readonly gDc_dB: number;
+  readonly gDc2_dB: number;
+}
+
+/** Everything a search needs, derived from a budget and a pulse. */
+export interface SearchSpace {
+  readonly budget: Budget;
+  readonly modulation: Modulation;
+  /** Symbol amplitude at the transmitter: `txSwing_Vppd / 2` (volts per unit of pulse). */
+  readonly scale_V: number;
+  /** Spacing of adjacent symbol levels (NRZ 2, PAM4 2/3) — the eye's nominal height per volt of main cursor. */
+  readonly levelGap: number;
+  /** Symbol rate in Hz (`1/ui_s`). */
+  readonly baud_Hz: number;
+  /** The CTLE grid, `gDc2_dB` varying slowest; `ctleAxes` gives the two axes. */
+  readonly ctleSettings: readonly CtleSetting[];
+  readonly ctleAxes: { readonly gDc_dB: readonly number[]; readonly gDc2_dB: readonly number[] };
+  /** Fixed CTLE corners. */
+  readonly ctleCorners: Omit<CtleParams, "gDc_dB" | "gDc2_dB">;
+  /** The transmit FIR grid searched (the scaffold step when the budget's FIR is continuous). */
+  readonly firSpec: TxFirSpec;
+  /** True when the budget gives no FIR step: taps are continuous and refined after the grid search. */
+  readonly continuousFir: boolean;
+  /** Number of DFE taps and the limit of each, volts (Infinity for none). */
+  readonly dfeCount: number;
+  readonly dfeLimits_V: Float64Array;
+  /** Jitter at the sampler after the clocking scheme's tracking. */
+  readonly jitter: SamplerJitter;
+  readonly policy: SamplingPolicy;
+}
+
+/**
+ * Validates a budget (zod schema of the contract) and throws a RangeError whose message starts with
+ * the field's path (`budget.ctle.gDc_dB: …`).
+ */
+export function resolveBudget(budget: BudgetInput | Budget): Budget {
+  const r = budgetSchema.safeParse(budget);
+  if (!r.success) {
+    const issue = r.error.issues[0];
+    const path = formatPath(issue.path);
+    throw new RangeError(`budget${path === "" ? "" : `.${path}`}: ${issue.message}`);
+  }
+  return r.data;
+}
+
+/** Number of bits one symbol carries. */
+export function bitsPerSymbol(modulation: Modulation): number {
+  return modulation === "pam4" ? 2 : 1;
+}
+
+/**
+ * Resolves a budget against a pulse.
+ *
+ * @param pulse - channel pulse response for a 1 V symbol.
+ * @param budget - the budget (validated here).
+ * @throws RangeError naming the field when the budget is invalid or its bit rate does not match the
+ *   pulse's UI (within 1 %).
+ */
+export function searchSpace(pulse: Pulse, budget: BudgetInput | Budget): SearchSpace {
+  assertPulse(pulse);
+  const b = resolveBudget(budget);
+  const baud_Hz = 1 / pulse.ui_s;
+  if (b.bitRate_bps !== undefined) {
+    const want = baud_Hz * bitsPerSymbol(b.modulation);
+    if (Math.abs(b.bitRate_bps / want - 1) > 0.01) {
+      throw new RangeError(
+        `budget.bitRate_bps: ${b.bitRate_bps} b/s does not match the pulse (UI ${pulse.ui_s} s gives ${want} b/s for ${b.modulation})`,
+      );
+    }
+  }
+  const g1 = gridValues(b.ctle.gDc_dB);
+  const g2raw = b.ctle.gDc2_dB;
+  const g2 = g2raw === undefined ? [0] : typeof g2raw === "number" ? [g2raw] : gridValues(g2raw);
+  const ctleSettings: CtleSetting[] = [];
+  for (const gDc2_dB of g2) for (const gDc_dB of g1) ctleSettings.push({ gDc_dB, gDc2_dB });
+  const continuousFir = b.tx.step === undefined;
+  const firSpec: TxFirSpec = {
+    pre: b.tx.pre,
+    post: b.tx.post,
+    step: b.tx.step ?? CONTINUOUS_SCAFFOLD_STEP,
+    ranges: b.tx.ranges,
+  };
+  const dfeCount = b.dfe.taps;
+  const lim = b.dfe.limits_V;
+  const dfeLimits_V = Float64Array.from({ length: dfeCount }, (_, k) =>
+    lim === undefined ? Number.POSITIVE_INFINITY : typeof lim === "number" ? lim : lim[k],
+  );
+  const linkJitter: (Jitter & { djFreq_Hz?: number }) | undefined = b.jitter;
+  return {
+    budget: b,
+    modulation: b.modulation,
+    scale_V: b.txSwing_Vppd / 2,
+    levelGap: b.modulation === "pam4" ? 2 / 3 : 2,
+    baud_Hz,
+    ctleSettings,
+    ctleAxes: { gDc_dB: g1, gDc2_dB: g2 },
+    ctleCorners: { fz_Hz: b.ctle.fz_Hz, fp1_Hz: b.ctle.fp1_Hz, fp2_Hz: b.ctle.fp2_Hz, fLf_Hz: b.ctle.fLf_Hz },
+    firSpec,
+    continuousFir,
+    dfeCount,
+    dfeLimits_V,
+    jitter: samplerJitter(linkJitter, b.clocking.scheme, b.clocking.bandwidth_Hz, baud_Hz),
+    policy: b.clocking.policy,
+  };
+}

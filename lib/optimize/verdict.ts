@@ -1,0 +1,106 @@
+// The verdict of a tuning run: is linear equalization (transmit FIR + CTLE) enough, and if not, why,
+// and how few DFE taps close the link.
+import { qFromBer } from "../analysis/ber.ts";
+import type { Candidate } from "./jointSearch.ts";
+import type { SearchSpace } from "./searchSpace.ts";
+
+/** The verdict of the contract's `optimize` response. */
+export interface Verdict {
+  /** The best linear-only setting misses the required headroom while the DFE search space meets it. */
+  readonly linearReachExhausted: boolean;
+  /** Why, in words for a reviewer (with the numbers). */
+  readonly reasons: string[];
+  /** Fewest DFE taps whose best setting meets the required headroom (0: linear suffices; null: none does). */
+  readonly fewestDfeTaps: number | null;
+}
+
+const mV = (v: number) => `${(v * 1000).toFixed(1)} mV`;
+
+/**
+ * Where the eye of a setting went: the main cursor at the limiter, the part noise takes at the
+ * target BER (`2·Q·σ`), and the part ISI and jitter take (the rest of the ideal `gap·g₀`).
+ */
+export interface EyeBudget {
+  readonly mainCursor_V: number;
+  readonly noiseClosure_V: number;
+  readonly isiClosure_V: number;
+  /** Share of the peak swing the transmit FIR spends on its side taps (de-emphasis, pre-shoot). */
+  readonly sideTapShare: number;
+}
+
+/** The closure breakdown of a candidate (see {@link EyeBudget}). */
+export function eyeBudget(space: SearchSpace, candidate: Candidate, mainCursor_V: number, noiseRms_V: number): EyeBudget {
+  const q = qFromBer(space.budget.targetBer);
+  const ideal = space.levelGap * mainCursor_V;
+  const noiseClosure_V = 2 * q * noiseRms_V;
+  const isiClosure_V = Math.max(0, ideal - noiseClosure_V - candidate.eyeHeight_V);
+  let side = 0;
+  candidate.taps.forEach((c, j) => {
+    if (j !== space.firSpec.pre) side += Math.abs(c);
+  });
+  return { mainCursor_V, noiseClosure_V, isiClosure_V, sideTapShare: side };
+}
+
+/**
+ * Builds the verdict. `linearReachExhausted` is true when the best linear-only headroom is below
+ * `requiredHeadroom_V` while the best with the budget's DFE reaches it. The reasons name, with
+ * numbers: the shortfall; the noise floor (de-emphasis and the CTLE's DC attenuation bring the main
+ * cursor down toward what the noise takes at the target BER); the residual ISI; the swing spent on
+ * side taps; and what the DFE recovers.
+ *
+ * @param space - the resolved budget.
+ * @param linear - best setting without DFE (with its main cursor and noise at the limiter).
+ * @param full - best setting with the budget's DFE taps.
+ * @param fewestDfeTaps - fewest taps that reach the required headroom (null: none).
+ */
+export function verdict(
+  space: SearchSpace,
+  linear: { candidate: Candidate; mainCursor_V: number; noiseRms_V: number },
+  full: { candidate: Candidate },
+  fewestDfeTaps: number | null,
+): Verdict {
+  const required = space.budget.requiredHeadroom_V;
+  const lin = linear.candidate.limiterHeadroom_V;
+  const dfe = full.candidate.limiterHeadroom_V;
+  const exhausted = lin < required && dfe >= required && space.dfeCount > 0;
+  const ber = space.budget.targetBer.toExponential(0);
+  const reasons: string[] = [];
+  const b = eyeBudget(space, linear.candidate, linear.mainCursor_V, linear.noiseRms_V);
+  const ctle = linear.candidate.ctle;
+  if (lin >= required) {
+    reasons.push(
+      `Linear equalization alone (transmit FIR + CTLE) leaves ${mV(lin)} of limiter headroom at BER ${ber}, meeting the required ${mV(required)}.`,
+    );
+  } else {
+    reasons.push(
+      `Linear equalization alone (transmit FIR + CTLE) leaves ${mV(lin)} of limiter headroom at BER ${ber}, short of the required ${mV(required)}.`,
+    );
+    const parts: { size: number; text: string }[] = [
+      {
+        size: b.noiseClosure_V,
+        text:
+          `Noise floor: with ${(b.sideTapShare * 100).toFixed(0)} % of the swing spent on de-emphasis and pre-shoot and the CTLE's DC gain at ` +
+          `${ctle.gDc_dB} dB${ctle.gDc2_dB !== 0 ? ` (low-frequency stage ${ctle.gDc2_dB} dB)` : ""}, the main cursor reaches the limiter at ` +
+          `${mV(b.mainCursor_V)}, while the noise there (${mV(linear.noiseRms_V)} rms) takes ${mV(b.noiseClosure_V)} of the eye at BER ${ber}.`,
+      },
+      {
+        size: b.isiClosure_V,
+        text: `${space.jitter.rjRms_UI > 0 || space.jitter.djPp_UI > 0 ? "Residual ISI and jitter close" : "Residual ISI closes"} a further ${mV(b.isiClosure_V)} of the eye that linear taps cannot remove without costing swing.`,
+      },
+    ];
+    parts.sort((x, y) => y.size - x.size);
+    for (const p of parts) reasons.push(p.text);
+  }
+  if (space.dfeCount > 0) {
+    if (dfe >= required) {
+      reasons.push(
+        fewestDfeTaps !== null && fewestDfeTaps > 0
+          ? `A DFE recovers it: ${fewestDfeTaps === 1 ? "one tap reaches" : `${fewestDfeTaps} taps reach`} the required headroom; with ${space.dfeCount === 1 ? "it" : `all ${space.dfeCount}`} the headroom is ${mV(dfe)}.`
+          : `With the DFE (${space.dfeCount} taps) the headroom is ${mV(dfe)}.`,
+      );
+    } else {
+      reasons.push(`Even with ${space.dfeCount} DFE taps the headroom is ${mV(dfe)}, short of the required ${mV(required)}: the link does not close with this budget.`);
+    }
+  }
+  return { linearReachExhausted: exhausted, reasons, fewestDfeTaps };
+}

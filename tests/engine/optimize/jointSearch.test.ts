@@ -1,0 +1,128 @@
+// The branch-and-bound joint search against exhaustive evaluation of the grid (the oracle), its
+// bounds against exact eyes (fast-check), starting points and edges.
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { enumerateTxFirs } from "../../../lib/equalizers/enumerateTxFirs.ts";
+import { isLegalTxFir } from "../../../lib/equalizers/txFirConstraints.ts";
+import { evaluateSetting, phaseEye } from "../../../lib/optimize/evaluateSetting.ts";
+import { boundSetup, leafBound, phaseCoefficients } from "../../../lib/optimize/headroomBound.ts";
+import { jointSearch, prepareChannels, startingPoints } from "../../../lib/optimize/jointSearch.ts";
+import { searchSpace } from "../../../lib/optimize/searchSpace.ts";
+import { cursorPulse } from "../analysis/helpers.ts";
+
+const ui = 1e-10;
+const channel = cursorPulse([0, 0.04, 0.12, 0.55, 0.3, 0.16, 0.09, 0.05, 0.03, 0.02, 0.01, 0], 3, 8, ui);
+
+function budget(policy: "centre" | "max-height" | "mueller-muller", mod: "nrz" | "pam4", jitter: boolean) {
+  return {
+    modulation: mod,
+    txSwing_Vppd: 0.8,
+    noiseRms_V: 0.003,
+    limiterSensitivity_V: 0.01,
+    targetBer: 1e-10,
+    jitter: jitter ? { rjRms_UI: 0.02, djPp_UI: 0.1 } : undefined,
+    tx: { pre: 1, post: 1, step: 0.05, ranges: [[-0.25, 0], [0.5, 1], [-0.35, 0.1]] as [number, number][] },
+    ctle: { gDc_dB: [-6, 0, 3] as [number, number, number], fz_Hz: 2.5e9, fp1_Hz: 2.5e9, fp2_Hz: 1e10 },
+    dfe: { taps: 2, limits_V: [0.08, 0.03] },
+    clocking: { policy },
+  };
+}
+
+describe("jointSearch — oracle: exhaustive evaluation of the grid", () => {
+  it.each([
+    ["centre", "nrz", false],
+    ["centre", "nrz", true],
+    ["mueller-muller", "pam4", false],
+    ["max-height", "nrz", true],
+    ["max-height", "pam4", false],
+  ] as const)("%s / %s / jitter %s: best, every CTLE's optimum or bound, and the top 5 match", (policy, mod, jit) => {
+    const space = searchSpace(channel, budget(policy, mod, jit));
+    const prepared = prepareChannels(channel, space);
+    const r = jointSearch(channel, space, { dfeCounts: [2, 0], topCount: 5 }, prepared);
+    const firs = [...enumerateTxFirs(space.firSpec)];
+    for (const [o, n] of [
+      [0, 2],
+      [1, 0],
+    ]) {
+      const all: number[] = [];
+      prepared.channels.forEach((ch, ci) => {
+        let local = Number.NEGATIVE_INFINITY;
+        for (const f of firs) {
+          const v = evaluateSetting(ch, space, f, n).limiterHeadroom_V;
+          all.push(v);
+          local = Math.max(local, v);
+        }
+        const out = r.perCtle[o][ci];
+        if (out.exact) expect(out.best?.limiterHeadroom_V).toBe(local);
+        expect(local).toBeLessThanOrEqual(out.upperBound_V);
+      });
+      all.sort((a, b) => b - a);
+      expect(r.best[o]?.limiterHeadroom_V).toBe(all[0]);
+      if (o === 0) expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 5));
+    }
+  });
+
+  it("feasibility mode finds a setting reaching the target, and none above the optimum", () => {
+    const space = searchSpace(channel, budget("centre", "nrz", false));
+    const full = jointSearch(channel, space, { dfeCounts: [2] });
+    const best = full.best[0]?.limiterHeadroom_V as number;
+    const yes = jointSearch(channel, space, { dfeCounts: [2], target_V: best - 0.005 });
+    expect(yes.best[0]?.limiterHeadroom_V).toBeGreaterThanOrEqual(best - 0.005);
+    const no = jointSearch(channel, space, { dfeCounts: [2], target_V: best + 1e-6 });
+    expect(no.best[0]).toBeNull();
+  });
+});
+
+describe("headroom bounds", () => {
+  it("property: the leaf bound never falls below the exact headroom (NRZ/PAM4, jitter, DFE limits)", () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom("nrz" as const, "pam4" as const),
+        fc.boolean(),
+        fc.integer({ min: 0, max: 2 }),
+        fc.integer({ min: -4, max: 4 }),
+        fc.integer({ min: 0, max: 5 }),
+        fc.integer({ min: 0, max: 7 }),
+        (mod, jit, n, phase, kPre, kPost) => {
+          const space = searchSpace(channel, budget("centre", mod, jit));
+          const ch = prepareChannels(channel, space).channels[1];
+          const setup = boundSetup(space, ch, 2);
+          const taps = Float64Array.of(-kPre * 0.05, 0, 0.1 - kPost * 0.05);
+          taps[1] = Math.min(1, 1 - Math.abs(taps[0]) - Math.abs(taps[2]));
+          const coef = (p: number) => phaseCoefficients(setup, space, ch, p);
+          const ub = leafBound(setup, coef, phase, taps, n, new Float64Array(setup.offsets.length + 4));
+          const exact = phaseEye(ch, space, taps, n, phase).limiterHeadroom_V;
+          return ub >= exact;
+        },
+      ),
+      { seed: 77, numRuns: 60 },
+    );
+  });
+});
+
+describe("startingPoints", () => {
+  it("MMSE and zero-forcing starts are legal settings of the FIR grid", () => {
+    const space = searchSpace(channel, budget("centre", "nrz", false));
+    for (const ch of prepareChannels(channel, space).channels) {
+      const s = startingPoints(ch, space);
+      expect(s.length).toBeGreaterThan(0);
+      for (const t of s) expect(isLegalTxFir(t, space.firSpec)).toBe(true);
+    }
+  });
+});
+
+describe("jointSearch — edges", () => {
+  it("rejects DFE counts beyond the budget and empty objectives", () => {
+    const space = searchSpace(channel, budget("centre", "nrz", false));
+    expect(() => jointSearch(channel, space, { dfeCounts: [3] })).toThrow(/dfeCounts/);
+    expect(() => jointSearch(channel, space, { dfeCounts: [] })).toThrow(/dfeCounts/);
+    expect(() => jointSearch(channel, space, { dfeCounts: [0], topCount: 0 })).toThrow(/topCount/);
+  });
+
+  it("a FIR grid with no legal setting yields no best", () => {
+    const b = budget("centre", "nrz", false);
+    const space = searchSpace(channel, { ...b, tx: { pre: 0, post: 1, step: 0.1, ranges: [[0.5, 1], [-0.9, -0.8]] } });
+    const r = jointSearch(channel, space, { dfeCounts: [0] });
+    expect(r.best[0]).toBeNull();
+  });
+});
