@@ -1,8 +1,9 @@
 // The channel after one CTLE setting, prepared for a search: filtered once, noise at the limiter
 // known, and symbol-spaced cursors per sampling phase computed once and kept.
+import { jitterKernel } from "../analysis/jitterKernel.ts";
 import { limiterNoise } from "../analysis/limiterNoise.ts";
 import { ctleNoiseGain } from "../equalizers/ctleNoiseGain.ts";
-import type { CtlePlan } from "../equalizers/ctlePlan.ts";
+import { type CtlePlan, createCtlePlan } from "../equalizers/ctlePlan.ts";
 import type { CtleParams } from "../equalizers/ctleResponse.ts";
 import type { Pulse } from "../types.ts";
 import type { CtleSetting, SearchSpace } from "./searchSpace.ts";
@@ -25,6 +26,21 @@ export interface CtleChannel {
    * `mainIndex + p + (i − pre)·samplesPerUi` (0 outside the record). Computed once per phase.
    */
   cursors(p: number): Float64Array;
+}
+
+/**
+ * Largest phase offset (samples) any evaluation of a search space asks for: the ±½ UI window, the
+ * jitter kernel's reach, and the timing criteria's one-UI lag.
+ */
+export function phaseReach(space: SearchSpace, samplesPerUi: number): number {
+  const k = jitterKernel(space.jitter, samplesPerUi, 0);
+  const kernel = Math.max(Math.abs(k.first), Math.abs(k.first + k.weights.length - 1));
+  return Math.floor(samplesPerUi / 2) + kernel + samplesPerUi + 2;
+}
+
+/** One CTLE channel of `pulse` for any setting (e.g. gains rounded to register codes). */
+export function channelFor(pulse: Pulse, space: SearchSpace, setting: CtleSetting): CtleChannel {
+  return ctleChannel(createCtlePlan(pulse), space, setting, phaseReach(space, pulse.samplesPerUi));
 }
 
 /**

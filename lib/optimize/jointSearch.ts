@@ -1,13 +1,12 @@
 // The joint search over CTLE grid × transmit FIR grid × closed-form DFE: branch and bound over the
 // FIR taps with rigorous headroom bounds, so the answer equals exhaustive evaluation of the grid.
-import { jitterKernel } from "../analysis/jitterKernel.ts";
 import { criterionLag, defaultPhaseWindow } from "../clocking/samplingPhase.ts";
 import { createCtlePlan } from "../equalizers/ctlePlan.ts";
 import { resolveTapRanges, TAP_TOLERANCE } from "../equalizers/txFirConstraints.ts";
 import { mmseEqualizer } from "../solvers/mmse.ts";
 import { zeroForcing } from "../solvers/zeroForcing.ts";
 import type { Pulse } from "../types.ts";
-import { type CtleChannel, ctleChannel } from "./ctleChannel.ts";
+import { type CtleChannel, ctleChannel, phaseReach } from "./ctleChannel.ts";
 import { criterionPhaseOf, finishEye, heavyPhaseBound, type PhaseEye, prepareEye } from "./evaluateSetting.ts";
 import {
   type BoundSetup,
@@ -36,6 +35,8 @@ export interface Candidate {
   readonly dfeClipped: readonly boolean[];
   readonly eyeHeight_V: number;
   readonly limiterHeadroom_V: number;
+  /** For a population, the member whose headroom this is (the worst); 0 for one channel. */
+  readonly worstMember: number;
 }
 
 /** What is known about one CTLE setting after the search. */
@@ -80,17 +81,10 @@ export interface PreparedChannels {
   readonly channels: readonly CtleChannel[];
 }
 
-/** Largest phase offset (samples) any evaluation asks for: window, jitter kernel, timing criteria. */
-function maxPhaseOf(space: SearchSpace, spu: number): number {
-  const k = jitterKernel(space.jitter, spu, 0);
-  const kernel = Math.max(Math.abs(k.first), Math.abs(k.first + k.weights.length - 1));
-  return Math.floor(spu / 2) + kernel + spu + 2;
-}
-
 /** Filters the pulse through every CTLE setting of the grid (one FFT plan, one inverse per setting). */
 export function prepareChannels(pulse: Pulse, space: SearchSpace): PreparedChannels {
   const plan = createCtlePlan(pulse);
-  const maxPhase = maxPhaseOf(space, pulse.samplesPerUi);
+  const maxPhase = phaseReach(space, pulse.samplesPerUi);
   return { channels: space.ctleSettings.map((s) => ctleChannel(plan, space, s, maxPhase)) };
 }
 
@@ -169,16 +163,24 @@ class Found extends Error {}
  * underestimates, so `best` and `top` are what exhaustive evaluation of the grid gives (exact ties
  * may resolve to an equally good setting), and every CTLE setting reports its optimum or a bound.
  *
- * @param pulse - channel pulse for a 1 V symbol (used when `prepared` is not given).
+ *
+ * Given several channels (a population: one {@link PreparedChannels} per member, same budget and
+ * UI), the figure of a setting is the worst member's headroom (each member samples at its own
+ * policy phase and sets its own DFE): every bound is the least of the members' bounds, and the
+ * search is exact for this minimax objective too.
+ *
+ * @param pulse - channel pulse for a 1 V symbol (used when `prepared` is not given; else only its
+ *   samplesPerUi).
  * @param space - the resolved budget.
  * @param options - DFE counts, top-K size, feasibility target, progress callback.
- * @param prepared - channels from {@link prepareChannels}, to share between passes.
+ * @param prepared - channels from {@link prepareChannels} (to share between passes), or one per
+ *   member of a population.
  */
 export function jointSearch(
   pulse: Pulse,
   space: SearchSpace,
   options: JointSearchOptions,
-  prepared: PreparedChannels = prepareChannels(pulse, space),
+  prepared: PreparedChannels | readonly PreparedChannels[] = prepareChannels(pulse, space),
 ): JointSearchResult {
   const counts = options.dfeCounts;
   if (counts.length === 0) throw new RangeError("dfeCounts must hold at least one DFE tap count");
@@ -191,8 +193,15 @@ export function jointSearch(
   if (!Number.isInteger(topCount) || topCount < 1) throw new RangeError(`topCount must be an integer ≥ 1, got ${topCount}`);
   const target = options.target_V;
   if (target !== undefined && !Number.isFinite(target)) throw new RangeError(`target_V must be finite, got ${target}`);
-  const channels = prepared.channels;
-  if (channels.length !== space.ctleSettings.length) throw new RangeError("prepared channels do not match the CTLE grid");
+  const members: readonly PreparedChannels[] = Array.isArray(prepared) ? prepared : [prepared as PreparedChannels];
+  if (members.length === 0) throw new RangeError("prepared must hold at least one channel");
+  for (const m of members) {
+    if (m.channels.length !== space.ctleSettings.length) throw new RangeError("prepared channels do not match the CTLE grid");
+    if (m.channels.some((c) => c.pulse.samplesPerUi !== pulse.samplesPerUi)) {
+      throw new RangeError("every member must have the same samplesPerUi");
+    }
+  }
+  const nCtle = space.ctleSettings.length;
 
   const spec = space.firSpec;
   const ranges = resolveTapRanges(spec);
@@ -212,8 +221,8 @@ export function jointSearch(
 
   const best: (Candidate | null)[] = counts.map(() => null);
   const top: Candidate[] = [];
-  const found: (Candidate | null)[][] = counts.map(() => new Array(channels.length).fill(null));
-  const pruned: Float64Array[] = counts.map(() => new Float64Array(channels.length).fill(Number.NEGATIVE_INFINITY));
+  const found: (Candidate | null)[][] = counts.map(() => new Array(nCtle).fill(null));
+  const pruned: Float64Array[] = counts.map(() => new Float64Array(nCtle).fill(Number.NEGATIVE_INFINITY));
   const stats = { exact: 0, heavy: 0, boxes: 0, leaves: 0 };
 
   const kth = (): number => (top.length < topCount ? Number.NEGATIVE_INFINITY : top[top.length - 1].limiterHeadroom_V);
@@ -233,17 +242,25 @@ export function jointSearch(
     if (top.length > topCount) top.pop();
   };
 
-  interface Ctx {
-    ci: number;
+  /** One member channel at one CTLE setting. */
+  interface Member {
+    index: number;
     channel: CtleChannel;
     setup: BoundSetup;
     coef: CoefficientSource;
     crit: Map<number, Float64Array>;
-    seen: Set<string>;
     scratch: Float64Array;
   }
+  interface Ctx {
+    ci: number;
+    setting: CtleSetting;
+    members: Member[];
+    /** Member evaluated first (the last one found worst). */
+    lead: number;
+    seen: Set<string>;
+  }
   // Criterion F(t) = main(t − lag) − main(t + lag) as coefficients per tap (scale included).
-  const critAt = (ctx: Ctx, t: number): Float64Array => {
+  const critAt = (ctx: Member, t: number): Float64Array => {
     let v = ctx.crit.get(t);
     if (v !== undefined) return v;
     const lag = criterionLag(space.policy as "centre" | "mueller-muller", spu);
@@ -267,10 +284,10 @@ export function jointSearch(
     return v;
   };
 
-  const record = (ctx: Ctx, o: number, taps: Float64Array, e: PhaseEye) => {
+  const record = (ctx: Ctx, o: number, taps: Float64Array, e: PhaseEye, member: number) => {
     const cand: Candidate = {
       ctleIndex: ctx.ci,
-      ctle: ctx.channel.setting,
+      ctle: ctx.setting,
       taps: Float64Array.from(taps),
       dfeCount: counts[o],
       phase: e.phase,
@@ -278,6 +295,7 @@ export function jointSearch(
       dfeClipped: e.dfeClipped,
       eyeHeight_V: e.eyeHeight_V,
       limiterHeadroom_V: e.limiterHeadroom_V,
+      worstMember: member,
     };
     const f = found[o][ctx.ci];
     if (f === null || e.limiterHeadroom_V > f.limiterHeadroom_V) found[o][ctx.ci] = cand;
@@ -290,42 +308,67 @@ export function jointSearch(
     if (ub > pruned[o][ctx.ci]) pruned[o][ctx.ci] = ub;
   };
 
-  // Evaluates one FIR setting for the live objectives, through the three tiers.
+  // One member's figure for a setting: the three tiers over the policy's phases. Returns its eye when
+  // known exactly (and at least every pruned phase's bound), else null and a bound on its headroom.
+  const memberLeaf = (mc: Member, taps: Float64Array, o: number): { eye: PhaseEye | null; ub: number } => {
+    const criterion = space.policy === "max-height" ? null : criterionPhaseOf(mc.channel, space, taps);
+    const phases = criterion === null ? allPhases : [criterion];
+    let bestEye: PhaseEye | null = null;
+    let worstPruned = Number.NEGATIVE_INFINITY;
+    for (const t of phases) {
+      const floor = bestEye === null ? Number.NEGATIVE_INFINITY : bestEye.limiterHeadroom_V;
+      const ub1 = leafBound(mc.setup, mc.coef, t, taps, counts[o], mc.scratch);
+      if (!passes(o, ub1) || !(ub1 > floor)) {
+        worstPruned = Math.max(worstPruned, ub1);
+        continue;
+      }
+      const prepared = prepareEye(mc.channel, space, taps, counts[o], t);
+      const jj = mc.scratch[mc.setup.offsets.length];
+      stats.heavy++;
+      const ub2 =
+        mc.setup.shifts.length === 0 ? Number.POSITIVE_INFINITY : heavyPhaseBound(space, prepared, mc.setup.shifts[jj], mc.setup.weights[jj]);
+      if (!passes(o, ub2) || !(ub2 > floor)) {
+        worstPruned = Math.max(worstPruned, ub2);
+        continue;
+      }
+      stats.exact++;
+      const e = finishEye(space, prepared);
+      if (bestEye === null || e.limiterHeadroom_V > bestEye.limiterHeadroom_V) bestEye = e;
+    }
+    if (bestEye !== null && bestEye.limiterHeadroom_V >= worstPruned) return { eye: bestEye, ub: bestEye.limiterHeadroom_V };
+    return { eye: null, ub: Math.max(worstPruned, bestEye?.limiterHeadroom_V ?? Number.NEGATIVE_INFINITY) };
+  };
+
+  // Evaluates one FIR setting for the live objectives: the worst member counts; a member that cannot
+  // pass the threshold ends the evaluation early.
   const leaf = (ctx: Ctx, taps: Float64Array, alive: readonly boolean[]) => {
     const key = Array.from(taps, (c) => Math.round(c / step)).join(",");
     if (ctx.seen.has(key)) return;
     ctx.seen.add(key);
     stats.leaves++;
-    const criterion = space.policy === "max-height" ? null : criterionPhaseOf(ctx.channel, space, taps);
-    const phases = criterion === null ? allPhases : [criterion];
+    const M = ctx.members.length;
     for (let o = 0; o < O; o++) {
       if (!alive[o]) continue;
-      let bestEye: PhaseEye | null = null;
-      let worstPruned = Number.NEGATIVE_INFINITY;
-      for (const t of phases) {
-        const floor = bestEye === null ? Number.NEGATIVE_INFINITY : bestEye.limiterHeadroom_V;
-        const ub1 = leafBound(ctx.setup, ctx.coef, t, taps, counts[o], ctx.scratch);
-        if (!passes(o, ub1) || !(ub1 > floor)) {
-          worstPruned = Math.max(worstPruned, ub1);
-          continue;
+      let worst: { eye: PhaseEye; member: number } | null = null;
+      let cut = false;
+      for (let i = 0; i < M; i++) {
+        const m = (ctx.lead + i) % M;
+        const r = memberLeaf(ctx.members[m], taps, o);
+        if (r.eye === null) {
+          prune(ctx, o, r.ub);
+          ctx.lead = m;
+          cut = true;
+          break;
         }
-        const prepared = prepareEye(ctx.channel, space, taps, counts[o], t);
-        const jj = ctx.scratch[ctx.setup.offsets.length];
-        stats.heavy++;
-        const ub2 =
-          ctx.setup.shifts.length === 0
-            ? Number.POSITIVE_INFINITY
-            : heavyPhaseBound(space, prepared, ctx.setup.shifts[jj], ctx.setup.weights[jj]);
-        if (!passes(o, ub2) || !(ub2 > floor)) {
-          worstPruned = Math.max(worstPruned, ub2);
-          continue;
+        if (worst === null || r.eye.limiterHeadroom_V < worst.eye.limiterHeadroom_V) worst = { eye: r.eye, member: m };
+        if (i < M - 1 && !passes(o, worst.eye.limiterHeadroom_V)) {
+          prune(ctx, o, worst.eye.limiterHeadroom_V);
+          ctx.lead = m;
+          cut = true;
+          break;
         }
-        stats.exact++;
-        const e = finishEye(space, prepared);
-        if (bestEye === null || e.limiterHeadroom_V > bestEye.limiterHeadroom_V) bestEye = e;
       }
-      if (bestEye !== null && bestEye.limiterHeadroom_V >= worstPruned) record(ctx, o, taps, bestEye);
-      else prune(ctx, o, Math.max(worstPruned, bestEye?.limiterHeadroom_V ?? Number.NEGATIVE_INFINITY));
+      if (!cut && worst !== null) record(ctx, o, taps, worst.eye, worst.member);
     }
   };
 
@@ -382,7 +425,7 @@ export function jointSearch(
   };
 
   // Phases the policy may choose for some setting of the box.
-  const boxPhases = (ctx: Ctx, box: TapBox): number[] => {
+  const boxPhases = (ctx: Member, box: TapBox): number[] => {
     if (space.policy === "max-height") return allPhases;
     const r = new Float64Array(2);
     const range = (t: number): [number, number] => {
@@ -406,18 +449,27 @@ export function jointSearch(
     return out;
   };
 
-  // Bound of a box over its phases. Stops at the first phase that passes the threshold (the value then
-  // only orders the halves); a box that fails has every phase bounded, so its value is a true bound.
-  const boxValue = (ctx: Ctx, box: TapBox, phases: number[], o: number): number => {
+  // Bound of a box: per member the largest bound over its phases, then the least over members. A
+  // member's phase scan stops at the first phase that passes the threshold, and the member scan stops
+  // at the first member that fails it; so a box that fails carries a true bound, while a box that
+  // passes carries a value that only orders the halves.
+  const boxValue = (ctx: Ctx, box: TapBox, o: number): number => {
     stats.boxes++;
     const thr = target !== undefined ? target - Number.EPSILON : threshold(o);
-    let v = Number.NEGATIVE_INFINITY;
-    for (const t of phases) {
-      const b = boxBound(ctx.setup, ctx.coef, t, box, counts[o], ctx.scratch, thr);
-      if (b > v) v = b;
-      if (passes(o, v)) break;
+    const M = ctx.members.length;
+    let least = Number.POSITIVE_INFINITY;
+    for (let i = 0; i < M; i++) {
+      const mc = ctx.members[(ctx.lead + i) % M];
+      let v = Number.NEGATIVE_INFINITY;
+      for (const t of boxPhases(mc, box)) {
+        const b = boxBound(mc.setup, mc.coef, t, box, counts[o], mc.scratch, thr);
+        if (b > v) v = b;
+        if (passes(o, v)) break;
+      }
+      if (v < least) least = v;
+      if (!passes(o, least)) break;
     }
-    return v;
+    return least;
   };
 
   // Branch and bound over boxes of grid-index ranges: split the widest range (at the sign change
@@ -468,12 +520,11 @@ export function jointSearch(
       }
       const box = makeBox(clo, chi);
       if (box === null) continue;
-      const phases = boxPhases(ctx, box);
       const childAlive = alive.map(() => false);
       let score = Number.NEGATIVE_INFINITY;
       for (let o = 0; o < O; o++) {
         if (!alive[o]) continue;
-        const ub = boxValue(ctx, box, phases, o);
+        const ub = boxValue(ctx, box, o);
         if (passes(o, ub)) childAlive[o] = true;
         else prune(ctx, o, ub);
         if (o === alive.indexOf(true)) score = ub;
@@ -485,39 +536,46 @@ export function jointSearch(
     for (const h of halves) descend(ctx, h.lo, h.hi, h.alive);
   };
 
-  const contexts: Ctx[] = channels.map((channel, ci) => {
-    const setup = boundSetup(space, channel, maxCount);
-    const cache = new Map<number, PhaseCoefficients>();
-    const coef = (p: number): PhaseCoefficients => {
-      let c = cache.get(p);
-      if (c === undefined) {
-        c = phaseCoefficients(setup, space, channel, p);
-        cache.set(p, c);
-      }
-      return c;
-    };
-    return {
-      ci,
-      channel,
-      setup,
-      coef,
-      crit: new Map(),
-      seen: new Set(),
-      scratch: new Float64Array(setup.offsets.length + 4),
-    };
-  });
+  const contexts: Ctx[] = space.ctleSettings.map((setting, ci) => ({
+    ci,
+    setting,
+    lead: 0,
+    seen: new Set<string>(),
+    members: members.map((m, index) => {
+      const channel = m.channels[ci];
+      const setup = boundSetup(space, channel, maxCount);
+      const cache = new Map<number, PhaseCoefficients>();
+      const coef = (p: number): PhaseCoefficients => {
+        let c = cache.get(p);
+        if (c === undefined) {
+          c = phaseCoefficients(setup, space, channel, p);
+          cache.set(p, c);
+        }
+        return c;
+      };
+      return { index, channel, setup, coef, crit: new Map<number, Float64Array>(), scratch: new Float64Array(setup.offsets.length + 4) };
+    }),
+  }));
   const everyone = new Array<boolean>(O).fill(true);
   try {
-    // Order the CTLE settings by the single-law bound of their first starting point.
-    const seeds = contexts.map((ctx) => startingPoints(ctx.channel, space));
+    // Order the CTLE settings by the single-law bound of the first member's first starting point
+    // (the least over the members).
+    const seeds = contexts.map((ctx) => ctx.members.flatMap((mc) => startingPoints(mc.channel, space)));
     const keys = contexts.map((ctx, i) => {
       const s = seeds[i][0];
       if (s === undefined) return Number.NEGATIVE_INFINITY;
-      const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(ctx.channel, space, s);
-      const ub = leafBound(ctx.setup, ctx.coef, phase, s, counts[0], ctx.scratch);
-      const jj = ctx.scratch[ctx.setup.offsets.length];
-      if (ctx.setup.shifts.length === 0) return ub;
-      return heavyPhaseBound(space, prepareEye(ctx.channel, space, s, counts[0], phase), ctx.setup.shifts[jj], ctx.setup.weights[jj]);
+      let key = Number.POSITIVE_INFINITY;
+      for (const mc of ctx.members) {
+        const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(mc.channel, space, s);
+        const ub = leafBound(mc.setup, mc.coef, phase, s, counts[0], mc.scratch);
+        const jj = mc.scratch[mc.setup.offsets.length];
+        const v =
+          mc.setup.shifts.length === 0
+            ? ub
+            : heavyPhaseBound(space, prepareEye(mc.channel, space, s, counts[0], phase), mc.setup.shifts[jj], mc.setup.weights[jj]);
+        key = Math.min(key, v);
+      }
+      return key;
     });
     const order = contexts.map((_, i) => i).sort((a, b) => keys[b] - keys[a] || a - b);
     let done = 0;
@@ -528,9 +586,8 @@ export function jointSearch(
       const hi = Int32Array.from(grids, (g) => g.length - 1);
       const root = grids.some((g) => g.length === 0) ? null : makeBox(lo, hi);
       if (root !== null) {
-        const phases = boxPhases(ctx, root);
         const alive = everyone.map((_, o) => {
-          const ub = boxValue(ctx, root, phases, o);
+          const ub = boxValue(ctx, root, o);
           if (passes(o, ub)) return true;
           prune(ctx, o, ub);
           return false;
@@ -545,7 +602,7 @@ export function jointSearch(
   }
   if (target !== undefined && best[0] !== null && best[0].limiterHeadroom_V < target) best[0] = null;
   const perCtle: CtleOutcome[][] = counts.map((_, o) =>
-    channels.map((_, ci) => {
+    space.ctleSettings.map((_, ci) => {
       const f = found[o][ci];
       const v = f === null ? Number.NEGATIVE_INFINITY : f.limiterHeadroom_V;
       const upper = Math.max(v, pruned[o][ci]);

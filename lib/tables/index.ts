@@ -1,0 +1,4 @@
+export * from "./architectureEvaluation.ts";
+export * from "./populationDefault.ts";
+export * from "./quantizeSetting.ts";
+export * from "./registerMap.ts";
