@@ -1,5 +1,8 @@
 // Work that runs beside the requests in the web server process, started on the first request.
 import { deliverQueuedMail, startMailRetries } from "./mail/mail.server";
+import { startJobDispatcher } from "./jobs/queue.server";
+import "@/features/studies/studies.server";
+import "@/features/tables/tables.server";
 
 let started = false;
 
@@ -7,5 +10,6 @@ export function startBackgroundWork(): void {
   if (started) return;
   started = true;
   startMailRetries();
+  startJobDispatcher();
   void deliverQueuedMail().catch((e) => console.error("[tapwright] mail delivery:", e));
 }

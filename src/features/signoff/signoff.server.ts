@@ -20,8 +20,14 @@ function link(path: string): string {
   return new URL(path, process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:4321").toString();
 }
 
+/**
+ * Delivers the outbox after a commit. A delivery loop already running took its batch before this
+ * message was queued, so a second pass follows it (otherwise the message would wait for the retry).
+ */
 function sendMailSoon() {
-  void deliverQueuedMail().catch((e) => console.error("[tapwright] mail delivery:", e));
+  void deliverQueuedMail()
+    .then(() => deliverQueuedMail())
+    .catch((e) => console.error("[tapwright] mail delivery:", e));
 }
 
 /** People who may decide a sign-off (reviewers and admins). */

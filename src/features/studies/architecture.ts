@@ -30,13 +30,6 @@ export const architectureSchema = z
   .refine((a) => a.tx !== null || a.ctle || a.dfeTaps > 0 || a.ffe !== null, "An architecture needs at least one equalizer.");
 export type Architecture = z.infer<typeof architectureSchema>;
 
-/** Tap count of an architecture, the complexity figure studies plot: adjustable taps and gains. */
-export function tapCount(a: Architecture): number {
-  const tx = a.tx ? a.tx.pre + a.tx.post : 0;
-  const ffe = a.ffe ? a.ffe.pre + a.ffe.post : 0;
-  return tx + (a.ctle ? 1 : 0) + a.dfeTaps + ffe;
-}
-
 /** A one-line description: "TX FIR 1+1 · CTLE · DFE 3". */
 export function describeArchitecture(a: Architecture): string {
   const parts: string[] = [];

@@ -1,7 +1,7 @@
 // Copies of the budget and the channels a study or a tap table version is computed from, read
 // inside the caller's transaction so that the copy and the work it starts agree.
 import { inArray, eq } from "drizzle-orm";
-import { budgetSchema, type Budget } from "@lib/contract/budget";
+import { budgetSchema, type Budget, type BudgetInput } from "@lib/contract/budget";
 import { budgets, channels, type StoredPulse } from "@/db/schema";
 import type { DbOrTx } from "@/server/db.server";
 import { notFound, unprocessable } from "@/server/http/errors";
@@ -9,7 +9,7 @@ import { notFound, unprocessable } from "@/server/http/errors";
 export interface BudgetCopy {
   id: number;
   name: string;
-  params: Record<string, unknown>;
+  params: BudgetInput;
   /** The params with every default filled in. */
   budget: Budget;
 }
@@ -25,11 +25,11 @@ export interface ChannelCopy {
 export async function budgetCopy(tx: DbOrTx, id: number): Promise<BudgetCopy> {
   const [row] = await tx.select().from(budgets).where(eq(budgets.id, id));
   if (!row) throw notFound(`Budget ${id}`);
-  return { id: row.id, name: row.name, params: row.params, budget: parseBudget(row.params, row.name) };
+  return { id: row.id, name: row.name, params: row.params as BudgetInput, budget: parseBudget(row.params, row.name) };
 }
 
 /** A stored budget's params with defaults filled in; 422 naming the field when they do not validate. */
-export function parseBudget(params: Record<string, unknown>, name: string): Budget {
+export function parseBudget(params: unknown, name: string): Budget {
   const parsed = budgetSchema.safeParse(params);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];

@@ -1,6 +1,7 @@
 // Architecture studies: request schemas, the shapes a study stores and the API answers, and small
 // presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
+import type { BudgetInput } from "@lib/contract/budget";
 import type { StoredPulse } from "@/db/schema/channels";
 import { architectureSchema, type Architecture } from "./architecture";
 
@@ -46,7 +47,7 @@ export const listQuery = z.object({
 
 /** What a study was computed from (copies taken at its start). */
 export interface StudyInputs {
-  budget: { id: number; name: string; params: Record<string, unknown> };
+  budget: { id: number; name: string; params: BudgetInput };
   channels: { id: number; name: string; lossAtNyquist_dB: number | null; pulse: StoredPulse }[];
   candidates: Architecture[];
 }

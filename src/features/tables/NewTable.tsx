@@ -6,6 +6,7 @@ import { describeArchitecture } from "@/features/studies/architecture";
 import RegisterMapEditor from "./RegisterMapEditor";
 import { classesOf } from "./grouping";
 import { defaultRegisterMap } from "./registerMap";
+import { tableArchitectureProblem } from "./architectureBudget";
 import {
   architectureOf,
   createNewTableStore,
@@ -55,7 +56,8 @@ export default function NewTable(props: Props) {
     .sort((a, b) => (a.lossAtNyquist_dB ?? Infinity) - (b.lossAtNyquist_dB ?? Infinity) || a.name.localeCompare(b.name));
   const arch = architectureOf(s, props.studies);
   const study = props.studies.find((x) => x.id === s.studyId);
-  const map = useMemo(() => s.customMap ?? (arch && budget ? defaultRegisterMap(arch, budget.params) : []), [s.customMap, arch, budget]);
+  const problem = arch ? tableArchitectureProblem(arch) : null;
+  const map = useMemo(() => s.customMap ?? (arch && budget && !problem ? defaultRegisterMap(arch, budget.params) : []), [s.customMap, arch, budget, problem]);
   const grouping = groupingOf(s);
   const preview = useMemo(() => {
     if (typeof grouping === "string") return grouping;
@@ -121,21 +123,11 @@ export default function NewTable(props: Props) {
                 <Count label="pre" value={s.manual.tx?.pre ?? 0} max={4} disabled={!s.manual.tx} onChange={(pre) => s.setManual({ tx: { pre, post: s.manual.tx?.post ?? 1 } })} />
                 <Count label="post" value={s.manual.tx?.post ?? 0} max={8} disabled={!s.manual.tx} onChange={(post) => s.setManual({ tx: { pre: s.manual.tx?.pre ?? 1, post } })} />
               </span>
-              <label className="flex items-center gap-1.5 text-sm">
-                <input type="checkbox" checked={s.manual.ctle} onChange={(e) => s.setManual({ ctle: e.target.checked })} />
-                CTLE
-              </label>
+              <span className="text-sm text-ink-soft">CTLE (the budget's grid)</span>
               <Count label="DFE taps" value={s.manual.dfeTaps} max={32} onChange={(dfeTaps) => s.setManual({ dfeTaps })} />
-              <span className="flex items-center gap-2">
-                <label className="flex items-center gap-1.5 text-sm">
-                  <input type="checkbox" checked={s.manual.ffe !== null} onChange={(e) => s.setManual({ ffe: e.target.checked ? { pre: 1, post: 3 } : null })} />
-                  RX FFE
-                </label>
-                <Count label="FFE pre" value={s.manual.ffe?.pre ?? 0} max={8} disabled={!s.manual.ffe} onChange={(pre) => s.setManual({ ffe: { pre, post: s.manual.ffe?.post ?? 3 } })} />
-                <Count label="FFE post" value={s.manual.ffe?.post ?? 0} max={16} disabled={!s.manual.ffe} onChange={(post) => s.setManual({ ffe: { pre: s.manual.ffe?.pre ?? 1, post } })} />
-              </span>
             </div>
           )}
+          {problem && <p className="notice notice-warn">{problem}</p>}
           {arch && (
             <p className="text-sm">
               Architecture: <strong>{arch.label}</strong>
@@ -230,7 +222,7 @@ export default function NewTable(props: Props) {
       </label>
       {s.error && <p className="notice notice-bad" role="alert">{s.error}</p>}
       <div>
-        <button className="btn btn-primary" type="submit" disabled={s.busy || !arch}>{s.busy ? "Computing…" : "Compute v1"}</button>
+        <button className="btn btn-primary" type="submit" disabled={s.busy || !arch || problem !== null}>{s.busy ? "Computing…" : "Compute v1"}</button>
       </div>
     </form>
   );

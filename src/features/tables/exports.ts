@@ -1,6 +1,7 @@
 // The three export formats of a tap table version, in Tapwright's own layout (documented in the
 // README): CSV (one row per class, register codes), JSON (everything, codes and physical values)
 // and a C header (the register map as macros and one array of default settings per class).
+import { codeRange } from "@lib/tables";
 import type { VersionState } from "@/db/schema/tables";
 import type { Architecture } from "@/features/studies/architecture";
 import type { RegisterField } from "./registerMap";
@@ -154,8 +155,7 @@ export function toCHeader(m: ExportModel): string {
   lines.push(`#define ${P}_FIELD_COUNT ${m.registerMap.length}u`, "");
   for (const f of m.registerMap) {
     const F = `${P}_${f.name.toUpperCase()}`;
-    const lo = Math.round(f.min / f.lsb);
-    const hi = Math.round(f.max / f.lsb);
+    const { lo, hi } = codeRange(f);
     lines.push(`/* ${commentText(`${f.name}: ${f.parameter}, LSB ${f.lsb} ${f.unit}, range ${f.min} … ${f.max} ${f.unit}`)} */`);
     lines.push(`#define ${F}_BITS ${f.bits}u`);
     lines.push(`#define ${F}_SIGNED ${f.signed ? 1 : 0}`);

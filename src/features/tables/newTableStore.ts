@@ -1,9 +1,9 @@
 // State of the tap-table builder: name, budget, architecture (a study's decision or by hand),
 // channels and their classes (loss bins or by hand), the register map, and sending.
 import { createStore } from "zustand/vanilla";
-import { api, ApiCallError } from "@/components/api";
+import { api } from "@/components/api";
 import { describeArchitecture, type Architecture } from "@/features/studies/architecture";
-import { defaultRegisterMap, type BudgetForMap, type RegisterField } from "./registerMap";
+import type { BudgetForMap, RegisterField } from "./registerMap";
 import type { Grouping } from "./tables";
 
 export interface TableBudgetChoice {
@@ -31,12 +31,10 @@ export interface DecidedStudy {
   rationale: string;
 }
 
-/** The blocks of an architecture picked by hand. */
+/** The blocks of an architecture picked by hand (tap tables always hold the budget's CTLE). */
 export interface ManualArchitecture {
   tx: { pre: number; post: number } | null;
-  ctle: boolean;
   dfeTaps: number;
-  ffe: { pre: number; post: number } | null;
 }
 
 export interface NewTableState {
@@ -73,11 +71,10 @@ export interface NewTableState {
 export function manualArchitecture(m: ManualArchitecture): Architecture {
   const parts: string[] = [];
   if (m.tx) parts.push(`tx${m.tx.pre}-${m.tx.post}`);
-  if (m.ctle) parts.push("ctle");
-  if (m.ffe) parts.push(`ffe${m.ffe.pre}-${m.ffe.post}`);
+  parts.push("ctle");
   if (m.dfeTaps > 0) parts.push(`dfe${m.dfeTaps}`);
-  const a = { key: parts.join("-") || "none", label: "", ...m };
-  return { ...a, label: describeArchitecture(a) || "No equalizer" };
+  const a = { key: parts.join("-"), label: "", tx: m.tx, ctle: true, dfeTaps: m.dfeTaps, ffe: null };
+  return { ...a, label: describeArchitecture(a) };
 }
 
 /** The edges typed as "12, 20, 28" (null when a value is not a number). */
@@ -103,7 +100,7 @@ export function createNewTableStore(init: { budgets: TableBudgetChoice[]; studie
     budgetId: firstStudy?.budgetId ?? init.budgets[0]?.id ?? 0,
     source: firstStudy ? "study" : "manual",
     studyId: firstStudy?.id ?? null,
-    manual: { tx: txOf(init.budgets[0]), ctle: true, dfeTaps: init.budgets[0]?.params.dfe?.taps ?? 0, ffe: null },
+    manual: { tx: txOf(init.budgets[0]), dfeTaps: init.budgets[0]?.params.dfe?.taps ?? 0 },
     channelIds: firstStudy?.channelIds ?? [],
     mode: "loss-bins",
     edgesText: "12, 20, 28",
@@ -134,7 +131,6 @@ export function createNewTableStore(init: { budgets: TableBudgetChoice[]; studie
         return null;
       }
       const arch = architectureOf(s, init.studies);
-      const budget = init.budgets.find((b) => b.id === s.budgetId);
       set({ busy: true, error: null });
       try {
         const r = await api<{ id: number }>("/api/v1/tap-tables", {
@@ -145,14 +141,13 @@ export function createNewTableStore(init: { budgets: TableBudgetChoice[]; studie
             ...(s.note.trim() ? { note: s.note.trim() } : {}),
             budgetId: s.budgetId,
             ...(s.source === "study" && s.studyId ? { studyId: s.studyId } : { architecture: arch }),
-            registerMap: s.customMap ?? (arch && budget ? defaultRegisterMap(arch, budget.params) : undefined),
+            ...(s.customMap ? { registerMap: s.customMap } : {}),
             grouping,
           },
         });
         return r.id;
       } catch (e) {
-        const message = e instanceof ApiCallError && e.path ? `${e.message}` : (e as Error).message;
-        set({ busy: false, error: message });
+        set({ busy: false, error: (e as Error).message });
         return null;
       }
     },

@@ -1,5 +1,6 @@
 // Server-side check of a register map against the architecture it encodes: one field per
-// parameter, no strays, and every field's range representable in its width (422 otherwise).
+// parameter, no strays, and codes inside every field's range at its width and LSB (422 otherwise).
+import { codeRange } from "@lib/tables";
 import type { Architecture } from "@/features/studies/architecture";
 import { unprocessable } from "@/server/http/errors";
 import { requiredParameters, type BudgetForMap, type RegisterField } from "./registerMap";
@@ -15,4 +16,12 @@ export function checkRegisterMap(map: readonly RegisterField[], architecture: Ar
   if (stray !== -1) {
     throw unprocessable(`The field “${map[stray].name}” holds ${map[stray].parameter}, which “${architecture.label}” does not have.`, `registerMap.${stray}.parameter`);
   }
+  map.forEach((f, i) => {
+    try {
+      codeRange(f);
+    } catch (e) {
+      if (e instanceof RangeError) throw unprocessable(`${e.message}; widen the field or change its LSB or range.`, `registerMap.${i}`);
+      throw e;
+    }
+  });
 }

@@ -4,7 +4,7 @@
 import { z } from "zod";
 import type { Architecture } from "@/features/studies/architecture";
 
-/** Physical unit of a field: transmit/FFE taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */
+/** Physical unit of a field (the engine's register map): taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */
 export const fieldUnits = ["fraction", "dB", "V"] as const;
 export type FieldUnit = (typeof fieldUnits)[number];
 
@@ -53,10 +53,10 @@ export interface BudgetForMap {
   dfe?: { taps?: number; limits_V?: number | number[] };
 }
 
-/** Transmit/FFE tap names: tx_pre2, tx_pre1, tx_main, tx_post1, … */
-function tapName(prefix: string, k: number): string {
-  if (k === 0) return `${prefix}_main`;
-  return k < 0 ? `${prefix}_pre${-k}` : `${prefix}_post${k}`;
+/** Transmit tap names: tx_pre2, tx_pre1, tx_main, tx_post1, … */
+function tapName(k: number): string {
+  if (k === 0) return "tx_main";
+  return k < 0 ? `tx_pre${-k}` : `tx_post${k}`;
 }
 
 /** Smallest width holding every code of `[min, max]` at this LSB (a sign bit when min < 0). */
@@ -71,6 +71,9 @@ function field(name: string, parameter: string, unit: FieldUnit, lsb: number, mi
   return { name, parameter, unit, lsb, min, max, ...widthFor(min, max, lsb) };
 }
 
+/** DFE LSBs offered by default (volts): the finest that reaches the tap's limit within ±127 codes. */
+const DFE_LSBS_V = [0.25e-3, 0.5e-3, 1e-3, 2e-3, 5e-3, 10e-3];
+
 /** Transmit tap range when the budget gives none: pre/post taps de-emphasize (≤ 0), the main tap drives. */
 function defaultTxRange(k: number): [number, number] {
   if (k === 0) return [0.5, 1];
@@ -80,8 +83,9 @@ function defaultTxRange(k: number): [number, number] {
 /**
  * The default register map of an architecture under a budget: transmit taps at the budget's step
  * (1/64 of the swing otherwise) within its ranges, the CTLE gains at the grid's step over the grid,
- * DFE taps at a 7-bit signed resolution of their limit (half the swing when unlimited), and FFE
- * taps at 1/64.
+ * and DFE taps at the finest of 0.25, 0.5, 1, 2, 5 or 10 mV that reaches their limit (half the
+ * swing when unlimited) within 8 signed bits. Tap
+ * tables hold no receive FFE (see architectureBudget.ts), so the map has no FFE fields.
  */
 export function defaultRegisterMap(a: Architecture, budget: BudgetForMap): RegisterField[] {
   const fields: RegisterField[] = [];
@@ -90,7 +94,7 @@ export function defaultRegisterMap(a: Architecture, budget: BudgetForMap): Regis
     const sameShape = budget.tx?.ranges && (budget.tx.pre ?? 1) === a.tx.pre && (budget.tx.post ?? 1) === a.tx.post;
     for (let k = -a.tx.pre; k <= a.tx.post; k++) {
       const [min, max] = sameShape ? budget.tx!.ranges![k + a.tx.pre] : defaultTxRange(k);
-      fields.push(field(tapName("tx", k), `tx[${k}]`, "fraction", step, min, max));
+      fields.push(field(tapName(k), `tx[${k}]`, "fraction", step, min, max));
     }
   }
   if (a.ctle) {
@@ -99,15 +103,10 @@ export function defaultRegisterMap(a: Architecture, budget: BudgetForMap): Regis
     const g2 = budget.ctle.gDc2_dB;
     if (Array.isArray(g2) && g2[1] > g2[0]) fields.push(field("ctle_gdc2", "ctle.gDc2_dB", "dB", g2[2], g2[0], g2[1]));
   }
-  if (a.ffe) {
-    for (let k = -a.ffe.pre; k <= a.ffe.post; k++) {
-      fields.push(field(tapName("ffe", k), `ffe[${k}]`, "fraction", 1 / 64, k === 0 ? 0 : -1, 1));
-    }
-  }
   const limits = budget.dfe?.limits_V;
   for (let n = 1; n <= a.dfeTaps; n++) {
     const limit = Array.isArray(limits) ? limits[Math.min(n - 1, limits.length - 1)] : (limits ?? budget.txSwing_Vppd / 2);
-    const lsb = limit > 0 ? limit / 63 : 1e-3;
+    const lsb = DFE_LSBS_V.find((x) => limit / x <= 127) ?? DFE_LSBS_V[DFE_LSBS_V.length - 1];
     fields.push(field(`dfe_tap${n}`, `dfe[${n}]`, "V", lsb, -limit, limit));
   }
   return fields;

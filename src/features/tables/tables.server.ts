@@ -14,6 +14,7 @@ import { budgetCopy, channelCopies, checkOneRate, findChannels, parseBudget, typ
 import { classesOf, groupingChannelIds, GroupingError } from "./grouping";
 import { defaultRegisterMap, type RegisterField } from "./registerMap";
 import { checkRegisterMap } from "./registerCheck";
+import { tableArchitectureProblem } from "./architectureBudget";
 import { diffVersions } from "./diff";
 import { renderExport, exportFilename, exportMediaType, type ExportModel } from "./exports";
 import {
@@ -68,6 +69,8 @@ function versionInputs(
   grouping: Grouping,
   chans: ReadonlyMap<number, ChannelCopy>,
 ): VersionInputs {
+  const problem = tableArchitectureProblem(arch.architecture);
+  if (problem) throw unprocessable(problem, arch.study ? "studyId" : "architecture");
   const map = registerMap ?? defaultRegisterMap(arch.architecture, budget.budget);
   checkRegisterMap(map, arch.architecture, budget.budget);
   let classes;

@@ -1,6 +1,7 @@
 // Tap tables: the request schemas (API and forms), the shapes a version stores and the API answers,
 // and small presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
+import type { BudgetInput } from "@lib/contract/budget";
 import type { VersionState } from "@/db/schema/tables";
 import type { StoredPulse } from "@/db/schema/channels";
 import type { ContourSet, DensityImage } from "@/components/charts/DensityEye";
@@ -129,7 +130,7 @@ export interface VersionClass {
 
 /** What a version was computed from, copied at its creation so that it never changes afterwards. */
 export interface VersionInputs {
-  budget: { id: number; name: string; params: Record<string, unknown> };
+  budget: { id: number; name: string; params: BudgetInput };
   architecture: Architecture;
   /** The study and its decision record, when the architecture came from one. */
   study: { id: number; name: string; decision: { candidateKey: string; rationale: string; decidedBy: string | null; decidedAt: string | null } } | null;
@@ -149,6 +150,8 @@ export interface ChannelHeadroom {
   ownHeadroom_V: number;
   /** Eye height at the target BER with the class default, volts. */
   defaultEyeHeight_V: number;
+  /** The channel's own optimum setting (transmit FIR taps and CTLE gains). */
+  own: { tx: number[]; ctle: { gDc_dB: number; gDc2_dB: number } };
 }
 
 /** One class's result: its default in codes and physical values, and its channels. */

@@ -1,0 +1,38 @@
+// The worker's part of an architecture study (runs in the engine worker pool, no I/O): the engine's
+// architecture evaluation over the study's channels, labelled for people.
+import { resolveBudget } from "@lib/optimize";
+import { pulseFromJson } from "@lib/pulse";
+import { evaluateArchitectures } from "@lib/tables";
+import type { StudyInputs, StudyResult } from "./studies";
+
+export function computeStudy(inputs: StudyInputs, engineVersion: string, onProgress: (fraction: number) => void): StudyResult {
+  const budget = resolveBudget(inputs.budget.params);
+  const outcomes = evaluateArchitectures(
+    inputs.channels.map((c) => pulseFromJson(c.pulse)),
+    inputs.budget.params,
+    inputs.candidates.map(({ key, tx, ctle, dfeTaps, ffe }) => ({ key, tx, ctle, dfeTaps, ffe })),
+    onProgress,
+  );
+  return {
+    engineVersion,
+    requiredHeadroom_V: budget.requiredHeadroom_V,
+    targetBer: budget.targetBer,
+    candidates: outcomes.map((o, i) => {
+      const a = inputs.candidates[i];
+      const lost = o.headroom_V.findIndex((h) => !Number.isFinite(h));
+      if (lost !== -1) {
+        throw new Error(`“${a.label}” has no legal setting for “${inputs.channels[lost].name}” under the budget (check the transmit FIR's ranges and step).`);
+      }
+      return {
+        key: a.key,
+        label: a.label,
+        architecture: a,
+        complexity: o.complexity,
+        worstHeadroom_V: o.worstHeadroom_V,
+        medianHeadroom_V: o.medianHeadroom_V,
+        worstChannel: { id: inputs.channels[o.worstChannel].id, name: inputs.channels[o.worstChannel].name },
+        channels: inputs.channels.map((c, j) => ({ id: c.id, name: c.name, headroom_V: o.headroom_V[j] })),
+      };
+    }),
+  };
+}

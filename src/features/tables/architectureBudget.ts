@@ -1,0 +1,31 @@
+// The budget a tap table's minimax searches: the budget restricted to the chosen architecture's
+// blocks — its transmit FIR tap counts (or a single full-swing tap), the budget's CTLE grid, and its
+// DFE tap count (limits beyond the budget's list repeat the last one).
+import type { Budget, BudgetInput } from "@lib/contract/budget";
+import type { Architecture } from "@/features/studies/architecture";
+
+/** Why an architecture cannot have a tap table, or null when it can. */
+export function tableArchitectureProblem(a: Architecture): string | null {
+  if (!a.ctle) return `“${a.label}” has no CTLE; tap tables hold the budget's CTLE setting, so choose an architecture with one.`;
+  if (a.ffe) return `“${a.label}” has a receive FFE; tap tables hold transmit FIR, CTLE and DFE settings only — choose an architecture without one.`;
+  return null;
+}
+
+/**
+ * The budget for a table of this architecture (call only when {@link tableArchitectureProblem}
+ * is null).
+ */
+export function budgetForArchitecture(b: Budget, a: Architecture): BudgetInput {
+  const sameTx = a.tx !== null && a.tx.pre === b.tx.pre && a.tx.post === b.tx.post;
+  const tx =
+    a.tx === null
+      ? { pre: 0, post: 0, step: 0.5, ranges: [[1, 1]] as [number, number][] }
+      : { pre: a.tx.pre, post: a.tx.post, step: b.tx.step, ranges: sameTx ? b.tx.ranges : undefined };
+  const lim = b.dfe.limits_V;
+  const limits_V = Array.isArray(lim)
+    ? lim.length === 0
+      ? undefined
+      : Array.from({ length: a.dfeTaps }, (_, k) => lim[Math.min(k, lim.length - 1)])
+    : lim;
+  return { ...b, tx, dfe: { taps: a.dfeTaps, limits_V } };
+}
