@@ -2,6 +2,10 @@
 // the field, nothing half-written after a refusal, versions computed as jobs, codes on the register
 // map's grid within its ranges, the minimax property, and a new version's diff.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { channelFor, evaluateSetting, resolveBudget, searchSpace } from "@lib/optimize";
+import { pulseFromJson } from "@lib/pulse";
+import { codeRange, decodeField, encodeField, type RegisterField } from "@lib/tables";
+import { budgetForArchitecture } from "@/features/tables/architectureBudget";
 import { anonymous, signIn, type Client } from "../support/http";
 import { closeDb, rowCounts } from "../fixtures/workspace";
 import { auditEvents, population, unique, versionComputed, type Population } from "./handoff.fixture";
@@ -115,6 +119,42 @@ describe("tap tables: computing versions", () => {
     const events = await auditEvents(admin, "table.");
     expect(events.some((e) => e.action === "table.create" && e.targetId === String(id))).toBe(true);
     expect(events.some((e) => e.action === "table.version" && e.targetId === String(id) && e.detail?.version === 1)).toBe(true);
+  });
+
+  it("quantization round trips: codes → values → codes for every code of every field, and the stored defaults agree", async () => {
+    const { id } = await (await designer.send("POST", "/api/v1/tap-tables", tableRequest())).json();
+    const v1 = await versionComputed(designer, id, 1);
+    const map = v1.inputs.registerMap as RegisterField[];
+    for (const f of map) {
+      const { lo, hi } = codeRange(f);
+      expect(lo * f.lsb).toBeGreaterThanOrEqual(f.min - 1e-12);
+      expect(hi * f.lsb).toBeLessThanOrEqual(f.max + 1e-12);
+      for (let code = lo; code <= hi; code++) expect(encodeField(f, decodeField(f, code)), `${f.name} ${code}`).toBe(code);
+      for (const c of v1.result.classes) {
+        expect(encodeField(f, c.values[f.name])).toBe(c.codes[f.name]);
+        expect(decodeField(f, c.codes[f.name])).toBeCloseTo(c.values[f.name], 15);
+      }
+    }
+  });
+
+  it("the minimax default is never worse for the worst channel than any single channel's own optimum applied to the class", async () => {
+    const { id } = await (await designer.send("POST", "/api/v1/tap-tables", tableRequest())).json();
+    const v1 = await versionComputed(designer, id, 1);
+    const params = v1.inputs.budget.params;
+    const budget = budgetForArchitecture(resolveBudget(params), v1.inputs.architecture);
+    const dfe = v1.inputs.architecture.dfeTaps;
+    for (const cls of v1.result.classes) {
+      const members = await Promise.all(
+        cls.channels.map(async (ch: { id: number }) => {
+          const pulse = pulseFromJson((await (await designer.get(`/api/v1/channels/${ch.id}`)).json()).pulse);
+          return { pulse, space: searchSpace(pulse, budget) };
+        }),
+      );
+      for (const ch of cls.channels as { name: string; own: { tx: number[]; ctle: { gDc_dB: number; gDc2_dB: number } } }[]) {
+        const worstWithOwn = Math.min(...members.map((m) => evaluateSetting(channelFor(m.pulse, m.space, ch.own.ctle), m.space, ch.own.tx, dfe).limiterHeadroom_V));
+        expect(cls.worstHeadroom_V, `${cls.name}: ${ch.name}'s optimum on the whole class`).toBeGreaterThanOrEqual(worstWithOwn - 1e-9);
+      }
+    }
   });
 
   it("a new version with other bin edges shows the diff against the previous one", async () => {
