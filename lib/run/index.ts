@@ -1,0 +1,3 @@
+export * from "./dfeAdaptation.ts";
+export * from "./engineVersion.ts";
+export * from "./tuningRun.ts";
