@@ -12,3 +12,4 @@ export * from "./limiterNoise.ts";
 export * from "./sampleDistribution.ts";
 export * from "./statisticalEye.ts";
 export * from "./symbolStream.ts";
+export * from "./eyeAnalysis.ts";

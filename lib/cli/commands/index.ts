@@ -3,9 +3,12 @@
 import type { Command } from "../defineCommand.ts";
 import { berCommand } from "./ber.ts";
 import { ctleResponseCommand } from "./ctleResponse.ts";
+import { eyeCommand } from "./eye.ts";
 import { firResponseCommand } from "./firResponse.ts";
 import { lmsCommand } from "./lms.ts";
 import { mmseCommand } from "./mmse.ts";
+import { optimizeCommand } from "./optimize.ts";
+import { populationCommand } from "./population.ts";
 import { prbsCommand } from "./prbs.ts";
 import { pulseCommand } from "./pulse.ts";
 import { zfCommand } from "./zf.ts";
@@ -19,4 +22,7 @@ export const commands: readonly Command[] = [
   lmsCommand,
   prbsCommand,
   berCommand,
+  eyeCommand,
+  optimizeCommand,
+  populationCommand,
 ];
