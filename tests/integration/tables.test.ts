@@ -116,6 +116,15 @@ describe("tap tables: computing versions", () => {
       }
       for (const ch of c.channels) expect(ch.ownHeadroom_V).toBeGreaterThanOrEqual(ch.defaultHeadroom_V - 1e-9);
     }
+    // The eyes of the worst channel come from the engine's tuning run of its class default: same headroom.
+    const all = v1.result.classes.flatMap((c: { channels: { id: number; defaultHeadroom_V: number }[] }) => c.channels);
+    const worst = all.reduce((a: { defaultHeadroom_V: number }, b: { defaultHeadroom_V: number }) => (b.defaultHeadroom_V < a.defaultHeadroom_V ? b : a));
+    expect(v1.result.worstEye.channelId).toBe(worst.id);
+    expect(v1.result.worstEye.headroom_V).toBeCloseTo(worst.defaultHeadroom_V, 6);
+    for (const eye of [v1.result.worstEye.before, v1.result.worstEye.after]) {
+      expect(eye.image.counts).toHaveLength(eye.image.width * eye.image.height);
+      expect(eye.contours.length).toBeGreaterThan(0);
+    }
     const events = await auditEvents(admin, "table.");
     expect(events.some((e) => e.action === "table.create" && e.targetId === String(id))).toBe(true);
     expect(events.some((e) => e.action === "table.version" && e.targetId === String(id) && e.detail?.version === 1)).toBe(true);

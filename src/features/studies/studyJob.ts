@@ -2,10 +2,11 @@
 // architecture evaluation over the study's channels, labelled for people.
 import { resolveBudget } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
+import { ENGINE_VERSION } from "@lib/run";
 import { evaluateArchitectures } from "@lib/tables";
 import type { StudyInputs, StudyResult } from "./studies";
 
-export function computeStudy(inputs: StudyInputs, engineVersion: string, onProgress: (fraction: number) => void): StudyResult {
+export function computeStudy(inputs: StudyInputs, onProgress: (fraction: number) => void): StudyResult {
   const budget = resolveBudget(inputs.budget.params);
   const outcomes = evaluateArchitectures(
     inputs.channels.map((c) => pulseFromJson(c.pulse)),
@@ -14,7 +15,7 @@ export function computeStudy(inputs: StudyInputs, engineVersion: string, onProgr
     onProgress,
   );
   return {
-    engineVersion,
+    engineVersion: ENGINE_VERSION,
     requiredHeadroom_V: budget.requiredHeadroom_V,
     targetBer: budget.targetBer,
     candidates: outcomes.map((o, i) => {

@@ -29,3 +29,18 @@ export function budgetForArchitecture(b: Budget, a: Architecture): BudgetInput {
     : lim;
   return { ...b, tx, dfe: { taps: a.dfeTaps, limits_V } };
 }
+
+/**
+ * The budget whose only setting is a class default's receiver side, for a channel that already
+ * carries the default's transmit FIR: a plain full-swing transmitter, the CTLE grid reduced to the
+ * default's gains, the DFE as the architecture has it (adapting in closed form). The engine's tuning
+ * run of that channel under this budget draws the class default's eyes.
+ */
+export function receiverOnlyBudget(b: Budget, ctle: { gDc_dB: number; gDc2_dB: number }): BudgetInput {
+  const g2 = b.ctle.gDc2_dB;
+  return {
+    ...b,
+    tx: { pre: 0, post: 0, step: 0.5, ranges: [[1, 1]] },
+    ctle: { ...b.ctle, gDc_dB: [ctle.gDc_dB, ctle.gDc_dB, 1], gDc2_dB: Array.isArray(g2) ? [ctle.gDc2_dB, ctle.gDc2_dB, 1] : g2 },
+  };
+}

@@ -4,7 +4,7 @@ import { z } from "zod";
 import type { BudgetInput } from "@lib/contract/budget";
 import type { VersionState } from "@/db/schema/tables";
 import type { StoredPulse } from "@/db/schema/channels";
-import type { ContourSet, DensityImage } from "@/components/charts/DensityEye";
+import type { EyeFigure } from "@lib/run";
 import { architectureSchema, type Architecture } from "@/features/studies/architecture";
 import { registerMapSchema, type RegisterField } from "./registerMap";
 
@@ -165,20 +165,25 @@ export interface ClassResult {
   channels: ChannelHeadroom[];
 }
 
-/** A density eye with its BER contours, in the shapes of the shared eye canvas. */
-export interface EyeFigure {
-  image: DensityImage;
-  contours: ContourSet[];
-}
-
-/** The eye of the worst channel of the whole table with its class default. */
+/**
+ * The worst channel of the whole table under its class default, with the engine's tuning-run eyes
+ * of that setting: at the receiver's input (the default's transmit FIR applied, before the CTLE
+ * and DFE) and at the limiter (CTLE, the DFE adapted).
+ */
 export interface WorstEye {
   channelId: number;
   channelName: string;
   className: string;
   headroom_V: number;
   eyeHeight_V: number;
-  eye: EyeFigure;
+  before: EyeFigure;
+  after: EyeFigure;
+}
+
+/** One voltage extent for two eyes, so that before and after compare at a glance. */
+export function sharedVoltageDomain(a: EyeFigure, b: EyeFigure): [number, number] {
+  const all = [...a.image.voltage_V, ...b.image.voltage_V];
+  return [Math.min(...all), Math.max(...all)];
 }
 
 /** What a computed version holds. */
@@ -187,7 +192,7 @@ export interface VersionResult {
   requiredHeadroom_V: number;
   targetBer: number;
   classes: ClassResult[];
-  worstEye: WorstEye | null;
+  worstEye: WorstEye;
 }
 
 export const stateLabels: Record<VersionState, string> = {

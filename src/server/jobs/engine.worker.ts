@@ -2,14 +2,10 @@
 // function per kind of job, each taking the job's input and posting progress 0…1 on `port`.
 import type { MessagePort } from "node:worker_threads";
 import type { JobKind } from "@/db/schema/jobs";
-import { version } from "../../../package.json";
 import { computeStudy } from "@/features/studies/studyJob";
 import type { StudyInputs } from "@/features/studies/studies";
 import { computeTableVersion } from "@/features/tables/tableJob";
 import type { VersionInputs } from "@/features/tables/tables";
-
-/** Recorded with every result, so that a result says which engine computed it. */
-const ENGINE_VERSION = `tapwright-${version}`;
 
 interface Task {
   kind: JobKind;
@@ -19,7 +15,7 @@ interface Task {
 
 export default async function engineTask({ kind, input, port }: Task): Promise<unknown> {
   const progress = (fraction: number) => port.postMessage(fraction);
-  if (kind === "study") return computeStudy(input as StudyInputs, ENGINE_VERSION, progress);
-  if (kind === "table-version") return computeTableVersion(input as VersionInputs, ENGINE_VERSION, progress);
+  if (kind === "study") return computeStudy(input as StudyInputs, progress);
+  if (kind === "table-version") return computeTableVersion(input as VersionInputs, progress);
   throw new Error(`The engine worker cannot run jobs of kind ${kind}.`);
 }
