@@ -53,7 +53,7 @@ export interface CtleOutcome {
 export interface JointSearchOptions {
   /** DFE tap counts to optimize for, searched together (e.g. `[budget taps, 0]`). */
   readonly dfeCounts: readonly number[];
-  /** Number of best settings kept (and proven) for the first DFE count (default 10). */
+  /** Number of best settings kept (and proven) for the first DFE count (default 5). */
   readonly topCount?: number;
   /**
    * Feasibility mode: stop at the first setting whose headroom (first DFE count) reaches this value.
@@ -189,7 +189,7 @@ export function jointSearch(
       throw new RangeError(`dfeCounts must hold integers 0…${space.dfeCount} (the budget's DFE taps), got ${n}`);
     }
   }
-  const topCount = options.topCount ?? 10;
+  const topCount = options.topCount ?? 5;
   if (!Number.isInteger(topCount) || topCount < 1) throw new RangeError(`topCount must be an integer ≥ 1, got ${topCount}`);
   const target = options.target_V;
   if (target !== undefined && !Number.isFinite(target)) throw new RangeError(`target_V must be finite, got ${target}`);
@@ -425,27 +425,42 @@ export function jointSearch(
   };
 
   // Phases the policy may choose for some setting of the box.
-  const boxPhases = (ctx: Member, box: TapBox): number[] => {
+  // Phases the policy may choose for some setting of the box, among `parent` (the phases of an
+  // enclosing box: a setting's phase does not depend on the box it is seen in).
+  const boxPhases = (mc: Member, box: TapBox, parent: readonly number[]): number[] => {
     if (space.policy === "max-height") return allPhases;
-    const r = new Float64Array(2);
-    const range = (t: number): [number, number] => {
-      boxRange(box, critAt(ctx, t), T, r);
-      return [r[0], r[1]];
-    };
     // A small tolerance keeps rounding differences from hiding a phase the leaf would choose.
     const eps = 1e-12 * space.scale_V;
-    const out: number[] = [];
-    let prev = range(window.lo);
-    if (prev[1] >= -eps) out.push(window.lo); // some setting may have no crossing and F(lo) ≥ 0
-    for (let t = window.lo + 1; t <= window.hi; t++) {
-      const cur = range(t);
-      if (prev[0] < eps && cur[1] >= -eps) {
-        if (!out.includes(t - 1)) out.push(t - 1);
-        out.push(t);
+    const lo = new Map<number, number>();
+    const hi = new Map<number, number>();
+    const r = new Float64Array(2);
+    const range = (t: number) => {
+      if (!lo.has(t)) {
+        boxRange(box, critAt(mc, t), T, r);
+        lo.set(t, r[0]);
+        hi.set(t, r[1]);
       }
-      prev = cur;
+    };
+    // A crossing at t (F(t−1) < 0 ≤ F(t)) may lock at t − 1 or t.
+    const crossing = (t: number): boolean => {
+      if (t - 1 < window.lo || t > window.hi) return false;
+      range(t - 1);
+      range(t);
+      return (lo.get(t - 1) as number) < eps && (hi.get(t) as number) >= -eps;
+    };
+    const out: number[] = [];
+    for (const t of parent) {
+      let keep = crossing(t) || crossing(t + 1);
+      if (!keep && t === window.lo) {
+        range(t);
+        keep = (hi.get(t) as number) >= -eps; // no crossing and F(lo) ≥ 0
+      }
+      if (!keep && t === window.hi) {
+        range(t);
+        keep = (lo.get(t) as number) < eps; // no crossing and F(hi) < 0
+      }
+      if (keep) out.push(t);
     }
-    if (prev[0] < eps && !out.includes(window.hi)) out.push(window.hi); // or F(lo) < 0 and no crossing
     return out;
   };
 
@@ -453,15 +468,16 @@ export function jointSearch(
   // member's phase scan stops at the first phase that passes the threshold, and the member scan stops
   // at the first member that fails it; so a box that fails carries a true bound, while a box that
   // passes carries a value that only orders the halves.
-  const boxValue = (ctx: Ctx, box: TapBox, o: number): number => {
+  const boxValue = (ctx: Ctx, box: TapBox, phases: readonly (readonly number[])[], o: number): number => {
     stats.boxes++;
     const thr = target !== undefined ? target - Number.EPSILON : threshold(o);
     const M = ctx.members.length;
     let least = Number.POSITIVE_INFINITY;
     for (let i = 0; i < M; i++) {
-      const mc = ctx.members[(ctx.lead + i) % M];
+      const m = (ctx.lead + i) % M;
+      const mc = ctx.members[m];
       let v = Number.NEGATIVE_INFINITY;
-      for (const t of boxPhases(mc, box)) {
+      for (const t of phases[m]) {
         const b = boxBound(mc.setup, mc.coef, t, box, counts[o], mc.scratch, thr);
         if (b > v) v = b;
         if (passes(o, v)) break;
@@ -474,7 +490,7 @@ export function jointSearch(
 
   // Branch and bound over boxes of grid-index ranges: split the widest range (at the sign change
   // first, so that the main tap stays affine), bound both halves, visit the better one first.
-  const descend = (ctx: Ctx, lo: Int32Array, hi: Int32Array, alive: readonly boolean[]) => {
+  const descend = (ctx: Ctx, lo: Int32Array, hi: Int32Array, alive: readonly boolean[], parentPhases: readonly (readonly number[])[]) => {
     let split = -1;
     let width = 0;
     for (let s = 0; s < sides.length; s++) {
@@ -504,7 +520,7 @@ export function jointSearch(
       while (g[z + 1] < 0) z++;
       mid = z; // [negative values] and [0 and positive values]
     }
-    const halves: { lo: Int32Array; hi: Int32Array; score: number; alive: boolean[] }[] = [];
+    const halves: { lo: Int32Array; hi: Int32Array; score: number; alive: boolean[]; phases: number[][] }[] = [];
     for (const [a, b] of [
       [lo[split], mid],
       [mid + 1, hi[split]],
@@ -515,25 +531,26 @@ export function jointSearch(
       chi[split] = b;
       if (clo.every((v, s) => v === chi[s])) {
         // A single setting: its own tiers decide.
-        halves.push({ lo: clo, hi: chi, score: Number.POSITIVE_INFINITY, alive: alive.slice() });
+        halves.push({ lo: clo, hi: chi, score: Number.POSITIVE_INFINITY, alive: alive.slice(), phases: [] });
         continue;
       }
       const box = makeBox(clo, chi);
       if (box === null) continue;
+      const phases = ctx.members.map((mc, m) => boxPhases(mc, box, parentPhases[m]));
       const childAlive = alive.map(() => false);
       let score = Number.NEGATIVE_INFINITY;
       for (let o = 0; o < O; o++) {
         if (!alive[o]) continue;
-        const ub = boxValue(ctx, box, o);
+        const ub = boxValue(ctx, box, phases, o);
         if (passes(o, ub)) childAlive[o] = true;
         else prune(ctx, o, ub);
         if (o === alive.indexOf(true)) score = ub;
       }
       // A live half stays live: its bound may be partial (see boxValue), so it is not re-tested here.
-      if (childAlive.some(Boolean)) halves.push({ lo: clo, hi: chi, score, alive: childAlive });
+      if (childAlive.some(Boolean)) halves.push({ lo: clo, hi: chi, score, alive: childAlive, phases });
     }
     halves.sort((x, y) => y.score - x.score);
-    for (const h of halves) descend(ctx, h.lo, h.hi, h.alive);
+    for (const h of halves) descend(ctx, h.lo, h.hi, h.alive, h.phases);
   };
 
   const contexts: Ctx[] = space.ctleSettings.map((setting, ci) => ({
@@ -586,13 +603,14 @@ export function jointSearch(
       const hi = Int32Array.from(grids, (g) => g.length - 1);
       const root = grids.some((g) => g.length === 0) ? null : makeBox(lo, hi);
       if (root !== null) {
+        const phases = ctx.members.map((mc) => boxPhases(mc, root, allPhases));
         const alive = everyone.map((_, o) => {
-          const ub = boxValue(ctx, root, o);
+          const ub = boxValue(ctx, root, phases, o);
           if (passes(o, ub)) return true;
           prune(ctx, o, ub);
           return false;
         });
-        if (alive.some(Boolean)) descend(ctx, lo, hi, alive);
+        if (alive.some(Boolean)) descend(ctx, lo, hi, alive, phases);
       }
       done++;
       options.onProgress?.(done / contexts.length);
