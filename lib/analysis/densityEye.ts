@@ -64,9 +64,12 @@ export function densityEye(pulse: Pulse, symbols: Float64Array, options: Density
   const p = pulse.values_V;
   const N = symbols.length;
   const period = N * spu;
-  // Periodic waveform by polyphase superposition: y[n·spu + φ] = Σ_j a_{n−j}·p[j·spu + φ].
+  // Periodic waveform by polyphase superposition: y[n·spu + φ] = Σ_j a_{n−j}·p[j·spu + φ], reading the
+  // symbols from a copy with the last `taps` symbols in front (the stream wraps around).
   const y = new Float64Array(period);
   const taps = Math.ceil(p.length / spu);
+  const ext = new Float64Array(N + taps);
+  for (let i = 0; i < ext.length; i++) ext[i] = symbols[(((i - taps) % N) + N) % N];
   const col = new Float64Array(taps);
   for (let phi = 0; phi < spu; phi++) {
     let used = 0;
@@ -77,11 +80,8 @@ export function densityEye(pulse: Pulse, symbols: Float64Array, options: Density
     }
     for (let n = 0; n < N; n++) {
       let s = 0;
-      let k = n;
-      for (let j = 0; j < used; j++) {
-        s += symbols[k] * col[j];
-        k = k === 0 ? N - 1 : k - 1;
-      }
+      const top = n + taps;
+      for (let j = 0; j < used; j++) s += ext[top - j] * col[j];
       y[n * spu + phi] = s;
     }
   }
@@ -107,22 +107,25 @@ export function densityEye(pulse: Pulse, symbols: Float64Array, options: Density
   const dv = (highV - lowV) / H;
   for (let r = 0; r < H; r++) voltage_V[r] = highV - (r + 0.5) * dv;
 
-  // Sample offsets (relative to a symbol's sampling instant) of every point of every column.
+  // Every point of every column as a whole-sample offset from a symbol's start and a fraction.
   const pts = W * per;
-  const offs = new Float64Array(pts);
+  const whole = new Int32Array(pts);
+  const frac = new Float64Array(pts);
   for (let c = 0; c < W; c++) {
-    for (let q = 0; q < per; q++) offs[c * per + q] = (-1 + ((c + (q + 0.5) / per) * 2) / W) * spu;
-  }
-  const wrap = (x: number) => ((x % period) + period) % period;
-  for (let n = 0; n < N; n++) {
-    const centre = n * spu + pulse.mainIndex + phase;
-    for (let i = 0; i < pts; i++) {
-      const x = wrap(centre + offs[i]);
+    for (let q = 0; q < per; q++) {
+      const x = pulse.mainIndex + phase + (-1 + ((c + (q + 0.5) / per) * 2) / W) * spu;
       const i0 = Math.floor(x);
-      const f = x - i0;
-      const a = y[i0];
-      const b = y[i0 + 1 === period ? 0 : i0 + 1];
-      const v = a + f * (b - a);
+      whole[c * per + q] = i0;
+      frac[c * per + q] = x - i0;
+    }
+  }
+  for (let n = 0; n < N; n++) {
+    const base = n * spu;
+    for (let i = 0; i < pts; i++) {
+      let a0 = base + whole[i];
+      if (a0 < 0 || a0 >= period) a0 = ((a0 % period) + period) % period;
+      const a1 = a0 + 1 === period ? 0 : a0 + 1;
+      const v = y[a0] + frac[i] * (y[a1] - y[a0]);
       const r = Math.floor((highV - v) / dv);
       if (r >= 0 && r < H) counts[r * W + ((i / per) | 0)] += 1;
     }
