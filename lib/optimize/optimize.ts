@@ -66,11 +66,16 @@ export interface OptimizeResult extends SettingResult {
   readonly search: { readonly exactEvaluations: number; readonly boundedBoxes: number; readonly settingsReached: number };
 }
 
+/** A tap value for people and firmware: grid multiples without binary noise (0.6, not 0.6000000000000001). */
+export function tidyTap(x: number): number {
+  return Math.round(x * 1e12) / 1e12;
+}
+
 /** Options of {@link optimize}. */
 export interface OptimizeOptions {
   /** Progress 0 … 1 (for a progress bar). */
   readonly onProgress?: (fraction: number) => void;
-  /** Number of top settings returned (default 10). */
+  /** Number of top settings returned (default 5). */
   readonly topCount?: number;
 }
 
@@ -150,7 +155,7 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
     const spu = s.channel.pulse.samplesPerUi;
     const limits = Array.from(space.dfeLimits_V.subarray(0, s.eye.dfeTaps.length), (l) => (Number.isFinite(l) ? l : null));
     return {
-      tx: { taps: Array.from(s.taps) },
+      tx: { taps: Array.from(s.taps, tidyTap) },
       ctle: { gDc_dB: s.channel.setting.gDc_dB, gDc2_dB: s.channel.setting.gDc2_dB },
       dfe: { taps: Array.from(s.eye.dfeTaps), limits_V: limits, clipped: [...s.eye.dfeClipped] },
       eye: {
@@ -195,7 +200,7 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
     },
     top: main.top.map((c) => ({
       ctle: { gDc_dB: c.ctle.gDc_dB, gDc2_dB: c.ctle.gDc2_dB },
-      txTaps: Array.from(c.taps),
+      txTaps: Array.from(c.taps, tidyTap),
       dfeTaps: Array.from(c.dfeTaps),
       samplingPhase_UI: c.phase / pulse.samplesPerUi,
       eyeHeight_V: c.eyeHeight_V,

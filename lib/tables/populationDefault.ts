@@ -5,6 +5,7 @@ import type { BudgetInput } from "../contract/budget.ts";
 import { channelFor } from "../optimize/ctleChannel.ts";
 import { evaluateSetting, type PhaseEye } from "../optimize/evaluateSetting.ts";
 import { type Candidate, jointSearch, type PreparedChannels, prepareChannels } from "../optimize/jointSearch.ts";
+import { tidyTap } from "../optimize/optimize.ts";
 import { searchSpace } from "../optimize/searchSpace.ts";
 import { assertPulse } from "../pulse/assertPulse.ts";
 import { resampleLinear } from "../signal/resampleLinear.ts";
@@ -175,7 +176,7 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
   const spu = members[0].samplesPerUi;
   const result: PopulationResult = {
     setting: {
-      tx: { taps: [...chosen.setting.tx] },
+      tx: { taps: chosen.setting.tx.map(tidyTap) },
       ctle: { ...chosen.setting.ctle },
       dfe: { taps: dfeStart },
     },
@@ -189,7 +190,7 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
       samplingPhase_UI: e.phase / spu,
       dfeTaps: Array.from(e.dfeTaps),
       ownHeadroom_V: own[i].limiterHeadroom_V,
-      own: { tx: Array.from(own[i].taps), ctle: { gDc_dB: own[i].ctle.gDc_dB, gDc2_dB: own[i].ctle.gDc2_dB } },
+      own: { tx: Array.from(own[i].taps, tidyTap), ctle: { gDc_dB: own[i].ctle.gDc_dB, gDc2_dB: own[i].ctle.gDc2_dB } },
     })),
   };
   report(1);
