@@ -2,6 +2,7 @@
 // person per role. Idempotent: running it again adds only what is missing.
 import { ensurePerson } from "@/features/people/people.server";
 import { pool } from "@/server/db.server";
+import { seedDemoWork } from "@/features/demo/demo.server";
 
 export const DEMO_PASSWORD = process.env.DEMO_PASSWORD ?? "tapwright-demo";
 
@@ -19,6 +20,8 @@ async function main() {
   }
   for (const p of people) await ensurePerson(p.email, p.name, p.role, DEMO_PASSWORD);
   console.log(`[tapwright] Demo accounts: ${people.map((p) => p.email).join(", ")} — password: ${DEMO_PASSWORD}`);
+  const work = await seedDemoWork();
+  console.log(`[tapwright] Demo work: added ${work.channels} channels, ${work.budgets} budgets, ${work.runs} tuning runs.`);
 }
 
 main()

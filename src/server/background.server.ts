@@ -3,6 +3,7 @@ import { deliverQueuedMail, startMailRetries } from "./mail/mail.server";
 import { startJobDispatcher } from "./jobs/queue.server";
 import "@/features/studies/studies.server";
 import "@/features/tables/tables.server";
+import "@/features/runs/runJobs.server";
 
 let started = false;
 

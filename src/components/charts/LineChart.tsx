@@ -25,6 +25,8 @@ export interface LineSeries {
   /** "line" (default), "dots" (markers only) or "stems" (a line from 0 to each point, with a dot). */
   kind?: "line" | "dots" | "stems";
   strokeWidth?: number;
+  /** Leave this series out of the legend and the hover readout (e.g. reference lines). */
+  quiet?: boolean;
 }
 
 /** A vertical marker line at `x` with an optional label at its top. */
@@ -131,8 +133,9 @@ export default function LineChart(props: LineChartProps) {
     hoverX === null
       ? null
       : props.series
-          .filter((s) => s.x.length > 0)
-          .map((s, i) => {
+          .map((s, i) => ({ s, i }))
+          .filter(({ s }) => s.x.length > 0 && !s.quiet)
+          .map(({ s, i }) => {
             const k = nearestIndex(s.x, hoverX);
             return { key: s.key, label: s.label, color: s.color ?? seriesColor(i), x: s.x[k], y: s.y[k] };
           });
@@ -272,9 +275,9 @@ export default function LineChart(props: LineChartProps) {
           ))}
         </div>
       )}
-      {(props.legend ?? true) && props.series.length > 1 && (
+      {(props.legend ?? true) && props.series.filter((s) => !s.quiet).length > 1 && (
         <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 pl-14 text-xs text-ink-soft" aria-label="Legend">
-          {props.series.map((s, i) => (
+          {props.series.map((s, i) => s.quiet ? null : (
             <li key={s.key} className="flex items-center gap-1.5">
               <svg width={18} height={8} aria-hidden>
                 <line x1={0} x2={18} y1={4} y2={4} stroke={s.color ?? seriesColor(i)} strokeWidth={2} strokeDasharray={s.dash} />

@@ -32,11 +32,14 @@ export const DEMO_CHANNELS: DemoChannel[] = [
 /** The two demo budgets: the NRZ backplane and the PAM4 short-reach starting points. */
 export const DEMO_BUDGETS = budgetPresets.filter((p) => p.key === "nrz28-backplane" || p.key === "pam4-53-short");
 
-/** Which channel runs against which budget in the seed (by name). */
+/**
+ * Which channel runs against which budget in the seed (by name): a short lane (all clear), the
+ * Touchstone lane, a long lane where linear reach is exhausted, and a PAM4 lane. The far-corner
+ * lane is left for people to try (the search takes the longest there).
+ */
 export const DEMO_RUNS: { channel: string; budget: string }[] = [
   { channel: DEMO_CHANNELS[0].name, budget: DEMO_BUDGETS[0].name },
   { channel: DEMO_CHANNELS[2].name, budget: DEMO_BUDGETS[0].name },
   { channel: DEMO_CHANNELS[3].name, budget: DEMO_BUDGETS[0].name },
-  { channel: DEMO_CHANNELS[4].name, budget: DEMO_BUDGETS[0].name },
   { channel: DEMO_CHANNELS[5].name, budget: DEMO_BUDGETS[1].name },
 ];

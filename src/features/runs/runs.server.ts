@@ -7,6 +7,7 @@ import { enqueueJob, pumpJobs } from "@/server/jobs/queue.server";
 import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
+import type { TuningRunResult } from "@lib/run";
 import { listQuery, type RunListItem, type RunListQuery, type RunSummary, type RunView, type StartRunRequest } from "./runs";
 
 /** Adds the run and its queued job; the job's target is the run (so the job comes first, then points back). */
@@ -18,6 +19,52 @@ async function insertRun(tx: Tx, user: SessionUser | null, inputs: RunInputs, li
     .$returningId();
   await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
   return id;
+}
+
+/** Stores a finished run's result, engine version and list summary (inside the job's closing transaction). */
+export async function storeRunResult(tx: Tx, runId: number, result: TuningRunResult): Promise<void> {
+  const summary: RunSummary = {
+    limiterHeadroom_V: result.metrics.limiterHeadroom_V,
+    eyeHeight_V: result.metrics.eyeHeight_V,
+    linearReachExhausted: result.verdict.linearReachExhausted,
+  };
+  await tx
+    .update(runs)
+    .set({ result: result as unknown as Record<string, unknown>, engineVersion: result.engineVersion, summary })
+    .where(eq(runs.id, runId));
+}
+
+/** The worker's input for a run: its own copies of the channel's pulse and the budget. */
+export async function runJobInput(runId: number) {
+  const [row] = await db.select({ inputs: runs.inputs }).from(runs).where(eq(runs.id, runId));
+  if (!row) throw new Error(`Run ${runId} has gone.`);
+  return { pulse: row.inputs.channel.pulse, budget: row.inputs.budget.params };
+}
+
+/**
+ * Records a run computed outside the queue (the demo seed) exactly as the worker's would be: the
+ * inputs, a job marked done with its timing, and the stored result.
+ */
+export async function recordFinishedRun(user: SessionUser | null, inputs: RunInputs, result: TuningRunResult, compute_ms: number) {
+  return db.transaction(async (tx) => {
+    const id = await insertRun(tx, user, inputs, { channelId: inputs.channel.id, budgetId: inputs.budget.id });
+    const [{ jobId }] = await tx.select({ jobId: runs.jobId }).from(runs).where(eq(runs.id, id));
+    await tx
+      .update(jobs)
+      .set({
+        status: "done",
+        progress: 1,
+        attempts: 1,
+        createdAt: sql`NOW(3) - INTERVAL ${compute_ms * 1000} MICROSECOND`,
+        startedAt: sql`NOW(3) - INTERVAL ${compute_ms * 1000} MICROSECOND`,
+        finishedAt: sql`NOW(3)`,
+        compute_ms,
+      })
+      .where(eq(jobs.id, jobId));
+    await storeRunResult(tx, id, result);
+    await recordAudit(tx, user, "run.start", "run", id, { channel: inputs.channel.name, budget: inputs.budget.name, seeded: true });
+    return id;
+  });
 }
 
 /** Copies the channel's pulse and the budget into a new run and queues it. Answers 202's body. */

@@ -78,3 +78,27 @@ export function formatDuration(ms: number | null): string {
   if (ms < 60_000) return `${(ms / 1000).toFixed(1)} s`;
   return `${Math.floor(ms / 60_000)} min ${Math.round((ms % 60_000) / 1000)} s`;
 }
+
+/** Names of transmit FIR taps from the earliest pre-cursor tap: c(−1), c(0), c(+1), … */
+export function firTapLabels(count: number, pre: number): string[] {
+  return Array.from({ length: count }, (_, j) => {
+    const k = j - pre;
+    return `c(${k > 0 ? "+" : k < 0 ? "−" : ""}${Math.abs(k)})`;
+  });
+}
+
+/** Columns of a trajectory: `rows[k][j]` → one array per tap j. */
+export function byTap(rows: readonly (readonly number[])[]): number[][] {
+  const n = rows[0]?.length ?? 0;
+  return Array.from({ length: n }, (_, j) => rows.map((r) => r[j]));
+}
+
+/** The receiver's figure of merit of transmit training (ISI + noise over the main cursor squared) as an SNR in dB. */
+export function trainingSnr_dB(objective: number): number {
+  return -10 * Math.log10(objective);
+}
+
+/** The eye's target BER as people write it: "1e-12". */
+export function formatBer(ber: number): string {
+  return ber.toExponential(0).replace("e+", "e");
+}

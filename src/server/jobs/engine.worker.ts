@@ -6,6 +6,7 @@ import { computeStudy } from "@/features/studies/studyJob";
 import type { StudyInputs } from "@/features/studies/studies";
 import { computeTableVersion } from "@/features/tables/tableJob";
 import type { VersionInputs } from "@/features/tables/tables";
+import { computeRun, type RunJobInput } from "@/features/runs/computeRun";
 
 interface Task {
   kind: JobKind;
@@ -15,6 +16,7 @@ interface Task {
 
 export default async function engineTask({ kind, input, port }: Task): Promise<unknown> {
   const progress = (fraction: number) => port.postMessage(fraction);
+  if (kind === "run") return computeRun(input as RunJobInput, progress);
   if (kind === "study") return computeStudy(input as StudyInputs, progress);
   if (kind === "table-version") return computeTableVersion(input as VersionInputs, progress);
   throw new Error(`The engine worker cannot run jobs of kind ${kind}.`);

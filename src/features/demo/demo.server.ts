@@ -1,0 +1,85 @@
+// Seeds the demo workspace's engineering data (called from scripts/seed.ts, never in production):
+// the program, its channels (synthetic lines and one generated Touchstone file), the two budgets,
+// and finished tuning runs computed here by the engine itself. Idempotent: skips what exists.
+import { and, eq } from "drizzle-orm";
+import { db } from "@/server/db.server";
+import { budgets, channels, programs, runs, users } from "@/db/schema";
+import type { SessionUser } from "@/server/auth/sessionUser";
+import { deriveFromFile, deriveSynthetic } from "@/features/channels/derive";
+import { saveChannel } from "@/features/channels/channels.server";
+import { createBudget } from "@/features/budgets/budgets.server";
+import { recordFinishedRun } from "@/features/runs/runs.server";
+import { computeRun } from "@/features/runs/computeRun";
+import { backplaneTouchstone } from "./backplaneTouchstone";
+import { DEMO_BUDGETS, DEMO_CHANNELS, DEMO_PROGRAM, DEMO_RUNS, type DemoChannel } from "./demo";
+
+async function demoDesigner(): Promise<SessionUser | null> {
+  const [u] = await db.select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, "designer@tapwright.test"));
+  return u ?? null;
+}
+
+function deriveDemoChannel(c: DemoChannel) {
+  if (!c.touchstone) {
+    return { derived: deriveSynthetic(c.bitRate_bps, c.modulation, { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s }) };
+  }
+  const baud = c.bitRate_bps / (c.modulation === "pam4" ? 2 : 1);
+  const text = backplaneTouchstone({
+    model: { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s },
+    nyquist_Hz: baud / 2,
+    step_Hz: 25e6,
+    stop_Hz: 1.5 * baud,
+    comments: [`Quillfeather Systems, Brackenridge backplane: ${c.name}`, "Generated for the Tapwright demo workspace (not a measurement)."],
+  });
+  const bytes = new TextEncoder().encode(text);
+  const file = { filename: c.touchstone.filename, contentType: "application/octet-stream", bytes };
+  return { derived: deriveFromFile({ filename: file.filename, bytes, bitRate_bps: c.bitRate_bps, modulation: c.modulation }), file };
+}
+
+/** Seeds what is missing; returns counts of what it added. */
+export async function seedDemoWork(): Promise<{ channels: number; budgets: number; runs: number }> {
+  const designer = await demoDesigner();
+  const added = { channels: 0, budgets: 0, runs: 0 };
+
+  const [program] = await db.select({ id: programs.id }).from(programs).where(eq(programs.name, DEMO_PROGRAM.name));
+  const programId = program?.id ?? (await db.insert(programs).values(DEMO_PROGRAM).$returningId())[0].id;
+
+  const channelIds = new Map<string, number>();
+  for (const c of DEMO_CHANNELS) {
+    const [found] = await db.select({ id: channels.id }).from(channels).where(and(eq(channels.programId, programId), eq(channels.name, c.name)));
+    if (found) {
+      channelIds.set(c.name, found.id);
+      continue;
+    }
+    const { derived, file } = deriveDemoChannel(c);
+    const saved = await saveChannel(designer, { name: c.name, bitRate_bps: c.bitRate_bps, modulation: c.modulation, program: DEMO_PROGRAM.name, file }, derived);
+    channelIds.set(c.name, saved.id);
+    added.channels++;
+  }
+
+  const budgetIds = new Map<string, number>();
+  for (const b of DEMO_BUDGETS) {
+    const [found] = await db.select({ id: budgets.id }).from(budgets).where(eq(budgets.name, b.name));
+    if (found) {
+      budgetIds.set(b.name, found.id);
+      continue;
+    }
+    const created = await createBudget(designer, { ...(b.budget as Parameters<typeof createBudget>[1]), name: b.name, description: b.description });
+    budgetIds.set(b.name, created.id);
+    added.budgets++;
+  }
+
+  for (const r of DEMO_RUNS) {
+    const channelId = channelIds.get(r.channel)!;
+    const budgetId = budgetIds.get(r.budget)!;
+    const [exists] = await db.select({ id: runs.id }).from(runs).where(and(eq(runs.channelId, channelId), eq(runs.budgetId, budgetId))).limit(1);
+    if (exists) continue;
+    const [channel] = await db.select({ id: channels.id, name: channels.name, bitRate_bps: channels.bitRate_bps, pulse: channels.pulse }).from(channels).where(eq(channels.id, channelId));
+    const [budget] = await db.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).where(eq(budgets.id, budgetId));
+    const inputs = { channel, budget };
+    const started = performance.now();
+    const result = computeRun({ pulse: channel.pulse, budget: budget.params });
+    await recordFinishedRun(designer, inputs, result, Math.round(performance.now() - started));
+    added.runs++;
+  }
+  return added;
+}

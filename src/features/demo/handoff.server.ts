@@ -1,0 +1,105 @@
+// The demo hand-off (called from scripts/seed.ts after the channels and budgets exist, never in
+// production): an architecture study of the QL-48 backplane lanes with its decision record, a tap
+// table whose v1 is signed off after a short thread, and a v2 awaiting sign-off. Computed here by
+// the engine (the study and versions run in this process). Idempotent: skips what exists.
+import { and, eq, inArray } from "drizzle-orm";
+import { db } from "@/server/db.server";
+import { budgets, channels, studies, tapTables, users } from "@/db/schema";
+import type { SessionUser } from "@/server/auth/sessionUser";
+import { defaultCandidates } from "@/features/studies/architecture";
+import { computeStudy } from "@/features/studies/studyJob";
+import { decideStudy, getStudy, startStudy } from "@/features/studies/studies.server";
+import { computeTableVersion } from "@/features/tables/tableJob";
+import { createTable, createVersion } from "@/features/tables/tables.server";
+import { addComment, decide, requestSignOff } from "@/features/signoff/signoff.server";
+import type { CandidateResult } from "@/features/studies/studies";
+import { DEMO_BUDGETS, DEMO_CHANNELS } from "./demo";
+
+const STUDY = "QL-48 backplane lanes: how much equalization";
+const TABLE = "QL-48 backplane lane defaults";
+/** Lanes beyond this loss close under every candidate (they get a retimer) and stay out of the hand-off. */
+const RETIMED_ABOVE_dB = 35;
+/** The candidates compared: the transmit FIR the line card's SerDes has (1 pre, 1 post), CTLE, DFE 1/3/5. */
+const CANDIDATES = defaultCandidates({ pre: 1, post: 1 }, 5).filter((c) => ["ctle", "tx-ctle", "tx-ctle-dfe1", "tx-ctle-dfe3", "tx-ctle-dfe5"].includes(c.key));
+
+async function person(email: string): Promise<SessionUser> {
+  const [u] = await db.select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, email));
+  if (!u) throw new Error(`The demo account ${email} is missing; seed the people first.`);
+  return u;
+}
+
+const mv = (v: number) => `${(v * 1e3).toFixed(1)} mV`;
+
+/** The candidate with the fewest taps that meets the required headroom on every lane (else the best worst case). */
+function choose(cs: readonly CandidateResult[], required_V: number): CandidateResult {
+  const passing = cs.filter((c) => c.worstHeadroom_V >= required_V).sort((a, b) => a.complexity - b.complexity);
+  return passing[0] ?? [...cs].sort((a, b) => b.worstHeadroom_V - a.worstHeadroom_V)[0];
+}
+
+function rationale(chosen: CandidateResult, cs: readonly CandidateResult[], required_V: number, retimed: string[]): string {
+  const richer = cs.filter((c) => c.complexity > chosen.complexity).sort((a, b) => b.worstHeadroom_V - a.worstHeadroom_V)[0];
+  const leaner = cs.filter((c) => c.complexity < chosen.complexity && c.worstHeadroom_V < required_V);
+  const lines = [
+    `${chosen.label} keeps ${mv(chosen.worstHeadroom_V)} on the worst lane (${chosen.worstChannel.name}) against the ${mv(required_V)} the budget requires.`,
+  ];
+  if (leaner.length > 0) lines.push(`${leaner.map((c) => c.label).join(", ")} leave${leaner.length === 1 ? "s" : ""} that lane short.`);
+  if (richer) lines.push(`${richer.label} would add only ${mv(richer.worstHeadroom_V - chosen.worstHeadroom_V)} for ${richer.complexity - chosen.complexity} more taps of power and area.`);
+  if (retimed.length > 0) lines.push(`${retimed.join(", ")} closes under every candidate; it gets a retimer and is left out.`);
+  return lines.join(" ");
+}
+
+/** Seeds the hand-off when it is missing; returns what it added. */
+export async function seedHandoff(): Promise<{ study: boolean; table: boolean }> {
+  const [existing] = await db.select({ id: tapTables.id }).from(tapTables).where(eq(tapTables.name, TABLE));
+  if (existing) return { study: false, table: false };
+  const designer = await person("designer@tapwright.test");
+  const reviewer = await person("reviewer@tapwright.test");
+
+  const budget = DEMO_BUDGETS.find((b) => b.budget.modulation === "nrz")!;
+  const [b] = await db.select({ id: budgets.id }).from(budgets).where(eq(budgets.name, budget.name));
+  const lanes = DEMO_CHANNELS.filter((c) => c.modulation === "nrz" && c.bitRate_bps === budget.budget.bitRate_bps);
+  const names = lanes.filter((c) => c.lossAtNyquist_dB <= RETIMED_ABOVE_dB).map((c) => c.name);
+  const retimed = lanes.filter((c) => c.lossAtNyquist_dB > RETIMED_ABOVE_dB).map((c) => c.name);
+  const rows = await db.select({ id: channels.id, name: channels.name }).from(channels).where(inArray(channels.name, names));
+  const channelIds = names.map((n) => rows.find((r) => r.name === n)?.id).filter((id): id is number => id !== undefined);
+  if (!b || channelIds.length !== names.length) throw new Error("The demo channels and budgets must be seeded before the hand-off.");
+
+  let [study] = await db.select({ id: studies.id }).from(studies).where(and(eq(studies.name, STUDY), eq(studies.budgetId, b.id)));
+  const addedStudy = !study;
+  if (!study) study = await startStudy(designer, { name: STUDY, channelIds, budgetId: b.id, candidates: CANDIDATES }, { compute: (i) => computeStudy(i, () => {}) });
+  const view = await getStudy(study.id);
+  if (!view.result) throw new Error(`The demo study failed: ${view.error?.message ?? "no result"}`);
+  if (!view.decision) {
+    const chosen = choose(view.result.candidates, view.result.requiredHeadroom_V);
+    await decideStudy(designer, study.id, { candidateKey: chosen.key, rationale: rationale(chosen, view.result.candidates, view.result.requiredHeadroom_V, retimed) });
+  }
+
+  const here = { compute: (i: Parameters<typeof computeTableVersion>[0]) => computeTableVersion(i, () => {}) };
+  const { id: tableId } = await createTable(
+    designer,
+    {
+      name: TABLE,
+      description: "Default equalizer settings per reach class for the QL-48 line card's backplane lanes, loaded by the bring-up firmware.",
+      budgetId: b.id,
+      studyId: study.id,
+      grouping: { mode: "loss-bins", edges_dB: [16], channelIds },
+      note: "First cut: short and long lanes split at 16 dB.",
+    },
+    here,
+  );
+  const { id: first } = await requestSignOff(designer, tableId, 1, { reviewerId: reviewer.id, message: "Two classes split at 16 dB; the long class is set by its longest lane." }, "later");
+  const longest = names[names.length - 1];
+  const question = await addComment(reviewer, first, {
+    body: `${longest} keeps the least headroom with the long-class default. Is the default tuned for it, or a compromise with the shorter long lane?`,
+    channelName: longest,
+  });
+  await addComment(designer, first, {
+    body: "A compromise by construction: the default maximizes the worst lane of the class, and that lane is this one — no setting does better for it without costing the other more.",
+    parentId: question.id,
+  });
+  await decide(reviewer, first, { decision: "approve", comment: "Approved for the bring-up firmware: every lane clears the required headroom at the target BER." }, "later");
+
+  await createVersion(designer, tableId, { edges_dB: [10, 20], note: "Three classes: the short lane gets its own default and the headroom the shared one cost it." }, here);
+  await requestSignOff(designer, tableId, 2, { reviewerId: reviewer.id, message: "v2 splits the short lanes; the long class is unchanged from v1." }, "later");
+  return { study: addedStudy, table: true };
+}

@@ -1,0 +1,16 @@
+// The engine's work for one tuning run, shared by the worker pool and the demo seed so that both
+// store the same result: the run's copied pulse and budget in, lib/run's TuningRunResult out.
+import { pulseFromJson } from "@lib/pulse";
+import { tuningRun, type TuningRunResult } from "@lib/run";
+import type { BudgetInput } from "@lib/contract/budget";
+import type { StoredPulse } from "@/db/schema/channels";
+
+/** What the worker receives for a run: the copies taken when the run started. */
+export interface RunJobInput {
+  pulse: StoredPulse;
+  budget: Record<string, unknown>;
+}
+
+export function computeRun(input: RunJobInput, onProgress?: (fraction: number) => void): TuningRunResult {
+  return tuningRun(pulseFromJson(input.pulse), input.budget as BudgetInput, onProgress);
+}
