@@ -4,7 +4,7 @@ import { eyeWidth } from "../analysis/bathtub.ts";
 import type { BudgetInput } from "../contract/budget.ts";
 import type { Pulse } from "../types.ts";
 import type { CtleChannel } from "./ctleChannel.ts";
-import { type PhaseEye, phaseEye } from "./evaluateSetting.ts";
+import { evaluateSetting, type PhaseEye, phaseEye } from "./evaluateSetting.ts";
 import { type Candidate, jointSearch, type PreparedChannels, prepareChannels } from "./jointSearch.ts";
 import { refineFir } from "./refineFir.ts";
 import { type SearchSpace, searchSpace } from "./searchSpace.ts";
@@ -122,11 +122,21 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
     else {
       let lo = 0; // fails
       let hi = N; // succeeds
+      // A setting already found that meets the requirement with `n` taps proves `n` feasible;
+      // otherwise a feasibility pass decides.
+      const known = [fullC, ...main.top];
+      const feasible = (n: number): boolean => {
+        for (const c of known) {
+          stats.exact++;
+          if (evaluateSetting(prepared.channels[c.ctleIndex], space, c.taps, n).limiterHeadroom_V >= required) return true;
+        }
+        const r = jointSearch(pulse, space, { dfeCounts: [n], target_V: required }, prepared);
+        stats = { exact: stats.exact + r.stats.exact, heavy: stats.heavy + r.stats.heavy, boxes: stats.boxes + r.stats.boxes, leaves: stats.leaves + r.stats.leaves };
+        return r.best[0] !== null;
+      };
       while (hi - lo > 1) {
         const mid = (lo + hi) >> 1;
-        const r = jointSearch(pulse, space, { dfeCounts: [mid], target_V: required }, prepared);
-        stats = { exact: stats.exact + r.stats.exact, heavy: stats.heavy + r.stats.heavy, boxes: stats.boxes + r.stats.boxes, leaves: stats.leaves + r.stats.leaves };
-        if (r.best[0] !== null) hi = mid;
+        if (feasible(mid)) hi = mid;
         else lo = mid;
       }
       fewest = hi;
