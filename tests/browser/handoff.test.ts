@@ -37,7 +37,8 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     for (const name of pop.names) await form.getByLabel(name, { exact: true }).check();
     await form.getByLabel("Bin edges in dB").fill("16");
     await expect.poll(async () => form.getByTestId("class-preview").locator("li").count()).toBe(2);
-    await expect(form.getByTestId("register-map").textContent()).resolves.toContain("dfe_tap1");
+    await expect(form.getByTestId("register-map").textContent()).resolves.toContain("dfe[1]");
+    expect(await form.getByLabel("Name of dfe[1]").inputValue()).toBe("dfe_tap1");
     await page.screenshot({ path: join(screenshotDir, "table-builder.png"), fullPage: true });
     await form.getByRole("button", { name: "Compute v1" }).click();
     await page.waitForURL(/\/tables\/\d+$/);

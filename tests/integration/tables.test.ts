@@ -178,12 +178,24 @@ describe("tap tables: computing versions", () => {
     expect(v2.result.classes.map((c: { name: string }) => c.name)).toEqual(["Loss < 12 dB", "Loss 12–20 dB", "Loss ≥ 20 dB"]);
     expect(v2.diff.fromVersion).toBe(1);
     const statuses = Object.fromEntries(v2.diff.classes.map((c: { name: string; status: string }) => [c.name, c.status]));
-    expect(statuses).toMatchObject({ "Loss < 12 dB": "added", "Loss < 15 dB": "removed", "Loss ≥ 15 dB": "removed" });
+    expect(statuses).toMatchObject({ "Loss < 12 dB": "added", "Loss 12–20 dB": "added", "Loss ≥ 20 dB": "added", "Loss < 15 dB": "removed", "Loss ≥ 15 dB": "removed" });
     expect(v2.diff.channels).toHaveLength(6);
     const moved = v2.diff.channels.find((c: { id: number }) => c.id === pop.byLoss.get(14));
     expect(moved).toMatchObject({ fromClass: "Loss < 15 dB", toClass: "Loss 12–20 dB" });
+    // Per channel, the codes it gets change exactly where its old and new class defaults differ.
+    const codesOf = (v: { result: { classes: { name: string; codes: Record<string, number> }[] } }, name: string) => v.result.classes.find((c) => c.name === name)!.codes;
+    const v1 = await (await designer.get(`/api/v1/tap-tables/${id}/versions/1`)).json();
+    const changed = Object.keys(codesOf(v2, "Loss 12–20 dB")).filter((f) => codesOf(v2, "Loss 12–20 dB")[f] !== codesOf(v1, "Loss < 15 dB")[f]);
+    expect(moved.codes.map((c: { field: string }) => c.field).sort()).toEqual(changed.sort());
+
+    // Same channels under a new name: matched, so its code changes show.
+    const v3res = await designer.send("POST", `/api/v1/tap-tables/${id}/versions`, { grouping: { mode: "manual", classes: [{ name: "Short", channelIds: [pop.byLoss.get(6), pop.byLoss.get(10)] }, { name: "Long", channelIds: [14, 18, 22, 26].map((l) => pop.byLoss.get(l)) }] } });
+    expect(v3res.status).toBe(202);
+    const v3 = await versionComputed(designer, id, 3);
+    const short = v3.diff.classes.find((c: { name: string }) => c.name === "Short");
+    expect(short).toMatchObject({ renamedFrom: "Loss < 12 dB", status: "same", codes: [] });
     const table = await (await designer.get(`/api/v1/tap-tables/${id}`)).json();
-    expect(table.versions.map((v: { version: number }) => v.version)).toEqual([2, 1]);
+    expect(table.versions.map((v: { version: number }) => v.version)).toEqual([3, 2, 1]);
   });
 
   it("an edited register map recomputes the version; the edit is audited", async () => {

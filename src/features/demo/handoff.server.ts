@@ -17,7 +17,7 @@ import { DEMO_BUDGETS, DEMO_CHANNELS } from "./demo";
 
 const STUDY = "QL-48 backplane lanes: how much equalization";
 const TABLE = "QL-48 backplane lane defaults";
-/** Lanes beyond this loss close under every candidate (they get a retimer) and stay out of the hand-off. */
+/** Lanes beyond this loss get a retimer in the demo story and stay out of the hand-off. */
 const RETIMED_ABOVE_dB = 35;
 /** The candidates compared: the transmit FIR the line card's SerDes has (1 pre, 1 post), CTLE, DFE 1/3/5. */
 const CANDIDATES = defaultCandidates({ pre: 1, post: 1 }, 5).filter((c) => ["ctle", "tx-ctle", "tx-ctle-dfe1", "tx-ctle-dfe3", "tx-ctle-dfe5"].includes(c.key));
@@ -44,7 +44,7 @@ function rationale(chosen: CandidateResult, cs: readonly CandidateResult[], requ
   ];
   if (leaner.length > 0) lines.push(`${leaner.map((c) => c.label).join(", ")} leave${leaner.length === 1 ? "s" : ""} that lane short.`);
   if (richer) lines.push(`${richer.label} would add only ${mv(richer.worstHeadroom_V - chosen.worstHeadroom_V)} for ${richer.complexity - chosen.complexity} more taps of power and area.`);
-  if (retimed.length > 0) lines.push(`${retimed.join(", ")} closes under every candidate; it gets a retimer and is left out.`);
+  if (retimed.length > 0) lines.push(`${retimed.map((n) => `“${n}”`).join(" and ")} ${retimed.length === 1 ? "gets" : "get"} a retimer and ${retimed.length === 1 ? "is" : "are"} left out of the study.`);
   return lines.join(" ");
 }
 

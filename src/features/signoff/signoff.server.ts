@@ -21,6 +21,12 @@ function link(path: string): string {
 }
 
 /**
+ * When the e-mail of an action leaves: right after the commit, or (the demo seed, which runs before
+ * the mail server) with the server's next delivery pass.
+ */
+export type Delivery = "now" | "later";
+
+/**
  * Delivers the outbox after a commit. A delivery loop already running took its batch before this
  * message was queued, so a second pass follows it (otherwise the message would wait for the retry).
  */
@@ -40,7 +46,7 @@ export async function reviewers(): Promise<(Person & { role: string })[]> {
 }
 
 /** POST /api/v1/tap-tables/:id/versions/:v/sign-off: asks a reviewer; the version goes into review. */
-export async function requestSignOff(user: SessionUser, tableId: number, v: number, req: SignOffRequest) {
+export async function requestSignOff(user: SessionUser, tableId: number, v: number, req: SignOffRequest, delivery: Delivery = "now") {
   const id = await db.transaction(async (tx) => {
     const [row] = await tx
       .select({ version: tapTableVersions, table: tapTables })
@@ -76,12 +82,12 @@ export async function requestSignOff(user: SessionUser, tableId: number, v: numb
     await recordAudit(tx, user, "signoff.request", "sign-off", id, { table: table.name, tableId, version: v, reviewer: who.email });
     return id;
   });
-  sendMailSoon();
+  if (delivery === "now") sendMailSoon();
   return { id, state: "pending" as const };
 }
 
 /** POST /api/v1/sign-offs/:id/decision: approve (freezes the version) or send back with a reason. */
-export async function decide(user: SessionUser, id: number, req: DecisionRequest) {
+export async function decide(user: SessionUser, id: number, req: DecisionRequest, delivery: Delivery = "now") {
   await db.transaction(async (tx) => {
     const [row] = await tx
       .select({ s: signOffs, version: tapTableVersions, table: tapTables })
@@ -125,7 +131,7 @@ export async function decide(user: SessionUser, id: number, req: DecisionRequest
       version: version.version,
     });
   });
-  sendMailSoon();
+  if (delivery === "now") sendMailSoon();
   return detail(id);
 }
 

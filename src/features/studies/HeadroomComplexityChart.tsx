@@ -57,7 +57,7 @@ export default function HeadroomComplexityChart(props: Props) {
           <GridColumns scale={xScale} height={innerH} stroke={axisStyle.gridStroke} numTicks={Math.min(xMax + 1, 12)} />
           {yScale.domain()[0] < 0 && yScale.domain()[1] > 0 && <line x1={0} x2={innerW} y1={yScale(0)} y2={yScale(0)} stroke={chartColors.lineStrong} />}
           <line x1={0} x2={innerW} y1={yScale(mv(props.requiredHeadroom_V))} y2={yScale(mv(props.requiredHeadroom_V))} stroke={chartColors.bad} strokeDasharray="5 4" />
-          <text x={innerW - 4} y={yScale(mv(props.requiredHeadroom_V)) - 4} textAnchor="end" fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>
+          <text x={4} y={yScale(mv(props.requiredHeadroom_V)) - 4} textAnchor="start" fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>
             required {formatTick(mv(props.requiredHeadroom_V))} mV
           </text>
           {frontierPts.length > 1 && (

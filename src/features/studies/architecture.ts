@@ -40,6 +40,12 @@ export function describeArchitecture(a: Architecture): string {
   return parts.join(" · ");
 }
 
+/** The blocks of an architecture when its label does not already say them (null otherwise). */
+export function architectureDetail(a: Architecture): string | null {
+  const d = describeArchitecture(a);
+  return d === a.label ? null : d;
+}
+
 /**
  * The usual candidates for a budget: CTLE only; transmit FIR + CTLE; + DFE with 1 … `maxDfe` taps;
  * CTLE + a receive FFE. Transmit tap counts come from the budget's FIR.

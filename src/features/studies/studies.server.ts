@@ -10,15 +10,19 @@ import { enqueueJob, jobStatus, pumpJobs, registerJobKind } from "@/server/jobs/
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { defaultCandidates } from "./architecture";
 import { budgetCopy, channelCopies, withoutPulses } from "./sources.server";
+import { finishHere, type RunHere } from "./inlineJob.server";
 import type { StudyBudgetChoice } from "./newStudyStore";
 import type { CreateStudyRequest, DecisionRequest, DecisionView, StudyInputs, StudyResult } from "./studies";
 
 /** DFE taps the default candidates go up to when the budget has none. */
 const DEFAULT_MAX_DFE = 4;
 
-/** Starts a study: copies its inputs and queues the job, in one transaction. */
-export async function startStudy(user: SessionUser, req: CreateStudyRequest) {
-  const id = await db.transaction(async (tx) => {
+/**
+ * Starts a study: copies its inputs and queues the job, in one transaction; the worker pool computes
+ * it — or, with `here` (the demo seed), this process does before returning.
+ */
+export async function startStudy(user: SessionUser, req: CreateStudyRequest, here?: RunHere<StudyInputs, StudyResult>) {
+  const { id, jobId, inputs } = await db.transaction(async (tx) => {
     const budget = await budgetCopy(tx, req.budgetId);
     const chans = await channelCopies(tx, req.channelIds);
     const maxDfe = budget.budget.dfe.taps > 0 ? budget.budget.dfe.taps : DEFAULT_MAX_DFE;
@@ -37,10 +41,18 @@ export async function startStudy(user: SessionUser, req: CreateStudyRequest) {
       channels: chans.length,
       candidates: candidates.map((c) => c.key),
     });
-    return id;
+    return { id, jobId, inputs };
   });
-  void pumpJobs();
-  return { id, status: "queued" as const };
+  if (here) await finishHere(jobId, inputs, here, (tx, result) => saveStudy(tx, id, result));
+  else void pumpJobs();
+  return { id, status: here ? ("done" as const) : ("queued" as const) };
+}
+
+async function saveStudy(tx: Tx, id: number, r: StudyResult) {
+  await tx
+    .update(studies)
+    .set({ result: r as unknown as Record<string, unknown>, engineVersion: r.engineVersion })
+    .where(eq(studies.id, id));
 }
 
 async function studyRow(tx: Tx | typeof db, id: number) {
@@ -198,11 +210,5 @@ registerJobKind("study", {
     if (!row) throw new Error(`Study ${targetId} no longer exists.`);
     return row.inputs;
   },
-  async save(tx, targetId, result) {
-    const r = result as StudyResult;
-    await tx
-      .update(studies)
-      .set({ result: r as unknown as Record<string, unknown>, engineVersion: r.engineVersion })
-      .where(eq(studies.id, targetId));
-  },
+  save: (tx, targetId, result) => saveStudy(tx, targetId, result as StudyResult),
 });

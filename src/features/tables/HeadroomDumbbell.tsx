@@ -23,7 +23,7 @@ const ROW = 20;
 
 export default function HeadroomDumbbell(props: Props) {
   const { ref, width } = useContainerWidth();
-  const margin = { top: 34, right: 24, bottom: 46, left: 200 };
+  const margin = { top: 34, right: 24, bottom: 46, left: 250 };
   const innerW = Math.max(10, width - margin.left - margin.right);
   // One blank row before each class after the first, for its heading.
   const layout: ({ kind: "class"; name: string } | { kind: "row"; row: DumbbellRow })[] = [];
@@ -54,8 +54,8 @@ export default function HeadroomDumbbell(props: Props) {
       <svg width={width} height={height} role="img" aria-label="Limiter headroom per channel: class default against own optimum" className="block">
         <Group left={margin.left} top={margin.top}>
           <GridColumns scale={x} height={innerH} stroke={axisStyle.gridStroke} numTicks={Math.max(2, Math.floor(innerW / 80))} />
-          <line x1={x(props.required_V * 1e3)} x2={x(props.required_V * 1e3)} y1={-6} y2={innerH} stroke={chartColors.bad} strokeDasharray="5 4" />
-          <text x={x(props.required_V * 1e3) + 4} y={-10} fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>required</text>
+          <line x1={x(props.required_V * 1e3)} x2={x(props.required_V * 1e3)} y1={0} y2={innerH} stroke={chartColors.bad} strokeDasharray="5 4" />
+          <text x={x(props.required_V * 1e3) + 4} y={innerH - 4} fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>required</text>
           {layout.map((item, i) => {
             const y = i * ROW + ROW / 2;
             if (item.kind === "class") {
@@ -70,8 +70,9 @@ export default function HeadroomDumbbell(props: Props) {
             const color = ok ? chartColors.good : chartColors.bad;
             return (
               <g key={`r-${r.name}`} data-channel={r.name}>
+                <title>{r.name}</title>
                 <text x={-10} y={y} fontSize={10.5} fontFamily={axisStyle.font.sans} fill={chartColors.inkSoft} textAnchor="end" dominantBaseline="middle">
-                  {r.name.length > 30 ? `${r.name.slice(0, 29)}…` : r.name}
+                  {r.name.length > 40 ? `${r.name.slice(0, 39)}…` : r.name}
                 </text>
                 <line x1={x(r.default_V * 1e3)} x2={x(r.own_V * 1e3)} y1={y} y2={y} stroke={chartColors.lineStrong} strokeWidth={2} />
                 <circle cx={x(r.own_V * 1e3)} cy={y} r={4} fill={chartColors.surface} stroke={chartColors.inkSoft} strokeWidth={1.5} />

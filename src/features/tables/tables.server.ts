@@ -2,7 +2,7 @@
 // them with the diff against the previous version, edit what is not frozen, and export. Every
 // write is one transaction with its audit event.
 import { and, asc, desc, eq, lt, max } from "drizzle-orm";
-import { db, type DbOrTx } from "@/server/db.server";
+import { db, type DbOrTx, type Tx } from "@/server/db.server";
 import { jobs, signOffs, studies, tapTableRows, tapTables, tapTableVersions, users, type TapTableVersion } from "@/db/schema";
 import { ApiError, badRequest, conflict, notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
@@ -15,6 +15,7 @@ import { classesOf, groupingChannelIds, GroupingError } from "./grouping";
 import { defaultRegisterMap, type RegisterField } from "./registerMap";
 import { checkRegisterMap } from "./registerCheck";
 import { tableArchitectureProblem } from "./architectureBudget";
+import { finishHere, type RunHere } from "@/features/studies/inlineJob.server";
 import { diffVersions } from "./diff";
 import { renderExport, exportFilename, exportMediaType, type ExportModel } from "./exports";
 import {
@@ -112,12 +113,18 @@ async function insertVersion(tx: DbOrTx, user: SessionUser, tableId: number, ver
     budget: inputs.budget.name,
     classes: inputs.classes.map((c) => ({ name: c.name, channels: c.channels.length })),
   });
-  return id;
+  return { versionId: id, jobId, inputs };
 }
 
-/** POST /api/v1/tap-tables: a table and its v1, queued. */
-export async function createTable(user: SessionUser, req: CreateTableRequest) {
-  const tableId = await db.transaction(async (tx) => {
+/** After the commit: the worker pool computes the version — or, with `here` (the demo seed), this process does. */
+async function computeVersion(queued: { versionId: number; jobId: number; inputs: VersionInputs }, here: RunHere<VersionInputs, VersionResult> | undefined) {
+  if (here) await finishHere(queued.jobId, queued.inputs, here, (tx, result) => saveVersion(tx, queued.versionId, result));
+  else void pumpJobs();
+}
+
+/** POST /api/v1/tap-tables: a table and its v1, queued (computed here with `here`, for the demo seed). */
+export async function createTable(user: SessionUser, req: CreateTableRequest, here?: RunHere<VersionInputs, VersionResult>) {
+  const { tableId, queued } = await db.transaction(async (tx) => {
     const [taken] = await tx.select({ id: tapTables.id }).from(tapTables).where(eq(tapTables.name, req.name));
     if (taken) throw conflict(`A tap table named “${req.name}” exists; choose another name or add a version to it.`);
     const budget = await budgetCopy(tx, req.budgetId);
@@ -129,11 +136,10 @@ export async function createTable(user: SessionUser, req: CreateTableRequest) {
       .values({ name: req.name, description: req.description ?? null, studyId: arch.study?.id ?? null, createdBy: user.id })
       .$returningId();
     await recordAudit(tx, user, "table.create", "tap-table", id, { name: req.name });
-    await insertVersion(tx, user, id, 1, inputs, req.note);
-    return id;
+    return { tableId: id, queued: await insertVersion(tx, user, id, 1, inputs, req.note) };
   });
-  void pumpJobs();
-  return { id: tableId, version: 1, status: "queued" as const };
+  await computeVersion(queued, here);
+  return { id: tableId, version: 1, status: here ? ("done" as const) : ("queued" as const) };
 }
 
 /** The grouping a version was made with, rebuilt from its inputs (to carry into a new version). */
@@ -149,8 +155,8 @@ function groupingOf(inputs: VersionInputs): Grouping {
  * the latest version: its budget (re-read, so budget edits count), architecture, register map and
  * grouping (channels re-read; a channel deleted since keeps its copy).
  */
-export async function createVersion(user: SessionUser, tableId: number, req: CreateVersionRequest) {
-  const version = await db.transaction(async (tx) => {
+export async function createVersion(user: SessionUser, tableId: number, req: CreateVersionRequest, here?: RunHere<VersionInputs, VersionResult>) {
+  const { version, queued } = await db.transaction(async (tx) => {
     const [table] = await tx.select().from(tapTables).where(eq(tapTables.id, tableId)).for("update");
     if (!table) throw notFound(`Tap table ${tableId}`);
     const [latest] = await tx
@@ -184,12 +190,12 @@ export async function createVersion(user: SessionUser, tableId: number, req: Cre
     const registerMap = req.registerMap ?? (sameArchitecture ? prev.registerMap : undefined);
     const inputs = versionInputs(budget, arch, registerMap, grouping, known);
     const next = latest.version + 1;
-    await insertVersion(tx, user, tableId, next, inputs, req.note);
+    const queued = await insertVersion(tx, user, tableId, next, inputs, req.note);
     if (arch.study && arch.study.id !== table.studyId) await tx.update(tapTables).set({ studyId: arch.study.id }).where(eq(tapTables.id, tableId));
-    return next;
+    return { version: next, queued };
   });
-  void pumpJobs();
-  return { id: tableId, version, status: "queued" as const };
+  await computeVersion(queued, here);
+  return { id: tableId, version, status: here ? ("done" as const) : ("queued" as const) };
 }
 
 async function versionRow(tableId: number, v: number) {
@@ -450,33 +456,35 @@ export async function reportOf(tableId: number, v: number) {
   };
 }
 
+/** Stores a computed version: its result, one row per class, and the state "ready". */
+async function saveVersion(tx: Tx, versionId: number, r: VersionResult) {
+  await tx
+    .update(tapTableVersions)
+    .set({ result: r as unknown as Record<string, unknown>, engineVersion: r.engineVersion, state: "ready" })
+    .where(eq(tapTableVersions.id, versionId));
+  await tx.delete(tapTableRows).where(eq(tapTableRows.versionId, versionId));
+  if (r.classes.length > 0) {
+    await tx.insert(tapTableRows).values(
+      r.classes.map((c) => ({
+        versionId,
+        classIndex: c.index,
+        className: c.name,
+        codes: c.codes,
+        values: c.values,
+        worstHeadroom_V: c.worstHeadroom_V,
+        channelCount: c.channels.length,
+      })),
+    );
+  }
+}
+
 registerJobKind("table-version", {
   async input(targetId) {
     const [row] = await db.select({ inputs: tapTableVersions.inputs }).from(tapTableVersions).where(eq(tapTableVersions.id, targetId));
     if (!row) throw new Error(`Tap table version ${targetId} no longer exists.`);
     return row.inputs;
   },
-  async save(tx, targetId, result) {
-    const r = result as VersionResult;
-    await tx
-      .update(tapTableVersions)
-      .set({ result: r as unknown as Record<string, unknown>, engineVersion: r.engineVersion, state: "ready" })
-      .where(eq(tapTableVersions.id, targetId));
-    await tx.delete(tapTableRows).where(eq(tapTableRows.versionId, targetId));
-    if (r.classes.length > 0) {
-      await tx.insert(tapTableRows).values(
-        r.classes.map((c) => ({
-          versionId: targetId,
-          classIndex: c.index,
-          className: c.name,
-          codes: c.codes,
-          values: c.values,
-          worstHeadroom_V: c.worstHeadroom_V,
-          channelCount: c.channels.length,
-        })),
-      );
-    }
-  },
+  save: (tx, targetId, result) => saveVersion(tx, targetId, result as VersionResult),
   async fail(tx, targetId) {
     await tx.update(tapTableVersions).set({ state: "failed" }).where(eq(tapTableVersions.id, targetId));
   },
