@@ -2,7 +2,7 @@
 // `npm run --silent engine -- <command>`: the engine's JSON command line. Runs a bundle of
 // lib/cli/main.ts (dist/engine-cli.mjs), rebuilt with esbuild whenever a file in lib/ is newer,
 // so that a call costs Node's start-up rather than a TypeScript compile.
-import { existsSync, readdirSync, statSync } from "node:fs";
+import { existsSync, readdirSync, renameSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { pathToFileURL } from "node:url";
 import { distDir, root } from "./lib/config.mjs";
@@ -21,9 +21,11 @@ function newestSource_ms(dir) {
 
 if (!existsSync(bundle) || statSync(bundle).mtimeMs < newestSource_ms(join(root, "lib"))) {
   const { build } = await import("esbuild");
+  // Written aside and renamed, so that concurrent calls never import a half-written bundle.
+  const fresh = `${bundle}.${process.pid}.tmp.mjs`;
   await build({
     entryPoints: [join(root, "lib", "cli", "main.ts")],
-    outfile: bundle,
+    outfile: fresh,
     bundle: true,
     platform: "node",
     format: "esm",
@@ -31,5 +33,6 @@ if (!existsSync(bundle) || statSync(bundle).mtimeMs < newestSource_ms(join(root,
     packages: "external",
     logLevel: "error",
   });
+  renameSync(fresh, bundle);
 }
 await import(pathToFileURL(bundle).href);

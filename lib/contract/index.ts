@@ -7,3 +7,7 @@ export * from "./mmse.ts";
 export * from "./prbs.ts";
 export * from "./pulse.ts";
 export * from "./zf.ts";
+export * from "./budget.ts";
+export * from "./eye.ts";
+export * from "./optimize.ts";
+export * from "./population.ts";
