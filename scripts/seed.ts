@@ -3,6 +3,7 @@
 import { ensurePerson } from "@/features/people/people.server";
 import { pool } from "@/server/db.server";
 import { seedDemoWork } from "@/features/demo/demo.server";
+import { seedHandoff } from "@/features/demo/handoff.server";
 
 export const DEMO_PASSWORD = process.env.DEMO_PASSWORD ?? "tapwright-demo";
 
@@ -22,6 +23,8 @@ async function main() {
   console.log(`[tapwright] Demo accounts: ${people.map((p) => p.email).join(", ")} — password: ${DEMO_PASSWORD}`);
   const work = await seedDemoWork();
   console.log(`[tapwright] Demo work: added ${work.channels} channels, ${work.budgets} budgets, ${work.runs} tuning runs.`);
+  const handoff = await seedHandoff();
+  if (handoff.table) console.log("[tapwright] Demo hand-off: an architecture study with its decision, a tap table with v1 signed off and v2 awaiting sign-off.");
 }
 
 main()

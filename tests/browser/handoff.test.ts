@@ -3,13 +3,16 @@
 // printable report shows the decision. Screenshots go to tests/output/ for people to look at.
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import type { Browser } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launch, screenshotDir, signedInPage } from "../support/browser";
 import { baseUrl, signIn } from "../support/http";
 import { population, unique, type Population } from "../integration/handoff.fixture";
 
 let browser: Browser;
+
+/** Waits until every island of the page has hydrated (inputs filled before that would be reset). */
+const hydrated = (page: Page) => page.waitForFunction(() => document.querySelector("astro-island[ssr]") === null);
 let pop: Population;
 const tableName = unique("Quillfeather lanes");
 let tableUrl = "";
@@ -29,10 +32,11 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     const page = await signedInPage(browser, "designer");
     await page.goto(`${baseUrl}/tables/new`);
     const form = page.getByRole("form", { name: "Build a tap table" });
+    await hydrated(page);
     await form.getByLabel("Name", { exact: true }).fill(tableName);
+    await form.getByLabel("Budget").selectOption({ label: pop.budgetName });
     await form.getByLabel("Picked by hand").check();
     await form.getByLabel("DFE taps").fill("1");
-    await form.getByLabel("Budget").selectOption({ label: pop.budgetName });
     await form.getByRole("button", { name: "None" }).click();
     for (const name of pop.names) await form.getByLabel(name, { exact: true }).check();
     await form.getByLabel("Bin edges in dB").fill("16");
@@ -44,6 +48,7 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     await page.waitForURL(/\/tables\/\d+$/);
     tableUrl = page.url();
     await page.getByTestId("version-state").filter({ hasText: "Ready for sign-off" }).waitFor({ timeout: 90_000 });
+    await hydrated(page);
     expect(await page.getByTestId("class-table").locator("tbody tr").count()).toBe(2);
     await page.screenshot({ path: join(screenshotDir, "table-version.png"), fullPage: true });
 
@@ -62,6 +67,7 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     await page.goto(`${baseUrl}/sign-off`);
     await page.getByTestId("waiting-for-me").getByRole("link", { name: `${tableName} v1` }).click();
     await page.waitForURL(signOffUrl);
+    await hydrated(page);
     expect(await page.getByTestId("caution").textContent()).toMatch(/lab confirmation on real hardware/);
     expect(await page.getByTestId("review-table").locator("tbody tr").count()).toBe(4);
     const comment = page.getByRole("form", { name: "Comment" });
@@ -78,6 +84,7 @@ describe("the hand-off from designer to reviewer to firmware", () => {
   it("the version shows as signed off, and firmware downloads the C header", async () => {
     const page = await signedInPage(browser, "firmware");
     await page.goto(tableUrl);
+    await hydrated(page);
     expect(await page.getByTestId("version-state").textContent()).toBe("Signed off");
     expect(await page.getByText("this version is frozen").count()).toBe(1);
     expect(await page.getByRole("form", { name: "Request sign-off" }).count()).toBe(0);

@@ -1,7 +1,7 @@
 // Sign-off: a designer asks a reviewer to sign off a tap table version; the reviewer comments and
 // approves (which freezes the version) or sends it back with a reason. Each request and decision
 // is one transaction with its audit event and its e-mail (queued in the outbox, sent after commit).
-import { and, asc, desc, eq, inArray, lt, or, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, lt, or, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/mysql-core";
 import { db } from "@/server/db.server";
 import { signOffComments, signOffs, tapTables, tapTableVersions, users } from "@/db/schema";
@@ -228,6 +228,12 @@ export async function listSignOffs(user: SessionUser, q: { state?: SignOffState;
     .limit(q.limit + 1);
   const items = rows.slice(0, q.limit).map(listItem);
   return { items, nextCursor: rows.length > q.limit ? String(items[items.length - 1].id) : null };
+}
+
+/** Number of sign-offs awaiting a decision (the overview's count). */
+export async function countPending(): Promise<number> {
+  const [{ n }] = await db.select({ n: count() }).from(signOffs).where(eq(signOffs.state, "pending"));
+  return n;
 }
 
 /** Pending sign-offs asked of this person (the overview shows them to reviewers). */

@@ -1,6 +1,6 @@
 // Architecture studies: start one (a job in the worker pool), list and read them, and record the
 // decision (the chosen architecture and why). Every write is one transaction with its audit event.
-import { and, asc, desc, eq, inArray, lt } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, lt } from "drizzle-orm";
 import { budgetSchema, type Budget } from "@lib/contract/budget";
 import { db, type Tx } from "@/server/db.server";
 import { budgets, jobs, studies, users, type Study } from "@/db/schema";
@@ -104,6 +104,12 @@ export async function getStudy(id: number) {
   };
 }
 export type StudyView = Awaited<ReturnType<typeof getStudy>>;
+
+/** Number of studies (the overview's count). */
+export async function countStudies(): Promise<number> {
+  const [{ n }] = await db.select({ n: count() }).from(studies);
+  return n;
+}
 
 /** Newest first. */
 export async function listStudies(limit: number, cursor?: number) {

@@ -110,7 +110,11 @@ export function createNewTableStore(init: { budgets: TableBudgetChoice[]; studie
     busy: false,
     error: null,
     set: (patch) => set(patch),
-    setBudget: (budgetId) => set((s) => ({ budgetId, customMap: null, mapKey: s.mapKey + 1 })),
+    setBudget: (budgetId) =>
+      set((s) => {
+        const b = init.budgets.find((x) => x.id === budgetId);
+        return { budgetId, manual: { tx: txOf(b), dfeTaps: b?.params.dfe?.taps ?? 0 }, customMap: null, mapKey: s.mapKey + 1 };
+      }),
     useStudy: (id) =>
       set((s) => {
         const study = init.studies.find((x) => x.id === id);

@@ -1,7 +1,7 @@
 // Tap tables: create a table and its versions (each computed as a job in the worker pool), read
 // them with the diff against the previous version, edit what is not frozen, and export. Every
 // write is one transaction with its audit event.
-import { and, asc, desc, eq, lt, max } from "drizzle-orm";
+import { and, asc, count, desc, eq, lt, max } from "drizzle-orm";
 import { db, type DbOrTx, type Tx } from "@/server/db.server";
 import { jobs, signOffs, studies, tapTableRows, tapTables, tapTableVersions, users, type TapTableVersion } from "@/db/schema";
 import { ApiError, badRequest, conflict, notFound, unprocessable } from "@/server/http/errors";
@@ -306,6 +306,12 @@ export async function getTable(tableId: number) {
   };
 }
 export type TableView = Awaited<ReturnType<typeof getTable>>;
+
+/** Number of tap tables (the overview's count). */
+export async function countTables(): Promise<number> {
+  const [{ n }] = await db.select({ n: count() }).from(tapTables);
+  return n;
+}
 
 /** GET /api/v1/tap-tables: newest first, with the latest version's state. */
 export async function listTables(limit: number, cursor?: number) {
