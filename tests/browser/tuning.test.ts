@@ -84,3 +84,58 @@ describe("budgets in the browser", () => {
     await expect(page.getByTestId("budget-name").textContent()).resolves.toBe(`Browser budget ${stamp}`);
   });
 });
+
+/** Painted (non-blank) pixels of a canvas. */
+function paintedPixels(testId: string): Promise<number> {
+  return page.evaluate((id) => {
+    const canvas = document.querySelector<HTMLCanvasElement>(`[data-testid=${id}]`);
+    if (!canvas || canvas.width === 0) return 0;
+    const data = canvas.getContext("2d")!.getImageData(0, 0, canvas.width, canvas.height).data;
+    let n = 0;
+    for (let i = 0; i < data.length; i += 4) if (data[i + 3] > 0 && (data[i] < 250 || data[i + 1] < 250 || data[i + 2] < 250)) n++;
+    return n;
+  }, testId);
+}
+
+describe("a tuning run in the browser", () => {
+  it("starts from the budget page, shows progress, and ends on the result: both eyes drawn, the verdict, the metrics", async () => {
+    expect(state.budgetUrl, "the budget test ran first").toBeDefined();
+    await open(new URL(state.budgetUrl!).pathname);
+    const option = await page.locator("option", { hasText: `Browser lane ${stamp}` }).getAttribute("value");
+    await page.getByLabel("Channel", { exact: true }).selectOption(option!);
+    await page.getByRole("button", { name: "Start tuning run" }).click();
+    await page.waitForURL(/\/runs\/\d+$/);
+    // The run takes seconds, so the page opens on the progress bar and then reloads onto the result.
+    if ((await page.getByTestId("run-status").textContent()) !== "Done") await page.getByRole("progressbar", { name: "Run progress" }).waitFor();
+    await page.getByTestId("verdict").waitFor({ timeout: 60_000 });
+    await expect(page.getByTestId("run-status").textContent()).resolves.toBe("Done");
+    await expect.poll(() => paintedPixels("eye-before")).toBeGreaterThan(1000);
+    await expect.poll(() => paintedPixels("eye-after")).toBeGreaterThan(1000);
+    await expect(page.getByTestId("verdict").textContent()).resolves.toMatch(/All clear|Linear reach exhausted|does not close/);
+    const metrics = await page.getByTestId("metrics").textContent();
+    for (const words of ["Eye height", "Eye width", "Limiter headroom", "Residual ISI", "CTLE noise gain", "Transmit FIR"]) expect(metrics).toContain(words);
+    expect(await page.getByTestId("dfe-taps").locator("tbody tr").count()).toBe(5);
+    await page.getByRole("img", { name: "Bathtub" }).waitFor();
+    await page.getByRole("img", { name: "DFE tap trajectories" }).waitFor();
+    await page.getByRole("img", { name: "Transmit tap trajectories" }).waitFor();
+    await page.screenshot({ path: join(screenshotDir, "run-result.png"), fullPage: true });
+  });
+
+  it("the demo's long lane shows Linear reach exhausted with the fewest DFE taps; its short lane the all-clear", async () => {
+    await open("/runs");
+    const rows = page.getByTestId("run-table").locator("tbody tr");
+    await rows.filter({ hasText: "Slot 11 lane 2" }).first().getByRole("link", { name: /^#\d+$/ }).click();
+    await page.waitForURL(/\/runs\/\d+$/);
+    const verdict = page.getByTestId("verdict");
+    await expect(verdict.getAttribute("data-verdict")).resolves.toBe("exhausted");
+    await expect(verdict.locator("h2").textContent()).resolves.toBe("Linear reach exhausted");
+    await expect(page.getByTestId("fewest-dfe-taps").textContent()).resolves.toMatch(/fewest DFE taps: \d+/);
+    await page.screenshot({ path: join(screenshotDir, "run-linear-reach-exhausted.png"), fullPage: true });
+
+    await open("/runs");
+    await rows.filter({ hasText: "Slot 2 lane 0" }).last().getByRole("link", { name: /^#\d+$/ }).click();
+    await page.waitForURL(/\/runs\/\d+$/);
+    await expect(verdict.getAttribute("data-verdict")).resolves.toBe("clear");
+    await expect(verdict.locator("h2").textContent()).resolves.toMatch(/^All clear/);
+  });
+});

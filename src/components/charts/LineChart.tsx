@@ -57,6 +57,8 @@ export interface LineChartProps {
   yDomain?: readonly [number, number];
   /** Whether the automatic y domain must include 0 (default true). */
   yIncludesZero?: boolean;
+  /** Whether the automatic y domain stretches to show every horizontal marker (default true). */
+  markersInDomain?: boolean;
   verticalMarkers?: readonly VerticalMarker[];
   horizontalMarkers?: readonly HorizontalMarker[];
   /** Extra vertical grid lines at these x values (e.g. every UI), drawn faintly under the data. */
@@ -115,11 +117,11 @@ export default function LineChart(props: LineChartProps) {
     const inX = (i: number, s: LineSeries) => s.x[i] >= xDomain[0] && s.x[i] <= xDomain[1];
     const ys = props.series.flatMap((s) => s.y.filter((_, i) => inX(i, s)));
     if (props.yIncludesZero ?? true) ys.push(0);
-    for (const m of props.horizontalMarkers ?? []) ys.push(m.y);
+    if (props.markersInDomain ?? true) for (const m of props.horizontalMarkers ?? []) ys.push(m.y);
     const [lo, hi] = extent(ys);
     const pad = (hi - lo) * 0.05;
     return [lo - pad, hi + pad] as const;
-  }, [props.yDomain, props.series, props.horizontalMarkers, props.yIncludesZero, xDomain]);
+  }, [props.yDomain, props.series, props.horizontalMarkers, props.yIncludesZero, props.markersInDomain, xDomain]);
 
   const xScale = scaleLinear<number>({ domain: [xDomain[0], xDomain[1]], range: [0, innerW] });
   const yScale = scaleLinear<number>({ domain: [yDomain[0], yDomain[1]], range: [innerH, 0] });
@@ -195,7 +197,7 @@ export default function LineChart(props: LineChartProps) {
               );
             })}
           </g>
-          {props.horizontalMarkers?.map((m) => (
+          {props.horizontalMarkers?.map((m) => m.y < yDomain[0] || m.y > yDomain[1] ? null : (
             <g key={`h${m.y}`}>
               <line x1={0} x2={innerW} y1={yScale(m.y)} y2={yScale(m.y)} stroke={m.color ?? chartColors.bad} strokeDasharray={m.dash ?? "5 4"} />
               {m.label && (
@@ -280,7 +282,11 @@ export default function LineChart(props: LineChartProps) {
           {props.series.map((s, i) => s.quiet ? null : (
             <li key={s.key} className="flex items-center gap-1.5">
               <svg width={18} height={8} aria-hidden>
-                <line x1={0} x2={18} y1={4} y2={4} stroke={s.color ?? seriesColor(i)} strokeWidth={2} strokeDasharray={s.dash} />
+                {s.kind === "dots" ? (
+                  <circle cx={9} cy={4} r={3} fill={s.color ?? seriesColor(i)} />
+                ) : (
+                  <line x1={0} x2={18} y1={4} y2={4} stroke={s.color ?? seriesColor(i)} strokeWidth={2} strokeDasharray={s.dash} />
+                )}
               </svg>
               {s.label}
             </li>

@@ -58,7 +58,7 @@ export default function StartRun(props: Props) {
       {!props.fixedChannel && (
         <label className="field">
           <span>Channel</span>
-          <select className="input max-w-72" value={channelId} onChange={(e) => setChannelId(Number(e.target.value))}>
+          <select className="input max-w-72" aria-label="Channel" value={channelId} onChange={(e) => setChannelId(Number(e.target.value))}>
             {props.channels.map((c) => (
               <option key={c.id} value={c.id}>
                 {c.name} ({Number((c.bitRate_bps / 1e9).toPrecision(6))} Gb/s{c.lossAtNyquist_dB !== null ? `, ${c.lossAtNyquist_dB.toFixed(1)} dB` : ""})
@@ -70,7 +70,7 @@ export default function StartRun(props: Props) {
       {!props.fixedBudget && (
         <label className="field">
           <span>Budget</span>
-          <select className="input max-w-72" value={budgetId} onChange={(e) => setBudgetId(Number(e.target.value))}>
+          <select className="input max-w-72" aria-label="Budget" value={budgetId} onChange={(e) => setBudgetId(Number(e.target.value))}>
             {props.budgets.map((b) => (
               <option key={b.id} value={b.id}>{b.name}</option>
             ))}

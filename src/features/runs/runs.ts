@@ -2,6 +2,7 @@
 // No server code here: islands import this file.
 import { z } from "zod";
 import type { JobStatus, RunInputs } from "@/db/schema/jobs";
+import type { TuningRunResult } from "@lib/run";
 
 const id = (what: string) => z.number({ error: `${what} must be a number.` }).int(`${what} must be an integer.`).positive(`${what} must be positive.`);
 
@@ -101,4 +102,104 @@ export function trainingSnr_dB(objective: number): number {
 /** The eye's target BER as people write it: "1e-12". */
 export function formatBer(ber: number): string {
   return ber.toExponential(0).replace("e+", "e");
+}
+
+/** Numbers as one comma-separated string, rounded to `decimals` (compact island props: a string, not a tagged array). */
+export function packNumbers(values: readonly number[], decimals: number): string {
+  const f = 10 ** decimals;
+  return values.map((v) => Math.round(v * f) / f).join(",");
+}
+
+/** The inverse of {@link packNumbers}. */
+export function unpackNumbers(text: string): number[] {
+  return text === "" ? [] : text.split(",").map(Number);
+}
+
+/** A density eye and its contours, packed for an island. */
+export interface PackedEye {
+  width: number;
+  height: number;
+  counts: string;
+  time_UI: string;
+  voltage_V: string;
+  /** Per contour: its level and its paths, each a packed flat list `t0,v0,t1,v1,…`. */
+  contours: { log10Ber: number; paths: string[] }[];
+  eyeHeight_V: number;
+  symbols: { count: number; source: string };
+}
+
+interface EyeLike {
+  image: { width: number; height: number; counts: readonly number[]; time_UI: readonly number[]; voltage_V: readonly number[] };
+  contours: readonly { log10Ber: number; paths: readonly (readonly (readonly [number, number])[])[] }[];
+  eyeHeight_V: number;
+  symbols: { count: number; source: string };
+}
+
+/** Packs an eye: counts as integers, times to 1/1000 UI, voltages to 10 µV. */
+export function packEye(e: EyeLike): PackedEye {
+  return {
+    width: e.image.width,
+    height: e.image.height,
+    counts: packNumbers(e.image.counts, 0),
+    time_UI: packNumbers(e.image.time_UI, 4),
+    voltage_V: packNumbers(e.image.voltage_V, 6),
+    contours: e.contours.map((c) => ({
+      log10Ber: c.log10Ber,
+      paths: c.paths.map((p) => p.map(([t, v]) => `${Math.round(t * 1e3) / 1e3},${Math.round(v * 1e5) / 1e5}`).join(",")),
+    })),
+    eyeHeight_V: e.eyeHeight_V,
+    symbols: e.symbols,
+  };
+}
+
+/** The inverse of {@link packEye}, in the shapes the DensityEye chart takes. */
+export function unpackEye(p: PackedEye) {
+  return {
+    image: { width: p.width, height: p.height, counts: unpackNumbers(p.counts), time_UI: unpackNumbers(p.time_UI), voltage_V: unpackNumbers(p.voltage_V) },
+    contours: p.contours.map((c) => ({
+      log10Ber: c.log10Ber,
+      paths: c.paths.map((s) => {
+        const n = unpackNumbers(s);
+        const pts: [number, number][] = [];
+        for (let i = 0; i + 1 < n.length; i += 2) pts.push([n[i], n[i + 1]]);
+        return pts;
+      }),
+    })),
+    eyeHeight_V: p.eyeHeight_V,
+    symbols: p.symbols,
+  };
+}
+
+/** The charts below the eyes, packed for their island. */
+export interface PackedRunCharts {
+  pulses: { time_UI: string; before_V: string; after_V: string };
+  bathtub: { phase_UI: string; log10Ber: string };
+  surface: TuningRunResult["optimize"]["surface"];
+  dfe: { variant: string; mu: number; iterations: string; taps: string[]; target: number[] } | null;
+  txTraining: { taps: string[]; snr_dB: string; converged: boolean };
+  chosen: { gDc_dB: number; gDc2_dB: number };
+  targetBer: number;
+  txPre: number;
+  requiredHeadroom_V: number;
+}
+
+/** Display-ready, compact props of the result page's islands (values rounded well below what a chart shows). */
+export function packRunCharts(result: TuningRunResult, budget: { targetBer: number; requiredHeadroom_V: number; tx: { pre: number } }): PackedRunCharts {
+  const dfe = result.adaptation.dfe;
+  const tx = result.adaptation.txTraining;
+  return {
+    pulses: {
+      time_UI: packNumbers(result.pulses.time_UI, 4),
+      before_V: packNumbers(result.pulses.before_V, 7),
+      after_V: packNumbers(result.pulses.after_V, 7),
+    },
+    bathtub: { phase_UI: packNumbers(result.bathtub.phase_UI, 4), log10Ber: packNumbers(result.bathtub.log10Ber, 3) },
+    surface: result.optimize.surface,
+    dfe: dfe && { variant: dfe.variant, mu: dfe.mu, iterations: packNumbers(dfe.iterations, 0), taps: byTap(dfe.taps).map((t) => packNumbers(t, 7)), target: dfe.target },
+    txTraining: { taps: byTap(tx.taps).map((t) => packNumbers(t, 5)), snr_dB: packNumbers(tx.objective.map(trainingSnr_dB), 3), converged: tx.converged },
+    chosen: result.optimize.ctle,
+    targetBer: budget.targetBer,
+    txPre: budget.tx.pre,
+    requiredHeadroom_V: budget.requiredHeadroom_V,
+  };
 }

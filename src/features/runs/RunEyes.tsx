@@ -1,0 +1,74 @@
+// The eyes of a tuning run at the limiter, before (channel alone) and after equalization: density
+// images with the statistical eye's BER contours, optionally on one voltage scale.
+import { useMemo, useState } from "react";
+import DensityEye, { type EyeOpening } from "@/components/charts/DensityEye";
+import { unpackEye, type PackedEye } from "./runs";
+
+interface Props {
+  before: PackedEye;
+  after: PackedEye;
+  modulation: "nrz" | "pam4";
+}
+
+const mV = (v: number) => v * 1e3;
+
+function span(a: readonly number[], b: readonly number[]): [number, number] {
+  const step = Math.abs(a[1] - a[0]);
+  const all = [...a, ...b];
+  return [Math.min(...all) - step / 2, Math.max(...all) + step / 2];
+}
+
+export default function RunEyes(props: Props) {
+  const before = useMemo(() => unpackEye(props.before), [props.before]);
+  const after = useMemo(() => unpackEye(props.after), [props.after]);
+  const [sameScale, setSameScale] = useState(false);
+  const shared = useMemo(() => span(before.image.voltage_V, after.image.voltage_V), [before, after]);
+  const opening = (h: number): EyeOpening[] =>
+    props.modulation === "nrz" && h > 0 ? [{ time_UI: 0, low_V: -h / 2, high_V: h / 2, label: `${mV(h).toFixed(1)} mV` }] : [];
+
+  return (
+    <section className="card" aria-label="Eyes">
+      <h2>Eyes at the limiter</h2>
+      <p className="help mt-1">
+        Density of a {after.symbols.source} stream ({after.symbols.count} symbols) folded over two UI; the lines are the statistical eye's BER
+        contours (noise and jitter included).
+      </p>
+      <label className="mt-2 flex items-center gap-2 text-sm text-ink-soft">
+        <input type="checkbox" checked={sameScale} onChange={(e) => setSameScale(e.target.checked)} />
+        Same voltage scale for both eyes
+      </label>
+      <div className="mt-4 grid gap-6 xl:grid-cols-2">
+        <div>
+          <h3>Before: the channel alone</h3>
+          <p className="help">
+            Transmit swing only — no FIR, CTLE or DFE.{" "}
+            {before.eyeHeight_V > 0 ? `Eye height ${mV(before.eyeHeight_V).toFixed(1)} mV.` : "The eye is closed at the target BER."}
+          </p>
+          <DensityEye
+            image={before.image}
+            contours={before.contours}
+            openings={opening(before.eyeHeight_V)}
+            voltageDomain_V={sameScale ? shared : undefined}
+            ariaLabel="Eye before equalization"
+            testId="eye-before"
+          />
+        </div>
+        <div>
+          <h3>After: transmit FIR, CTLE and DFE</h3>
+          <p className="help">
+            The chosen setting, DFE feedback included.{" "}
+            {after.eyeHeight_V > 0 ? `Eye height ${mV(after.eyeHeight_V).toFixed(1)} mV.` : "The eye is still closed at the target BER."}
+          </p>
+          <DensityEye
+            image={after.image}
+            contours={after.contours}
+            openings={opening(after.eyeHeight_V)}
+            voltageDomain_V={sameScale ? shared : undefined}
+            ariaLabel="Eye after equalization"
+            testId="eye-after"
+          />
+        </div>
+      </div>
+    </section>
+  );
+}
