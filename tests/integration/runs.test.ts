@@ -67,6 +67,7 @@ describe("a tuning run", () => {
       limiterHeadroom_V: run.result.metrics.limiterHeadroom_V,
       eyeHeight_V: run.result.metrics.eyeHeight_V,
       linearReachExhausted: false,
+      closes: true,
     });
     expect(run.timings.compute_ms).toBeGreaterThan(0);
     expect(new Date(run.timings.finishedAt).getTime()).toBeGreaterThanOrEqual(new Date(run.timings.queuedAt).getTime());

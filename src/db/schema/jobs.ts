@@ -54,8 +54,8 @@ export const runs = mysqlTable(
     /** The engine's tuning result (lib/run), when done. */
     result: json("result").$type<Record<string, unknown>>(),
     engineVersion: varchar("engine_version", { length: 40 }),
-    /** A short summary for lists: headroom, verdict, eye height. */
-    summary: json("summary").$type<{ limiterHeadroom_V: number; eyeHeight_V: number; linearReachExhausted: boolean } | null>(),
+    /** A short summary for lists: headroom, eye height, the verdict and whether any DFE tap count closes the link. */
+    summary: json("summary").$type<{ limiterHeadroom_V: number; eyeHeight_V: number; linearReachExhausted: boolean; closes?: boolean } | null>(),
     /** The run this one re-ran, if any. */
     rerunOf: int("rerun_of"),
     createdBy: varchar("created_by", { length: 36 }).references(() => users.id, { onDelete: "set null" }),

@@ -27,6 +27,7 @@ export async function storeRunResult(tx: Tx, runId: number, result: TuningRunRes
     limiterHeadroom_V: result.metrics.limiterHeadroom_V,
     eyeHeight_V: result.metrics.eyeHeight_V,
     linearReachExhausted: result.verdict.linearReachExhausted,
+    closes: result.verdict.fewestDfeTaps !== null,
   };
   await tx
     .update(runs)

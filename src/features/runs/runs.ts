@@ -25,6 +25,8 @@ export interface RunSummary {
   limiterHeadroom_V: number;
   eyeHeight_V: number;
   linearReachExhausted: boolean;
+  /** Whether the link meets the required headroom with some number of the budget's DFE taps. */
+  closes?: boolean;
 }
 
 /** A row of a run list. */
