@@ -101,6 +101,7 @@ describe("a tuning run", () => {
     expect(end.error?.message).toMatch(/bitRate_bps.*does not match the pulse/);
     const run = await (await designer.get(`/api/v1/runs/${id}`)).json();
     expect(run.result).toBeNull();
+    expect(run.error.message).toBe(end.error?.message);
     expect(run.inputs.budget.params.bitRate_bps).toBe(10e9);
     expect(run.inputs.channel.pulse.values_V.length).toBeGreaterThan(0);
     const page = await designer.get(`/runs/${id}`);

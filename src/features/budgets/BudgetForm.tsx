@@ -60,6 +60,7 @@ export default function BudgetForm(props: Props) {
 
   return (
     <form className="flex flex-col gap-6" onSubmit={submit} aria-label="Budget" noValidate>
+      {props.readOnly && <p className="notice notice-warn">Read only: designers and admins edit budgets.</p>}
       {!props.readOnly && props.id === null && (
         <section className="card" aria-label="Starting points">
           <h2>Start from</h2>

@@ -139,7 +139,7 @@ function toItem(r: Row): RunListItem {
     channel: { id: r.channelId, name: r.channelName },
     budget: { id: r.budgetId, name: r.budgetName },
     summary: r.summary ?? null,
-    error: r.error ?? null,
+    error: r.error ? { message: r.error } : null,
     createdBy: r.createdBy ?? null,
     createdAt: r.createdAt,
     finishedAt: r.finishedAt ?? null,

@@ -37,7 +37,8 @@ export interface RunListItem {
   channel: { id: number | null; name: string };
   budget: { id: number | null; name: string };
   summary: RunSummary | null;
-  error: string | null;
+  /** Why the run failed (api.md's error shape), when it did. */
+  error: { message: string } | null;
   createdBy: string | null;
   createdAt: string | Date;
   finishedAt: string | Date | null;
