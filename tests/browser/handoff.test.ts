@@ -92,6 +92,7 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     expect(download.suggestedFilename()).toMatch(/_v1\.h$/);
     const text = readFileSync((await download.path())!, "utf8");
     expect(text).toMatch(/signed off/);
+    expect(text).toMatch(/#define TW_\w+_SIGNED_OFF 1/);
     expect(text).toContain("_defaults[");
     await page.screenshot({ path: join(screenshotDir, "table-signed-off.png"), fullPage: true });
 

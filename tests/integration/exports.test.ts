@@ -55,7 +55,7 @@ describe("exports", () => {
     const res = await firmware.get(exportPath("csv"));
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toMatch(/^text\/csv/);
-    expect(res.headers.get("content-disposition")).toMatch(/attachment; filename=".+_v1\.csv"/);
+    expect(res.headers.get("content-disposition")).toMatch(/attachment; filename=".+_v1_draft\.csv"/);
     const rows = parse(await res.text(), { columns: true, skip_empty_lines: true }) as Record<string, string>[];
     expect(rows).toHaveLength(table.classes.length);
     expect(Object.keys(rows[0])).toEqual([
@@ -88,7 +88,7 @@ describe("exports", () => {
   it("C header: compiles with cc -fsyntax-only, and a program built on it reads the same codes", async () => {
     const res = await firmware.get(exportPath("c"));
     expect(res.status).toBe(200);
-    expect(res.headers.get("content-disposition")).toMatch(/_v1\.h"/);
+    expect(res.headers.get("content-disposition")).toMatch(/_v1_draft\.h"/);
     const header = await res.text();
     const file = join(dir, "table.h");
     writeFileSync(file, header);
@@ -119,6 +119,7 @@ describe("exports", () => {
       expect(header).toContain(`#define ${P}_${f.name.toUpperCase()}_SIGNED ${f.signed ? 1 : 0}`);
     }
     expect(header).toMatch(/NOT SIGNED OFF \(ready\)/);
+    expect(header).toContain(`#define ${P}_SIGNED_OFF 0`);
   });
 
   it("an unknown format is refused (400) and names the field", async () => {

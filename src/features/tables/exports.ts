@@ -44,9 +44,9 @@ export function slug(name: string, max = 40): string {
   return /^[a-z]/.test(s) ? s : `t_${s || "table"}`;
 }
 
-/** File name of an export: `<table>_v<n>.<ext>`. */
-export function exportFilename(model: Pick<ExportModel, "table" | "version">, format: ExportFormat): string {
-  return `${slug(model.table.name)}_v${model.version}.${extensions[format]}`;
+/** File name of an export: `<table>_v<n>.<ext>`, with `_draft` before the extension unless the version is signed off. */
+export function exportFilename(model: Pick<ExportModel, "table" | "version" | "state">, format: ExportFormat): string {
+  return `${slug(model.table.name)}_v${model.version}${model.state === "approved" ? "" : "_draft"}.${extensions[format]}`;
 }
 
 export function exportMediaType(format: ExportFormat): string {
@@ -132,7 +132,7 @@ function cNumber(v: number): string {
 }
 
 /**
- * C header: an include guard, `<P>_VERSION`, `<P>_CLASS_COUNT`; per field `<P>_<FIELD>_BITS`,
+ * C header: an include guard, `<P>_VERSION`, `<P>_SIGNED_OFF` (1 or 0), `<P>_CLASS_COUNT`; per field `<P>_<FIELD>_BITS`,
  * `_SIGNED`, `_LSB` (physical units, a double), `_MIN_CODE`, `_MAX_CODE`; an enum of the classes;
  * a struct with one member per field (the smallest stdint type); and `<p>_defaults[]`, one
  * initializer per class in enum order. `<P>` is `TW_` + the table's name as an identifier.
@@ -151,6 +151,8 @@ export function toCHeader(m: ExportModel): string {
   lines.push(" */");
   lines.push(`#ifndef ${guard}`, `#define ${guard}`, "", "#include <stdint.h>", "");
   lines.push(`#define ${P}_VERSION ${m.version}u`);
+  lines.push(`/* 1 when a reviewer signed this version off; a build can refuse drafts with #if !${P}_SIGNED_OFF. */`);
+  lines.push(`#define ${P}_SIGNED_OFF ${m.state === "approved" ? 1 : 0}`);
   lines.push(`#define ${P}_CLASS_COUNT ${m.classes.length}u`);
   lines.push(`#define ${P}_FIELD_COUNT ${m.registerMap.length}u`, "");
   for (const f of m.registerMap) {
