@@ -4,6 +4,7 @@ import { assertPulse } from "../pulse/assertPulse.ts";
 import { cursorsAt } from "../pulse/cursorsAt.ts";
 import type { Modulation, Pulse } from "../types.ts";
 import { assertJitter, type Jitter, type JitterKernel, jitterKernel } from "./jitterKernel.ts";
+import { quantileBound } from "./quantileBound.ts";
 import { DEFAULT_HALF_BINS, type SampleDistribution, sampleDistribution } from "./sampleDistribution.ts";
 
 /** Symbol-spaced cursors at one integer sampling phase; `h[main]` is the main cursor (volts). */
@@ -73,6 +74,12 @@ export interface StatisticalEye {
   main(t: number): number;
   /** The law of ISI plus noise at the integer phase `p` (computed once, then kept). */
   distribution(p: number): SampleDistribution;
+  /**
+   * An upper bound on `distribution(p).quantile(prob)` (volts) that does not build the law when it
+   * is not built yet (see {@link quantileBound}; `Infinity` when that gives nothing); the quantile
+   * itself when the law is known.
+   */
+  quantileBound(p: number, prob: number): number;
   /** `P(sample < v | level)` at phase `t`, jitter included. */
   probBelow(level: number, t: number, v_V: number): number;
   /** `P(sample > v | level)` at phase `t`, jitter included. */
@@ -90,6 +97,26 @@ export interface StatisticalEye {
   eyeHeight(t: number, ber: number): number;
   /** Error ratio of a decision threshold `v` at phase `t` (sum convention above), at most 1. */
   ber(t: number, v_V: number): number;
+}
+
+/**
+ * The ISI cursors the law of one phase is built from: the pre-cursors, then the post-cursors less
+ * the DFE taps (`h[main + k] − dfeTaps[k − 1]`; a tap beyond the cursors leaves `−dfeTaps[k − 1]`).
+ *
+ * @param h - symbol-spaced cursors, volts; `h[main]` is the main cursor (excluded).
+ * @param main - index of the main cursor.
+ * @param dfeTaps - DFE tap weights, volts.
+ * @returns `main + max(h.length − 1 − main, dfeTaps.length)` values, volts.
+ */
+export function residualIsi(h: Float64Array, main: number, dfeTaps: ArrayLike<number>): Float64Array {
+  const post = Math.max(h.length - 1 - main, dfeTaps.length);
+  const isi = new Float64Array(main + post);
+  for (let k = 0; k < main; k++) isi[k] = h[k];
+  for (let k = 1; k <= post; k++) {
+    const v = main + k < h.length ? h[main + k] : 0;
+    isi[main + k - 1] = k <= dfeTaps.length ? v - dfeTaps[k - 1] : v;
+  }
+  return isi;
 }
 
 /** Symbol levels of a modulation, increasing. */
@@ -157,14 +184,7 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     let law = laws.get(p);
     if (law !== undefined) return law;
     const { h, main } = source.cursorsAt(p);
-    const post = Math.max(h.length - 1 - main, dfe.length);
-    const isi = new Float64Array(main + post);
-    for (let k = 0; k < main; k++) isi[k] = h[k];
-    for (let k = 1; k <= post; k++) {
-      const v = main + k < h.length ? h[main + k] : 0;
-      isi[main + k - 1] = k <= dfe.length ? v - dfe[k - 1] : v;
-    }
-    law = sampleDistribution(isi, modulation, noiseRms_V, halfBins);
+    law = sampleDistribution(residualIsi(h, main, dfe), modulation, noiseRms_V, halfBins);
     laws.set(p, law);
     mains.set(p, h[main]);
     return law;
@@ -281,6 +301,14 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     distribution: (p: number) => {
       if (!Number.isInteger(p)) throw new RangeError(`p must be an integer phase, got ${p}`);
       return load(p);
+    },
+    quantileBound: (p: number, prob: number) => {
+      if (!Number.isInteger(p)) throw new RangeError(`p must be an integer phase, got ${p}`);
+      const law = laws.get(p);
+      if (law !== undefined) return law.quantile(prob);
+      const { h, main } = source.cursorsAt(p);
+      if (!mains.has(p)) mains.set(p, h[main]);
+      return quantileBound(residualIsi(h, main, dfe), modulation, noiseRms_V, prob, halfBins);
     },
     probBelow,
     probAbove,

@@ -7,7 +7,7 @@ import { mmseEqualizer } from "../solvers/mmse.ts";
 import { zeroForcing } from "../solvers/zeroForcing.ts";
 import type { Pulse } from "../types.ts";
 import { type CtleChannel, ctleChannel, phaseReach } from "./ctleChannel.ts";
-import { criterionPhaseOf, finishEye, heavyPhaseBound, type PhaseEye, prepareEye } from "./evaluateSetting.ts";
+import { criterionPhaseOf, finishEye, heavyPhaseBound, lightPhaseBound, type PhaseEye, prepareEye } from "./evaluateSetting.ts";
 import {
   type BoundSetup,
   boundSetup,
@@ -158,8 +158,9 @@ class Found extends Error {}
  * settings are then searched best first. Per CTLE setting the side taps are searched depth-first,
  * one per level; every box of settings is bounded by {@link boxBound} over the sampling phases the
  * policy can choose for it, and dropped when nothing in it can beat the threshold (the K-th best
- * headroom found so far for the first DFE count, the best for the others). Leaves pass three tiers:
- * {@link leafBound}, {@link heavyPhaseBound} (one exact law), then the exact eye. No bound ever
+ * headroom found so far for the first DFE count, the best for the others). Leaves pass four tiers:
+ * {@link leafBound} (the watched cursors), {@link lightPhaseBound} (every cursor, no law built),
+ * {@link heavyPhaseBound} (one exact law), then the exact eye. No bound ever
  * underestimates, so `best` and `top` are what exhaustive evaluation of the grid gives (exact ties
  * may resolve to an equally good setting), and every CTLE setting reports its optimum or a bound.
  *
@@ -324,9 +325,16 @@ export function jointSearch(
       }
       const prepared = prepareEye(mc.channel, space, taps, counts[o], t);
       const jj = mc.scratch[mc.setup.offsets.length];
+      const shift = mc.setup.shifts.length === 0 ? 0 : mc.setup.shifts[jj];
+      const weight = mc.setup.shifts.length === 0 ? 1 : mc.setup.weights[jj];
+      const ubL = lightPhaseBound(space, prepared, shift, weight);
+      if (!passes(o, ubL) || !(ubL > floor)) {
+        worstPruned = Math.max(worstPruned, ubL);
+        continue;
+      }
       stats.heavy++;
       const ub2 =
-        mc.setup.shifts.length === 0 ? Number.POSITIVE_INFINITY : heavyPhaseBound(space, prepared, mc.setup.shifts[jj], mc.setup.weights[jj]);
+        mc.setup.shifts.length === 0 ? Number.POSITIVE_INFINITY : heavyPhaseBound(space, prepared, shift, weight);
       if (!passes(o, ub2) || !(ub2 > floor)) {
         worstPruned = Math.max(worstPruned, ub2);
         continue;

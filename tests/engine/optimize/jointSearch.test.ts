@@ -4,7 +4,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { enumerateTxFirs } from "../../../lib/equalizers/enumerateTxFirs.ts";
 import { isLegalTxFir } from "../../../lib/equalizers/txFirConstraints.ts";
-import { evaluateSetting, phaseEye } from "../../../lib/optimize/evaluateSetting.ts";
+import { evaluateSetting, heavyPhaseBound, lightPhaseBound, phaseEye, prepareEye } from "../../../lib/optimize/evaluateSetting.ts";
 import { boundSetup, leafBound, phaseCoefficients } from "../../../lib/optimize/headroomBound.ts";
 import { jointSearch, prepareChannels, startingPoints } from "../../../lib/optimize/jointSearch.ts";
 import { searchSpace } from "../../../lib/optimize/searchSpace.ts";
@@ -96,6 +96,37 @@ describe("headroom bounds", () => {
         },
       ),
       { seed: 77, numRuns: 60 },
+    );
+  });
+});
+
+describe("light bound", () => {
+  it("property: the light bound (no law built) never falls below the exact headroom, and the heavy bound sits between", () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom("nrz" as const, "pam4" as const),
+        fc.boolean(),
+        fc.integer({ min: 0, max: 2 }),
+        fc.integer({ min: -4, max: 4 }),
+        fc.integer({ min: 0, max: 5 }),
+        fc.integer({ min: 0, max: 7 }),
+        fc.integer({ min: 0, max: 2 }),
+        (mod, jit, n, phase, kPre, kPost, ci) => {
+          const space = searchSpace(channel, budget("centre", mod, jit));
+          const ch = prepareChannels(channel, space).channels[ci];
+          const setup = boundSetup(space, ch, 2);
+          const taps = Float64Array.of(-kPre * 0.05, 0, 0.1 - kPost * 0.05);
+          taps[1] = Math.min(1, 1 - Math.abs(taps[0]) - Math.abs(taps[2]));
+          const exact = phaseEye(ch, space, taps, n, phase).limiterHeadroom_V;
+          for (let j = 0; j < setup.shifts.length; j++) {
+            const light = lightPhaseBound(space, prepareEye(ch, space, taps, n, phase), setup.shifts[j], setup.weights[j]);
+            const heavy = heavyPhaseBound(space, prepareEye(ch, space, taps, n, phase), setup.shifts[j], setup.weights[j]);
+            if (!(light >= heavy && heavy >= exact)) return false;
+          }
+          return true;
+        },
+      ),
+      { seed: 78, numRuns: 60 },
     );
   });
 });
