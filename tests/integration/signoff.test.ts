@@ -2,7 +2,7 @@
 // the right recipients; comments thread; only the assigned reviewer (or an admin) decides; sending
 // back needs a reason; approval freezes the version (409 on edits); every action is audited.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { signIn, type Client } from "../support/http";
+import { anonymous, signIn, type Client } from "../support/http";
 import { closeDb } from "../fixtures/workspace";
 import { auditEvents, mailArrives, population, unique, versionComputed, type Population } from "./handoff.fixture";
 
@@ -36,6 +36,18 @@ async function readyTable() {
   expect(v.job.status, v.job.error?.message).toBe("done");
   return { id, name: v.table.name as string };
 }
+
+describe("sign-off: who may do what", () => {
+  it("everyone reads sign-offs and reviewers; anonymous callers must sign in", async () => {
+    for (const path of ["/api/v1/sign-offs", "/api/v1/sign-offs/reviewers", "/api/v1/sign-offs?state=pending&mine=1"]) {
+      expect((await anonymous().get(path)).status, path).toBe(401);
+      for (const c of [designer, reviewer, admin, firmware]) expect((await c.get(path)).status, path).toBe(200);
+    }
+    expect((await anonymous().send("POST", "/api/v1/sign-offs/1/comments", { body: "x" })).status).toBe(401);
+    expect((await anonymous().send("POST", "/api/v1/sign-offs/1/decision", { decision: "approve" })).status).toBe(401);
+    expect((await reviewer.get("/api/v1/sign-offs/999999")).status).toBe(404);
+  });
+});
 
 describe("sign-off", () => {
   it("request → e-mail to the reviewer; comments thread; approval → e-mail to the designer, version frozen; all audited", async () => {

@@ -72,7 +72,7 @@ async function personName(id: string | null): Promise<string | null> {
 }
 
 /** The decision record of a study for people: the candidate's label, who decided and when. */
-export async function decisionView(study: Study): Promise<DecisionView | null> {
+async function decisionView(study: Study): Promise<DecisionView | null> {
   if (!study.decision) return null;
   const inputs = study.inputs as unknown as StudyInputs;
   const c = inputs.candidates.find((x) => x.key === study.decision!.candidateKey);
@@ -103,7 +103,6 @@ export async function getStudy(id: number) {
     createdAt: study.createdAt,
   };
 }
-export type StudyView = Awaited<ReturnType<typeof getStudy>>;
 
 /** Number of studies (the overview's count). */
 export async function countStudies(): Promise<number> {
@@ -141,7 +140,6 @@ export async function listStudies(limit: number, cursor?: number) {
   });
   return { items, nextCursor: rows.length > limit ? String(items[items.length - 1].id) : null };
 }
-export type StudyListItem = Awaited<ReturnType<typeof listStudies>>["items"][number];
 
 /** Records (or revises) the chosen architecture and its rationale; the study must be finished. */
 export async function decideStudy(user: SessionUser, id: number, req: DecisionRequest) {

@@ -32,7 +32,7 @@ const mediaTypes: Record<ExportFormat, string> = {
 const extensions: Record<ExportFormat, string> = { csv: "csv", json: "json", c: "h" };
 
 /** A lowercase identifier from a name: "Quillfeather NRZ backplane" → "quillfeather_nrz_backplane". */
-export function slug(name: string, max = 40): string {
+function slug(name: string, max = 40): string {
   const s = name
     .normalize("NFKD")
     .replace(/[^\x00-\x7f]/g, "")
@@ -63,7 +63,7 @@ function csvCell(value: string | number | null): string {
  * CSV: a header row, then one row per class: `class_index, class_name, loss_min_dB, loss_max_dB,
  * channel_count, worst_headroom_mV`, then one column per register field holding its code.
  */
-export function toCsv(m: ExportModel): string {
+function toCsv(m: ExportModel): string {
   const header = ["class_index", "class_name", "loss_min_dB", "loss_max_dB", "channel_count", "worst_headroom_mV", ...m.registerMap.map((f) => f.name)];
   const rows = m.classes.map((c) => [
     c.index,
@@ -78,7 +78,7 @@ export function toCsv(m: ExportModel): string {
 }
 
 /** JSON: the whole version — budget summary, architecture, register map, classes with codes and values. */
-export function toJson(m: ExportModel): string {
+function toJson(m: ExportModel): string {
   return (
     JSON.stringify(
       {
@@ -137,7 +137,7 @@ function cNumber(v: number): string {
  * a struct with one member per field (the smallest stdint type); and `<p>_defaults[]`, one
  * initializer per class in enum order. `<P>` is `TW_` + the table's name as an identifier.
  */
-export function toCHeader(m: ExportModel): string {
+function toCHeader(m: ExportModel): string {
   const p = `tw_${slug(m.table.name)}`;
   const P = p.toUpperCase();
   const guard = `${P}_V${m.version}_H`;

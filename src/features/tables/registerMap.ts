@@ -2,6 +2,7 @@
 // architecture, each with a name, bit width, signedness, LSB in physical units and a range.
 // The default map follows the architecture and the budget; people edit it per field.
 import { z } from "zod";
+import { PARAMETER_PATTERN } from "@lib/tables/registerMap";
 import type { Architecture } from "@/features/studies/architecture";
 
 /** Physical unit of a field (the engine's register map): taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */
@@ -10,19 +11,13 @@ export type FieldUnit = (typeof fieldUnits)[number];
 
 export const unitLabels: Record<FieldUnit, string> = { fraction: "× peak swing", dB: "dB", V: "V" };
 
-/**
- * Which equalizer parameter a field holds: `tx[k]` (transmit FIR tap at offset k from the main tap,
- * k < 0 pre-cursor), `ctle.gDc_dB`, `ctle.gDc2_dB`, `dfe[n]` (n = 1 …), `ffe[k]` (receive FFE tap).
- */
-export const parameterPattern = /^(tx\[-?\d+\]|ctle\.gDc_dB|ctle\.gDc2_dB|dfe\[\d+\]|ffe\[-?\d+\])$/;
-
 export const registerFieldSchema = z
   .object({
     name: z
       .string()
       .trim()
       .regex(/^[a-z][a-z0-9_]{0,31}$/, "A field name is a C identifier in lowercase: a letter, then letters, digits or _ (at most 32)."),
-    parameter: z.string().regex(parameterPattern, "parameter must be tx[k], ctle.gDc_dB, ctle.gDc2_dB, dfe[n] or ffe[k]."),
+    parameter: z.string().regex(PARAMETER_PATTERN, "parameter must be tx[k], ctle.gDc_dB, ctle.gDc2_dB, dfe[n] or ffe[k]."),
     bits: z.int({ error: "bits is a whole number." }).min(1, "A field has at least 1 bit.").max(16, "A field has at most 16 bits."),
     signed: z.boolean({ error: "signed is true or false." }),
     lsb: z.number({ error: "lsb is a number in the field's unit." }).positive("The LSB must be > 0."),

@@ -264,7 +264,6 @@ export async function getVersion(tableId: number, v: number) {
     signOffs: reviews.map(({ s, reviewer }) => ({ id: s.id, state: s.state, reviewer, createdAt: s.createdAt, decidedAt: s.decidedAt, decisionComment: s.decisionComment })),
   };
 }
-export type VersionView = Awaited<ReturnType<typeof getVersion>>;
 
 /** GET /api/v1/tap-tables/:id: the table and its versions (newest first). */
 export async function getTable(tableId: number) {
@@ -305,7 +304,6 @@ export async function getTable(tableId: number) {
     }),
   };
 }
-export type TableView = Awaited<ReturnType<typeof getTable>>;
 
 /** Number of tap tables (the overview's count). */
 export async function countTables(): Promise<number> {
@@ -352,10 +350,9 @@ export async function listTables(limit: number, cursor?: number) {
   }
   return { items, nextCursor: tables.length > limit ? String(page[page.length - 1].t.id) : null };
 }
-export type TableListItem = Awaited<ReturnType<typeof listTables>>["items"][number];
 
 /** Refuses changes to a version that is signed off, in review or computing (409 with the reason). */
-export function assertEditable(v: Pick<TapTableVersion, "state" | "version">): void {
+function assertEditable(v: Pick<TapTableVersion, "state" | "version">): void {
   if (v.state === "approved") throw conflict(`v${v.version} is signed off and frozen; create a new version to change it.`);
   if (v.state === "in-review") throw conflict(`v${v.version} is in review; wait for the reviewer's decision, or create a new version.`);
   if (v.state === "computing") throw conflict(`v${v.version} is still computing; change it when it is done.`);
