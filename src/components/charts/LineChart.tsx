@@ -70,6 +70,8 @@ export interface LineChartProps {
   yReadout?: (v: number) => string;
   /** Plot height in pixels including axes (default 280). */
   height?: number;
+  /** Width drawn before the container is measured (server render; default 560): give full-width charts a wider one. */
+  initialWidth?: number;
   /** Show the legend when there is more than one series (default true). */
   legend?: boolean;
   margin?: Margin;
@@ -101,7 +103,7 @@ function nearestIndex(xs: readonly number[], x: number): number {
 
 /** A responsive line chart; it fills its container's width. */
 export default function LineChart(props: LineChartProps) {
-  const { ref, width } = useContainerWidth();
+  const { ref, width } = useContainerWidth(props.initialWidth);
   const height = props.height ?? 280;
   const margin = props.margin ?? defaultMargin;
   const innerW = Math.max(10, width - margin.left - margin.right);

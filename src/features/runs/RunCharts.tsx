@@ -114,6 +114,7 @@ export default function RunCharts(props: PackedRunCharts) {
           xDomain={gridDomain}
           yIncludesZero={false}
           markersInDomain={false}
+          initialWidth={1100}
           verticalMarkers={[{ x: props.chosen.gDc_dB, label: `chosen ${props.chosen.gDc_dB} dB` }]}
           horizontalMarkers={[{ y: mV(props.requiredHeadroom_V), label: `required ${mV(props.requiredHeadroom_V).toFixed(1)} mV` }]}
           height={240}
