@@ -218,30 +218,46 @@ export function leafBound(
 /**
  * Taps as an affine function of the free side taps over a box: `c = base + Σ_s x_s·dir_s`, with the
  * main tap following the side taps (`c_main = 1 − Σ|side|` on a box where each side tap keeps its
- * sign). The box gives each free side tap an interval.
+ * sign). The box gives each free side tap an interval. A box is a reusable buffer: the first
+ * `count` entries of `free`, `lo`, `hi` and `mainSlope` are in use.
  */
 export interface TapBox {
-  /** Taps at the box's reference point (free side taps at 0 offset, see `lo/hi`). */
+  /** Taps at the box's reference point (free side taps 0; their values come from `lo`/`hi`). */
   readonly base: Float64Array;
   /** Indices of the free side taps and, per free tap, its interval and the main tap's slope. */
   readonly free: Int32Array;
   readonly lo: Float64Array;
   readonly hi: Float64Array;
   readonly mainSlope: Float64Array;
+  /** Number of free side taps. */
+  count: number;
   /** Main tap index; an extra interval `[mainLo, 0]` on the main tap covers grid flooring and caps. */
   readonly main: number;
-  readonly mainLo: number;
+  mainLo: number;
 }
 
-/** Range of `Σ_j c_j·vec[f·T + j]` over a box. */
-function affineRange(box: TapBox, vec: Float64Array, f: number, T: number, out: Float64Array): void {
-  const o = f * T;
+/** An empty box for FIRs of `taps` taps with the main tap at `main`. */
+export function createTapBox(taps: number, main: number): TapBox {
+  return {
+    base: new Float64Array(taps),
+    free: new Int32Array(taps),
+    lo: new Float64Array(taps),
+    hi: new Float64Array(taps),
+    mainSlope: new Float64Array(taps),
+    count: 0,
+    main,
+    mainLo: 0,
+  };
+}
+
+/** Range of `Σ_j c_j·vec[o + j]` over a box, written to `out[at]`, `out[at + 1]`. */
+function affineRange(box: TapBox, vec: Float64Array, o: number, T: number, out: Float64Array, at: number): void {
   let c = 0;
   for (let j = 0; j < T; j++) c += box.base[j] * vec[o + j];
   let lo = c;
   let hi = c;
   const vm = vec[o + box.main];
-  for (let s = 0; s < box.free.length; s++) {
+  for (let s = 0; s < box.count; s++) {
     const coef = vec[o + box.free[s]] + box.mainSlope[s] * vm;
     const a = coef * box.lo[s];
     const b = coef * box.hi[s];
@@ -256,42 +272,95 @@ function affineRange(box: TapBox, vec: Float64Array, f: number, T: number, out: 
   const m = box.mainLo * vm;
   if (m < 0) lo += m;
   else hi += m;
-  out[0] = lo;
-  out[1] = hi;
+  out[at] = lo;
+  out[at + 1] = hi;
+}
+
+/**
+ * The ranges over one box of every watched cursor at any absolute phase, computed when first asked
+ * and shared by every sampling phase, jitter phase and DFE count the box is bounded for.
+ */
+export interface BoxRanges {
+  /** Per phase, `2F + 1` numbers: `[lo, hi]` of each watched cursor `f`, then the tail bound. */
+  readonly values: Float64Array;
+  /** Starts a new box (its ranges are computed afresh). */
+  reset(box: TapBox): void;
+  /** Offset in `values` of phase `p`'s numbers. */
+  at(p: number): number;
+}
+
+/**
+ * Range tables of one channel's boxes for absolute phases `minPhase … maxPhase`.
+ *
+ * @param setup - the channel's bound constants.
+ * @param coef - its watched cursors' coefficients per phase.
+ * @param minPhase - lowest absolute phase (samples) asked for.
+ * @param maxPhase - highest.
+ */
+export function boxRanges(setup: BoundSetup, coef: CoefficientSource, minPhase: number, maxPhase: number): BoxRanges {
+  const F = setup.offsets.length;
+  const T = setup.taps;
+  const width = 2 * F + 1;
+  const count = maxPhase - minPhase + 1;
+  const values = new Float64Array(count * width);
+  const stamp = new Int32Array(count);
+  let serial = 0;
+  let current: TapBox | null = null;
+  return {
+    values,
+    reset(box: TapBox): void {
+      current = box;
+      serial++;
+    },
+    at(p: number): number {
+      const slot = p - minPhase;
+      if (!(slot >= 0 && slot < count)) throw new RangeError(`phase ${p} is outside the box table's ${minPhase} … ${maxPhase}`);
+      const o = slot * width;
+      if (stamp[slot] !== serial) {
+        const box = current as TapBox;
+        const pc = coef(p);
+        for (let f = 0; f < F; f++) affineRange(box, pc.v, f * T, T, values, o + 2 * f);
+        values[o + 2 * F] = pc.tail;
+        stamp[slot] = serial;
+      }
+      return o;
+    },
+  };
 }
 
 /**
  * Upper bound on the limiter headroom of every FIR of a box, sampled at phase `t` with `dfeCount`
  * DFE taps: each watched cursor is affine in the free side taps, so its range over the box is exact;
  * per jitter phase the bound takes the largest main cursor and the smallest residuals independently,
- * and the least bound over the jitter phases counts. The jitter phases are tried in the setup's
- * order and the search stops at the first bound at or below `stopAt` (still a valid bound).
- * `scratch` must hold `offsets.length + 4` numbers.
+ * and the least bound over the jitter phases counts. The jitter phases are tried from index `first`
+ * on (then the others in the setup's order), and the search stops at the first bound at or below
+ * `stopAt` (still a valid bound). `scratch` must hold `offsets.length + 4` numbers;
+ * `scratch[offsets.length]` receives the index of the jitter phase that gave the bound.
  */
 export function boxBound(
   setup: BoundSetup,
-  coef: CoefficientSource,
+  ranges: BoxRanges,
   t: number,
-  box: TapBox,
   dfeCount: number,
   scratch: Float64Array,
   stopAt = Number.NEGATIVE_INFINITY,
+  first = 0,
 ): number {
-  const T = setup.taps;
   const F = setup.offsets.length;
-  const r = scratch.subarray(F, F + 4);
-  const own = coef(t).v;
+  const S = setup.shifts.length;
+  const vals = ranges.values;
+  const own = ranges.at(t);
   let out = Number.POSITIVE_INFINITY;
-  for (let jj = 0; jj < setup.shifts.length; jj++) {
+  let arg = first;
+  for (let n = 0; n < S; n++) {
+    const jj = n === 0 ? first : n <= first ? n - 1 : n;
     const shift = setup.shifts[jj];
-    const pc = coef(t + shift);
-    affineRange(box, pc.v, 0, T, r);
-    const g0max = r[1];
+    const o = ranges.at(t + shift);
+    const g0max = vals[o + 1];
     let sum = 0;
     for (let f = 1; f < F; f++) {
-      affineRange(box, pc.v, f, T, r);
-      const a = r[0];
-      const b = r[1];
+      const a = vals[o + 2 * f];
+      const b = vals[o + 2 * f + 1];
       const k = setup.offsets[f];
       let m: number;
       if (k > 0 && k <= dfeCount) {
@@ -302,9 +371,8 @@ export function boxBound(
           if (m < 0) m = 0;
           sum += big > lim ? big - lim : 0;
         } else {
-          affineRange(box, own, f, T, r);
-          const ra = a - clip(r[1], lim);
-          const rb = b - clip(r[0], lim);
+          const ra = a - clip(vals[own + 2 * f + 1], lim);
+          const rb = b - clip(vals[own + 2 * f], lim);
           m = minAbs(ra, rb);
           sum += Math.max(Math.abs(ra), Math.abs(rb));
         }
@@ -314,14 +382,18 @@ export function boxBound(
       }
       scratch[f - 1] = m;
     }
-    const bound = boundFrom(setup, jj, pc.tail, g0max, scratch, F - 1, sum);
-    if (bound < out) out = bound;
+    const bound = boundFrom(setup, jj, vals[o + 2 * F], g0max, scratch, F - 1, sum);
+    if (bound < out) {
+      out = bound;
+      arg = jj;
+    }
     if (out <= stopAt) break;
   }
+  scratch[F] = arg;
   return out;
 }
 
 /** Range over a box of an affine functional given by its per-tap coefficients `vec` (length T). */
 export function boxRange(box: TapBox, vec: Float64Array, T: number, out: Float64Array): void {
-  affineRange(box, vec, 0, T, out);
+  affineRange(box, vec, 0, T, out, 0);
 }

@@ -10,10 +10,13 @@ import { type CtleChannel, ctleChannel, phaseReach } from "./ctleChannel.ts";
 import { criterionPhaseOf, finishEye, heavyPhaseBound, lightPhaseBound, type PhaseEye, prepareEye } from "./evaluateSetting.ts";
 import {
   type BoundSetup,
+  type BoxRanges,
   boundSetup,
   boxBound,
   boxRange,
+  boxRanges,
   type CoefficientSource,
+  createTapBox,
   leafBound,
   type PhaseCoefficients,
   phaseCoefficients,
@@ -249,6 +252,10 @@ export function jointSearch(
     channel: CtleChannel;
     setup: BoundSetup;
     coef: CoefficientSource;
+    /** Ranges of the watched cursors over the box being bounded. */
+    ranges: BoxRanges;
+    /** Jitter phase that last pruned a box (tried first on the next). */
+    firstShift: number;
     crit: Map<number, Float64Array>;
     scratch: Float64Array;
   }
@@ -380,13 +387,12 @@ export function jointSearch(
     }
   };
 
-  // The box of every setting whose side taps take grid indices within [lo[s], hi[s]] (positions in grids[s]).
-  const makeBox = (lo: Int32Array, hi: Int32Array): TapBox | null => {
-    const base = new Float64Array(T);
-    const free: number[] = [];
-    const flo: number[] = [];
-    const fhi: number[] = [];
-    const slope: number[] = [];
+  // The box of every setting whose side taps take grid indices within [lo[s], hi[s]] (positions in
+  // grids[s]), written into the shared buffer `box` (false when no setting of it is legal).
+  const box = createTapBox(T, spec.pre);
+  const makeBox = (lo: Int32Array, hi: Int32Array): boolean => {
+    box.base.fill(0);
+    let count = 0;
     let fixedAbs = 0;
     let mainLo = 0;
     let freeMin = 0;
@@ -395,88 +401,80 @@ export function jointSearch(
       const ka = grids[s][lo[s]];
       const kb = grids[s][hi[s]];
       if (ka === kb) {
-        base[j] = ka * step;
+        box.base[j] = ka * step;
         fixedAbs += Math.abs(ka);
         continue;
       }
       const a = ka * step;
       const b = kb * step;
-      free.push(j);
-      flo.push(a);
-      fhi.push(b);
-      if (a >= 0) slope.push(-1);
-      else if (b <= 0) slope.push(1);
+      box.free[count] = j;
+      box.lo[count] = a;
+      box.hi[count] = b;
+      if (a >= 0) box.mainSlope[count] = -1;
+      else if (b <= 0) box.mainSlope[count] = 1;
       else {
         // The main tap is not affine across a sign change: widen its interval instead.
-        slope.push(0);
+        box.mainSlope[count] = 0;
         mainLo -= Math.max(-a, b);
       }
+      count++;
       freeMin += a >= 0 ? a : b <= 0 ? -b : 0;
     }
     const affineMain = 1 - fixedAbs * step;
     const mHi = floorStep(Math.min(mainMax, affineMain - freeMin), step);
-    if (mHi < mainMin - TAP_TOLERANCE) return null;
+    if (mHi < mainMin - TAP_TOLERANCE) return false;
     // Flooring to the grid and the main tap's cap can only lower the main tap.
     if (!exactGrid) mainLo -= step;
     const over = affineMain - freeMin - mainMax;
     if (over > 0) mainLo -= over;
-    base[spec.pre] = affineMain;
-    return {
-      base,
-      free: Int32Array.from(free),
-      lo: Float64Array.from(flo),
-      hi: Float64Array.from(fhi),
-      mainSlope: Float64Array.from(slope),
-      main: spec.pre,
-      mainLo,
-    };
+    box.base[spec.pre] = affineMain;
+    box.count = count;
+    box.mainLo = mainLo;
+    return true;
   };
 
-  // Phases the policy may choose for some setting of the box.
   // Phases the policy may choose for some setting of the box, among `parent` (the phases of an
   // enclosing box: a setting's phase does not depend on the box it is seen in).
-  const boxPhases = (mc: Member, box: TapBox, parent: readonly number[]): number[] => {
+  const critLo = new Float64Array(window.hi - window.lo + 1);
+  const critHi = new Float64Array(window.hi - window.lo + 1);
+  const critStamp = new Int32Array(window.hi - window.lo + 1);
+  let critSerial = 0;
+  const critRange = new Float64Array(2);
+  const boxPhases = (mc: Member, parent: readonly number[]): readonly number[] => {
     if (space.policy === "max-height") return allPhases;
     // A small tolerance keeps rounding differences from hiding a phase the leaf would choose.
     const eps = 1e-12 * space.scale_V;
-    const lo = new Map<number, number>();
-    const hi = new Map<number, number>();
-    const r = new Float64Array(2);
+    critSerial++;
     const range = (t: number) => {
-      if (!lo.has(t)) {
-        boxRange(box, critAt(mc, t), T, r);
-        lo.set(t, r[0]);
-        hi.set(t, r[1]);
+      const i = t - window.lo;
+      if (critStamp[i] !== critSerial) {
+        boxRange(box, critAt(mc, t), T, critRange);
+        critLo[i] = critRange[0];
+        critHi[i] = critRange[1];
+        critStamp[i] = critSerial;
       }
+      return i;
     };
     // A crossing at t (F(t−1) < 0 ≤ F(t)) may lock at t − 1 or t.
     const crossing = (t: number): boolean => {
       if (t - 1 < window.lo || t > window.hi) return false;
-      range(t - 1);
-      range(t);
-      return (lo.get(t - 1) as number) < eps && (hi.get(t) as number) >= -eps;
+      return critLo[range(t - 1)] < eps && critHi[range(t)] >= -eps;
     };
     const out: number[] = [];
     for (const t of parent) {
       let keep = crossing(t) || crossing(t + 1);
-      if (!keep && t === window.lo) {
-        range(t);
-        keep = (hi.get(t) as number) >= -eps; // no crossing and F(lo) ≥ 0
-      }
-      if (!keep && t === window.hi) {
-        range(t);
-        keep = (lo.get(t) as number) < eps; // no crossing and F(hi) < 0
-      }
+      if (!keep && t === window.lo) keep = critHi[range(t)] >= -eps; // no crossing and F(lo) ≥ 0
+      if (!keep && t === window.hi) keep = critLo[range(t)] < eps; // no crossing and F(hi) < 0
       if (keep) out.push(t);
     }
-    return out;
+    return out.length === parent.length ? parent : out;
   };
 
   // Bound of a box: per member the largest bound over its phases, then the least over members. A
   // member's phase scan stops at the first phase that passes the threshold, and the member scan stops
   // at the first member that fails it; so a box that fails carries a true bound, while a box that
   // passes carries a value that only orders the halves.
-  const boxValue = (ctx: Ctx, box: TapBox, phases: readonly (readonly number[])[], o: number): number => {
+  const boxValue = (ctx: Ctx, phases: readonly (readonly number[])[], o: number): number => {
     stats.boxes++;
     const thr = target !== undefined ? target - Number.EPSILON : threshold(o);
     const M = ctx.members.length;
@@ -486,7 +484,8 @@ export function jointSearch(
       const mc = ctx.members[m];
       let v = Number.NEGATIVE_INFINITY;
       for (const t of phases[m]) {
-        const b = boxBound(mc.setup, mc.coef, t, box, counts[o], mc.scratch, thr);
+        const b = boxBound(mc.setup, mc.ranges, t, counts[o], mc.scratch, thr, mc.firstShift);
+        if (b <= thr) mc.firstShift = mc.scratch[mc.setup.offsets.length];
         if (b > v) v = b;
         if (passes(o, v)) break;
       }
@@ -497,11 +496,41 @@ export function jointSearch(
   };
 
   // Branch and bound over boxes of grid-index ranges: split the widest range (at the sign change
-  // first, so that the main tap stays affine), bound both halves, visit the better one first.
-  const descend = (ctx: Ctx, lo: Int32Array, hi: Int32Array, alive: readonly boolean[], parentPhases: readonly (readonly number[])[]) => {
+  // first, so that the main tap stays affine), bound both halves, visit the better one first. The
+  // halves of each depth live in buffers kept for the whole search.
+  const S = sides.length;
+  interface Level {
+    readonly lo: [Int32Array, Int32Array];
+    readonly hi: [Int32Array, Int32Array];
+    readonly alive: [boolean[], boolean[]];
+    readonly score: Float64Array;
+    readonly phases: (readonly (readonly number[])[])[];
+  }
+  const levels: Level[] = [];
+  const levelAt = (d: number): Level => {
+    while (levels.length <= d) {
+      levels.push({
+        lo: [new Int32Array(S), new Int32Array(S)],
+        hi: [new Int32Array(S), new Int32Array(S)],
+        alive: [new Array<boolean>(O).fill(false), new Array<boolean>(O).fill(false)],
+        score: new Float64Array(2),
+        phases: [[], []],
+      });
+    }
+    return levels[d];
+  };
+  const leafTaps = new Float64Array(T);
+  const descend = (
+    ctx: Ctx,
+    lo: Int32Array,
+    hi: Int32Array,
+    alive: readonly boolean[],
+    parentPhases: readonly (readonly number[])[],
+    depth: number,
+  ) => {
     let split = -1;
     let width = 0;
-    for (let s = 0; s < sides.length; s++) {
+    for (let s = 0; s < S; s++) {
       if (hi[s] - lo[s] > width) {
         width = hi[s] - lo[s];
         split = s;
@@ -509,16 +538,15 @@ export function jointSearch(
     }
     if (split < 0) {
       let side = 0;
-      const taps = new Float64Array(T);
-      for (let s = 0; s < sides.length; s++) {
-        taps[sides[s]] = grids[s][lo[s]] * step;
+      for (let s = 0; s < S; s++) {
+        leafTaps[sides[s]] = grids[s][lo[s]] * step;
         side += Math.abs(grids[s][lo[s]]);
       }
       // The enumeration's rule: the main tap is the largest grid value ≤ min(max, 1 − Σ|side|).
       const main = floorStep(Math.min(mainMax, 1 - side * step), step);
       if (main < mainMin - TAP_TOLERANCE) return;
-      taps[spec.pre] = main;
-      leaf(ctx, taps, alive);
+      leafTaps[spec.pre] = main;
+      leaf(ctx, leafTaps, alive);
       return;
     }
     const g = grids[split];
@@ -528,37 +556,60 @@ export function jointSearch(
       while (g[z + 1] < 0) z++;
       mid = z; // [negative values] and [0 and positive values]
     }
-    const halves: { lo: Int32Array; hi: Int32Array; score: number; alive: boolean[]; phases: number[][] }[] = [];
-    for (const [a, b] of [
-      [lo[split], mid],
-      [mid + 1, hi[split]],
-    ]) {
-      const clo = Int32Array.from(lo);
-      const chi = Int32Array.from(hi);
-      clo[split] = a;
-      chi[split] = b;
-      if (clo.every((v, s) => v === chi[s])) {
+    const L = levelAt(depth);
+    let live = 0;
+    const order = [-1, -1];
+    for (let h = 0; h < 2; h++) {
+      const clo = L.lo[h];
+      const chi = L.hi[h];
+      clo.set(lo);
+      chi.set(hi);
+      if (h === 0) chi[split] = mid;
+      else clo[split] = mid + 1;
+      const childAlive = L.alive[h];
+      let single = true;
+      for (let s = 0; s < S && single; s++) single = clo[s] === chi[s];
+      if (single) {
         // A single setting: its own tiers decide.
-        halves.push({ lo: clo, hi: chi, score: Number.POSITIVE_INFINITY, alive: alive.slice(), phases: [] });
+        for (let o = 0; o < O; o++) childAlive[o] = alive[o];
+        L.score[h] = Number.POSITIVE_INFINITY;
+        L.phases[h] = parentPhases;
+        order[live++] = h;
         continue;
       }
-      const box = makeBox(clo, chi);
-      if (box === null) continue;
-      const phases = ctx.members.map((mc, m) => boxPhases(mc, box, parentPhases[m]));
-      const childAlive = alive.map(() => false);
+      if (!makeBox(clo, chi)) continue;
+      for (const mc of ctx.members) mc.ranges.reset(box);
+      const phases = ctx.members.map((mc, m) => boxPhases(mc, parentPhases[m]));
       let score = Number.NEGATIVE_INFINITY;
+      let any = false;
+      let firstAlive = true;
       for (let o = 0; o < O; o++) {
+        childAlive[o] = false;
         if (!alive[o]) continue;
-        const ub = boxValue(ctx, box, phases, o);
-        if (passes(o, ub)) childAlive[o] = true;
-        else prune(ctx, o, ub);
-        if (o === alive.indexOf(true)) score = ub;
+        const ub = boxValue(ctx, phases, o);
+        if (passes(o, ub)) {
+          childAlive[o] = true;
+          any = true;
+        } else prune(ctx, o, ub);
+        if (firstAlive) score = ub;
+        firstAlive = false;
       }
       // A live half stays live: its bound may be partial (see boxValue), so it is not re-tested here.
-      if (childAlive.some(Boolean)) halves.push({ lo: clo, hi: chi, score, alive: childAlive, phases });
+      if (any) {
+        L.score[h] = score;
+        L.phases[h] = phases;
+        order[live++] = h;
+      }
     }
-    halves.sort((x, y) => y.score - x.score);
-    for (const h of halves) descend(ctx, h.lo, h.hi, h.alive, h.phases);
+    if (live === 2 && L.score[order[1]] > L.score[order[0]]) {
+      const t = order[0];
+      order[0] = order[1];
+      order[1] = t;
+    }
+    for (let i = 0; i < live; i++) {
+      const h = order[i];
+      descend(ctx, L.lo[h], L.hi[h], L.alive[h], L.phases[h], depth + 1);
+    }
   };
 
   const contexts: Ctx[] = space.ctleSettings.map((setting, ci) => ({
@@ -578,7 +629,18 @@ export function jointSearch(
         }
         return c;
       };
-      return { index, channel, setup, coef, crit: new Map<number, Float64Array>(), scratch: new Float64Array(setup.offsets.length + 4) };
+      let reach = 0;
+      for (const sh of setup.shifts) reach = Math.max(reach, Math.abs(sh));
+      return {
+        index,
+        channel,
+        setup,
+        coef,
+        ranges: boxRanges(setup, coef, window.lo - reach, window.hi + reach),
+        firstShift: 0,
+        crit: new Map<number, Float64Array>(),
+        scratch: new Float64Array(setup.offsets.length + 4),
+      };
     }),
   }));
   const everyone = new Array<boolean>(O).fill(true);
@@ -609,16 +671,16 @@ export function jointSearch(
       for (const s of seeds[ci]) leaf(ctx, s, everyone);
       const lo = new Int32Array(sides.length);
       const hi = Int32Array.from(grids, (g) => g.length - 1);
-      const root = grids.some((g) => g.length === 0) ? null : makeBox(lo, hi);
-      if (root !== null) {
-        const phases = ctx.members.map((mc) => boxPhases(mc, root, allPhases));
+      if (!grids.some((g) => g.length === 0) && makeBox(lo, hi)) {
+        for (const mc of ctx.members) mc.ranges.reset(box);
+        const phases = ctx.members.map((mc) => boxPhases(mc, allPhases));
         const alive = everyone.map((_, o) => {
-          const ub = boxValue(ctx, root, phases, o);
+          const ub = boxValue(ctx, phases, o);
           if (passes(o, ub)) return true;
           prune(ctx, o, ub);
           return false;
         });
-        if (alive.some(Boolean)) descend(ctx, lo, hi, alive, phases);
+        if (alive.some(Boolean)) descend(ctx, lo, hi, alive, phases, 0);
       }
       done++;
       options.onProgress?.(done / contexts.length);
