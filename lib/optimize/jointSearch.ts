@@ -65,6 +65,14 @@ export interface JointSearchOptions {
   readonly target_V?: number;
   /** Reports the fraction of CTLE settings done (0 … 1). */
   readonly onProgress?: (fraction: number) => void;
+  /**
+   * The order in which to search the CTLE settings (indices into `space.ctleSettings`, each once),
+   * e.g. best first by an earlier pass. Default: best first by the single-law bound of each
+   * setting's first starting point.
+   */
+  readonly order?: readonly number[];
+  /** Further starting points per CTLE setting (indexed like `space.ctleSettings`), tried before its own. */
+  readonly seeds?: readonly (readonly Float64Array[])[];
 }
 
 /** What the search found. */
@@ -612,63 +620,95 @@ export function jointSearch(
     }
   };
 
-  const contexts: Ctx[] = space.ctleSettings.map((setting, ci) => ({
-    ci,
-    setting,
-    lead: 0,
-    seen: new Set<string>(),
-    members: members.map((m, index) => {
-      const channel = m.channels[ci];
-      const setup = boundSetup(space, channel, maxCount);
-      const cache = new Map<number, PhaseCoefficients>();
-      const coef = (p: number): PhaseCoefficients => {
-        let c = cache.get(p);
-        if (c === undefined) {
-          c = phaseCoefficients(setup, space, channel, p);
-          cache.set(p, c);
-        }
-        return c;
-      };
-      let reach = 0;
-      for (const sh of setup.shifts) reach = Math.max(reach, Math.abs(sh));
-      return {
-        index,
-        channel,
-        setup,
-        coef,
-        ranges: boxRanges(setup, coef, window.lo - reach, window.hi + reach),
-        firstShift: 0,
-        crit: new Map<number, Float64Array>(),
-        scratch: new Float64Array(setup.offsets.length + 4),
-      };
-    }),
-  }));
+  // Each CTLE setting's context is made when the search first needs it.
+  const contexts: (Ctx | undefined)[] = new Array(nCtle);
+  const contextOf = (ci: number): Ctx => {
+    let ctx = contexts[ci];
+    if (ctx !== undefined) return ctx;
+    ctx = {
+      ci,
+      setting: space.ctleSettings[ci],
+      lead: 0,
+      seen: new Set<string>(),
+      members: members.map((m, index) => {
+        const channel = m.channels[ci];
+        const setup = boundSetup(space, channel, maxCount);
+        const cache = new Map<number, PhaseCoefficients>();
+        const coef = (p: number): PhaseCoefficients => {
+          let c = cache.get(p);
+          if (c === undefined) {
+            c = phaseCoefficients(setup, space, channel, p);
+            cache.set(p, c);
+          }
+          return c;
+        };
+        let reach = 0;
+        for (const sh of setup.shifts) reach = Math.max(reach, Math.abs(sh));
+        return {
+          index,
+          channel,
+          setup,
+          coef,
+          ranges: boxRanges(setup, coef, window.lo - reach, window.hi + reach),
+          firstShift: 0,
+          crit: new Map<number, Float64Array>(),
+          scratch: new Float64Array(setup.offsets.length + 4),
+        };
+      }),
+    };
+    contexts[ci] = ctx;
+    return ctx;
+  };
+  const given = options.order;
+  if (given !== undefined) {
+    const hit = new Uint8Array(nCtle);
+    for (const ci of given) {
+      if (!Number.isInteger(ci) || ci < 0 || ci >= nCtle || hit[ci] === 1) {
+        throw new RangeError(`order must list every CTLE setting index 0…${nCtle - 1} once`);
+      }
+      hit[ci] = 1;
+    }
+    if (given.length !== nCtle) throw new RangeError(`order must list every CTLE setting index 0…${nCtle - 1} once`);
+  }
+  if (options.seeds !== undefined && options.seeds.length !== nCtle) {
+    throw new RangeError(`seeds must hold one list per CTLE setting (${nCtle}), got ${options.seeds.length}`);
+  }
+  const seedsOf = (ci: number): Float64Array[] => [
+    ...(options.seeds?.[ci] ?? []),
+    ...contextOf(ci).members.flatMap((mc) => startingPoints(mc.channel, space)),
+  ];
   const everyone = new Array<boolean>(O).fill(true);
   try {
-    // Order the CTLE settings by the single-law bound of the first member's first starting point
-    // (the least over the members).
-    const seeds = contexts.map((ctx) => ctx.members.flatMap((mc) => startingPoints(mc.channel, space)));
-    const keys = contexts.map((ctx, i) => {
-      const s = seeds[i][0];
-      if (s === undefined) return Number.NEGATIVE_INFINITY;
-      let key = Number.POSITIVE_INFINITY;
-      for (const mc of ctx.members) {
-        const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(mc.channel, space, s);
-        const ub = leafBound(mc.setup, mc.coef, phase, s, counts[0], mc.scratch);
-        const jj = mc.scratch[mc.setup.offsets.length];
-        const v =
-          mc.setup.shifts.length === 0
-            ? ub
-            : heavyPhaseBound(space, prepareEye(mc.channel, space, s, counts[0], phase), mc.setup.shifts[jj], mc.setup.weights[jj]);
-        key = Math.min(key, v);
-      }
-      return key;
-    });
-    const order = contexts.map((_, i) => i).sort((a, b) => keys[b] - keys[a] || a - b);
+    const seeds: (Float64Array[] | undefined)[] = new Array(nCtle);
+    const seedList = (ci: number): Float64Array[] => (seeds[ci] ??= seedsOf(ci));
+    let order: number[];
+    if (given !== undefined) order = [...given];
+    else {
+      // Order the CTLE settings by the single-law bound of the first member's first starting point
+      // (the least over the members).
+      const keys = space.ctleSettings.map((_, i) => {
+        const ctx = contextOf(i);
+        const s = seedList(i)[0];
+        if (s === undefined) return Number.NEGATIVE_INFINITY;
+        let key = Number.POSITIVE_INFINITY;
+        for (const mc of ctx.members) {
+          const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(mc.channel, space, s);
+          const ub = leafBound(mc.setup, mc.coef, phase, s, counts[0], mc.scratch);
+          const jj = mc.scratch[mc.setup.offsets.length];
+          const v =
+            mc.setup.shifts.length === 0
+              ? ub
+              : heavyPhaseBound(space, prepareEye(mc.channel, space, s, counts[0], phase), mc.setup.shifts[jj], mc.setup.weights[jj]);
+          key = Math.min(key, v);
+        }
+        return key;
+      });
+      order = keys.map((_, i) => i).sort((a, b) => keys[b] - keys[a] || a - b);
+    }
     let done = 0;
     for (const ci of order) {
-      const ctx = contexts[ci];
-      for (const s of seeds[ci]) leaf(ctx, s, everyone);
+      const ctx = contextOf(ci);
+      for (const s of seedList(ci)) leaf(ctx, s, everyone);
       const lo = new Int32Array(sides.length);
       const hi = Int32Array.from(grids, (g) => g.length - 1);
       if (!grids.some((g) => g.length === 0) && makeBox(lo, hi)) {
@@ -683,7 +723,7 @@ export function jointSearch(
         if (alive.some(Boolean)) descend(ctx, lo, hi, alive, phases, 0);
       }
       done++;
-      options.onProgress?.(done / contexts.length);
+      options.onProgress?.(done / nCtle);
     }
   } catch (e) {
     if (!(e instanceof Found)) throw e;

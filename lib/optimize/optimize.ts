@@ -122,15 +122,23 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
     else {
       let lo = 0; // fails
       let hi = N; // succeeds
-      // A setting already found that meets the requirement with `n` taps proves `n` feasible;
-      // otherwise a feasibility pass decides.
-      const known = [fullC, ...main.top];
+      // A setting already found that meets the requirement with `n` taps proves `n` feasible (the
+      // best linear one first: few taps added to it often suffice); otherwise a feasibility pass
+      // decides, visiting the CTLE settings best first by the main pass and starting from the
+      // settings it found there.
+      const known = [linC, fullC, ...main.top];
+      const order = space.ctleSettings
+        .map((_, ci) => ci)
+        .sort((a, b) => main.perCtle[0][b].upperBound_V - main.perCtle[0][a].upperBound_V || a - b);
+      const seeds = space.ctleSettings.map((_, ci) =>
+        main.perCtle.flatMap((per) => (per[ci].best === null ? [] : [(per[ci].best as Candidate).taps])),
+      );
       const feasible = (n: number): boolean => {
         for (const c of known) {
           stats.exact++;
           if (evaluateSetting(prepared.channels[c.ctleIndex], space, c.taps, n).limiterHeadroom_V >= required) return true;
         }
-        const r = jointSearch(pulse, space, { dfeCounts: [n], target_V: required }, prepared);
+        const r = jointSearch(pulse, space, { dfeCounts: [n], target_V: required, order, seeds }, prepared);
         stats = { exact: stats.exact + r.stats.exact, heavy: stats.heavy + r.stats.heavy, boxes: stats.boxes + r.stats.boxes, leaves: stats.leaves + r.stats.leaves };
         return r.best[0] !== null;
       };

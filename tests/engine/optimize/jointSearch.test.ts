@@ -62,6 +62,20 @@ describe("jointSearch — oracle: exhaustive evaluation of the grid", () => {
     }
   });
 
+  it("a given CTLE order and extra starting points change the work, not the answer", () => {
+    const space = searchSpace(channel, budget("centre", "nrz", true));
+    const prepared = prepareChannels(channel, space);
+    const plain = jointSearch(channel, space, { dfeCounts: [2, 0], topCount: 3 }, prepared);
+    const order = space.ctleSettings.map((_, i) => i).reverse();
+    const seeds = space.ctleSettings.map(() => [Float64Array.of(-0.05, 0.9, -0.05)]);
+    const hinted = jointSearch(channel, space, { dfeCounts: [2, 0], topCount: 3, order, seeds }, prepared);
+    expect(hinted.best.map((b) => b?.limiterHeadroom_V)).toEqual(plain.best.map((b) => b?.limiterHeadroom_V));
+    expect(hinted.top.map((c) => c.limiterHeadroom_V)).toEqual(plain.top.map((c) => c.limiterHeadroom_V));
+    expect(() => jointSearch(channel, space, { dfeCounts: [0], order: [0, 0, 1] }, prepared)).toThrow(/order/);
+    expect(() => jointSearch(channel, space, { dfeCounts: [0], order: [0, 1] }, prepared)).toThrow(/order/);
+    expect(() => jointSearch(channel, space, { dfeCounts: [0], seeds: [] }, prepared)).toThrow(/seeds/);
+  });
+
   it("feasibility mode finds a setting reaching the target, and none above the optimum", () => {
     const space = searchSpace(channel, budget("centre", "nrz", false));
     const full = jointSearch(channel, space, { dfeCounts: [2] });
