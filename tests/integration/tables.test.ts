@@ -8,7 +8,7 @@ import { codeRange, decodeField, encodeField, type RegisterField } from "@lib/ta
 import { budgetForArchitecture } from "@/features/tables/architectureBudget";
 import { anonymous, signIn, type Client } from "../support/http";
 import { closeDb, rowCounts } from "../fixtures/workspace";
-import { auditEvents, population, unique, versionComputed, type Population } from "./handoff.fixture";
+import { auditEvents, population, quickBudget, unique, versionComputed, type Population } from "./handoff.fixture";
 
 let designer: Client;
 let admin: Client;
@@ -79,6 +79,19 @@ describe("tap tables: refusals change nothing", () => {
       expect(after.audit_events).toBe(before.audit_events);
     });
   }
+
+  it("a budget whose bit rate does not fit the channels is refused before anything is queued (422)", async () => {
+    const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Ten gig"), bitRate_bps: 10.3125e9 });
+    expect(b.status).toBe(201);
+    const budgetId = (await b.json()).id;
+    const before = await rowCounts();
+    const res = await designer.send("POST", "/api/v1/tap-tables", tableRequest({ budgetId }));
+    expect(res.status).toBe(422);
+    expect((await res.json()).error).toMatchObject({ path: "budgetId", message: expect.stringMatching(/bitRate_bps/) });
+    const study = await designer.send("POST", "/api/v1/studies", { channelIds: pop.channelIds, budgetId });
+    expect(study.status).toBe(422);
+    expect((await rowCounts()).jobs).toBe(before.jobs);
+  });
 
   it("a table name is taken only once (409)", async () => {
     const name = unique("Taken");

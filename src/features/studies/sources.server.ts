@@ -2,6 +2,8 @@
 // inside the caller's transaction so that the copy and the work it starts agree.
 import { inArray, eq } from "drizzle-orm";
 import { budgetSchema, type Budget, type BudgetInput } from "@lib/contract/budget";
+import { searchSpace } from "@lib/optimize";
+import { pulseFromJson } from "@lib/pulse";
 import { budgets, channels, type StoredPulse } from "@/db/schema";
 import type { DbOrTx } from "@/server/db.server";
 import { notFound, unprocessable } from "@/server/http/errors";
@@ -65,6 +67,22 @@ export async function channelCopies(tx: DbOrTx, ids: readonly number[], path = "
   const list = ids.map((id) => byId.get(id)!);
   checkOneRate(list, path);
   return list;
+}
+
+/**
+ * Whether the engine accepts this budget for these channels (their symbol rate against the budget's
+ * bit rate, the grids): 422 with the engine's message otherwise, before any job is queued.
+ */
+export function checkBudgetFits(budget: BudgetInput, name: string, list: readonly ChannelCopy[], path = "budgetId"): void {
+  if (list.length === 0) return;
+  try {
+    searchSpace(pulseFromJson(list[0].pulse), budget);
+  } catch (e) {
+    if (e instanceof RangeError || e instanceof TypeError) {
+      throw unprocessable(`The budget “${name}” does not fit “${list[0].name}”: ${e.message}`, path);
+    }
+    throw e;
+  }
 }
 
 /** The channels without their pulses (for API answers: pulses are large). */

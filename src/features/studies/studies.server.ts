@@ -9,7 +9,7 @@ import { recordAudit } from "@/server/audit/audit.server";
 import { enqueueJob, jobStatus, pumpJobs, registerJobKind } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { defaultCandidates } from "./architecture";
-import { budgetCopy, channelCopies, withoutPulses } from "./sources.server";
+import { budgetCopy, channelCopies, checkBudgetFits, withoutPulses } from "./sources.server";
 import { finishHere, type RunHere } from "./inlineJob.server";
 import type { StudyBudgetChoice } from "./newStudyStore";
 import type { CreateStudyRequest, DecisionRequest, DecisionView, StudyInputs, StudyResult } from "./studies";
@@ -25,6 +25,7 @@ export async function startStudy(user: SessionUser, req: CreateStudyRequest, her
   const { id, jobId, inputs } = await db.transaction(async (tx) => {
     const budget = await budgetCopy(tx, req.budgetId);
     const chans = await channelCopies(tx, req.channelIds);
+    checkBudgetFits(budget.params, budget.name, chans);
     const maxDfe = budget.budget.dfe.taps > 0 ? budget.budget.dfe.taps : DEFAULT_MAX_DFE;
     const candidates = req.candidates ?? defaultCandidates(budget.budget.tx, maxDfe);
     const inputs: StudyInputs = { budget: { id: budget.id, name: budget.name, params: budget.params }, channels: chans, candidates };

@@ -10,11 +10,11 @@ import { enqueueJob, jobStatus, pumpJobs, registerJobKind } from "@/server/jobs/
 import type { SessionUser } from "@/server/auth/sessionUser";
 import type { Architecture } from "@/features/studies/architecture";
 import type { StudyInputs } from "@/features/studies/studies";
-import { budgetCopy, channelCopies, checkOneRate, findChannels, parseBudget, type BudgetCopy, type ChannelCopy } from "@/features/studies/sources.server";
+import { budgetCopy, channelCopies, checkBudgetFits, checkOneRate, findChannels, parseBudget, type BudgetCopy, type ChannelCopy } from "@/features/studies/sources.server";
 import { classesOf, groupingChannelIds, GroupingError } from "./grouping";
 import { defaultRegisterMap, type RegisterField } from "./registerMap";
 import { checkRegisterMap } from "./registerCheck";
-import { tableArchitectureProblem } from "./architectureBudget";
+import { budgetForArchitecture, tableArchitectureProblem } from "./architectureBudget";
 import { finishHere, type RunHere } from "@/features/studies/inlineJob.server";
 import { diffVersions } from "./diff";
 import { renderExport, exportFilename, exportMediaType, type ExportModel } from "./exports";
@@ -74,6 +74,7 @@ function versionInputs(
   if (problem) throw unprocessable(problem, arch.study ? "studyId" : "architecture");
   const map = registerMap ?? defaultRegisterMap(arch.architecture, budget.budget);
   checkRegisterMap(map, arch.architecture, budget.budget);
+  checkBudgetFits(budgetForArchitecture(budget.budget, arch.architecture), budget.name, [...chans.values()]);
   let classes;
   try {
     classes = classesOf(grouping, chans);
