@@ -113,8 +113,9 @@ function floorStep(x: number, step: number): number {
 }
 
 /**
- * Starting points for one CTLE channel: zero-forcing and MMSE FIRs on the channel's cursors at
- * phase 0 (MMSE regularized by the noise relative to the swing), scaled to the peak swing and
+ * Starting points for one CTLE channel: the plain FIR (no side taps: the CTLE and the DFE do the
+ * rest — often near the optimum with a DFE), and zero-forcing and MMSE FIRs on the channel's cursors
+ * at phase 0 (MMSE regularized by the noise relative to the swing), scaled to the peak swing and
  * projected onto the FIR grid (each side tap rounded to the step and clamped into its range, the
  * main tap as large as the swing allows). Illegal or failing starts are left out.
  */
@@ -122,7 +123,7 @@ export function startingPoints(channel: CtleChannel, space: SearchSpace): Float6
   const spec = space.firSpec;
   const ranges = resolveTapRanges(spec);
   const cursors = { h: channel.cursors(0), main: channel.pre };
-  const raw: Float64Array[] = [];
+  const raw: Float64Array[] = [Float64Array.from({ length: spec.pre + 1 + spec.post }, (_, j) => (j === spec.pre ? 1 : 0))];
   try {
     const m = mmseEqualizer(cursors, spec.pre, spec.post, channel.noiseRms_V / space.scale_V).taps;
     let s = 0;
@@ -165,8 +166,8 @@ class Found extends Error {}
  * closed form, for each requested DFE count, maximizing the limiter headroom at the target BER under
  * the budget's sampling policy.
  *
- * The MMSE and zero-forcing starting points of every CTLE setting are bounded first, and the CTLE
- * settings are then searched best first. Per CTLE setting the side taps are searched depth-first,
+ * The starting points of every CTLE setting (plain, MMSE and zero-forcing FIRs) are bounded first,
+ * and the CTLE settings are then searched best first. Per CTLE setting the side taps are searched depth-first,
  * one per level; every box of settings is bounded by {@link boxBound} over the sampling phases the
  * policy can choose for it, and dropped when nothing in it can beat the threshold (the K-th best
  * headroom found so far for the first DFE count, the best for the others). Leaves pass four tiers:
@@ -684,24 +685,27 @@ export function jointSearch(
     let order: number[];
     if (given !== undefined) order = [...given];
     else {
-      // Order the CTLE settings by the single-law bound of the first member's first starting point
-      // (the least over the members).
+      // Order the CTLE settings by the best light bound of their starting points (for the first DFE
+      // count; per starting point the least over the members): close to the best of their exact
+      // figures, so the setting searched first usually holds the optimum and sets the threshold.
       const keys = space.ctleSettings.map((_, i) => {
         const ctx = contextOf(i);
-        const s = seedList(i)[0];
-        if (s === undefined) return Number.NEGATIVE_INFINITY;
-        let key = Number.POSITIVE_INFINITY;
-        for (const mc of ctx.members) {
-          const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(mc.channel, space, s);
-          const ub = leafBound(mc.setup, mc.coef, phase, s, counts[0], mc.scratch);
-          const jj = mc.scratch[mc.setup.offsets.length];
-          const v =
-            mc.setup.shifts.length === 0
-              ? ub
-              : heavyPhaseBound(space, prepareEye(mc.channel, space, s, counts[0], phase), mc.setup.shifts[jj], mc.setup.weights[jj]);
-          key = Math.min(key, v);
+        let best = Number.NEGATIVE_INFINITY;
+        for (const s of seedList(i)) {
+          let key = Number.POSITIVE_INFINITY;
+          for (const mc of ctx.members) {
+            const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(mc.channel, space, s);
+            const ub = leafBound(mc.setup, mc.coef, phase, s, counts[0], mc.scratch);
+            const jj = mc.scratch[mc.setup.offsets.length];
+            const light =
+              mc.setup.shifts.length === 0
+                ? ub
+                : lightPhaseBound(space, prepareEye(mc.channel, space, s, counts[0], phase), mc.setup.shifts[jj], mc.setup.weights[jj]);
+            key = Math.min(key, ub, light);
+          }
+          if (key > best) best = key;
         }
-        return key;
+        return best;
       });
       order = keys.map((_, i) => i).sort((a, b) => keys[b] - keys[a] || a - b);
     }

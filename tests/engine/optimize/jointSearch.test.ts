@@ -146,13 +146,22 @@ describe("light bound", () => {
 });
 
 describe("startingPoints", () => {
-  it("MMSE and zero-forcing starts are legal settings of the FIR grid", () => {
+  it("plain, MMSE and zero-forcing starts are legal settings of the FIR grid; the plain one comes first", () => {
     const space = searchSpace(channel, budget("centre", "nrz", false));
     for (const ch of prepareChannels(channel, space).channels) {
       const s = startingPoints(ch, space);
-      expect(s.length).toBeGreaterThan(0);
+      expect(s.length).toBeGreaterThan(1);
       for (const t of s) expect(isLegalTxFir(t, space.firSpec)).toBe(true);
+      // The side tap ranges [−0.25, 0] and [−0.35, 0.1] hold 0, so the plain FIR has no side taps.
+      expect(Array.from(s[0])).toEqual([0, 1, 0]);
     }
+  });
+
+  it("a side tap whose range excludes 0 starts at the grid value nearest 0", () => {
+    const b = budget("centre", "nrz", false);
+    const space = searchSpace(channel, { ...b, tx: { ...b.tx, ranges: [[-0.25, -0.1], [0.5, 1], [-0.35, 0.1]] } });
+    const s = startingPoints(prepareChannels(channel, space).channels[0], space)[0];
+    expect(Array.from(s).map((c) => Math.round(c * 1e9) / 1e9)).toEqual([-0.1, 0.9, 0]);
   });
 });
 
