@@ -119,6 +119,7 @@ describe("exports", () => {
       expect(header).toContain(`#define ${P}_${f.name.toUpperCase()}_SIGNED ${f.signed ? 1 : 0}`);
     }
     expect(header).toMatch(/NOT SIGNED OFF \(ready\)/);
+    for (const id of ["CLASS_LOSS_LT_10_DB = 0", "CLASS_LOSS_10_TO_20_DB = 1", "CLASS_LOSS_GE_20_DB = 2"]) expect(header).toContain(`${P}_${id}`);
     expect(header).toContain(`#define ${P}_SIGNED_OFF 0`);
   });
 

@@ -165,7 +165,7 @@ function toCHeader(m: ExportModel): string {
     lines.push(`#define ${F}_MIN_CODE (${lo})`);
     lines.push(`#define ${F}_MAX_CODE (${hi})`, "");
   }
-  const classIds = uniqueIdentifiers(m.classes.map((c) => slug(c.name, 32).toUpperCase()));
+  const classIds = uniqueIdentifiers(m.classes.map((c) => classIdentifier(c.name)));
   lines.push(`enum ${p}_class {`);
   m.classes.forEach((c, i) => lines.push(`  ${P}_CLASS_${classIds[i]} = ${i}, /* ${commentText(c.name)} */`));
   lines.push("};", "");
@@ -180,6 +180,12 @@ function toCHeader(m: ExportModel): string {
   });
   lines.push("};", "", `#endif /* ${guard} */`, "");
   return lines.join("\n");
+}
+
+/** A class name as a C identifier, its comparisons spelled out: "Loss ≥ 16 dB" → LOSS_GE_16_DB, "Loss 12–20 dB" → LOSS_12_TO_20_DB. */
+function classIdentifier(name: string): string {
+  const spelled = name.replace(/≥|>=/g, " ge ").replace(/≤|<=/g, " le ").replace(/</g, " lt ").replace(/>/g, " gt ").replace(/[–—]/g, " to ");
+  return slug(spelled, 32).toUpperCase();
 }
 
 /** Makes identifiers unique by suffixing repeats with _2, _3, … */
