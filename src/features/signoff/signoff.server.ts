@@ -26,14 +26,9 @@ function link(path: string): string {
  */
 export type Delivery = "now" | "later";
 
-/**
- * Delivers the outbox after a commit. A delivery loop already running took its batch before this
- * message was queued, so a second pass follows it (otherwise the message would wait for the retry).
- */
+/** Delivers the outbox after a commit (a pass already running is followed by another). */
 function sendMailSoon() {
-  void deliverQueuedMail()
-    .then(() => deliverQueuedMail())
-    .catch((e) => console.error("[tapwright] mail delivery:", e));
+  void deliverQueuedMail().catch((e) => console.error("[tapwright] mail delivery:", e));
 }
 
 /** People who may decide a sign-off (reviewers and admins). */

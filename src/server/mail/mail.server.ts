@@ -32,37 +32,54 @@ export async function enqueueMail(tx: DbOrTx, mail: Mail): Promise<void> {
 }
 
 let delivering: Promise<void> | null = null;
+let passRequested = false;
 
-/** Sends every queued message (one delivery loop at a time); failures stay queued for a retry. */
+/** One pass over the outbox: sends what is queued; failures stay queued for a retry. */
+async function deliveryPass(): Promise<void> {
+  const queued = await db
+    .select()
+    .from(mailOutbox)
+    .where(and(eq(mailOutbox.status, "queued"), lt(mailOutbox.attempts, MAX_ATTEMPTS)))
+    .orderBy(asc(mailOutbox.id))
+    .limit(50);
+  if (queued.length === 0) return;
+  const t = transport();
+  try {
+    for (const m of queued) {
+      try {
+        await t.sendMail({
+          from: process.env.MAIL_FROM ?? "Tapwright <no-reply@tapwright.test>",
+          to: m.toAddress,
+          subject: m.subject,
+          text: m.bodyText,
+        });
+        await db.update(mailOutbox).set({ status: "sent", sentAt: new Date(), attempts: m.attempts + 1 }).where(eq(mailOutbox.id, m.id));
+      } catch (e) {
+        const attempts = m.attempts + 1;
+        await db
+          .update(mailOutbox)
+          .set({ attempts, lastError: String((e as Error).message).slice(0, 1000), status: attempts >= MAX_ATTEMPTS ? "failed" : "queued" })
+          .where(eq(mailOutbox.id, m.id));
+      }
+    }
+  } finally {
+    t.close();
+  }
+}
+
+/**
+ * Delivers the outbox, one delivery loop at a time. A call made while a pass runs asks for one
+ * more pass (the running one took its batch before the caller's message was queued), and its
+ * promise settles when that pass is done.
+ */
 export function deliverQueuedMail(): Promise<void> {
+  passRequested = true;
   delivering ??= (async () => {
     try {
-      const queued = await db
-        .select()
-        .from(mailOutbox)
-        .where(and(eq(mailOutbox.status, "queued"), lt(mailOutbox.attempts, MAX_ATTEMPTS)))
-        .orderBy(asc(mailOutbox.id))
-        .limit(50);
-      if (queued.length === 0) return;
-      const t = transport();
-      for (const m of queued) {
-        try {
-          await t.sendMail({
-            from: process.env.MAIL_FROM ?? "Tapwright <no-reply@tapwright.test>",
-            to: m.toAddress,
-            subject: m.subject,
-            text: m.bodyText,
-          });
-          await db.update(mailOutbox).set({ status: "sent", sentAt: new Date(), attempts: m.attempts + 1 }).where(eq(mailOutbox.id, m.id));
-        } catch (e) {
-          const attempts = m.attempts + 1;
-          await db
-            .update(mailOutbox)
-            .set({ attempts, lastError: String((e as Error).message).slice(0, 1000), status: attempts >= MAX_ATTEMPTS ? "failed" : "queued" })
-            .where(eq(mailOutbox.id, m.id));
-        }
+      while (passRequested) {
+        passRequested = false;
+        await deliveryPass();
       }
-      t.close();
     } finally {
       delivering = null;
     }
