@@ -1,13 +1,19 @@
 #!/usr/bin/env node
 // `npm run --silent engine -- <command>`: the engine's JSON command line. Runs a bundle of
-// lib/cli/main.ts (dist/engine-cli.mjs), rebuilt with esbuild whenever a file in lib/ is newer,
-// so that a call costs Node's start-up rather than a TypeScript compile.
-import { existsSync, readdirSync, renameSync, statSync } from "node:fs";
+// lib/cli/main.ts with every package inlined (dist/engine-cli.js: one file, no module resolution at
+// start), rebuilt with esbuild whenever a file in lib/ is newer. The code V8 compiles while serving
+// a command is kept per command (dist/engine-cli-cache/<command>.bin, V8's code cache) and handed
+// back on the next call, so that a call costs little more than Node's own start-up.
+import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from "node:fs";
+import { createRequire } from "node:module";
 import { join } from "node:path";
-import { pathToFileURL } from "node:url";
+import vm from "node:vm";
 import { distDir, root } from "./lib/config.mjs";
 
-const bundle = join(distDir, "engine-cli.mjs");
+const bundle = join(distDir, "engine-cli.js");
+const cacheDir = join(distDir, "engine-cli-cache");
+/** The name the bundle gives its exports (an IIFE: no `module`/`exports` in scope for UMD packages). */
+const globalName = "tapwrightEngineCli";
 
 function newestSource_ms(dir) {
   let newest = 0;
@@ -19,20 +25,58 @@ function newestSource_ms(dir) {
   return newest;
 }
 
-if (!existsSync(bundle) || statSync(bundle).mtimeMs < newestSource_ms(join(root, "lib"))) {
+function bundleTime_ms() {
+  try {
+    return statSync(bundle).mtimeMs;
+  } catch {
+    return -1;
+  }
+}
+
+if (bundleTime_ms() < newestSource_ms(join(root, "lib"))) {
   const { build } = await import("esbuild");
-  // Written aside and renamed, so that concurrent calls never import a half-written bundle.
-  const fresh = `${bundle}.${process.pid}.tmp.mjs`;
+  // Written aside and renamed, so that concurrent calls never load a half-written bundle.
+  const fresh = `${bundle}.${process.pid}.tmp`;
   await build({
     entryPoints: [join(root, "lib", "cli", "main.ts")],
     outfile: fresh,
     bundle: true,
     platform: "node",
-    format: "esm",
+    format: "iife",
+    globalName,
     target: "node20",
-    packages: "external",
     logLevel: "error",
   });
   renameSync(fresh, bundle);
+  rmSync(cacheDir, { recursive: true, force: true });
 }
-await import(pathToFileURL(bundle).href);
+
+// Only command names get a cache file (the argument is the user's).
+const command = process.argv[2];
+const cacheFile = typeof command === "string" && /^[a-z][a-z0-9-]{0,39}$/.test(command) ? join(cacheDir, `${command}.bin`) : null;
+let cachedData;
+if (cacheFile !== null) {
+  try {
+    cachedData = readFileSync(cacheFile);
+  } catch {
+    cachedData = undefined;
+  }
+}
+const script = new vm.Script(`(function (require) {${readFileSync(bundle, "utf8")}\nreturn ${globalName};\n})`, {
+  filename: bundle,
+  cachedData,
+});
+const engine = script.runInThisContext()(createRequire(bundle));
+await engine.served;
+// Saved after a served request only (exit 0), so that the cache holds that command's code.
+if (cacheFile !== null && process.exitCode === 0 && (cachedData === undefined || script.cachedDataRejected)) {
+  // A cache is an optimization only: failing to write one changes nothing else.
+  try {
+    mkdirSync(cacheDir, { recursive: true });
+    const fresh = `${cacheFile}.${process.pid}.tmp`;
+    writeFileSync(fresh, script.createCachedData());
+    renameSync(fresh, cacheFile);
+  } catch {
+    // read-only or full disk: run without a cache next time too
+  }
+}

@@ -2,8 +2,13 @@
 import process from "node:process";
 import { runCommand } from "./runCommand.ts";
 
-const chunks: Uint8Array[] = [];
-for await (const chunk of process.stdin) chunks.push(chunk as Uint8Array);
-const result = runCommand(process.argv[2], Buffer.concat(chunks).toString("utf8"));
-process.stdout.write(`${result.text}\n`);
-process.exitCode = result.exitCode;
+async function serve(): Promise<void> {
+  const chunks: Uint8Array[] = [];
+  for await (const chunk of process.stdin) chunks.push(chunk as Uint8Array);
+  const result = runCommand(process.argv[2], Buffer.concat(chunks).toString("utf8"));
+  process.stdout.write(`${result.text}\n`);
+  process.exitCode = result.exitCode;
+}
+
+/** Settles once the response is written (the launcher then saves the code it compiled). */
+export const served: Promise<void> = serve();
