@@ -54,39 +54,65 @@ export function channelFor(pulse: Pulse, space: SearchSpace, setting: CtleSettin
 export function ctleChannel(plan: CtlePlan, space: SearchSpace, setting: CtleSetting, maxPhase: number): CtleChannel {
   if (!Number.isInteger(maxPhase) || maxPhase < 0) throw new RangeError(`maxPhase must be an integer ≥ 0, got ${maxPhase}`);
   const params: CtleParams = { ...space.ctleCorners, gDc_dB: setting.gDc_dB, gDc2_dB: setting.gDc2_dB };
-  const pulse = plan.apply(params);
+  return filteredChannel(plan.apply(params), space, setting, maxPhase);
+}
+
+/**
+ * A channel from the pulse already filtered by the CTLE setting `setting` (e.g. by
+ * `ctleGridPulses`): its noise at the limiter and its cursors per phase.
+ *
+ * @param filtered - the CTLE output for a 1 V symbol, `mainIndex` at its peak.
+ * @param space - the resolved budget (corners, noise).
+ * @param setting - the gains the pulse was filtered with.
+ * @param maxPhase - largest |phase| in samples that will be asked for (sizes the cursor window).
+ */
+export function filteredChannel(filtered: Pulse, space: SearchSpace, setting: CtleSetting, maxPhase: number): CtleChannel {
+  if (!Number.isInteger(maxPhase) || maxPhase < 0) throw new RangeError(`maxPhase must be an integer ≥ 0, got ${maxPhase}`);
+  const params: CtleParams = { ...space.ctleCorners, gDc_dB: setting.gDc_dB, gDc2_dB: setting.gDc2_dB };
   const b = space.budget;
   const noisePowerGain = b.inputNoiseRms_V > 0 ? ctleNoiseGain(params, space.baud_Hz / 2) : 1;
-  const noiseRms_V = limiterNoise(b.noiseRms_V, b.inputNoiseRms_V, noisePowerGain);
-  const spu = pulse.samplesPerUi;
-  const v = pulse.values_V;
-  const m = pulse.mainIndex;
-  const pre = Math.ceil((m + maxPhase) / spu) + 1;
-  const length = pre + Math.ceil((v.length - m + maxPhase) / spu) + 2;
-  const cache = new Map<number, Float64Array>();
-  return {
-    setting,
-    params,
-    pulse,
-    noiseRms_V,
-    noisePowerGain,
-    pre,
-    length,
-    cursors(p: number): Float64Array {
-      let h = cache.get(p);
-      if (h !== undefined) return h;
-      if (!Number.isInteger(p) || Math.abs(p) > maxPhase) {
-        throw new RangeError(`phase ${p} is outside the prepared window ±${maxPhase} samples`);
-      }
-      h = new Float64Array(length);
-      for (let i = 0; i < length; i++) {
-        const idx = m + p + (i - pre) * spu;
-        if (idx >= 0 && idx < v.length) h[i] = v[idx];
-      }
-      cache.set(p, h);
-      return h;
-    },
-  };
+  return new FilteredChannel(setting, params, filtered, limiterNoise(b.noiseRms_V, b.inputNoiseRms_V, noisePowerGain), noisePowerGain, maxPhase);
+}
+
+/** {@link CtleChannel} with its cursors computed per phase on first use. */
+class FilteredChannel implements CtleChannel {
+  readonly pre: number;
+  readonly length: number;
+  readonly #cache = new Map<number, Float64Array>();
+  readonly #maxPhase: number;
+
+  constructor(
+    readonly setting: CtleSetting,
+    readonly params: CtleParams,
+    readonly pulse: Pulse,
+    readonly noiseRms_V: number,
+    readonly noisePowerGain: number,
+    maxPhase: number,
+  ) {
+    const spu = pulse.samplesPerUi;
+    const m = pulse.mainIndex;
+    this.pre = Math.ceil((m + maxPhase) / spu) + 1;
+    this.length = this.pre + Math.ceil((pulse.values_V.length - m + maxPhase) / spu) + 2;
+    this.#maxPhase = maxPhase;
+  }
+
+  cursors(p: number): Float64Array {
+    let h = this.#cache.get(p);
+    if (h !== undefined) return h;
+    if (!Number.isInteger(p) || Math.abs(p) > this.#maxPhase) {
+      throw new RangeError(`phase ${p} is outside the prepared window ±${this.#maxPhase} samples`);
+    }
+    const { values_V: v, mainIndex: m, samplesPerUi: spu } = this.pulse;
+    const n = this.length;
+    const pre = this.pre;
+    h = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const idx = m + p + (i - pre) * spu;
+      if (idx >= 0 && idx < v.length) h[i] = v[idx];
+    }
+    this.#cache.set(p, h);
+    return h;
+  }
 }
 
 /**

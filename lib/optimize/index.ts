@@ -1,4 +1,5 @@
 export * from "./ctleChannel.ts";
+export * from "./ctleGridPulses.ts";
 export * from "./evaluateSetting.ts";
 export * from "./headroomBound.ts";
 export * from "./jointSearch.ts";

@@ -1,12 +1,12 @@
 // The joint search over CTLE grid × transmit FIR grid × closed-form DFE: branch and bound over the
 // FIR taps with rigorous headroom bounds, so the answer equals exhaustive evaluation of the grid.
 import { criterionLag, defaultPhaseWindow } from "../clocking/samplingPhase.ts";
-import { createCtlePlan } from "../equalizers/ctlePlan.ts";
 import { resolveTapRanges, TAP_TOLERANCE } from "../equalizers/txFirConstraints.ts";
 import { mmseEqualizer } from "../solvers/mmse.ts";
 import { zeroForcing } from "../solvers/zeroForcing.ts";
 import type { Pulse } from "../types.ts";
-import { type CtleChannel, ctleChannel, phaseReach } from "./ctleChannel.ts";
+import { type CtleChannel, filteredChannel, phaseReach } from "./ctleChannel.ts";
+import { ctleGridPulses } from "./ctleGridPulses.ts";
 import { criterionPhaseOf, finishEye, heavyPhaseBound, lightPhaseBound, type PhaseEye, prepareEye } from "./evaluateSetting.ts";
 import {
   type BoundSetup,
@@ -92,11 +92,11 @@ export interface PreparedChannels {
   readonly channels: readonly CtleChannel[];
 }
 
-/** Filters the pulse through every CTLE setting of the grid (one FFT plan, one inverse per setting). */
+/** Filters the pulse through every CTLE setting of the grid ({@link ctleGridPulses}: four inverse FFTs in all). */
 export function prepareChannels(pulse: Pulse, space: SearchSpace): PreparedChannels {
-  const plan = createCtlePlan(pulse);
   const maxPhase = phaseReach(space, pulse.samplesPerUi);
-  return { channels: space.ctleSettings.map((s) => ctleChannel(plan, space, s, maxPhase)) };
+  const pulses = ctleGridPulses(pulse, space.ctleCorners, space.ctleSettings);
+  return { channels: space.ctleSettings.map((s, i) => filteredChannel(pulses[i], space, s, maxPhase)) };
 }
 
 /** Integer grid indices k with k·step in [min, max] (the enumeration's own rule). */
@@ -267,6 +267,9 @@ export function jointSearch(
     firstShift: number;
     crit: Map<number, Float64Array>;
     scratch: Float64Array;
+    /** The sampling phases the policy may choose for the leaf being evaluated (`leafSerial`). */
+    leafPhases: readonly number[];
+    leafSerial: number;
   }
   interface Ctx {
     ci: number;
@@ -327,9 +330,13 @@ export function jointSearch(
 
   // One member's figure for a setting: the three tiers over the policy's phases. Returns its eye when
   // known exactly (and at least every pruned phase's bound), else null and a bound on its headroom.
+  let leafSerial = 0;
   const memberLeaf = (mc: Member, taps: Float64Array, o: number): { eye: PhaseEye | null; ub: number } => {
-    const criterion = space.policy === "max-height" ? null : criterionPhaseOf(mc.channel, space, taps);
-    const phases = criterion === null ? allPhases : [criterion];
+    if (mc.leafSerial !== leafSerial) {
+      mc.leafPhases = space.policy === "max-height" ? allPhases : [criterionPhaseOf(mc.channel, space, taps)];
+      mc.leafSerial = leafSerial;
+    }
+    const phases = mc.leafPhases;
     let bestEye: PhaseEye | null = null;
     let worstPruned = Number.NEGATIVE_INFINITY;
     for (const t of phases) {
@@ -370,6 +377,7 @@ export function jointSearch(
     if (ctx.seen.has(key)) return;
     ctx.seen.add(key);
     stats.leaves++;
+    leafSerial++;
     const M = ctx.members.length;
     for (let o = 0; o < O; o++) {
       if (!alive[o]) continue;
@@ -454,29 +462,33 @@ export function jointSearch(
     // A small tolerance keeps rounding differences from hiding a phase the leaf would choose.
     const eps = 1e-12 * space.scale_V;
     critSerial++;
-    const range = (t: number) => {
-      const i = t - window.lo;
-      if (critStamp[i] !== critSerial) {
-        boxRange(box, critAt(mc, t), T, critRange);
-        critLo[i] = critRange[0];
-        critHi[i] = critRange[1];
-        critStamp[i] = critSerial;
+    let out: number[] | null = null;
+    for (let n = 0; n < parent.length; n++) {
+      const t = parent[n];
+      // A crossing at u (F(u−1) < 0 ≤ F(u)) may lock at u − 1 or u: t is kept for a crossing at t or t + 1.
+      let keep = false;
+      for (let u = t; u <= t + 1 && !keep; u++) {
+        if (u - 1 < window.lo || u > window.hi) continue;
+        keep = critLo[critIndex(mc, u - 1)] < eps && critHi[critIndex(mc, u)] >= -eps;
       }
-      return i;
-    };
-    // A crossing at t (F(t−1) < 0 ≤ F(t)) may lock at t − 1 or t.
-    const crossing = (t: number): boolean => {
-      if (t - 1 < window.lo || t > window.hi) return false;
-      return critLo[range(t - 1)] < eps && critHi[range(t)] >= -eps;
-    };
-    const out: number[] = [];
-    for (const t of parent) {
-      let keep = crossing(t) || crossing(t + 1);
-      if (!keep && t === window.lo) keep = critHi[range(t)] >= -eps; // no crossing and F(lo) ≥ 0
-      if (!keep && t === window.hi) keep = critLo[range(t)] < eps; // no crossing and F(hi) < 0
-      if (keep) out.push(t);
+      if (!keep && t === window.lo) keep = critHi[critIndex(mc, t)] >= -eps; // no crossing and F(lo) ≥ 0
+      if (!keep && t === window.hi) keep = critLo[critIndex(mc, t)] < eps; // no crossing and F(hi) < 0
+      if (keep) {
+        if (out !== null) out.push(t);
+      } else if (out === null) out = parent.slice(0, n);
     }
-    return out.length === parent.length ? parent : out;
+    return out ?? parent;
+  };
+  // Index of phase t in the criterion range buffers, filled for the current box when first asked.
+  const critIndex = (mc: Member, t: number): number => {
+    const i = t - window.lo;
+    if (critStamp[i] !== critSerial) {
+      boxRange(box, critAt(mc, t), T, critRange);
+      critLo[i] = critRange[0];
+      critHi[i] = critRange[1];
+      critStamp[i] = critSerial;
+    }
+    return i;
   };
 
   // Bound of a box: per member the largest bound over its phases, then the least over members. A
@@ -513,7 +525,9 @@ export function jointSearch(
     readonly hi: [Int32Array, Int32Array];
     readonly alive: [boolean[], boolean[]];
     readonly score: Float64Array;
+    /** Phases per member of each half: `own[h]` when bounded here, the parent's for a single setting. */
     readonly phases: (readonly (readonly number[])[])[];
+    readonly own: (readonly number[])[][];
   }
   const levels: Level[] = [];
   const levelAt = (d: number): Level => {
@@ -524,6 +538,7 @@ export function jointSearch(
         alive: [new Array<boolean>(O).fill(false), new Array<boolean>(O).fill(false)],
         score: new Float64Array(2),
         phases: [[], []],
+        own: [[], []],
       });
     }
     return levels[d];
@@ -567,7 +582,8 @@ export function jointSearch(
     }
     const L = levelAt(depth);
     let live = 0;
-    const order = [-1, -1];
+    let first = -1;
+    let second = -1;
     for (let h = 0; h < 2; h++) {
       const clo = L.lo[h];
       const chi = L.hi[h];
@@ -583,12 +599,20 @@ export function jointSearch(
         for (let o = 0; o < O; o++) childAlive[o] = alive[o];
         L.score[h] = Number.POSITIVE_INFINITY;
         L.phases[h] = parentPhases;
-        order[live++] = h;
+        if (live++ === 0) first = h;
+        else second = h;
         continue;
       }
       if (!makeBox(clo, chi)) continue;
-      for (const mc of ctx.members) mc.ranges.reset(box);
-      const phases = ctx.members.map((mc, m) => boxPhases(mc, parentPhases[m]));
+      const M = ctx.members.length;
+      const phases = L.own[h];
+      phases.length = M;
+      L.phases[h] = phases;
+      for (let m = 0; m < M; m++) {
+        const mc = ctx.members[m];
+        mc.ranges.reset(box);
+        phases[m] = boxPhases(mc, parentPhases[m]);
+      }
       let score = Number.NEGATIVE_INFINITY;
       let any = false;
       let firstAlive = true;
@@ -606,19 +630,17 @@ export function jointSearch(
       // A live half stays live: its bound may be partial (see boxValue), so it is not re-tested here.
       if (any) {
         L.score[h] = score;
-        L.phases[h] = phases;
-        order[live++] = h;
+        if (live++ === 0) first = h;
+        else second = h;
       }
     }
-    if (live === 2 && L.score[order[1]] > L.score[order[0]]) {
-      const t = order[0];
-      order[0] = order[1];
-      order[1] = t;
+    if (live === 2 && L.score[second] > L.score[first]) {
+      const t = first;
+      first = second;
+      second = t;
     }
-    for (let i = 0; i < live; i++) {
-      const h = order[i];
-      descend(ctx, L.lo[h], L.hi[h], L.alive[h], L.phases[h], depth + 1);
-    }
+    if (live >= 1) descend(ctx, L.lo[first], L.hi[first], L.alive[first], L.phases[first], depth + 1);
+    if (live === 2) descend(ctx, L.lo[second], L.hi[second], L.alive[second], L.phases[second], depth + 1);
   };
 
   // Each CTLE setting's context is made when the search first needs it.
@@ -654,6 +676,8 @@ export function jointSearch(
           firstShift: 0,
           crit: new Map<number, Float64Array>(),
           scratch: new Float64Array(setup.offsets.length + 4),
+          leafPhases: allPhases,
+          leafSerial: -1,
         };
       }),
     };
