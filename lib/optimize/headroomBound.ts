@@ -278,54 +278,97 @@ function affineRange(box: TapBox, vec: Float64Array, o: number, T: number, out: 
 
 /**
  * The ranges over one box of every watched cursor at any absolute phase, computed when first asked
- * and shared by every sampling phase, jitter phase and DFE count the box is bounded for.
+ * and shared by every sampling phase, jitter phase and DFE count the box is bounded for; and the
+ * ranges of each cursor's change between a sampling phase and a jitter phase around it (what a DFE
+ * tap set at the sampling phase leaves at the jitter phase, when the tap does not clip).
  */
-export interface BoxRanges {
+export class BoxRanges {
   /** Per phase, `2F + 1` numbers: `[lo, hi]` of each watched cursor `f`, then the tail bound. */
   readonly values: Float64Array;
-  /** Starts a new box (its ranges are computed afresh). */
-  reset(box: TapBox): void;
-  /** Offset in `values` of phase `p`'s numbers. */
-  at(p: number): number;
-}
+  /** Per (sampling phase, jitter phase index), `2F` numbers: `[lo, hi]` of cursor f at t + shift minus at t. */
+  readonly diffs: Float64Array;
+  readonly #setup: BoundSetup;
+  readonly #coef: CoefficientSource;
+  readonly #minPhase: number;
+  readonly #count: number;
+  readonly #stamp: Int32Array;
+  readonly #diffStamp: Int32Array;
+  /** Per (sampling phase, jitter phase index), the coefficients of the changes (computed once). */
+  readonly #diffVec: (Float64Array | undefined)[];
+  #serial = 0;
+  #box: TapBox | null = null;
 
-/**
- * Range tables of one channel's boxes for absolute phases `minPhase … maxPhase`.
- *
- * @param setup - the channel's bound constants.
- * @param coef - its watched cursors' coefficients per phase.
- * @param minPhase - lowest absolute phase (samples) asked for.
- * @param maxPhase - highest.
- */
-export function boxRanges(setup: BoundSetup, coef: CoefficientSource, minPhase: number, maxPhase: number): BoxRanges {
-  const F = setup.offsets.length;
-  const T = setup.taps;
-  const width = 2 * F + 1;
-  const count = maxPhase - minPhase + 1;
-  const values = new Float64Array(count * width);
-  const stamp = new Int32Array(count);
-  let serial = 0;
-  let current: TapBox | null = null;
-  return {
-    values,
-    reset(box: TapBox): void {
-      current = box;
-      serial++;
-    },
-    at(p: number): number {
-      const slot = p - minPhase;
-      if (!(slot >= 0 && slot < count)) throw new RangeError(`phase ${p} is outside the box table's ${minPhase} … ${maxPhase}`);
-      const o = slot * width;
-      if (stamp[slot] !== serial) {
-        const box = current as TapBox;
-        const pc = coef(p);
-        for (let f = 0; f < F; f++) affineRange(box, pc.v, f * T, T, values, o + 2 * f);
-        values[o + 2 * F] = pc.tail;
-        stamp[slot] = serial;
+  /**
+   * @param setup - the channel's bound constants.
+   * @param coef - its watched cursors' coefficients per phase.
+   * @param minPhase - lowest absolute phase (samples) asked for.
+   * @param maxPhase - highest.
+   */
+  constructor(setup: BoundSetup, coef: CoefficientSource, minPhase: number, maxPhase: number) {
+    const F = setup.offsets.length;
+    this.#setup = setup;
+    this.#coef = coef;
+    this.#minPhase = minPhase;
+    this.#count = maxPhase - minPhase + 1;
+    this.values = new Float64Array(this.#count * (2 * F + 1));
+    this.#stamp = new Int32Array(this.#count);
+    this.diffs = new Float64Array(this.#count * setup.shifts.length * 2 * F);
+    this.#diffStamp = new Int32Array(this.#count * setup.shifts.length);
+    this.#diffVec = new Array<Float64Array | undefined>(this.#count * setup.shifts.length);
+  }
+
+  /** Starts a new box (its ranges are computed afresh). */
+  reset(box: TapBox): void {
+    this.#box = box;
+    this.#serial++;
+  }
+
+  /** Offset in `values` of phase `p`'s numbers. */
+  at(p: number): number {
+    const slot = p - this.#minPhase;
+    if (!(slot >= 0 && slot < this.#count)) {
+      throw new RangeError(`phase ${p} is outside the box table's ${this.#minPhase} … ${this.#minPhase + this.#count - 1}`);
+    }
+    const F = this.#setup.offsets.length;
+    const T = this.#setup.taps;
+    const o = slot * (2 * F + 1);
+    if (this.#stamp[slot] !== this.#serial) {
+      const box = this.#box as TapBox;
+      const pc = this.#coef(p);
+      for (let f = 0; f < F; f++) affineRange(box, pc.v, f * T, T, this.values, o + 2 * f);
+      this.values[o + 2 * F] = pc.tail;
+      this.#stamp[slot] = this.#serial;
+    }
+    return o;
+  }
+
+  /** Offset in `diffs` of the changes from phase `t` to `t + shifts[jj]`. */
+  diff(t: number, jj: number): number {
+    const S = this.#setup.shifts.length;
+    const F = this.#setup.offsets.length;
+    const T = this.#setup.taps;
+    const slot = (t - this.#minPhase) * S + jj;
+    const o = slot * 2 * F;
+    if (this.#diffStamp[slot] !== this.#serial) {
+      let v = this.#diffVec[slot];
+      if (v === undefined) {
+        const a = this.#coef(t + this.#setup.shifts[jj]).v;
+        const b = this.#coef(t).v;
+        v = new Float64Array(F * T);
+        for (let i = 0; i < F * T; i++) v[i] = a[i] - b[i];
+        this.#diffVec[slot] = v;
       }
-      return o;
-    },
-  };
+      const box = this.#box as TapBox;
+      // Only the cursors a DFE tap may cancel (offsets 1 … number of DFE limits).
+      const offsets = this.#setup.offsets;
+      const dfe = this.#setup.limits_V.length;
+      for (let f = 1; f < F; f++) {
+        if (offsets[f] >= 1 && offsets[f] <= dfe) affineRange(box, v, f * T, T, this.diffs, o + 2 * f);
+      }
+      this.#diffStamp[slot] = this.#serial;
+    }
+    return o;
+  }
 }
 
 /**
@@ -371,8 +414,19 @@ export function boxBound(
           if (m < 0) m = 0;
           sum += big > lim ? big - lim : 0;
         } else {
-          const ra = a - clip(vals[own + 2 * f + 1], lim);
-          const rb = b - clip(vals[own + 2 * f], lim);
+          const wlo = vals[own + 2 * f];
+          const whi = vals[own + 2 * f + 1];
+          let ra: number;
+          let rb: number;
+          if (wlo >= -lim && whi <= lim) {
+            // The tap never clips in the box: the residual is the cursor's change, an affine function.
+            const d = ranges.diff(t, jj);
+            ra = ranges.diffs[d + 2 * f];
+            rb = ranges.diffs[d + 2 * f + 1];
+          } else {
+            ra = a - clip(whi, lim);
+            rb = b - clip(wlo, lim);
+          }
           m = minAbs(ra, rb);
           sum += Math.max(Math.abs(ra), Math.abs(rb));
         }

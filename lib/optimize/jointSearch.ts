@@ -10,11 +10,10 @@ import { ctleGridPulses } from "./ctleGridPulses.ts";
 import { criterionPhaseOf, finishEye, heavyPhaseBound, lightPhaseBound, type PhaseEye, prepareEye } from "./evaluateSetting.ts";
 import {
   type BoundSetup,
-  type BoxRanges,
+  BoxRanges,
   boundSetup,
   boxBound,
   boxRange,
-  boxRanges,
   type CoefficientSource,
   createTapBox,
   leafBound,
@@ -672,7 +671,7 @@ export function jointSearch(
           channel,
           setup,
           coef,
-          ranges: boxRanges(setup, coef, window.lo - reach, window.hi + reach),
+          ranges: new BoxRanges(setup, coef, window.lo - reach, window.hi + reach),
           firstShift: 0,
           crit: new Map<number, Float64Array>(),
           scratch: new Float64Array(setup.offsets.length + 4),

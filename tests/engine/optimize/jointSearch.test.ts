@@ -5,7 +5,7 @@ import { describe, expect, it } from "vitest";
 import { enumerateTxFirs } from "../../../lib/equalizers/enumerateTxFirs.ts";
 import { isLegalTxFir } from "../../../lib/equalizers/txFirConstraints.ts";
 import { evaluateSetting, heavyPhaseBound, lightPhaseBound, phaseEye, prepareEye } from "../../../lib/optimize/evaluateSetting.ts";
-import { boundSetup, leafBound, phaseCoefficients } from "../../../lib/optimize/headroomBound.ts";
+import { BoxRanges, boundSetup, boxBound, createTapBox, leafBound, phaseCoefficients } from "../../../lib/optimize/headroomBound.ts";
 import { jointSearch, prepareChannels, startingPoints } from "../../../lib/optimize/jointSearch.ts";
 import { searchSpace } from "../../../lib/optimize/searchSpace.ts";
 import { cursorPulse } from "../analysis/helpers.ts";
@@ -111,6 +111,112 @@ describe("headroom bounds", () => {
       ),
       { seed: 77, numRuns: 60 },
     );
+  });
+});
+
+describe("box bound", () => {
+  it("property: never below the exact headroom of any setting in the box (jitter, clipped and unclipped DFE taps)", () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom("nrz" as const, "pam4" as const),
+        fc.boolean(),
+        fc.integer({ min: 0, max: 2 }),
+        fc.integer({ min: -3, max: 3 }),
+        fc.integer({ min: 0, max: 4 }),
+        fc.integer({ min: 0, max: 4 }),
+        fc.integer({ min: 0, max: 6 }),
+        fc.integer({ min: 0, max: 3 }),
+        fc.integer({ min: 0, max: 2 }),
+        fc.boolean(),
+        (mod, jit, n, t, preLo, preSpan, postLo, postSpan, ci, limited) => {
+          const b = budget("centre", mod, jit);
+          const space = searchSpace(channel, limited ? b : { ...b, dfe: { taps: 2 } });
+          const ch = prepareChannels(channel, space).channels[ci];
+          const setup = boundSetup(space, ch, 2);
+          const coef = (p: number) => phaseCoefficients(setup, space, ch, p);
+          const ranges = new BoxRanges(setup, coef, -12, 12);
+          // Side taps −k·0.05 on [a, b] (both ≤ 0): the main tap is 1 + pre + post, affine with slope +1.
+          const pre = [-(preLo + preSpan) * 0.05, -preLo * 0.05];
+          const post = [-(postLo + postSpan) * 0.05, -postLo * 0.05];
+          const box = createTapBox(3, 1);
+          box.base.set([0, 1, 0]);
+          let c = 0;
+          for (const [j, [a, b]] of [[0, pre], [2, post]] as const) {
+            if (a === b) {
+              box.base[j] = a;
+              box.base[1] += a;
+              continue;
+            }
+            box.free[c] = j;
+            box.lo[c] = a;
+            box.hi[c] = b;
+            box.mainSlope[c] = 1;
+            c++;
+          }
+          box.count = c;
+          box.mainLo = 0;
+          ranges.reset(box);
+          const bound = boxBound(setup, ranges, t, n, new Float64Array(setup.offsets.length + 4));
+          for (let x = pre[0]; x <= pre[1] + 1e-9; x += 0.05) {
+            for (let y = post[0]; y <= post[1] + 1e-9; y += 0.05) {
+              const taps = Float64Array.of(x, 1 + x + y, y);
+              if (phaseEye(ch, space, taps, n, t).limiterHeadroom_V > bound) return false;
+            }
+          }
+          return true;
+        },
+      ),
+      { seed: 79, numRuns: 80 },
+    );
+  });
+});
+
+describe("BoxRanges", () => {
+  it("oracle: each cursor's range and its change between a sampling and a jitter phase hold every setting of the box, with both ends reached", () => {
+    const space = searchSpace(channel, budget("centre", "nrz", true));
+    const ch = prepareChannels(channel, space).channels[1];
+    const setup = boundSetup(space, ch, 2);
+    const coef = (p: number) => phaseCoefficients(setup, space, ch, p);
+    const ranges = new BoxRanges(setup, coef, -12, 12);
+    const box = createTapBox(3, 1);
+    box.base.set([0, 1, 0]);
+    box.free.set([0, 2]);
+    box.lo.set([-0.2, -0.3]);
+    box.hi.set([-0.05, -0.1]);
+    box.mainSlope.set([1, 1]);
+    box.count = 2;
+    box.mainLo = 0;
+    ranges.reset(box);
+    const F = setup.offsets.length;
+    const t = 1;
+    for (let jj = 0; jj < setup.shifts.length; jj++) {
+      const p = t + setup.shifts[jj];
+      const o = ranges.at(p);
+      const d = ranges.diff(t, jj);
+      for (let f = 0; f < F; f++) {
+        const k = setup.offsets[f];
+        const dfe = k >= 1 && k <= setup.limits_V.length;
+        const seen = [Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY];
+        for (const x of [-0.2, -0.15, -0.1, -0.05]) {
+          for (const y of [-0.3, -0.25, -0.2, -0.15, -0.1]) {
+            const taps = [x, 1 + x + y, y];
+            const at = (q: number) => taps.reduce((s, c, j) => s + c * coef(q).v[f * 3 + j], 0);
+            const v = at(p);
+            const change = at(p) - at(t);
+            seen[0] = Math.min(seen[0], v);
+            seen[1] = Math.max(seen[1], v);
+            seen[2] = Math.min(seen[2], change);
+            seen[3] = Math.max(seen[3], change);
+          }
+        }
+        expect(Math.abs(seen[0] - ranges.values[o + 2 * f])).toBeLessThan(1e-12);
+        expect(Math.abs(seen[1] - ranges.values[o + 2 * f + 1])).toBeLessThan(1e-12);
+        if (dfe) {
+          expect(Math.abs(seen[2] - ranges.diffs[d + 2 * f])).toBeLessThan(1e-12);
+          expect(Math.abs(seen[3] - ranges.diffs[d + 2 * f + 1])).toBeLessThan(1e-12);
+        }
+      }
+    }
   });
 });
 
