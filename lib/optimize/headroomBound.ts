@@ -295,6 +295,8 @@ export class BoxRanges {
   readonly #diffStamp: Int32Array;
   /** Per (sampling phase, jitter phase index), the coefficients of the changes (computed once). */
   readonly #diffVec: (Float64Array | undefined)[];
+  readonly #joint: Float64Array;
+  readonly #pair = new Float64Array(2);
   #serial = 0;
   #box: TapBox | null = null;
 
@@ -315,6 +317,7 @@ export class BoxRanges {
     this.diffs = new Float64Array(this.#count * setup.shifts.length * 2 * F);
     this.#diffStamp = new Int32Array(this.#count * setup.shifts.length);
     this.#diffVec = new Array<Float64Array | undefined>(this.#count * setup.shifts.length);
+    this.#joint = new Float64Array(setup.taps);
   }
 
   /** Starts a new box (its ranges are computed afresh). */
@@ -342,6 +345,51 @@ export class BoxRanges {
     return o;
   }
 
+  /**
+   * Largest value over the box of `gap·g₀(p) − 2·Σ_i sign_i·r_i`, where `r_i` is watched cursor
+   * `fs[i]` at phase `p` (`change[i]` false) or its change from `t` to `p = t + shifts[jj]` (true):
+   * an affine function of the taps, so the maximum is exact.
+   */
+  jointMax(
+    t: number,
+    jj: number,
+    gap: number,
+    fs: Int32Array,
+    signs: Float64Array,
+    change: Uint8Array,
+    n: number,
+  ): number {
+    const T = this.#setup.taps;
+    const v = this.#coef(t + this.#setup.shifts[jj]).v;
+    const w = this.#joint;
+    for (let j = 0; j < T; j++) w[j] = gap * v[j];
+    for (let i = 0; i < n; i++) {
+      const d = change[i] === 1 ? this.#changeVec(t, jj) : v;
+      const o = fs[i] * T;
+      const s = 2 * signs[i];
+      for (let j = 0; j < T; j++) w[j] -= s * d[o + j];
+    }
+    affineRange(this.#box as TapBox, w, 0, T, this.#pair, 0);
+    return this.#pair[1];
+  }
+
+  /** Coefficients of every watched cursor's change from `t` to `t + shifts[jj]` (computed once). */
+  #changeVec(t: number, jj: number): Float64Array {
+    const S = this.#setup.shifts.length;
+    const slot = (t - this.#minPhase) * S + jj;
+    let v = this.#diffVec[slot];
+    if (v === undefined) {
+      const F = this.#setup.offsets.length;
+      const T = this.#setup.taps;
+      const a = this.#coef(t + this.#setup.shifts[jj]).v;
+      const b = this.#coef(t).v;
+      v = new Float64Array(F * T);
+      for (let i = 0; i < F * T; i++) v[i] = a[i] - b[i];
+      this.#diffVec[slot] = v;
+    }
+    return v;
+  }
+
   /** Offset in `diffs` of the changes from phase `t` to `t + shifts[jj]`. */
   diff(t: number, jj: number): number {
     const S = this.#setup.shifts.length;
@@ -350,14 +398,7 @@ export class BoxRanges {
     const slot = (t - this.#minPhase) * S + jj;
     const o = slot * 2 * F;
     if (this.#diffStamp[slot] !== this.#serial) {
-      let v = this.#diffVec[slot];
-      if (v === undefined) {
-        const a = this.#coef(t + this.#setup.shifts[jj]).v;
-        const b = this.#coef(t).v;
-        v = new Float64Array(F * T);
-        for (let i = 0; i < F * T; i++) v[i] = a[i] - b[i];
-        this.#diffVec[slot] = v;
-      }
+      const v = this.#changeVec(t, jj);
       const box = this.#box as TapBox;
       // Only the cursors a DFE tap may cancel (offsets 1 … number of DFE limits).
       const offsets = this.#setup.offsets;
@@ -371,14 +412,23 @@ export class BoxRanges {
   }
 }
 
+/** Largest number of cursors in the joint bound of a box. */
+const JOINT_CURSORS = 3;
+
 /**
  * Upper bound on the limiter headroom of every FIR of a box, sampled at phase `t` with `dfeCount`
- * DFE taps: each watched cursor is affine in the free side taps, so its range over the box is exact;
- * per jitter phase the bound takes the largest main cursor and the smallest residuals independently,
- * and the least bound over the jitter phases counts. The jitter phases are tried from index `first`
- * on (then the others in the setup's order), and the search stops at the first bound at or below
- * `stopAt` (still a valid bound). `scratch` must hold `offsets.length + 4` numbers;
- * `scratch[offsets.length]` receives the index of the jitter phase that gave the bound.
+ * DFE taps. Per jitter phase: each watched cursor is affine in the free side taps, so its range over
+ * the box is exact, and the bound of the k largest residuals (see {@link BoundSetup}) is taken two
+ * ways — with the largest main cursor and the smallest residuals independently, and, for k ≤ 3,
+ * with the main cursor and a fixed set of k residuals together: `L·g₀ − 2·Σ|r_i| ≤ L·g₀ − 2·Σ s_i·r_i`
+ * for any signs `s_i`, an affine function whose maximum over the box is exact (the residuals with
+ * the largest least magnitudes, signed as their ranges; a DFE residual at a jitter phase when its
+ * tap cannot clip, as the cursor's change). The least over the ways and jitter phases counts. The
+ * jitter phases are tried from index `first` on (then the others in the setup's order), and the
+ * search stops at the first bound at or below `stopAt` (still a valid bound). `scratch` must hold
+ * `offsets.length + 4` numbers; `scratch[offsets.length]` receives the index of the jitter phase
+ * that gave the bound, `scratch[offsets.length + 1]` the least independent-way bound (a coarser
+ * figure that orders boxes better: it does not favour the boxes whose joint bound is loose).
  */
 export function boxBound(
   setup: BoundSetup,
@@ -391,9 +441,15 @@ export function boxBound(
 ): number {
   const F = setup.offsets.length;
   const S = setup.shifts.length;
+  const K = setup.offsets.length;
   const vals = ranges.values;
   const own = ranges.at(t);
+  const fs = jointCursors;
+  const signs = jointSigns;
+  const change = jointChange;
+  const mags = jointMags;
   let out = Number.POSITIVE_INFINITY;
+  let loose = Number.POSITIVE_INFINITY;
   let arg = first;
   for (let n = 0; n < S; n++) {
     const jj = n === 0 ? first : n <= first ? n - 1 : n;
@@ -401,11 +457,14 @@ export function boxBound(
     const o = ranges.at(t + shift);
     const g0max = vals[o + 1];
     let sum = 0;
+    let picked = 0;
     for (let f = 1; f < F; f++) {
-      const a = vals[o + 2 * f];
-      const b = vals[o + 2 * f + 1];
+      let a = vals[o + 2 * f];
+      let b = vals[o + 2 * f + 1];
       const k = setup.offsets[f];
       let m: number;
+      let affine = true;
+      let isChange = 0;
       if (k > 0 && k <= dfeCount) {
         const lim = setup.limits_V[k - 1];
         if (shift === 0) {
@@ -413,30 +472,60 @@ export function boxBound(
           m = minAbs(a, b) - lim;
           if (m < 0) m = 0;
           sum += big > lim ? big - lim : 0;
+          affine = false;
         } else {
           const wlo = vals[own + 2 * f];
           const whi = vals[own + 2 * f + 1];
-          let ra: number;
-          let rb: number;
           if (wlo >= -lim && whi <= lim) {
             // The tap never clips in the box: the residual is the cursor's change, an affine function.
             const d = ranges.diff(t, jj);
-            ra = ranges.diffs[d + 2 * f];
-            rb = ranges.diffs[d + 2 * f + 1];
+            a = ranges.diffs[d + 2 * f];
+            b = ranges.diffs[d + 2 * f + 1];
+            isChange = 1;
           } else {
-            ra = a - clip(whi, lim);
-            rb = b - clip(wlo, lim);
+            const ra = a - clip(whi, lim);
+            const rb = b - clip(wlo, lim);
+            a = ra;
+            b = rb;
+            affine = false;
           }
-          m = minAbs(ra, rb);
-          sum += Math.max(Math.abs(ra), Math.abs(rb));
+          m = minAbs(a, b);
+          sum += Math.max(Math.abs(a), Math.abs(b));
         }
       } else {
         m = minAbs(a, b);
         sum += Math.max(Math.abs(a), Math.abs(b));
       }
       scratch[f - 1] = m;
+      // Keep the JOINT_CURSORS affine residuals with the largest least magnitudes.
+      if (affine && m > 0 && (picked < JOINT_CURSORS || m > mags[picked - 1])) {
+        let i = picked < JOINT_CURSORS ? picked++ : picked - 1;
+        while (i > 0 && mags[i - 1] < m) {
+          mags[i] = mags[i - 1];
+          fs[i] = fs[i - 1];
+          signs[i] = signs[i - 1];
+          change[i] = change[i - 1];
+          i--;
+        }
+        mags[i] = m;
+        fs[i] = f;
+        signs[i] = a > 0 ? 1 : -1;
+        change[i] = isChange;
+      }
     }
-    const bound = boundFrom(setup, jj, vals[o + 2 * F], g0max, scratch, F - 1, sum);
+    const tail = vals[o + 2 * F];
+    let bound = boundFrom(setup, jj, tail, g0max, scratch, F - 1, sum);
+    if (bound < loose) loose = bound;
+    if (bound > stopAt && picked > 0) {
+      const delta = (sum + tail + NOISE_TAIL_SIGMAS * setup.noiseRms_V) / DEFAULT_HALF_BINS;
+      for (let k = 1; k <= picked; k++) {
+        const qk = setup.qSigma[jj * K + k];
+        if (Number.isNaN(qk)) break;
+        const eye = ranges.jointMax(t, jj, setup.levelGap, fs, signs, change, k) - 2 * qk + setup.slack[k] * delta;
+        const v = (eye > 0 ? eye : 0) - setup.sensitivity_V;
+        if (v < bound) bound = v;
+      }
+    }
     if (bound < out) {
       out = bound;
       arg = jj;
@@ -444,8 +533,14 @@ export function boxBound(
     if (out <= stopAt) break;
   }
   scratch[F] = arg;
+  scratch[F + 1] = loose;
   return out;
 }
+
+const jointCursors = new Int32Array(JOINT_CURSORS);
+const jointSigns = new Float64Array(JOINT_CURSORS);
+const jointChange = new Uint8Array(JOINT_CURSORS);
+const jointMags = new Float64Array(JOINT_CURSORS);
 
 /** Range over a box of an affine functional given by its per-tap coefficients `vec` (length T). */
 export function boxRange(box: TapBox, vec: Float64Array, T: number, out: Float64Array): void {

@@ -490,6 +490,9 @@ export function jointSearch(
     return i;
   };
 
+  // The coarse figure of the last box bounded (see boxBound), likewise over phases and members: what
+  // the halves are ordered by.
+  let boxScore = 0;
   // Bound of a box: per member the largest bound over its phases, then the least over members. A
   // member's phase scan stops at the first phase that passes the threshold, and the member scan stops
   // at the first member that fails it; so a box that fails carries a true bound, while a box that
@@ -499,19 +502,25 @@ export function jointSearch(
     const thr = target !== undefined ? target - Number.EPSILON : threshold(o);
     const M = ctx.members.length;
     let least = Number.POSITIVE_INFINITY;
+    let leastScore = Number.POSITIVE_INFINITY;
     for (let i = 0; i < M; i++) {
       const m = (ctx.lead + i) % M;
       const mc = ctx.members[m];
       let v = Number.NEGATIVE_INFINITY;
+      let score = Number.NEGATIVE_INFINITY;
       for (const t of phases[m]) {
         const b = boxBound(mc.setup, mc.ranges, t, counts[o], mc.scratch, thr, mc.firstShift);
         if (b <= thr) mc.firstShift = mc.scratch[mc.setup.offsets.length];
         if (b > v) v = b;
+        const coarse = mc.scratch[mc.setup.offsets.length + 1];
+        if (coarse > score) score = coarse;
         if (passes(o, v)) break;
       }
       if (v < least) least = v;
+      if (score < leastScore) leastScore = score;
       if (!passes(o, least)) break;
     }
+    boxScore = leastScore;
     return least;
   };
 
@@ -623,7 +632,7 @@ export function jointSearch(
           childAlive[o] = true;
           any = true;
         } else prune(ctx, o, ub);
-        if (firstAlive) score = ub;
+        if (firstAlive) score = boxScore;
         firstAlive = false;
       }
       // A live half stays live: its bound may be partial (see boxValue), so it is not re-tested here.

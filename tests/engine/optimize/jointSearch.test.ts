@@ -172,7 +172,7 @@ describe("box bound", () => {
 });
 
 describe("BoxRanges", () => {
-  it("oracle: each cursor's range and its change between a sampling and a jitter phase hold every setting of the box, with both ends reached", () => {
+  it("oracle: each cursor's range, its change between a sampling and a jitter phase, and the joint figure hold every setting of the box, with the ends reached", () => {
     const space = searchSpace(channel, budget("centre", "nrz", true));
     const ch = prepareChannels(channel, space).channels[1];
     const setup = boundSetup(space, ch, 2);
@@ -216,6 +216,20 @@ describe("BoxRanges", () => {
           expect(Math.abs(seen[3] - ranges.diffs[d + 2 * f + 1])).toBeLessThan(1e-12);
         }
       }
+      // The joint figure gap·g₀ − 2·Σ s_i·r_i: its largest value over the box, reached at a corner.
+      const fs = Int32Array.of(1, F - 1, 4);
+      const signs = Float64Array.of(1, -1, 1);
+      const change = Uint8Array.of(0, 0, 1);
+      let best = Number.NEGATIVE_INFINITY;
+      for (const x of [-0.2, -0.15, -0.1, -0.05]) {
+        for (const y of [-0.3, -0.25, -0.2, -0.15, -0.1]) {
+          const taps = [x, 1 + x + y, y];
+          const cur = (q: number, f: number) => taps.reduce((s, c, j) => s + c * coef(q).v[f * 3 + j], 0);
+          const r = [cur(p, 1), cur(p, F - 1), cur(p, 4) - cur(t, 4)];
+          best = Math.max(best, 2 * cur(p, 0) - 2 * (r[0] - r[1] + r[2]));
+        }
+      }
+      expect(Math.abs(ranges.jointMax(t, jj, 2, fs, signs, change, 3) - best)).toBeLessThan(1e-12);
     }
   });
 });
