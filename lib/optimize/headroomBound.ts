@@ -346,9 +346,9 @@ export class BoxRanges {
   }
 
   /**
-   * Largest value over the box of `gap·g₀(p) − 2·Σ_i sign_i·r_i`, where `r_i` is watched cursor
-   * `fs[i]` at phase `p` (`change[i]` false) or its change from `t` to `p = t + shifts[jj]` (true):
-   * an affine function of the taps, so the maximum is exact.
+   * Largest values over the box of `gap·g₀(p) − 2·Σ_{i<k} sign_i·r_i` for k = 1 … n, written to
+   * `out[k − 1]`, where `r_i` is watched cursor `fs[i]` at phase `p = t + shifts[jj]` (`change[i]`
+   * 0) or its change from `t` to `p` (1): affine functions of the taps, so the maxima are exact.
    */
   jointMax(
     t: number,
@@ -358,7 +358,8 @@ export class BoxRanges {
     signs: Float64Array,
     change: Uint8Array,
     n: number,
-  ): number {
+    out: Float64Array,
+  ): void {
     const T = this.#setup.taps;
     const v = this.#coef(t + this.#setup.shifts[jj]).v;
     const w = this.#joint;
@@ -368,9 +369,9 @@ export class BoxRanges {
       const o = fs[i] * T;
       const s = 2 * signs[i];
       for (let j = 0; j < T; j++) w[j] -= s * d[o + j];
+      affineRange(this.#box as TapBox, w, 0, T, this.#pair, 0);
+      out[i] = this.#pair[1];
     }
-    affineRange(this.#box as TapBox, w, 0, T, this.#pair, 0);
-    return this.#pair[1];
   }
 
   /** Coefficients of every watched cursor's change from `t` to `t + shifts[jj]` (computed once). */
@@ -518,10 +519,11 @@ export function boxBound(
     if (bound < loose) loose = bound;
     if (bound > stopAt && picked > 0) {
       const delta = (sum + tail + NOISE_TAIL_SIGMAS * setup.noiseRms_V) / DEFAULT_HALF_BINS;
+      ranges.jointMax(t, jj, setup.levelGap, fs, signs, change, picked, jointOut);
       for (let k = 1; k <= picked; k++) {
         const qk = setup.qSigma[jj * K + k];
         if (Number.isNaN(qk)) break;
-        const eye = ranges.jointMax(t, jj, setup.levelGap, fs, signs, change, k) - 2 * qk + setup.slack[k] * delta;
+        const eye = jointOut[k - 1] - 2 * qk + setup.slack[k] * delta;
         const v = (eye > 0 ? eye : 0) - setup.sensitivity_V;
         if (v < bound) bound = v;
       }
@@ -541,6 +543,7 @@ const jointCursors = new Int32Array(JOINT_CURSORS);
 const jointSigns = new Float64Array(JOINT_CURSORS);
 const jointChange = new Uint8Array(JOINT_CURSORS);
 const jointMags = new Float64Array(JOINT_CURSORS);
+const jointOut = new Float64Array(JOINT_CURSORS);
 
 /** Range over a box of an affine functional given by its per-tap coefficients `vec` (length T). */
 export function boxRange(box: TapBox, vec: Float64Array, T: number, out: Float64Array): void {
