@@ -123,7 +123,7 @@ export function evaluateArchitectures(
     };
     const list = [...counts].sort((x, y) => x - y);
     const per = list.map(() => [] as number[]);
-    members.forEach((pulse, i) => {
+    members.forEach((pulse) => {
       const best = cand.ffe === null ? searchPlain(pulse, derived, list) : searchWithFfe(pulse, derived, list, cand.ffe);
       best.forEach((v, j) => per[j].push(v));
       done++;

@@ -2,7 +2,7 @@
 // shared axes (time in UI, voltage in mV) and a colour scale bar. Also usable for any 2-D histogram
 // over time and voltage.
 import { useEffect, useMemo, useRef } from "react";
-import { AxisBottom, AxisLeft } from "@visx/axis";
+import { ChartAxisBottom, ChartAxisLeft } from "./ChartAxes";
 import { Group } from "@visx/group";
 import { scaleLinear } from "@visx/scale";
 import { axisStyle, chartColors, formatTick, type Margin } from "./axisStyle";
@@ -175,31 +175,8 @@ export default function DensityEye(props: DensityEyeProps) {
                 </g>
               ))}
             </g>
-            <AxisLeft
-              scale={yScale}
-              numTicks={6}
-              stroke={axisStyle.stroke}
-              tickStroke={axisStyle.tickStroke}
-              tickLength={axisStyle.tickLength}
-              tickFormat={(v) => formatTick(Number(v))}
-              tickLabelProps={() => axisStyle.leftTickLabelProps}
-              label="Voltage (mV)"
-              labelOffset={36}
-              labelProps={axisStyle.labelProps}
-            />
-            <AxisBottom
-              top={innerH}
-              scale={xScale}
-              numTicks={Math.max(2, Math.floor(innerW / 70))}
-              stroke={axisStyle.stroke}
-              tickStroke={axisStyle.tickStroke}
-              tickLength={axisStyle.tickLength}
-              tickFormat={(v) => formatTick(Number(v))}
-              tickLabelProps={() => axisStyle.bottomTickLabelProps}
-              label="Time from the sampling instant (UI)"
-              labelOffset={14}
-              labelProps={axisStyle.labelProps}
-            />
+            <ChartAxisLeft scale={yScale} label="Voltage (mV)" />
+            <ChartAxisBottom top={innerH} scale={xScale} numTicks={Math.max(2, Math.floor(innerW / 70))} label="Time from the sampling instant (UI)" />
             <g aria-label="Colour scale: hits per cell">
               <rect x={barX} y={0} width={10} height={innerH} fill={`url(#${gradientId})`} stroke={chartColors.lineStrong} />
               {barTicks.map((t) => (

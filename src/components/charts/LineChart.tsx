@@ -1,7 +1,7 @@
 // A general line chart in the shared axis style: several series (lines, dots or stems), vertical
 // and horizontal markers, an optional extra grid (e.g. one line per UI), a legend and a hover readout.
 import { useMemo, useState } from "react";
-import { AxisBottom, AxisLeft } from "@visx/axis";
+import { ChartAxisBottom, ChartAxisLeft } from "./ChartAxes";
 import { GridColumns, GridRows } from "@visx/grid";
 import { Group } from "@visx/group";
 import { scaleLinear } from "@visx/scale";
@@ -228,31 +228,8 @@ export default function LineChart(props: LineChartProps) {
               </g>
             ),
           )}
-          <AxisLeft
-            scale={yScale}
-            numTicks={6}
-            stroke={axisStyle.stroke}
-            tickStroke={axisStyle.tickStroke}
-            tickLength={axisStyle.tickLength}
-            tickFormat={(v) => yFmt(Number(v))}
-            tickLabelProps={() => axisStyle.leftTickLabelProps}
-            label={props.yLabel}
-            labelOffset={36}
-            labelProps={axisStyle.labelProps}
-          />
-          <AxisBottom
-            top={innerH}
-            scale={xScale}
-            numTicks={Math.max(2, Math.floor(innerW / 70))}
-            stroke={axisStyle.stroke}
-            tickStroke={axisStyle.tickStroke}
-            tickLength={axisStyle.tickLength}
-            tickFormat={(v) => xFmt(Number(v))}
-            tickLabelProps={() => axisStyle.bottomTickLabelProps}
-            label={props.xLabel}
-            labelOffset={14}
-            labelProps={axisStyle.labelProps}
-          />
+          <ChartAxisLeft scale={yScale} tickFormat={yFmt} label={props.yLabel} />
+          <ChartAxisBottom top={innerH} scale={xScale} numTicks={Math.max(2, Math.floor(innerW / 70))} tickFormat={xFmt} label={props.xLabel} />
           {hoverX !== null && <line x1={xScale(hoverX)} x2={xScale(hoverX)} y1={0} y2={innerH} stroke={chartColors.muted} strokeWidth={0.75} />}
           <rect
             width={innerW}

@@ -1,7 +1,7 @@
 // Limiter headroom against complexity for the candidates of a study: each candidate's worst-case
 // (filled) and median (hollow) headroom across the channels, joined by a bar, labelled; the
 // frontier of worst-case headroom over tap count; the required headroom as a dashed line.
-import { AxisBottom, AxisLeft } from "@visx/axis";
+import { ChartAxisBottom, ChartAxisLeft } from "@/components/charts/ChartAxes";
 import { GridColumns, GridRows } from "@visx/grid";
 import { Group } from "@visx/group";
 import { scaleLinear } from "@visx/scale";
@@ -84,31 +84,8 @@ export default function HeadroomComplexityChart(props: Props) {
               </g>
             );
           })}
-          <AxisLeft
-            scale={yScale}
-            numTicks={6}
-            stroke={axisStyle.stroke}
-            tickStroke={axisStyle.tickStroke}
-            tickLength={axisStyle.tickLength}
-            tickFormat={(v) => formatTick(Number(v))}
-            tickLabelProps={() => axisStyle.leftTickLabelProps}
-            label="Limiter headroom (mV)"
-            labelOffset={36}
-            labelProps={axisStyle.labelProps}
-          />
-          <AxisBottom
-            top={innerH}
-            scale={xScale}
-            tickValues={Array.from({ length: xMax + 1 }, (_, i) => i).filter((i) => xMax <= 16 || i % 2 === 0)}
-            stroke={axisStyle.stroke}
-            tickStroke={axisStyle.tickStroke}
-            tickLength={axisStyle.tickLength}
-            tickFormat={(v) => String(v)}
-            tickLabelProps={() => axisStyle.bottomTickLabelProps}
-            label="Complexity (adjustable taps and gains)"
-            labelOffset={14}
-            labelProps={axisStyle.labelProps}
-          />
+          <ChartAxisLeft scale={yScale} label="Limiter headroom (mV)" />
+          <ChartAxisBottom top={innerH} scale={xScale} tickValues={Array.from({ length: xMax + 1 }, (_, i) => i).filter((i) => xMax <= 16 || i % 2 === 0)} tickFormat={String} label="Complexity (adjustable taps and gains)" />
         </Group>
       </svg>
       <ul className="mt-1 flex flex-wrap gap-x-5 gap-y-1 pl-14 text-xs text-ink-soft" aria-label="Legend">

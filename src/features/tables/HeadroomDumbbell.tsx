@@ -1,11 +1,11 @@
 // Every channel's limiter headroom with its class default (filled, green when it meets the required
 // headroom, red otherwise) against its own optimum (hollow), one row per channel, grouped by class.
-import { AxisBottom, AxisTop } from "@visx/axis";
 import { GridColumns } from "@visx/grid";
 import { Group } from "@visx/group";
 import { scaleLinear } from "@visx/scale";
-import { axisStyle, chartColors, formatTick } from "@/components/charts/axisStyle";
+import { axisStyle, chartColors } from "@/components/charts/axisStyle";
 import { useContainerWidth } from "@/components/charts/useContainerWidth";
+import { ChartAxisBottom, ChartAxisTop } from "@/components/charts/ChartAxes";
 
 export interface DumbbellRow {
   name: string;
@@ -40,14 +40,7 @@ export default function HeadroomDumbbell(props: Props) {
   const hi = Math.max(...xs);
   const pad = (hi - lo || 1) * 0.05;
   const x = scaleLinear<number>({ domain: [lo - pad, hi + pad], range: [0, innerW], nice: true });
-  const axisProps = {
-    scale: x,
-    numTicks: Math.max(2, Math.floor(innerW / 80)),
-    stroke: axisStyle.stroke,
-    tickStroke: axisStyle.tickStroke,
-    tickLength: axisStyle.tickLength,
-    tickFormat: (v: unknown) => formatTick(Number(v)),
-  };
+  const numTicks = Math.max(2, Math.floor(innerW / 80));
 
   return (
     <div ref={ref} className="w-full">
@@ -80,15 +73,8 @@ export default function HeadroomDumbbell(props: Props) {
               </g>
             );
           })}
-          <AxisTop {...axisProps} top={0} tickLabelProps={() => ({ ...axisStyle.bottomTickLabelProps, dy: -2 })} />
-          <AxisBottom
-            {...axisProps}
-            top={innerH}
-            tickLabelProps={() => axisStyle.bottomTickLabelProps}
-            label="Limiter headroom at the target BER (mV)"
-            labelOffset={14}
-            labelProps={axisStyle.labelProps}
-          />
+          <ChartAxisTop scale={x} numTicks={numTicks} />
+          <ChartAxisBottom top={innerH} scale={x} numTicks={numTicks} label="Limiter headroom at the target BER (mV)" />
         </Group>
       </svg>
       <ul className="mt-1 flex flex-wrap gap-x-5 gap-y-1 pl-4 text-xs text-ink-soft" aria-label="Legend">
