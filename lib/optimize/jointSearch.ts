@@ -708,10 +708,15 @@ export function jointSearch(
   if (options.seeds !== undefined && options.seeds.length !== nCtle) {
     throw new RangeError(`seeds must hold one list per CTLE setting (${nCtle}), got ${options.seeds.length}`);
   }
-  const seedsOf = (ci: number): Float64Array[] => [
-    ...(options.seeds?.[ci] ?? []),
-    ...contextOf(ci).members.flatMap((mc) => startingPoints(mc.channel, space)),
-  ];
+  // Per CTLE setting, how many of its starting points the order looks at: the given ones and the
+  // first member's own.
+  const keyCounts = new Int32Array(nCtle);
+  const seedsOf = (ci: number): Float64Array[] => {
+    const given = options.seeds?.[ci] ?? [];
+    const own = contextOf(ci).members.map((mc) => startingPoints(mc.channel, space));
+    keyCounts[ci] = given.length + own[0].length;
+    return [...given, ...own.flat()];
+  };
   const everyone = new Array<boolean>(O).fill(true);
 
   // A cheap estimate of a setting's figure for objective o (within a fraction of a millivolt of the
@@ -836,11 +841,13 @@ export function jointSearch(
     else {
       // Order the CTLE settings by the best light bound of their starting points (for the first DFE
       // count; per starting point the least over the members): close to the best of their exact
-      // figures, so the setting searched first usually holds the optimum and sets the threshold.
+      // figures, so the setting searched first usually holds the optimum and sets the threshold. A
+      // population orders by its first member's starting points.
       const keys = space.ctleSettings.map((_, i) => {
         const ctx = contextOf(i);
         let best = Number.NEGATIVE_INFINITY;
-        for (const s of seedList(i)) {
+        const starts = seedList(i);
+        for (const s of starts.slice(0, keyCounts[i])) {
           let key = Number.POSITIVE_INFINITY;
           for (const mc of ctx.members) {
             const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(mc.channel, space, s);
