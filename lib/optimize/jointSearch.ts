@@ -19,7 +19,6 @@ import {
   leafBound,
   type PhaseCoefficients,
   phaseCoefficients,
-  type TapBox,
 } from "./headroomBound.ts";
 import type { CtleSetting, SearchSpace } from "./searchSpace.ts";
 
