@@ -868,7 +868,8 @@ export function jointSearch(
     for (const ci of order) {
       const ctx = contextOf(ci);
       if (done === 0 && target === undefined) for (const s of climb(ctx, seedList(ci))) leaf(ctx, s, everyone);
-      for (const s of seedList(ci)) leaf(ctx, s, everyone);
+      // The whole FIR grid as one box first: the starting points are evaluated for the objectives it
+      // leaves alive only (for the others nothing in this CTLE setting can enter the result).
       const lo = new Int32Array(sides.length);
       const hi = Int32Array.from(grids, (g) => g.length - 1);
       if (!grids.some((g) => g.length === 0) && makeBox(lo, hi)) {
@@ -880,7 +881,10 @@ export function jointSearch(
           prune(ctx, o, ub);
           return false;
         });
-        if (alive.some(Boolean)) descend(ctx, lo, hi, alive, phases, 0);
+        if (alive.some(Boolean)) {
+          for (const s of seedList(ci)) leaf(ctx, s, alive);
+          descend(ctx, lo, hi, alive, phases, 0);
+        }
       }
       done++;
       options.onProgress?.(done / nCtle);
