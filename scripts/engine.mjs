@@ -2,7 +2,7 @@
 // `npm run --silent engine -- <command>`: the engine's JSON command line. Runs a bundle of
 // lib/cli/main.ts with every package inlined (dist/engine-cli.js: one file, no module resolution at
 // start), rebuilt with esbuild whenever a file in lib/ is newer. The code V8 compiles while serving
-// a command is kept per command (dist/engine-cli-cache/<command>.bin, V8's code cache) and handed
+// a command is kept per command and bundle (dist/engine-cli-cache/, V8's code cache) and handed
 // back on the next call, so that a call costs little more than Node's own start-up.
 import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { createRequire } from "node:module";
@@ -51,9 +51,15 @@ if (bundleTime_ms() < newestSource_ms(join(root, "lib"))) {
   rmSync(cacheDir, { recursive: true, force: true });
 }
 
-// Only command names get a cache file (the argument is the user's).
+// Only command names get a cache file (the argument is the user's). The file name carries the
+// bundle's time and size: V8 checks a cache against the source's length only, so a cache written by
+// a call that loaded an earlier bundle must never be offered to a later one.
 const command = process.argv[2];
-const cacheFile = typeof command === "string" && /^[a-z][a-z0-9-]{0,39}$/.test(command) ? join(cacheDir, `${command}.bin`) : null;
+const { mtimeMs, size } = statSync(bundle);
+const cacheFile =
+  typeof command === "string" && /^[a-z][a-z0-9-]{0,39}$/.test(command)
+    ? join(cacheDir, `${command}.${Math.round(mtimeMs)}.${size}.bin`)
+    : null;
 let cachedData;
 if (cacheFile !== null) {
   try {
