@@ -25,7 +25,7 @@ const TAIL_UI = 32;
  * @param pulse - channel pulse for a 1 V symbol.
  * @param corners - the fixed CTLE corners (Hz).
  * @param settings - the gains of each setting (dB).
- * @see IEEE 802.3, Annex 93A, eq. 93A-22 (the continuous-time filter) [source].
+ * @see IEEE 802.3, Annex 93A, eq. 93A-22 (the continuous-time filter) [memory: recalled, not re-read].
  */
 export function ctleGridPulses(
   pulse: Pulse,
