@@ -73,7 +73,7 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     const comment = page.getByRole("form", { name: "Comment" });
     await comment.getByLabel("Comment text").fill("The 25 dB lane keeps its margin with the default; fine by me.");
     await comment.getByRole("button", { name: "Comment" }).click();
-    await page.getByText("fine by me.").waitFor();
+    await page.getByRole("list", { name: "Comments" }).getByText("fine by me.").waitFor();
     await page.screenshot({ path: join(screenshotDir, "signoff-review.png"), fullPage: true });
     await page.getByRole("form", { name: "Decision" }).getByLabel(/Comment/).fill("Checked every lane against the required headroom.");
     await page.getByRole("button", { name: "Approve and freeze v1" }).click();

@@ -45,7 +45,7 @@ describe("sign-off in the browser (demo hand-off)", () => {
     await comment.getByLabel("Comment text").fill("Why does the short class get its own default now?");
     await comment.getByLabel("About channel").selectOption({ index: 1 });
     await comment.getByRole("button", { name: "Comment" }).click();
-    await page.getByText("Why does the short class get its own default now?").waitFor();
+    await page.getByRole("list", { name: "Comments" }).getByText("Why does the short class get its own default now?").waitFor();
     await page.locator("[data-comment]").last().getByRole("button", { name: "Reply" }).click();
     const reply = page.getByRole("form", { name: "Reply" });
     await reply.getByLabel("Reply text").fill("Noting for the record: asked the designer in the meeting.");
