@@ -215,28 +215,19 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     }
   };
 
-  const probBelow = (level: number, t: number, v: number): number => {
+  /** The jitter-weighted mixture of the laws around phase `t`, on one side of `v`. */
+  const tailProb = (side: "probBelow" | "probAbove", level: number, t: number, v: number): number => {
     checkLevel(level);
     const { base, kernel } = kernelAt(t);
     let s = 0;
     for (let i = 0; i < kernel.weights.length; i++) {
       const p = base + kernel.first + i;
-      const law = load(p);
-      s += kernel.weights[i] * law.probBelow(v - levels[level] * mainAt(p));
+      s += kernel.weights[i] * load(p)[side](v - levels[level] * mainAt(p));
     }
     return s;
   };
-  const probAbove = (level: number, t: number, v: number): number => {
-    checkLevel(level);
-    const { base, kernel } = kernelAt(t);
-    let s = 0;
-    for (let i = 0; i < kernel.weights.length; i++) {
-      const p = base + kernel.first + i;
-      const law = load(p);
-      s += kernel.weights[i] * law.probAbove(v - levels[level] * mainAt(p));
-    }
-    return s;
-  };
+  const probBelow = (level: number, t: number, v: number): number => tailProb("probBelow", level, t, v);
+  const probAbove = (level: number, t: number, v: number): number => tailProb("probAbove", level, t, v);
 
   const main = (t: number): number => {
     const base = Math.floor(t);

@@ -1,8 +1,7 @@
 // CTLE applied to one pulse many times: the pulse's spectrum is computed once, each setting costs one IFFT.
 import type { Pulse } from "../types.ts";
-import { assertPulse } from "../pulse/assertPulse.ts";
 import { peakIndex } from "../pulse/peakIndex.ts";
-import { FftPlan, nextPowerOfTwo } from "../signal/fftPlan.ts";
+import { DEFAULT_TAIL_UI, paddedSpectrum } from "./paddedSpectrum.ts";
 import { checkCtleParams, ctleAt, type CtleParams } from "./ctleResponse.ts";
 
 /** Options of {@link createCtlePlan}. */
@@ -32,20 +31,9 @@ export interface CtlePlan {
  * the grid is a circular convolution; the padding keeps it equal to the linear one.
  */
 export function createCtlePlan(pulse: Pulse, options: CtlePlanOptions = {}): CtlePlan {
-  assertPulse(pulse);
-  const tail_UI = options.tail_UI ?? 32;
-  if (!Number.isInteger(tail_UI) || tail_UI < 0 || tail_UI > 4096) {
-    throw new RangeError(`tail_UI must be an integer 0…4096, got ${String(tail_UI)}`);
-  }
+  const { fft, spectrum, freqs_Hz, outLength } = paddedSpectrum(pulse, options.tail_UI ?? DEFAULT_TAIL_UI);
   const spu = pulse.samplesPerUi;
-  const outLength = pulse.values_V.length + tail_UI * spu;
-  const size = nextPowerOfTwo(2 * outLength);
-  const fft = new FftPlan(size);
-  const spectrum = fft.realForward(pulse.values_V);
-  const dt = pulse.ui_s / spu;
-  const half = size / 2 + 1;
-  const freqs_Hz = new Float64Array(half);
-  for (let k = 0; k < half; k++) freqs_Hz[k] = k / (size * dt);
+  const half = freqs_Hz.length;
   const re = new Float64Array(half);
   const im = new Float64Array(half);
   const h = new Float64Array(2);

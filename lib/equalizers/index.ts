@@ -9,4 +9,5 @@ export * from "./enumerateTxFirs.ts";
 export * from "./firLevels.ts";
 export * from "./firNoiseGain.ts";
 export * from "./firResponse.ts";
+export * from "./paddedSpectrum.ts";
 export * from "./txFirConstraints.ts";

@@ -3,12 +3,9 @@
 import { type CtleParams, ctleResponse } from "../equalizers/ctleResponse.ts";
 import { assertPulse } from "../pulse/assertPulse.ts";
 import { peakIndex } from "../pulse/peakIndex.ts";
-import { FftPlan, nextPowerOfTwo } from "../signal/fftPlan.ts";
+import { paddedSpectrum } from "../equalizers/paddedSpectrum.ts";
 import type { Pulse } from "../types.ts";
 import type { CtleSetting } from "./searchSpace.ts";
-
-/** UIs of room after the input pulse for the CTLE's tail (as the CTLE plan keeps by default). */
-const TAIL_UI = 32;
 
 /**
  * The pulse filtered by the CTLE `{...corners, gDc_dB, gDc2_dB}` for every setting of `settings`,
@@ -41,14 +38,8 @@ export function ctleGridPulses(
     }
   }
   const spu = pulse.samplesPerUi;
-  const outLength = pulse.values_V.length + TAIL_UI * spu;
-  const size = nextPowerOfTwo(2 * outLength);
-  const fft = new FftPlan(size);
-  const spectrum = fft.realForward(pulse.values_V);
-  const dt = pulse.ui_s / spu;
-  const half = size / 2 + 1;
-  const freqs_Hz = new Float64Array(half);
-  for (let k = 0; k < half; k++) freqs_Hz[k] = k / (size * dt);
+  const { fft, spectrum, freqs_Hz, outLength } = paddedSpectrum(pulse);
+  const half = freqs_Hz.length;
   // H at the gain corners (linear 1 and 0.1 of each stage), then the bilinear coefficients per bin.
   const twoStage = corners.fLf_Hz !== undefined;
   const at = (gDc_dB: number, gDc2_dB: number) => ctleResponse({ ...corners, gDc_dB, gDc2_dB }, freqs_Hz);
