@@ -3,6 +3,7 @@
 import { log10Ber } from "./bathtub.ts";
 import { type JitterKernel, jitterKernel } from "./jitterKernel.ts";
 import type { StatisticalEye } from "./statisticalEye.ts";
+import { nearestLevelsInto } from "./nearestLevelsInto.ts";
 
 /** log10 BER on a grid; `values[row·width + col]`. */
 export interface BerMap {
@@ -55,6 +56,7 @@ export function berMap(eye: StatisticalEye, phases: Float64Array, voltage_V: Flo
     return c;
   };
   const kernels = new Map<number, JitterKernel>();
+  const bounds = new Int32Array(2);
   for (let col = 0; col < W; col++) {
     const t = phases[col];
     const base = Math.floor(t);
@@ -67,21 +69,9 @@ export function berMap(eye: StatisticalEye, phases: Float64Array, voltage_V: Flo
     const m = eye.main(t);
     for (let r = 0; r < H; r++) {
       const v = voltage_V[r];
-      let above = -1;
-      let below = -1;
-      let aPos = Infinity;
-      let bPos = -Infinity;
-      for (let l = 0; l < L; l++) {
-        const pos = eye.levels[l] * m;
-        if (pos >= v && pos < aPos) {
-          aPos = pos;
-          above = l;
-        }
-        if (pos < v && pos > bPos) {
-          bPos = pos;
-          below = l;
-        }
-      }
+      nearestLevelsInto(eye.levels, m, v, bounds);
+      const above = bounds[0];
+      const below = bounds[1];
       let s = 0;
       for (let i = 0; i < k.weights.length; i++) {
         const c = at(base + k.first + i);

@@ -9,6 +9,7 @@ export * from "./isiDistribution.ts";
 export * from "./jitterKernel.ts";
 export * from "./limiterHeadroom.ts";
 export * from "./limiterNoise.ts";
+export * from "./nearestLevelsInto.ts";
 export * from "./sampleDistribution.ts";
 export * from "./statisticalEye.ts";
 export * from "./symbolStream.ts";

@@ -4,6 +4,7 @@ import { assertPulse } from "../pulse/assertPulse.ts";
 import { cursorsAt } from "../pulse/cursorsAt.ts";
 import type { Modulation, Pulse } from "../types.ts";
 import { assertJitter, type Jitter, type JitterKernel, jitterKernel } from "./jitterKernel.ts";
+import { nearestLevelsInto } from "./nearestLevelsInto.ts";
 import { quantileBound } from "./quantileBound.ts";
 import { DEFAULT_HALF_BINS, type SampleDistribution, sampleDistribution } from "./sampleDistribution.ts";
 
@@ -215,6 +216,8 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     }
   };
 
+  /** Scratch for the levels around a threshold (`ber`). */
+  const bounds = new Int32Array(2);
   /** The jitter-weighted mixture of the laws around phase `t`, on one side of `v`. */
   const tailProb = (side: "probBelow" | "probAbove", level: number, t: number, v: number): number => {
     checkLevel(level);
@@ -313,25 +316,10 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     },
     ber: (t, v) => {
       const m = main(t);
-      // Nearest level above v and nearest below, by their nominal positions at phase t.
-      let above = -1;
-      let below = -1;
-      let aPos = Infinity;
-      let bPos = -Infinity;
-      for (let l = 0; l < levels.length; l++) {
-        const pos = levels[l] * m;
-        if (pos >= v && pos < aPos) {
-          aPos = pos;
-          above = l;
-        }
-        if (pos < v && pos > bPos) {
-          bPos = pos;
-          below = l;
-        }
-      }
+      nearestLevelsInto(levels, m, v, bounds);
       let s = 0;
-      if (above >= 0) s += probBelow(above, t, v);
-      if (below >= 0) s += probAbove(below, t, v);
+      if (bounds[0] >= 0) s += probBelow(bounds[0], t, v);
+      if (bounds[1] >= 0) s += probAbove(bounds[1], t, v);
       return s > 1 ? 1 : s;
     },
   };

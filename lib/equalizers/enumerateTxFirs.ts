@@ -1,8 +1,8 @@
 // Every legal transmit FIR setting on the step grid, for exhaustive searches.
 import { resolveTapRanges, TAP_TOLERANCE, type TxFirSpec } from "./txFirConstraints.ts";
 
-/** Integer grid indices k with k·step inside [min, max]. */
-function gridIndices(min: number, max: number, step: number): number[] {
+/** Integer grid indices k with k·step inside [min, max] (tolerant of rounding at the ends). */
+export function gridIndices(min: number, max: number, step: number): number[] {
   const lo = Math.ceil(min / step - 1e-9);
   const hi = Math.floor(max / step + 1e-9);
   const out: number[] = [];

@@ -2,6 +2,7 @@
 // FIR taps with rigorous headroom bounds, so the answer equals exhaustive evaluation of the grid.
 import { criterionLag, defaultPhaseWindow } from "../clocking/samplingPhase.ts";
 import { resolveTapRanges, TAP_TOLERANCE } from "../equalizers/txFirConstraints.ts";
+import { gridIndices } from "../equalizers/enumerateTxFirs.ts";
 import { mmseEqualizer } from "../solvers/mmse.ts";
 import { zeroForcing } from "../solvers/zeroForcing.ts";
 import type { Pulse } from "../types.ts";
@@ -97,14 +98,6 @@ export function prepareChannels(pulse: Pulse, space: SearchSpace): PreparedChann
   return { channels: space.ctleSettings.map((s, i) => filteredChannel(pulses[i], space, s, maxPhase)) };
 }
 
-/** Integer grid indices k with k·step in [min, max] (the enumeration's own rule). */
-function gridIndices(min: number, max: number, step: number): number[] {
-  const lo = Math.ceil(min / step - 1e-9);
-  const hi = Math.floor(max / step + 1e-9);
-  const out: number[] = [];
-  for (let k = lo; k <= hi; k++) out.push(k);
-  return out;
-}
 
 function floorStep(x: number, step: number): number {
   return Math.floor(x / step + 1e-9) * step;
