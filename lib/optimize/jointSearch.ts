@@ -764,6 +764,20 @@ export function jointSearch(
       }
       return pos;
     };
+    /** The grid positions one step away from `at` along one side tap. */
+    const neighbours = (at: Int32Array): Int32Array[] => {
+      const out: Int32Array[] = [];
+      for (let s = 0; s < sides.length; s++) {
+        for (const d of [-1, 1]) {
+          const q = at[s] + d;
+          if (q < 0 || q >= grids[s].length) continue;
+          const pos = Int32Array.from(at);
+          pos[s] = q;
+          out.push(pos);
+        }
+      }
+      return out;
+    };
     for (let o = 0; o < O; o++) {
       const value = (pos: Int32Array): number => {
         const key = `${o}:${pos.join(",")}`;
@@ -789,17 +803,11 @@ export function jointSearch(
       for (let steps = 0; steps < 4 * sides.length * 26; steps++) {
         let next: Int32Array | null = null;
         let nextValue = atValue;
-        for (let s = 0; s < sides.length; s++) {
-          for (const d of [-1, 1]) {
-            const q = at[s] + d;
-            if (q < 0 || q >= grids[s].length) continue;
-            const pos: Int32Array = Int32Array.from(at);
-            pos[s] = q;
-            const v = value(pos);
-            if (v > nextValue) {
-              next = pos;
-              nextValue = v;
-            }
+        for (const pos of neighbours(at)) {
+          const v = value(pos);
+          if (v > nextValue) {
+            next = pos;
+            nextValue = v;
           }
         }
         if (next === null) break;
@@ -810,15 +818,9 @@ export function jointSearch(
       const near: { taps: Float64Array; value: number }[] = [];
       const end = found.get(`${o}:${at.join(",")}`);
       if (end !== undefined) near.push(end);
-      for (let s = 0; s < sides.length; s++) {
-        for (const d of [-1, 1]) {
-          const q = at[s] + d;
-          if (q < 0 || q >= grids[s].length) continue;
-          const pos: Int32Array = Int32Array.from(at);
-          pos[s] = q;
-          const x = found.get(`${o}:${pos.join(",")}`);
-          if (x !== undefined) near.push(x);
-        }
+      for (const pos of neighbours(at)) {
+        const x = found.get(`${o}:${pos.join(",")}`);
+        if (x !== undefined) near.push(x);
       }
       near.sort((a, b) => b.value - a.value);
       picks.push(...near.slice(0, o === 0 ? topCount + 1 : 2));
