@@ -18,11 +18,14 @@ function workerFile(): string {
   return found;
 }
 
+/** Engine worker threads: TAPWRIGHT_WORKERS (default 2), at most one per core. */
+export const workerCount = Math.max(1, Math.min(Number(process.env.TAPWRIGHT_WORKERS) || 2, availableParallelism()));
+
 let pool: Piscina | undefined;
 function thePool(): Piscina {
   pool ??= new Piscina({
     filename: workerFile(),
-    maxThreads: Math.max(1, Math.min(Number(process.env.TAPWRIGHT_WORKERS) || 2, availableParallelism())),
+    maxThreads: workerCount,
     idleTimeout: 60_000,
   });
   return pool;

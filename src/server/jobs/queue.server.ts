@@ -5,7 +5,7 @@ import { randomUUID } from "node:crypto";
 import { and, asc, eq, lt, or, sql } from "drizzle-orm";
 import { db, type DbOrTx, type Tx } from "../db.server";
 import { jobs, type Job, type JobKind } from "@/db/schema";
-import { runInPool } from "./pool.server";
+import { runInPool, workerCount } from "./pool.server";
 
 /** What the server does around the worker for one kind of job. */
 export interface JobHandler {
@@ -25,7 +25,6 @@ export function registerJobKind(kind: JobKind, handler: JobHandler): void {
 const SERVER_ID = `${process.pid}-${randomUUID().slice(0, 8)}`;
 const LOCK_S = 30;
 const MAX_ATTEMPTS = 3;
-const concurrency = Math.max(1, Number(process.env.TAPWRIGHT_WORKERS) || 2);
 let active = 0;
 
 /** Adds a job inside the caller's transaction; call `pumpJobs()` after the commit. */
@@ -116,7 +115,7 @@ export async function pumpJobs(): Promise<void> {
   if (pumping) return;
   pumping = true;
   try {
-    while (active < concurrency) {
+    while (active < workerCount) {
       const job = await claim();
       if (!job) break;
       active++;
