@@ -10,18 +10,26 @@ export const dataDir = resolve(process.env.TAPWRIGHT_DATA_DIR ?? join(root, ".da
 /** The build folder (`dist/` unless TAPWRIGHT_OUT_DIR names another). */
 export const distDir = resolve(root, process.env.TAPWRIGHT_OUT_DIR ?? "dist");
 
+/**
+ * A random secret kept in `.data/<name>` (mode 0600, readable by the checkout's owner only),
+ * generated on first use: the session key, the database passwords.
+ */
+export function storedSecret(name) {
+  const file = join(dataDir, name);
+  if (!existsSync(file)) {
+    mkdirSync(dataDir, { recursive: true });
+    writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600 });
+  }
+  return readFileSync(file, "utf8").trim();
+}
+
 /** The secret that signs sessions: from the environment, or one generated once per checkout. */
 function sessionSecret() {
   if (process.env.BETTER_AUTH_SECRET) return process.env.BETTER_AUTH_SECRET;
   if (process.env.NODE_ENV === "production") {
     throw new Error("BETTER_AUTH_SECRET must be set in production (32 or more random characters).");
   }
-  const file = join(dataDir, "session-secret");
-  if (!existsSync(file)) {
-    mkdirSync(dataDir, { recursive: true });
-    writeFileSync(file, randomBytes(32).toString("base64url"), { mode: 0o600 });
-  }
-  return readFileSync(file, "utf8").trim();
+  return storedSecret("session-secret");
 }
 
 /**
@@ -37,7 +45,8 @@ export function settings(mode) {
     port: Number(process.env.DB_PORT ?? 3307),
     name: process.env.DB_NAME ?? (isTest ? "tapwright_test" : "tapwright"),
     user: process.env.DB_USER ?? "tapwright",
-    password: process.env.DB_PASSWORD ?? "tapwright-local",
+    // No fixed default: a password generated once per checkout unless DB_PASSWORD names one.
+    password: process.env.DB_PASSWORD ?? storedSecret("db-password"),
   };
   const smtpPort = Number(process.env.SMTP_PORT ?? (isTest ? port + 1000 : 2525));
   const publicHost = host === "0.0.0.0" || host === "::" ? "127.0.0.1" : host;
