@@ -14,3 +14,4 @@ export * from "./sampleDistribution.ts";
 export * from "./statisticalEye.ts";
 export * from "./symbolStream.ts";
 export * from "./eyeAnalysis.ts";
+export * from "./noiseCorrelation.ts";

@@ -1,3 +1,4 @@
+export * from "./differentialNetwork.ts";
 export * from "./formatTouchstone.ts";
 export * from "./InputFileError.ts";
 export * from "./lossModel.ts";

@@ -4,3 +4,4 @@ export * from "./mmse.ts";
 export * from "./txTraining.ts";
 export * from "./wienerSolve.ts";
 export * from "./zeroForcing.ts";
+export * from "./mmseDfe.ts";

@@ -1,0 +1,5 @@
+export * from "./aggressorKind.ts";
+export * from "./aggressorSampling.ts";
+export * from "./couplingModel.ts";
+export * from "./crosstalkTransfers.ts";
+export * from "./integratedCrosstalkNoise.ts";
