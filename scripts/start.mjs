@@ -14,6 +14,10 @@ try {
 
   await startMariadb(cfg.db);
   await ensureDatabase(cfg.db);
+  if (cfg.queue === "bullmq" && cfg.redis.private) {
+    const { startRedis } = await import("./lib/redis.mjs");
+    await startRedis(cfg.redis);
+  }
   await migrate(cfg.env.DATABASE_URL);
   seed(cfg.env);
   let smtp = null;
@@ -24,6 +28,9 @@ try {
   build(cfg.env);
   const server = await serve(cfg.env);
   log(`Tapwright is ready: ${cfg.env.BETTER_AUTH_URL} (Ctrl-C stops it; MariaDB keeps running until \`npm run db:stop\`).`);
+  if (cfg.queue === "bullmq") {
+    log(`Jobs go to BullMQ on ${cfg.redis.url}; start workers with \`npm run worker\` (here or on any machine that reaches Redis and MariaDB).`);
+  }
   const stop = async () => {
     server.kill("SIGTERM");
     await smtp?.close();

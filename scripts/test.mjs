@@ -37,8 +37,11 @@ try {
   const { build, seed, serve } = await import("./lib/server.mjs");
 
   const env = { ...cfg.env, TAPWRIGHT_SIGN_IN_LIMIT: process.env.TAPWRIGHT_SIGN_IN_LIMIT ?? "1000/60" };
+  const { startRedis, stopRedis } = await import("./lib/redis.mjs");
   const database = await startMariadb(cfg.db);
   await ensureDatabase(cfg.db, { fresh: true });
+  // The distributed queue's tests run their own servers and workers against this private Redis.
+  const redis = await startRedis(cfg.redis, { fresh: true });
   await migrate(env.DATABASE_URL);
   seed(env);
   const smtp = await startFakeSmtp({ port: cfg.smtp.port, databaseUrl: env.DATABASE_URL });
@@ -48,6 +51,7 @@ try {
   cleanup = async () => {
     server.kill("SIGTERM");
     await smtp.close();
+    if (!redis.reused) await stopRedis(cfg.redis);
     if (!database.reused) await stopMariadb(cfg.db);
   };
 
@@ -65,6 +69,9 @@ try {
         ...env,
         TAPWRIGHT_BASE_URL: env.BETTER_AUTH_URL,
         TAPWRIGHT_DB_DIR: cfg.db.dir,
+        TAPWRIGHT_REDIS_DIR: cfg.redis.dir,
+        REDIS_PORT: String(cfg.redis.port),
+        REDIS_URL: cfg.redis.url,
         DEMO_PASSWORD: process.env.DEMO_PASSWORD ?? "tapwright-demo",
         CHROMIUM_PATH: chromiumPath,
       },

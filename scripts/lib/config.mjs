@@ -49,12 +49,29 @@ export function settings(mode) {
     password: process.env.DB_PASSWORD ?? storedSecret("db-password"),
   };
   const smtpPort = Number(process.env.SMTP_PORT ?? (isTest ? port + 1000 : 2525));
+  // The private Redis of the distributed queue: 6380 for npm start, PORT + 2000 for npm test (so
+  // test runs of several checkouts, each on its own PORT, get their own), each with its own folder.
+  const redisPort = Number(process.env.REDIS_PORT ?? (isTest ? port + 2000 : 6380));
+  const queue = process.env.TAPWRIGHT_QUEUE ?? "embedded";
+  if (queue !== "embedded" && queue !== "bullmq") {
+    throw new Error(`TAPWRIGHT_QUEUE must be "embedded" or "bullmq", got "${queue}".`);
+  }
+  // npm test always uses its own private server (it empties it), never a REDIS_URL from outside.
+  const privateRedis = isTest || !process.env.REDIS_URL;
+  const redis = {
+    dir: join(dataDir, isTest ? "redis-test" : "redis"),
+    port: redisPort,
+    private: privateRedis,
+    url: privateRedis ? `redis://127.0.0.1:${redisPort}` : process.env.REDIS_URL,
+  };
   const publicHost = host === "0.0.0.0" || host === "::" ? "127.0.0.1" : host;
   return {
     mode,
     host,
     port,
     db,
+    queue,
+    redis,
     smtp: {
       host: process.env.SMTP_HOST ?? "127.0.0.1",
       port: smtpPort,
@@ -78,6 +95,8 @@ export function settings(mode) {
       MAIL_FROM: process.env.MAIL_FROM ?? "Tapwright <no-reply@tapwright.test>",
       TAPWRIGHT_DEV_MAIL: process.env.SMTP_HOST ? "0" : "1",
       TAPWRIGHT_WORKERS: process.env.TAPWRIGHT_WORKERS ?? "",
+      TAPWRIGHT_QUEUE: queue,
+      ...(queue === "bullmq" ? { REDIS_URL: redis.url } : {}),
     },
   };
 }

@@ -1,0 +1,162 @@
+// The private Redis of this checkout, for the distributed job queue (BullMQ): installed from Debian's
+// `redis-server` package when missing, listening on 127.0.0.1:$port only, its data in a git-ignored
+// folder with append-only persistence. Idempotent like the MariaDB one: a running server is reused,
+// a stale pid file is cleaned, and a kill -9 leaves an append-only file that the next start replays.
+import { spawn } from "node:child_process";
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { connect } from "node:net";
+import { join } from "node:path";
+import { setTimeout as sleep } from "node:timers/promises";
+import { log } from "./log.mjs";
+import { aptInstall } from "./mariadb.mjs";
+import { alive, which, withLockFile } from "./processes.mjs";
+
+export function ensureRedisInstalled() {
+  if (which("redis-server")) return;
+  aptInstall(["redis-server"], "Redis is not installed (the distributed job queue needs it)");
+  if (!which("redis-server")) throw new Error("redis-server is still missing after apt-get install.");
+}
+
+function paths(redis) {
+  return {
+    data: join(redis.dir, "data"),
+    pid: join(redis.dir, "redis.pid"),
+    portFile: join(redis.dir, "port"),
+    log: join(redis.dir, "redis.log"),
+    lock: join(redis.dir, "start.lock"),
+  };
+}
+
+/**
+ * Sends one command (RESP) and resolves with the first line of the reply ("+PONG", "+OK", "-ERR …"),
+ * or with "" when the server closes the connection without answering (SHUTDOWN does).
+ */
+export function redisCommand(port, args, timeout_ms = 2000) {
+  return new Promise((resolve, reject) => {
+    const socket = connect({ host: "127.0.0.1", port });
+    let reply = "";
+    const timer = setTimeout(() => {
+      socket.destroy();
+      reject(new Error(`Redis on 127.0.0.1:${port} did not answer ${args[0]} within ${timeout_ms} ms.`));
+    }, timeout_ms);
+    const done = (fn) => {
+      clearTimeout(timer);
+      socket.destroy();
+      fn();
+    };
+    socket.on("connect", () => {
+      socket.write(`*${args.length}\r\n${args.map((a) => `$${Buffer.byteLength(a)}\r\n${a}\r\n`).join("")}`);
+    });
+    socket.on("data", (chunk) => {
+      reply += chunk.toString("utf8");
+      const end = reply.indexOf("\r\n");
+      if (end >= 0) done(() => resolve(reply.slice(0, end)));
+    });
+    socket.on("close", () => done(() => resolve(reply)));
+    socket.on("error", (e) => done(() => reject(e)));
+  });
+}
+
+/** The pid of this checkout's running Redis (of `redis.dir`), or null (a stale pid file is removed). */
+export function runningRedisPid(redis) {
+  const p = paths(redis);
+  if (!existsSync(p.pid)) return null;
+  const pid = Number(readFileSync(p.pid, "utf8").trim());
+  if (Number.isInteger(pid) && pid > 0 && alive(pid)) return pid;
+  log("Redis: removing a stale pid file (the server is not running).");
+  rmSync(p.pid, { force: true });
+  return null;
+}
+
+async function waitUntilReady(redis, timeout_ms) {
+  const until = Date.now() + timeout_ms;
+  let last = "";
+  while (Date.now() < until) {
+    try {
+      // A server still replaying its append-only file answers -LOADING; wait for +PONG.
+      last = await redisCommand(redis.port, ["PING"]);
+      if (last === "+PONG") return;
+    } catch (e) {
+      last = e.message;
+    }
+    await sleep(50);
+  }
+  const tail = existsSync(paths(redis).log) ? readFileSync(paths(redis).log, "utf8").split("\n").slice(-15).join("\n") : "";
+  throw new Error(`Redis did not become ready on 127.0.0.1:${redis.port} in ${timeout_ms} ms (${last}).\n${tail}`);
+}
+
+/** Starts the private Redis (or reuses the running one); `fresh` empties it (the test queue). */
+export async function startRedis(redis, { fresh = false } = {}) {
+  ensureRedisInstalled();
+  mkdirSync(redis.dir, { recursive: true });
+  const p = paths(redis);
+  const result = await withLockFile(p.lock, "Redis", async () => {
+    const pid = runningRedisPid(redis);
+    if (pid) {
+      const port = existsSync(p.portFile) ? Number(readFileSync(p.portFile, "utf8")) : redis.port;
+      if (port === redis.port) {
+        await waitUntilReady(redis, 10_000);
+        log(`Redis: reusing the running server (pid ${pid}, 127.0.0.1:${redis.port}).`);
+        return { pid, reused: true };
+      }
+      log(`Redis: the running server listens on ${port}, not ${redis.port}; restarting it.`);
+      await stopRedis(redis);
+    }
+    mkdirSync(p.data, { recursive: true });
+    const child = spawn(
+      which("redis-server"),
+      [
+        "--port", String(redis.port),
+        "--bind", "127.0.0.1",
+        "--protected-mode", "yes",
+        "--dir", p.data,
+        // Every write goes to the append-only file, flushed to disk every second; no RDB snapshots.
+        "--appendonly", "yes",
+        "--appendfsync", "everysec",
+        "--save", "",
+        // BullMQ needs every key kept: refuse writes rather than evict when memory is full.
+        "--maxmemory-policy", "noeviction",
+        "--daemonize", "no",
+        "--pidfile", p.pid,
+        "--logfile", p.log,
+      ],
+      { detached: true, stdio: "ignore" },
+    );
+    child.unref();
+    writeFileSync(p.portFile, String(redis.port));
+    try {
+      await waitUntilReady(redis, 30_000);
+    } catch (e) {
+      if (child.exitCode === null) child.kill("SIGKILL");
+      throw e;
+    }
+    // redis-server writes its pid file itself; write it too so a fast stop after start finds it.
+    writeFileSync(p.pid, String(child.pid));
+    log(`Redis: started (pid ${child.pid}) on 127.0.0.1:${redis.port}, data in ${p.data}.`);
+    return { pid: child.pid, reused: false };
+  });
+  if (fresh) {
+    const r = await redisCommand(redis.port, ["FLUSHALL"]);
+    if (r !== "+OK") throw new Error(`Redis FLUSHALL answered ${r}.`);
+  }
+  return result;
+}
+
+/** Stops the private Redis with SHUTDOWN (which flushes the append-only file) and waits for it. */
+export async function stopRedis(redis) {
+  const pid = runningRedisPid(redis);
+  if (!pid) {
+    log("Redis: not running.");
+    return;
+  }
+  try {
+    await redisCommand(redis.port, ["SHUTDOWN"], 10_000);
+  } catch {
+    process.kill(pid, "SIGTERM");
+  }
+  const until = Date.now() + 20_000;
+  while (alive(pid) && Date.now() < until) await sleep(50);
+  if (alive(pid)) throw new Error(`Redis (pid ${pid}) did not stop within 20 s.`);
+  rmSync(paths(redis).pid, { force: true });
+  log(`Redis: stopped (pid ${pid}).`);
+}
