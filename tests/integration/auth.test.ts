@@ -2,7 +2,7 @@
 // test server and its MariaDB.
 import { describe, expect, it } from "vitest";
 import { anonymous, baseUrl, signIn, signInRaw, demoPassword, type DemoRole } from "../support/http";
-import { sparePort, startServer } from "../support/server";
+import { freePort, startServer } from "../support/server";
 
 const ROLES: DemoRole[] = ["admin", "designer", "firmware", "reviewer"];
 
@@ -128,7 +128,7 @@ describe("the API's error shape", () => {
 
 describe("sessions live in MariaDB", () => {
   it("survive a server restart and die at sign-out", async () => {
-    const port = sparePort(2);
+    const port = await freePort();
     let server = await startServer(port);
     try {
       const c = await signIn("firmware", demoPassword, server.base);
@@ -147,7 +147,7 @@ describe("sessions live in MariaDB", () => {
 
 describe("sign-in is rate limited per client address", () => {
   it("answers 429 after too many attempts in the window", async () => {
-    const server = await startServer(sparePort(3), { TAPWRIGHT_SIGN_IN_LIMIT: "3/60" });
+    const server = await startServer(await freePort(), { TAPWRIGHT_SIGN_IN_LIMIT: "3/60" });
     try {
       const statuses: number[] = [];
       for (let i = 0; i < 6; i++) statuses.push((await signInRaw("reviewer@tapwright.test", "wrong-password-123", server.base)).status);

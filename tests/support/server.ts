@@ -1,5 +1,6 @@
 // A second web server process for tests that restart it or give it other settings.
 import { spawn, type ChildProcess } from "node:child_process";
+import { createServer } from "node:net";
 import { join } from "node:path";
 
 const root = join(import.meta.dirname, "..", "..");
@@ -38,7 +39,17 @@ export async function startServer(port: number, extraEnv: Record<string, string>
   };
 }
 
-/** A port near the test server's own, so parallel checkouts with other PORTs do not collide. */
-export function sparePort(offset: number): number {
-  return Number(process.env.PORT ?? 4399) + offset;
+/**
+ * A port the system reports free right now. Ports counted from the test server's own would land on
+ * another checkout's server when several test runs share the machine, and that server would answer.
+ */
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer();
+    probe.once("error", reject);
+    probe.listen(0, "127.0.0.1", () => {
+      const address = probe.address();
+      probe.close(() => (address && typeof address === "object" ? resolve(address.port) : reject(new Error("no free port"))));
+    });
+  });
 }
