@@ -12,10 +12,10 @@ import {
   pulseFromS21,
   pulseFromTouchstone,
   type NetworkData,
-} from "../../lib/channel/index.ts";
-import { runCommand } from "../../lib/cli/runCommand.ts";
-import { seededRandom } from "../../lib/signal/index.ts";
-import { mmseEqualizer, zeroForcing } from "../../lib/solvers/index.ts";
+} from "@lib/channel";
+import { runCommand } from "@lib/cli/runCommand";
+import { seededRandom } from "@lib/signal";
+import { mmseEqualizer, zeroForcing } from "@lib/solvers";
 
 const root = fileURLToPath(new URL("../..", import.meta.url));
 const UI = 1 / 25.78125e9;

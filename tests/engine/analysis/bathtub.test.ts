@@ -1,8 +1,8 @@
 // Bathtub curves and eye width: the dual-Dirac closed form, symmetry, thresholds, edges.
 import { describe, expect, it } from "vitest";
-import { LOG10_BER_FLOOR, bathtub, decisionThresholds, eyeWidth, log10Ber, thresholdBer } from "../../../lib/analysis/bathtub.ts";
-import { qFromBer } from "../../../lib/analysis/ber.ts";
-import { statisticalEye } from "../../../lib/analysis/statisticalEye.ts";
+import { LOG10_BER_FLOOR, bathtub, decisionThresholds, eyeWidth, log10Ber, thresholdBer } from "@lib/analysis/bathtub";
+import { qFromBer } from "@lib/analysis/ber";
+import { statisticalEye } from "@lib/analysis/statisticalEye";
 import { cursorPulse, rectPulse } from "./helpers.ts";
 
 const BER = 1e-12;

@@ -1,6 +1,6 @@
 // Q ↔ BER conversion: the Gaussian tail and its inverse.
 import { describe, expect, it } from "vitest";
-import { berFromQ, qFromBer } from "../../../lib/analysis/ber.ts";
+import { berFromQ, qFromBer } from "@lib/analysis/ber";
 
 /** Gaussian tail ∫_q^∞ φ(x) dx by composite Simpson's rule — a test oracle independent of erfc. */
 function tailBySimpson(q: number): number {

@@ -1,10 +1,10 @@
 // BER maps and their contour lines: agreement with the eye's own BER, contour positions, edges.
 import { describe, expect, it } from "vitest";
-import { qFromBer } from "../../../lib/analysis/ber.ts";
-import { berContours } from "../../../lib/analysis/berContours.ts";
-import { berMap } from "../../../lib/analysis/berMap.ts";
-import { log10Ber } from "../../../lib/analysis/bathtub.ts";
-import { statisticalEye } from "../../../lib/analysis/statisticalEye.ts";
+import { qFromBer } from "@lib/analysis/ber";
+import { berContours } from "@lib/analysis/berContours";
+import { berMap } from "@lib/analysis/berMap";
+import { log10Ber } from "@lib/analysis/bathtub";
+import { statisticalEye } from "@lib/analysis/statisticalEye";
 import { cursorPulse } from "./helpers.ts";
 
 const grid = (a: number, b: number, n: number) => Float64Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));

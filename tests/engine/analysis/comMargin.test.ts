@@ -1,10 +1,10 @@
 // COM-style margin and the limiter: the COM identity, closed forms, edges.
 import { describe, expect, it } from "vitest";
-import { qFromBer } from "../../../lib/analysis/ber.ts";
-import { comMargin } from "../../../lib/analysis/comMargin.ts";
-import { limiterHeadroom } from "../../../lib/analysis/limiterHeadroom.ts";
-import { limiterNoise } from "../../../lib/analysis/limiterNoise.ts";
-import { statisticalEye } from "../../../lib/analysis/statisticalEye.ts";
+import { qFromBer } from "@lib/analysis/ber";
+import { comMargin } from "@lib/analysis/comMargin";
+import { limiterHeadroom } from "@lib/analysis/limiterHeadroom";
+import { limiterNoise } from "@lib/analysis/limiterNoise";
+import { statisticalEye } from "@lib/analysis/statisticalEye";
 import { cursorPulse } from "./helpers.ts";
 
 describe("comMargin", () => {

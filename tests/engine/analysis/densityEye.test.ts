@@ -1,8 +1,8 @@
 // Time-domain density eyes and symbol streams: exact levels, a direct-superposition oracle,
 // conservation and periodicity identities, edges.
 import { describe, expect, it } from "vitest";
-import { densityEye } from "../../../lib/analysis/densityEye.ts";
-import { grayPam4, symbolStream } from "../../../lib/analysis/symbolStream.ts";
+import { densityEye } from "@lib/analysis/densityEye";
+import { grayPam4, symbolStream } from "@lib/analysis/symbolStream";
 import { cursorPulse, rectPulse } from "./helpers.ts";
 
 describe("symbolStream", () => {

@@ -1,5 +1,5 @@
 // Shared test fixtures of the analysis tests: synthetic pulses with known cursors.
-import type { Pulse } from "../../../lib/types.ts";
+import type { Pulse } from "@lib/types";
 
 /**
  * A pulse whose symbol-spaced samples at the main phase are exactly `cursors` (main at index

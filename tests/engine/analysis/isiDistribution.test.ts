@@ -1,7 +1,7 @@
 // The ISI law on a grid: exact two-/four-point laws, brute-force oracle, identities, edges.
 import { describe, expect, it } from "vitest";
-import { isiDistribution, peakDistortion } from "../../../lib/analysis/isiDistribution.ts";
-import { seededRandom } from "../../../lib/signal/seededRandom.ts";
+import { isiDistribution, peakDistortion } from "@lib/analysis/isiDistribution";
+import { seededRandom } from "@lib/signal/seededRandom";
 import { enumerateIsi } from "./helpers.ts";
 
 const massAt = (d: ReturnType<typeof isiDistribution>, j: number) => d.pmf[d.halfBins + j];

@@ -1,6 +1,6 @@
 // Dual-Dirac jitter as phase-mixing weights: closed forms, a quadrature oracle, identities, edges.
 import { describe, expect, it } from "vitest";
-import { jitterKernel } from "../../../lib/analysis/jitterKernel.ts";
+import { jitterKernel } from "@lib/analysis/jitterKernel";
 
 const weightAt = (k: ReturnType<typeof jitterKernel>, m: number) => {
   const i = m - k.first;

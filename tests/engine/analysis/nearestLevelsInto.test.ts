@@ -1,6 +1,6 @@
 // The levels around a slicer threshold, which decide what a BER at (t, v) is made of.
 import { describe, expect, it } from "vitest";
-import { nearestLevelsInto } from "../../../lib/analysis/nearestLevelsInto.ts";
+import { nearestLevelsInto } from "@lib/analysis/nearestLevelsInto";
 
 const out = new Int32Array(2);
 const around = (levels: number[], main_V: number, v_V: number) => {

@@ -1,6 +1,6 @@
 // PRBS generator: the ITU-T O.150 patterns and the PRBS13 used for PAM4 tests.
 import { describe, expect, it } from "vitest";
-import { PRBS_TAPS, prbs, prbsFromTaps, prbsPeriod, type PrbsOrder } from "../../../lib/analysis/prbs.ts";
+import { PRBS_TAPS, prbs, prbsFromTaps, prbsPeriod, type PrbsOrder } from "@lib/analysis/prbs";
 
 const asText = (bits: Uint8Array) => Array.from(bits).join("");
 

@@ -2,11 +2,11 @@
 // quantile, and close to it when noise and many small cursors make the tail.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { qFromBer } from "../../../lib/analysis/ber.ts";
-import { quantileBound } from "../../../lib/analysis/quantileBound.ts";
-import { DEFAULT_HALF_BINS, NOISE_TAIL_SIGMAS, sampleDistribution } from "../../../lib/analysis/sampleDistribution.ts";
-import { residualIsi, statisticalEye } from "../../../lib/analysis/statisticalEye.ts";
-import { seededRandom } from "../../../lib/signal/seededRandom.ts";
+import { qFromBer } from "@lib/analysis/ber";
+import { quantileBound } from "@lib/analysis/quantileBound";
+import { DEFAULT_HALF_BINS, NOISE_TAIL_SIGMAS, sampleDistribution } from "@lib/analysis/sampleDistribution";
+import { residualIsi, statisticalEye } from "@lib/analysis/statisticalEye";
+import { seededRandom } from "@lib/signal/seededRandom";
 import { cursorPulse } from "./helpers.ts";
 
 /** An equalized residual: one large cursor and a long, small, decaying tail (as after a CTLE + FIR). */

@@ -1,8 +1,8 @@
 // ISI plus Gaussian noise at one phase: quantiles against the Q function and a brute-force oracle.
 import { describe, expect, it } from "vitest";
-import { berFromQ, qFromBer } from "../../../lib/analysis/ber.ts";
-import { sampleDistribution } from "../../../lib/analysis/sampleDistribution.ts";
-import { seededRandom } from "../../../lib/signal/seededRandom.ts";
+import { berFromQ, qFromBer } from "@lib/analysis/ber";
+import { sampleDistribution } from "@lib/analysis/sampleDistribution";
+import { seededRandom } from "@lib/signal/seededRandom";
 import { enumerateIsi, normalCdfOracle } from "./helpers.ts";
 
 describe("sampleDistribution", () => {

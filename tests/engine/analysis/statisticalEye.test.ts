@@ -2,8 +2,8 @@
 // oracle, monotonicity properties and edges.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { berFromQ, qFromBer } from "../../../lib/analysis/ber.ts";
-import { statisticalEye, symbolLevels } from "../../../lib/analysis/statisticalEye.ts";
+import { berFromQ, qFromBer } from "@lib/analysis/ber";
+import { statisticalEye, symbolLevels } from "@lib/analysis/statisticalEye";
 import { cursorPulse, enumerateIsi } from "./helpers.ts";
 
 const BER = 1e-12;

@@ -2,7 +2,7 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { detectCsvDelimiter, InputFileError, readCsvResponse } from "../../../lib/channel/index.ts";
+import { detectCsvDelimiter, InputFileError, readCsvResponse } from "@lib/channel";
 
 const fixture = (name: string) => readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8");
 

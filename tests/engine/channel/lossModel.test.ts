@@ -1,7 +1,7 @@
 // Synthetic lossy line: loss at Nyquist, causal phase, realistic pulses from 5 to 40 dB at 10–56 GBd.
 import { describe, expect, it } from "vitest";
-import { lossModelS21, pulseFromLossModel } from "../../../lib/channel/index.ts";
-import { cursorsAt, pulseArea } from "../../../lib/pulse/index.ts";
+import { lossModelS21, pulseFromLossModel } from "@lib/channel";
+import { cursorsAt, pulseArea } from "@lib/pulse";
 
 describe("lossModelS21", () => {
   it("analytic: the loss at Nyquist is the one asked for; skin and dielectric shares add; DC is lossless", () => {

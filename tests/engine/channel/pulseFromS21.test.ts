@@ -1,7 +1,7 @@
 // S21 → pulse: delay line, attenuator, first-order low-pass, area = S21(0)·UI, DC extrapolation, grids, taper.
 import { describe, expect, it } from "vitest";
-import { formatTouchstone, pulseFromS21, pulseFromTouchstone, pulseFromSamples, type NetworkData } from "../../../lib/channel/index.ts";
-import { pulseArea } from "../../../lib/pulse/index.ts";
+import { formatTouchstone, pulseFromS21, pulseFromTouchstone, pulseFromSamples, type NetworkData } from "@lib/channel";
+import { pulseArea } from "@lib/pulse";
 
 const UI = 1 / 25e9;
 const linspace = (a: number, b: number, n: number) => Float64Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));

@@ -1,7 +1,7 @@
 // Pulse from sampled pulse, step and impulse responses; resampling; rise-time filter.
 import { describe, expect, it } from "vitest";
-import { pulseFromSamples, readCsvResponse, riseTimeKernel, riseTimeResponse, riseTimeSigma } from "../../../lib/channel/index.ts";
-import { pulseArea } from "../../../lib/pulse/index.ts";
+import { pulseFromSamples, readCsvResponse, riseTimeKernel, riseTimeResponse, riseTimeSigma } from "@lib/channel";
+import { pulseArea } from "@lib/pulse";
 
 const UI = 40e-12;
 

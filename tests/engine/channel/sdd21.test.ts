@@ -1,7 +1,7 @@
 // Mixed-mode SDD21 from a single-ended 4-port, for any port pairing.
 import { describe, expect, it } from "vitest";
-import { channelTransfer, sdd21, sParameter, type NetworkData } from "../../../lib/channel/index.ts";
-import { seededRandom } from "../../../lib/signal/index.ts";
+import { channelTransfer, sdd21, sParameter, type NetworkData } from "@lib/channel";
+import { seededRandom } from "@lib/signal";
 
 /** A random 4-port (not physical; the formulas are linear in S) over two frequencies, seed fixed. */
 const randomNet = (seed: number, ports = 4): NetworkData => {

@@ -1,7 +1,7 @@
 // Property tests of the Touchstone reader: random valid files round-trip; garbage gives a clear error.
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { formatTouchstone, InputFileError, parseTouchstone, type NetworkData } from "../../../lib/channel/index.ts";
+import { formatTouchstone, InputFileError, parseTouchstone, type NetworkData } from "@lib/channel";
 
 const networkArb = fc
   .record({

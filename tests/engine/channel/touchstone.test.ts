@@ -7,7 +7,7 @@ import {
   parseTouchstone,
   sParameter,
   type NetworkData,
-} from "../../../lib/channel/index.ts";
+} from "@lib/channel";
 
 const fixture = (name: string) => readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8");
 const at = (net: NetworkData, f: number, out: number, inp: number) => {

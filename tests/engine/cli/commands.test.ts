@@ -1,8 +1,8 @@
 // Every command of the engine's command line answers per shared/engine-cli.md (in-process).
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { formatTouchstone, lossModelS21, type NetworkData } from "../../../lib/channel/index.ts";
-import { runCommand } from "../../../lib/cli/runCommand.ts";
+import { formatTouchstone, lossModelS21, type NetworkData } from "@lib/channel";
+import { runCommand } from "@lib/cli/runCommand";
 
 const fixture = (name: string) => readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8");
 // eslint-disable-next-line @typescript-eslint/no-explicit-any

@@ -11,10 +11,10 @@ import {
   positiveInt,
   pulseJsonSchema,
   pulseSchema,
-} from "../../../lib/contract/common.ts";
-import { commands } from "../../../lib/cli/commands/index.ts";
-import { libErrorPath } from "../../../lib/cli/libErrorPath.ts";
-import { toJsonValue } from "../../../lib/cli/toJsonValue.ts";
+} from "@lib/contract/common";
+import { commands } from "@lib/cli/commands";
+import { libErrorPath } from "@lib/cli/libErrorPath";
+import { toJsonValue } from "@lib/cli/toJsonValue";
 
 describe("contract building blocks", () => {
   it("analytic: a valid pulse becomes a Pulse with a Float64Array; the index is checked against the values", () => {

@@ -3,7 +3,7 @@ import { spawn } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
-import { runCommand } from "../../../lib/cli/runCommand.ts";
+import { runCommand } from "@lib/cli/runCommand";
 
 const root = fileURLToPath(new URL("../../..", import.meta.url));
 const fixture = (name: string) => readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8");

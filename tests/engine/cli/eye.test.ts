@@ -1,8 +1,8 @@
 // The `eye` command per shared/engine-cli.md: the clean-pulse closed form, PAM4, DFE, jitter,
 // bathtub shape, bad input (exit 2 naming the field). In-process through runCommand.
 import { describe, expect, it } from "vitest";
-import { qFromBer } from "../../../lib/analysis/ber.ts";
-import { runCommand } from "../../../lib/cli/runCommand.ts";
+import { qFromBer } from "@lib/analysis/ber";
+import { runCommand } from "@lib/cli/runCommand";
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const ok = (request: unknown): any => {

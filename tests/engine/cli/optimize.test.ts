@@ -2,7 +2,7 @@
 // bad budgets (exit 2 naming the field). In-process through runCommand, plus one whole-process call.
 import { spawnSync } from "node:child_process";
 import { describe, expect, it } from "vitest";
-import { runCommand } from "../../../lib/cli/runCommand.ts";
+import { runCommand } from "@lib/cli/runCommand";
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const ok = (request: unknown): any => {

@@ -1,7 +1,7 @@
 // The `population` command: the minimax default of a class, with and without register codes, and
 // bad input (exit 2 naming the field). In-process through runCommand.
 import { describe, expect, it } from "vitest";
-import { runCommand } from "../../../lib/cli/runCommand.ts";
+import { runCommand } from "@lib/cli/runCommand";
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const ok = (request: unknown): any => {

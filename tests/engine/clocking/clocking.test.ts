@@ -1,9 +1,9 @@
 // Sampling-phase policies and jitter tracking: closed forms on piecewise-linear pulses, an
 // integration oracle for the tracking transfer, identities and edges.
 import { describe, expect, it } from "vitest";
-import { statisticalEye } from "../../../lib/analysis/statisticalEye.ts";
-import { defaultTrackingBandwidth, samplerJitter } from "../../../lib/clocking/jitterTransfer.ts";
-import { criterionPhase, defaultPhaseWindow, maxHeightPhase, samplingPhase } from "../../../lib/clocking/samplingPhase.ts";
+import { statisticalEye } from "@lib/analysis/statisticalEye";
+import { defaultTrackingBandwidth, samplerJitter } from "@lib/clocking/jitterTransfer";
+import { criterionPhase, defaultPhaseWindow, maxHeightPhase, samplingPhase } from "@lib/clocking/samplingPhase";
 import { cursorPulse } from "../analysis/helpers.ts";
 
 describe("sampling-phase policies", () => {

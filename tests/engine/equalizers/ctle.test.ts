@@ -6,9 +6,9 @@ import {
   ctleNoiseGain,
   ctleResponse,
   type CtleParams,
-} from "../../../lib/equalizers/index.ts";
-import { pulseArea } from "../../../lib/pulse/index.ts";
-import type { Pulse } from "../../../lib/types.ts";
+} from "@lib/equalizers";
+import { pulseArea } from "@lib/pulse";
+import type { Pulse } from "@lib/types";
 
 const fb = 25.78125e9;
 const bj = (gDc_dB: number): CtleParams => ({ gDc_dB, fz_Hz: fb / 4, fp1_Hz: fb / 4, fp2_Hz: fb });

@@ -1,6 +1,6 @@
 // DFE: taps equal to the post-cursors, clipped to per-tap limits, with the residual ISI.
 import { describe, expect, it } from "vitest";
-import { dfeTaps } from "../../../lib/equalizers/index.ts";
+import { dfeTaps } from "@lib/equalizers";
 
 const cursors = { h: Float64Array.of(0.05, 0.6, 0.3, -0.12, 0.08, 0.02), main: 1 };
 

@@ -14,10 +14,10 @@ import {
   peakSwing,
   quantizeTaps,
   type TxFirSpec,
-} from "../../../lib/equalizers/index.ts";
-import { cursorsAt, pulseArea } from "../../../lib/pulse/index.ts";
-import { seededRandom } from "../../../lib/signal/index.ts";
-import type { Pulse } from "../../../lib/types.ts";
+} from "@lib/equalizers";
+import { cursorsAt, pulseArea } from "@lib/pulse";
+import { seededRandom } from "@lib/signal";
+import type { Pulse } from "@lib/types";
 
 const UI = 1 / 25.78125e9;
 const randomPulse = (seed: number, spu = 8, n = 120): Pulse => {

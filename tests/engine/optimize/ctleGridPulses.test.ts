@@ -1,7 +1,7 @@
 // The CTLE grid by bilinearity against filtering each setting on its own (the CTLE plan).
 import { describe, expect, it } from "vitest";
-import { createCtlePlan } from "../../../lib/equalizers/ctlePlan.ts";
-import { ctleGridPulses } from "../../../lib/optimize/ctleGridPulses.ts";
+import { createCtlePlan } from "@lib/equalizers/ctlePlan";
+import { ctleGridPulses } from "@lib/optimize/ctleGridPulses";
 import { rcPulse } from "./fixtures.ts";
 
 const ui = 1e-10;

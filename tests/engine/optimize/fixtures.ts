@@ -1,5 +1,5 @@
 // Fixtures of the optimizer tests: small analytic channels and budgets.
-import type { Pulse } from "../../../lib/types.ts";
+import type { Pulse } from "@lib/types";
 
 /**
  * The pulse of a first-order RC channel (time constant τ with a = e^(−UI/τ)) for a 1 V, 1 UI symbol:

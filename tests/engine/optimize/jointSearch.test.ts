@@ -2,12 +2,12 @@
 // bounds against exact eyes (fast-check), starting points and edges.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { enumerateTxFirs } from "../../../lib/equalizers/enumerateTxFirs.ts";
-import { isLegalTxFir } from "../../../lib/equalizers/txFirConstraints.ts";
-import { evaluateSetting, heavyPhaseBound, lightPhaseBound, phaseEye, prepareEye } from "../../../lib/optimize/evaluateSetting.ts";
-import { BoxRanges, boundSetup, boxBound, createTapBox, leafBound, phaseCoefficients } from "../../../lib/optimize/headroomBound.ts";
-import { jointSearch, prepareChannels, startingPoints } from "../../../lib/optimize/jointSearch.ts";
-import { searchSpace } from "../../../lib/optimize/searchSpace.ts";
+import { enumerateTxFirs } from "@lib/equalizers/enumerateTxFirs";
+import { isLegalTxFir } from "@lib/equalizers/txFirConstraints";
+import { evaluateSetting, heavyPhaseBound, lightPhaseBound, phaseEye, prepareEye } from "@lib/optimize/evaluateSetting";
+import { BoxRanges, boundSetup, boxBound, createTapBox, leafBound, phaseCoefficients } from "@lib/optimize/headroomBound";
+import { jointSearch, prepareChannels, startingPoints } from "@lib/optimize/jointSearch";
+import { searchSpace } from "@lib/optimize/searchSpace";
 import { cursorPulse } from "../analysis/helpers.ts";
 
 const ui = 1e-10;

@@ -2,13 +2,13 @@
 // verdict, monotonicity, constraints (fast-check), reproducibility and edges.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { qFromBer } from "../../../lib/analysis/ber.ts";
-import { isLegalTxFir } from "../../../lib/equalizers/txFirConstraints.ts";
-import { equalizedCursors } from "../../../lib/optimize/ctleChannel.ts";
-import { nelderMead } from "../../../lib/optimize/nelderMead.ts";
-import { optimize } from "../../../lib/optimize/optimize.ts";
-import { prepareChannels } from "../../../lib/optimize/jointSearch.ts";
-import { searchSpace } from "../../../lib/optimize/searchSpace.ts";
+import { qFromBer } from "@lib/analysis/ber";
+import { isLegalTxFir } from "@lib/equalizers/txFirConstraints";
+import { equalizedCursors } from "@lib/optimize/ctleChannel";
+import { nelderMead } from "@lib/optimize/nelderMead";
+import { optimize } from "@lib/optimize/optimize";
+import { prepareChannels } from "@lib/optimize/jointSearch";
+import { searchSpace } from "@lib/optimize/searchSpace";
 import { flatCtle, rcPulse, stepwisePulse } from "./fixtures.ts";
 
 const BER = 1e-12;

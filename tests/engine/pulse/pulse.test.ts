@@ -9,8 +9,8 @@ import {
   pulseToJson,
   scalePulse,
   trimPulse,
-} from "../../../lib/pulse/index.ts";
-import type { Pulse } from "../../../lib/types.ts";
+} from "@lib/pulse";
+import type { Pulse } from "@lib/types";
 
 const make = (values: number[], samplesPerUi: number, mainIndex: number, ui_s = 1e-10): Pulse => ({
   ui_s,

@@ -1,9 +1,9 @@
 // The tuning run: plain JSON, consistency with the optimizer, pictures on shared axes, adaptation;
 // and the DFE adaptation on its own (convergence to the closed form, limits, edges).
 import { describe, expect, it } from "vitest";
-import { dfeAdaptation } from "../../../lib/run/dfeAdaptation.ts";
-import { ENGINE_VERSION } from "../../../lib/run/engineVersion.ts";
-import { tuningRun } from "../../../lib/run/tuningRun.ts";
+import { dfeAdaptation } from "@lib/run/dfeAdaptation";
+import { ENGINE_VERSION } from "@lib/run/engineVersion";
+import { tuningRun } from "@lib/run/tuningRun";
 import { cursorPulse } from "../analysis/helpers.ts";
 
 const pulse = cursorPulse([0, 0.05, 0.55, 0.3, 0.15, 0.07, 0.03, 0.01, 0], 2, 16);

@@ -1,6 +1,6 @@
 // FFT plan over fft.js: checked against a naive DFT, identities and analytic inputs.
 import { describe, expect, it } from "vitest";
-import { createFftPlan, nextPowerOfTwo, seededRandom, type ComplexArray } from "../../../lib/signal/index.ts";
+import { createFftPlan, nextPowerOfTwo, seededRandom, type ComplexArray } from "@lib/signal";
 
 /** Test oracle only: the O(N²) DFT straight from its definition. */
 function naiveDft(x: ComplexArray, sign: -1 | 1): ComplexArray {

@@ -13,7 +13,7 @@ import {
   raisedCosineRolloff,
   resampleLinear,
   seededRandom,
-} from "../../../lib/signal/index.ts";
+} from "@lib/signal";
 
 const directConvolution = (a: Float64Array, b: Float64Array) => {
   const y = new Float64Array(a.length + b.length - 1);

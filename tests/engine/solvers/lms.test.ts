@@ -1,6 +1,6 @@
 // LMS and sign-sign LMS: convergence to the Wiener taps, reproducibility, trajectories, stability.
 import { describe, expect, it } from "vitest";
-import { lmsAdapt, mmseEqualizer } from "../../../lib/solvers/index.ts";
+import { lmsAdapt, mmseEqualizer } from "@lib/solvers";
 
 const channel = { h: Float64Array.of(0.08, 1, 0.45, -0.15, 0.05), main: 1 };
 const [pre, post, sigma] = [2, 4, 0.05];

@@ -1,7 +1,7 @@
 // Wiener/MMSE: Haykin's example, the Jmin identity, optimality and the normal-equation oracle.
 import { describe, expect, it } from "vitest";
-import { equalizerMse, lmsStepBounds, mmseEqualizer, wienerSolve } from "../../../lib/solvers/index.ts";
-import { seededRandom } from "../../../lib/signal/index.ts";
+import { equalizerMse, lmsStepBounds, mmseEqualizer, wienerSolve } from "@lib/solvers";
+import { seededRandom } from "@lib/signal";
 import { normalEquations } from "./oracle.ts";
 
 const cur = (h: number[], main: number) => ({ h: Float64Array.from(h), main });

@@ -1,8 +1,8 @@
 // Back-channel transmit training: requests, statuses, limits, convergence.
 import { describe, expect, it } from "vitest";
-import { enumerateTxFirs, isLegalTxFir, type TxFirSpec } from "../../../lib/equalizers/index.ts";
-import { convolveCursors } from "../../../lib/equalizers/index.ts";
-import { txTraining } from "../../../lib/solvers/index.ts";
+import { enumerateTxFirs, isLegalTxFir, type TxFirSpec } from "@lib/equalizers";
+import { convolveCursors } from "@lib/equalizers";
+import { txTraining } from "@lib/solvers";
 
 const channel = { h: Float64Array.of(0.06, 0.55, 0.3, 0.12, 0.05), main: 1 };
 const spec: TxFirSpec = { pre: 1, post: 1, step: 0.025 };

@@ -1,8 +1,8 @@
 // Zero-forcing: the textbook examples, least squares over a wider window, normalization.
 import { describe, expect, it } from "vitest";
-import { zeroForcing } from "../../../lib/solvers/index.ts";
-import { firNoiseGain } from "../../../lib/equalizers/index.ts";
-import { seededRandom } from "../../../lib/signal/index.ts";
+import { zeroForcing } from "@lib/solvers";
+import { firNoiseGain } from "@lib/equalizers";
+import { seededRandom } from "@lib/signal";
 import { normalEquations } from "./oracle.ts";
 
 const cur = (h: number[], main: number) => ({ h: Float64Array.from(h), main });
