@@ -1,13 +1,13 @@
 // Request of the `population` command: the minimax default of a class of channels.
 import { z } from "zod";
-import { PARAMETER_PATTERN } from "../tables/registerMap.ts";
+import { PARAMETER_PATTERN } from "../tapTables/registerMap.ts";
 import { budgetSchema } from "./budget.ts";
 import { finiteNumber, pulseSchema } from "./common.ts";
 
 /** Largest class the command accepts. */
 export const MAX_POPULATION = 128;
 
-/** One register field (see lib/tables/registerMap.ts). */
+/** One register field (see lib/tapTables/registerMap.ts). */
 export const registerFieldSchema = z
   .object({
     name: z.string().regex(/^[A-Za-z_][A-Za-z0-9_]*$/, { error: "a field name is a C identifier" }),

@@ -2,8 +2,8 @@
 import { deliverQueuedMail, startMailRetries } from "./mail/mail.server";
 import { startJobDispatcher } from "./jobs/queue.server";
 import "@/features/studies/studies.server";
-import "@/features/tables/tables.server";
-import "@/features/runs/runJobs.server";
+import "@/features/tapTables/tapTables.server";
+import "@/features/runs/runs.server";
 
 let started = false;
 

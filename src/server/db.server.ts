@@ -2,9 +2,10 @@
 import { drizzle } from "drizzle-orm/mysql2";
 import mysql from "mysql2/promise";
 import * as schema from "@/db/schema";
+import { config } from "./config.server";
 
 function databaseUrl(): string {
-  const url = process.env.DATABASE_URL;
+  const url = config.databaseUrl;
   if (!url) throw new Error("DATABASE_URL is not set; start the app with `npm start`.");
   return url;
 }

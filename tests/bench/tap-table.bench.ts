@@ -1,12 +1,12 @@
 // The web app's heaviest job: a tap table of 4 classes over 24 channels, computed exactly as the
-// worker pool computes a version (src/features/tables/tableJob.ts), in-process.
+// worker pool computes a version (src/features/tapTables/tapTables.job.ts), in-process.
 import { bench, describe } from "vitest";
-import { deriveSynthetic } from "../../src/features/channels/derive";
-import { budgetPresets } from "../../src/features/budgets/budgets";
-import { defaultRegisterMap } from "../../src/features/tables/registerMap";
-import { computeTableVersion } from "../../src/features/tables/tableJob";
-import type { VersionClass, VersionInputs } from "../../src/features/tables/tables";
-import type { Architecture } from "../../src/features/studies/architecture";
+import { deriveSynthetic } from "@/features/channels/derive";
+import { budgetPresets } from "@/features/budgets/budgets";
+import { defaultRegisterMap } from "@/features/tapTables/registerMap";
+import { computeTapTableVersion } from "@/features/tapTables/tapTables.job";
+import type { VersionClass, VersionInputs } from "@/features/tapTables/tapTables";
+import type { Architecture } from "@/features/studies/architecture";
 
 const preset = budgetPresets.find((p) => p.key === "nrz28-backplane")!;
 const edges_dB = [12, 18, 24];
@@ -40,6 +40,6 @@ const own: Architecture = { key: "tx12-ctle-dfe5", label: "TX FIR 1/2 + CTLE + D
 const lighter: Architecture = { key: "tx11-ctle-dfe3", label: "TX FIR 1/1 + CTLE + DFE 3", tx: { pre: 1, post: 1 }, ctle: true, dfeTaps: 3, ffe: null };
 
 describe("tap table: 4 classes over 24 channels (28 Gb/s NRZ backplane budget)", () => {
-  bench("the budget's own architecture: TX FIR 1/2 at 1/40 + CTLE + DFE 5", () => void computeTableVersion(inputs(own), () => {}), { iterations: 1, warmupIterations: 0, time: 0 });
-  bench("TX FIR 1/1 + CTLE + DFE 3", () => void computeTableVersion(inputs(lighter), () => {}), { iterations: 1, warmupIterations: 0, time: 0 });
+  bench("the budget's own architecture: TX FIR 1/2 at 1/40 + CTLE + DFE 5", () => void computeTapTableVersion(inputs(own), () => {}), { iterations: 1, warmupIterations: 0, time: 0 });
+  bench("TX FIR 1/1 + CTLE + DFE 3", () => void computeTapTableVersion(inputs(lighter), () => {}), { iterations: 1, warmupIterations: 0, time: 0 });
 });

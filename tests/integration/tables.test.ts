@@ -4,8 +4,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { channelFor, evaluateSetting, resolveBudget, searchSpace } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
-import { codeRange, decodeField, encodeField, type RegisterField } from "@lib/tables";
-import { budgetForArchitecture } from "@/features/tables/architectureBudget";
+import { codeRange, decodeField, encodeField, type RegisterField } from "@lib/tapTables";
+import { budgetForArchitecture } from "@/features/tapTables/architectureBudget";
 import { anonymous, signIn, type Client } from "../support/http";
 import { closeDb, rowCounts } from "../fixtures/workspace";
 import { auditEvents, population, quickBudget, unique, versionComputed, type Population } from "./handoff.fixture";

@@ -1,6 +1,6 @@
 // `population`: one default setting for a class of channels (minimax), optionally in register codes.
 import { populationRequestSchema } from "../../contract/population.ts";
-import { populationDefault } from "../../tables/populationDefault.ts";
+import { populationDefault } from "../../tapTables/populationDefault.ts";
 import { defineCommand } from "../defineCommand.ts";
 
 /**

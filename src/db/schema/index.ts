@@ -6,5 +6,5 @@ export * from "./channels";
 export * from "./budgets";
 export * from "./jobs";
 export * from "./studies";
-export * from "./tables";
+export * from "./tapTables";
 export * from "./signoff";

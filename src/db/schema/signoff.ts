@@ -2,7 +2,7 @@
 import { index, int, mysqlEnum, mysqlTable, text, timestamp, varchar } from "drizzle-orm/mysql-core";
 import { timestamps } from "./columns";
 import { users } from "./auth";
-import { tapTableVersions } from "./tables";
+import { tapTableVersions } from "./tapTables";
 
 export const signOffStates = ["pending", "approved", "rejected"] as const;
 

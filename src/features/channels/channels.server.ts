@@ -1,120 +1,18 @@
-// Channels in MariaDB: reading uploads (with the size limit), creating a channel and its original
-// file in one transaction, the list with sorting, filtering and paging, detail, the original bytes,
-// and deletion (tuning runs keep their own copy of the inputs).
+// Channels in MariaDB: deriving a channel from a parsed request (channelRequest.server.ts), creating
+// it and its original file in one transaction, the list with sorting, filtering and paging, detail,
+// the original bytes, and deletion (tuning runs keep their own copy of the inputs).
 import { createHash } from "node:crypto";
 import { and, asc, count, desc, eq, like, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
 import { channels, channelSources, programs, runs, users } from "@/db/schema";
-import { ApiError, badRequest, conflict, notFound, zodToApiError } from "@/server/http/errors";
+import { conflict, notFound } from "@/server/http/errors";
+import type { UploadedFile } from "@/server/http/body";
+import type { Download } from "@/server/http/download";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
-import {
-  MAX_UPLOAD_BYTES,
-  formatBytes,
-  syntheticRequest,
-  uploadFields,
-  type ChannelDetail,
-  type ChannelListItem,
-  type DerivedChannel,
-  type ListQuery,
-  type ModulationName,
-  type SyntheticRequest,
-  type UploadFields,
-} from "./channels";
+import type { ChannelDetail, ChannelListItem, DerivedChannel, ListQuery, ModulationName } from "./channels";
+import type { ChannelRequest } from "./channelRequest.server";
 import { deriveFromFile, deriveSynthetic } from "./derive";
-
-/** Room for the multipart envelope around the file. */
-const MULTIPART_OVERHEAD = 256 * 1024;
-const tooLarge = () =>
-  new ApiError(413, `The file is larger than the ${formatBytes(MAX_UPLOAD_BYTES)} limit; trim the frequency range or the record length and upload again.`, "file");
-
-/**
- * Reads a request body up to `limit` bytes. Beyond it the rest is read and dropped (so the client
- * gets the answer instead of a reset connection) and a 413 is thrown.
- */
-async function readBodyLimited(request: Request, limit: number): Promise<Uint8Array<ArrayBuffer>> {
-  const declared = Number(request.headers.get("content-length") ?? NaN);
-  const reader = request.body?.getReader();
-  if (!reader) return new Uint8Array();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  let over = Number.isFinite(declared) && declared > limit;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.length;
-    if (total > limit) over = true;
-    if (!over) chunks.push(value);
-  }
-  if (over) throw tooLarge();
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.length;
-  }
-  return out;
-}
-
-export interface UploadedFile {
-  filename: string;
-  contentType: string;
-  bytes: Uint8Array;
-}
-
-/** A parsed channel request: a file upload (multipart) or a synthetic channel (JSON). */
-export type ChannelRequest =
-  | { source: "file"; fields: UploadFields; file: UploadedFile }
-  | { source: "synthetic"; body: SyntheticRequest };
-
-/**
- * Reads POST /api/v1/channels (and the preview): multipart with `file` and the fields of
- * {@link uploadFields}, or JSON for a synthetic channel. 413 above the size limit, 415 for another
- * content type, 400 for missing or invalid fields.
- */
-export async function readChannelRequest(request: Request, { fileOnly = false } = {}): Promise<ChannelRequest> {
-  const type = request.headers.get("content-type") ?? "";
-  if (!fileOnly && type.startsWith("application/json")) {
-    const body = await readBodyLimited(request, 1024 * 1024);
-    let raw: unknown;
-    try {
-      raw = JSON.parse(new TextDecoder().decode(body));
-    } catch {
-      throw badRequest("The request body must be JSON: { name, bitRate_bps, lossModel: { lossAtNyquist_dB } }.");
-    }
-    const parsed = syntheticRequest.safeParse(raw);
-    if (!parsed.success) throw zodToApiError(parsed.error);
-    return { source: "synthetic", body: parsed.data };
-  }
-  if (!type.startsWith("multipart/form-data")) {
-    throw new ApiError(
-      415,
-      fileOnly
-        ? "Send the file as multipart/form-data (fields file, name, bitRate_bps…)."
-        : "Send a file as multipart/form-data (fields file, name, bitRate_bps…) or a synthetic channel as JSON.",
-    );
-  }
-  const body = await readBodyLimited(request, MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD);
-  let form: FormData;
-  try {
-    form = await new Response(body as Uint8Array<ArrayBuffer>, { headers: { "content-type": type } }).formData();
-  } catch {
-    throw badRequest("The multipart body cannot be read; send it as a browser or curl -F would.");
-  }
-  const file = form.get("file");
-  if (!(file instanceof File)) throw badRequest("Attach the file in the field 'file'.", "file");
-  if (file.size > MAX_UPLOAD_BYTES) throw tooLarge();
-  const text: Record<string, string> = {};
-  for (const [k, v] of form.entries()) if (typeof v === "string" && v !== "") text[k] = v;
-  if (fileOnly && !text.name) text.name = file.name;
-  const parsed = uploadFields.safeParse(text);
-  if (!parsed.success) throw zodToApiError(parsed.error);
-  return {
-    source: "file",
-    fields: parsed.data,
-    file: { filename: file.name || "upload", contentType: file.type || "application/octet-stream", bytes: new Uint8Array(await file.arrayBuffer()) },
-  };
-}
 
 /** Runs the engine on a request: the derived pulse, insertion loss and their provenance. */
 export function deriveChannel(req: ChannelRequest): DerivedChannel {
@@ -322,20 +220,17 @@ export async function getChannel(id: number): Promise<ChannelDetail> {
   };
 }
 
-/** GET /api/v1/channels/:id/original: the uploaded file, byte for byte. */
-export async function originalFile(id: number): Promise<Response> {
+/** GET /api/v1/channels/:id/original: the uploaded file, byte for byte, with its SHA-256. */
+export async function originalFile(id: number): Promise<Download> {
   const [src] = await db.select().from(channelSources).where(eq(channelSources.channelId, id));
   if (!src) throw notFound(`An uploaded file for channel ${id}`);
-  const safeName = src.filename.replace(/["\\\r\n]/g, "_");
-  return new Response(new Uint8Array(src.bytes), {
-    headers: {
-      "content-type": src.contentType || "application/octet-stream",
-      "content-length": String(src.size_bytes),
-      "content-disposition": `attachment; filename="${safeName}"; filename*=UTF-8''${encodeURIComponent(src.filename)}`,
-      "x-content-sha256": src.sha256,
-      "cache-control": "private, max-age=0",
-    },
-  });
+  return {
+    filename: src.filename,
+    contentType: src.contentType || "application/octet-stream",
+    body: src.bytes,
+    cacheControl: "private, max-age=0",
+    headers: { "x-content-sha256": src.sha256 },
+  };
 }
 
 /**

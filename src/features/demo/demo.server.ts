@@ -8,13 +8,14 @@ import { existsSync, mkdirSync, readFileSync, readdirSync, rmSync, writeFileSync
 import { join } from "node:path";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/server/db.server";
+import { config } from "@/server/config.server";
 import { budgets, channels, programs, runs, users } from "@/db/schema";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { deriveFromFile, deriveSynthetic } from "@/features/channels/derive";
 import { saveChannel } from "@/features/channels/channels.server";
 import { createBudget } from "@/features/budgets/budgets.server";
 import { recordFinishedRun } from "@/features/runs/runs.server";
-import { computeRun, type RunJobInput } from "@/features/runs/computeRun";
+import { computeRun, type RunJobInput } from "@/features/runs/runs.job";
 import type { TuningRunResult } from "@lib/run";
 import { backplaneTouchstone } from "./backplaneTouchstone";
 import { DEMO_BUDGETS, DEMO_CHANNELS, DEMO_PROGRAM, DEMO_RUNS, type DemoChannel } from "./demo";
@@ -60,7 +61,7 @@ function engineHash(): string {
 
 /** The engine's result for a demo run: from the cache when the inputs and the engine are unchanged. */
 function cachedRun(input: RunJobInput, engine: string): { result: TuningRunResult; compute_ms: number } {
-  const base = join(process.env.TAPWRIGHT_DATA_DIR ?? join(process.cwd(), ".data"), "demo-runs");
+  const base = join(config.dataDir, "demo-runs");
   const dir = join(base, engine.slice(0, 16));
   const file = join(dir, `${createHash("sha256").update(JSON.stringify(input)).digest("hex")}.json`);
   if (existsSync(file)) return JSON.parse(readFileSync(file, "utf8"));

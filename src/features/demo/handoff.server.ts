@@ -10,17 +10,18 @@ import { existsSync, mkdirSync, readFileSync, readdirSync, rmSync, statSync, wri
 import { join } from "node:path";
 import { and, eq, inArray } from "drizzle-orm";
 import { db } from "@/server/db.server";
+import { config } from "@/server/config.server";
 import { budgets, channels, studies, tapTables, users } from "@/db/schema";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { defaultCandidates } from "@/features/studies/architecture";
-import { computeStudy } from "@/features/studies/studyJob";
+import { computeStudy } from "@/features/studies/studies.job";
 import { decideStudy, getStudy, startStudy } from "@/features/studies/studies.server";
-import { computeTableVersion } from "@/features/tables/tableJob";
-import { createTable, createVersion } from "@/features/tables/tables.server";
+import { computeTapTableVersion } from "@/features/tapTables/tapTables.job";
+import { createTapTable, createVersion } from "@/features/tapTables/tapTables.server";
 import { addComment, decide, requestSignOff } from "@/features/signoff/signoff.server";
 import type { CandidateResult, StudyInputs } from "@/features/studies/studies";
-import type { VersionInputs } from "@/features/tables/tables";
-import type { RunHere } from "@/features/studies/inlineJob.server";
+import type { VersionInputs } from "@/features/tapTables/tapTables";
+import type { RunHere } from "@/server/jobs/inlineJob.server";
 import { DEMO_BUDGETS, DEMO_CHANNELS } from "./demo";
 
 const STUDY = "QL-48 backplane lanes: how much equalization";
@@ -31,7 +32,7 @@ const RETIMED_ABOVE_dB = 35;
 const CANDIDATES = defaultCandidates({ pre: 1, post: 1 }, 5).filter((c) => ["ctle", "tx-ctle", "tx-ctle-dfe1", "tx-ctle-dfe3", "tx-ctle-dfe5"].includes(c.key));
 
 /** The code a hand-off result depends on: the engine and the job modules that call it. */
-const COMPUTING_CODE = ["lib", "src/features/studies/studyJob.ts", "src/features/tables/tableJob.ts", "src/features/tables/architectureBudget.ts"];
+const COMPUTING_CODE = ["lib", "src/features/studies/studies.job.ts", "src/features/tapTables/tapTables.job.ts", "src/features/tapTables/architectureBudget.ts"];
 
 /** SHA-256 over the computing code's files, in path order. */
 function codeHash(): string {
@@ -51,7 +52,7 @@ function codeHash(): string {
 
 /** Runs a computation, or reuses its result when the same inputs met the same code before. */
 function reused<I, R>(kind: string, code: string, compute: (input: I) => R): RunHere<I, R> {
-  const base = join(process.env.TAPWRIGHT_DATA_DIR ?? join(process.cwd(), ".data"), "demo-handoff");
+  const base = join(config.dataDir, "demo-handoff");
   const dir = join(base, code.slice(0, 16));
   return {
     compute(input) {
@@ -123,8 +124,8 @@ export async function seedHandoff(): Promise<{ study: boolean; table: boolean }>
     await decideStudy(designer, study.id, { candidateKey: chosen.key, rationale: rationale(chosen, view.result.candidates, view.result.requiredHeadroom_V, retimed) });
   }
 
-  const here = reused("version", code, (i: VersionInputs) => computeTableVersion(i, () => {}));
-  const { id: tableId } = await createTable(
+  const here = reused("version", code, (i: VersionInputs) => computeTapTableVersion(i, () => {}));
+  const { id: tableId } = await createTapTable(
     designer,
     {
       name: TABLE,

@@ -2,6 +2,7 @@
 import { createHash, randomBytes } from "node:crypto";
 import { and, asc, count, eq, gt, isNull } from "drizzle-orm";
 import { db } from "@/server/db.server";
+import { config } from "@/server/config.server";
 import { accounts, invitations, users, type Role } from "@/db/schema";
 import { ApiError, conflict, notFound } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
@@ -46,9 +47,9 @@ export async function setRole(actor: SessionUser, userId: string, role: Role) {
  * Invites a person by e-mail: stores the invitation (secret hashed) and queues the e-mail with the
  * link in one transaction. Returns the link too, so an admin can pass it on by hand.
  */
-export async function invite(actor: SessionUser, email: string, role: Role, baseUrl: string) {
+export async function invite(actor: SessionUser, email: string, role: Role) {
   const secret = randomBytes(24).toString("base64url");
-  const link = new URL(`/invite/${secret}`, baseUrl).toString();
+  const link = new URL(`/invite/${secret}`, config.publicUrl).toString();
   await db.transaction(async (tx) => {
     const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, email));
     if (existing) throw conflict(`${email} already has an account; change their role instead.`);

@@ -1,9 +1,10 @@
 // Tuning runs in MariaDB: starting one (a copy of its inputs and a queued job in one transaction),
-// running it again, reading one, listing them. The job queue runs them in the worker pool.
+// running it again, reading one, listing them. The job queue runs them in the worker pool
+// (runs.job.ts); this module tells the queue how to read a run's input and store its result.
 import { and, count, desc, eq, sql, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
 import { budgets, channels, jobs, runs, users, type RunInputs } from "@/db/schema";
-import { enqueueJob, pumpJobs } from "@/server/jobs/queue.server";
+import { enqueueJob, pumpJobs, registerJobKind } from "@/server/jobs/queue.server";
 import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
@@ -211,3 +212,8 @@ export async function countRuns(): Promise<number> {
   const [{ n }] = await db.select({ n: count() }).from(runs);
   return n;
 }
+
+registerJobKind("run", {
+  input: runJobInput,
+  save: (tx, runId, result) => storeRunResult(tx, runId, result as TuningRunResult),
+});

@@ -4,20 +4,21 @@
 import { and, asc, count, desc, eq, inArray, lt, or, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/mysql-core";
 import { db } from "@/server/db.server";
+import { config } from "@/server/config.server";
 import { signOffComments, signOffs, tapTables, tapTableVersions, users } from "@/db/schema";
 import { conflict, forbidden, notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import { deliverQueuedMail, enqueueMail } from "@/server/mail/mail.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
-import { parseBudget } from "@/features/studies/sources.server";
-import type { VersionInputs, VersionResult } from "@/features/tables/tables";
+import { parseBudget } from "@/server/sources.server";
+import type { VersionInputs, VersionResult } from "@/features/tapTables/tapTables";
 import type { CommentRequest, CommentView, DecisionRequest, Person, SignOffDetail, SignOffListItem, SignOffRequest, SignOffState } from "./signoff";
 
 const requester = alias(users, "requester");
 const reviewer = alias(users, "reviewer");
 
 function link(path: string): string {
-  return new URL(path, process.env.BETTER_AUTH_URL ?? "http://127.0.0.1:4321").toString();
+  return new URL(path, config.publicUrl).toString();
 }
 
 /**

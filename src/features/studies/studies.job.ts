@@ -3,7 +3,7 @@
 import { resolveBudget } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
 import { ENGINE_VERSION } from "@lib/run";
-import { evaluateArchitectures } from "@lib/tables";
+import { evaluateArchitectures } from "@lib/tapTables";
 import type { StudyInputs, StudyResult } from "./studies";
 
 export function computeStudy(inputs: StudyInputs, onProgress: (fraction: number) => void): StudyResult {

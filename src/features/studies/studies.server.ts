@@ -9,8 +9,8 @@ import { recordAudit } from "@/server/audit/audit.server";
 import { enqueueJob, jobStatus, pumpJobs, registerJobKind } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { defaultCandidates } from "./architecture";
-import { budgetCopy, channelCopies, checkBudgetFits, withoutPulses } from "./sources.server";
-import { finishHere, type RunHere } from "./inlineJob.server";
+import { budgetCopy, channelCopies, checkBudgetFits, withoutPulses } from "@/server/sources.server";
+import { finishHere, type RunHere } from "@/server/jobs/inlineJob.server";
 import type { StudyBudgetChoice } from "./newStudyStore";
 import type { CreateStudyRequest, DecisionRequest, DecisionView, StudyInputs, StudyResult } from "./studies";
 

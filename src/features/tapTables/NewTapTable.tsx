@@ -6,24 +6,24 @@ import { describeArchitecture } from "@/features/studies/architecture";
 import RegisterMapEditor from "./RegisterMapEditor";
 import { classesOf } from "./grouping";
 import { defaultRegisterMap } from "./registerMap";
-import { tableArchitectureProblem } from "./architectureBudget";
+import { tapTableArchitectureProblem } from "./architectureBudget";
 import {
   architectureOf,
-  createNewTableStore,
+  createNewTapTableStore,
   groupingOf,
   type DecidedStudy,
-  type TableBudgetChoice,
-  type TableChannelChoice,
-} from "./newTableStore";
+  type TapTableBudgetChoice,
+  type TapTableChannelChoice,
+} from "./newTapTableStore";
 
 interface Props {
-  budgets: TableBudgetChoice[];
-  channels: TableChannelChoice[];
+  budgets: TapTableBudgetChoice[];
+  channels: TapTableChannelChoice[];
   studies: DecidedStudy[];
 }
 
 const symbolRate = (bitRate: number, modulation: string) => bitRate / (modulation === "pam4" ? 2 : 1);
-function fits(c: TableChannelChoice, b: TableBudgetChoice | undefined): boolean {
+function fits(c: TapTableChannelChoice, b: TapTableBudgetChoice | undefined): boolean {
   if (!b?.bitRate_bps) return true;
   return Math.abs(symbolRate(c.bitRate_bps, c.modulation) / symbolRate(b.bitRate_bps, b.modulation) - 1) < 0.01;
 }
@@ -47,8 +47,8 @@ function Count(props: { label: string; value: number; max: number; onChange: (n:
   );
 }
 
-export default function NewTable(props: Props) {
-  const [store] = useState(() => createNewTableStore(props));
+export default function NewTapTable(props: Props) {
+  const [store] = useState(() => createNewTapTableStore(props));
   const s = useStore(store);
   const budget = props.budgets.find((b) => b.id === s.budgetId);
   const usable = props.channels
@@ -56,7 +56,7 @@ export default function NewTable(props: Props) {
     .sort((a, b) => (a.lossAtNyquist_dB ?? Infinity) - (b.lossAtNyquist_dB ?? Infinity) || a.name.localeCompare(b.name));
   const arch = architectureOf(s, props.studies);
   const study = props.studies.find((x) => x.id === s.studyId);
-  const problem = arch ? tableArchitectureProblem(arch) : null;
+  const problem = arch ? tapTableArchitectureProblem(arch) : null;
   const map = useMemo(() => s.customMap ?? (arch && budget && !problem ? defaultRegisterMap(arch, budget.params) : []), [s.customMap, arch, budget, problem]);
   const grouping = groupingOf(s);
   const preview = useMemo(() => {

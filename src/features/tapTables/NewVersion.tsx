@@ -2,7 +2,7 @@
 // here (another budget, other loss-bin edges), with a note on what changed.
 import { useState } from "react";
 import { api } from "@/components/api";
-import { parseEdges } from "./newTableStore";
+import { parseEdges } from "./newTapTableStore";
 
 interface Props {
   tableId: number;

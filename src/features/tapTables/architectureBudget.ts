@@ -5,14 +5,14 @@ import type { Budget, BudgetInput } from "@lib/contract/budget";
 import type { Architecture } from "@/features/studies/architecture";
 
 /** Why an architecture cannot have a tap table, or null when it can. */
-export function tableArchitectureProblem(a: Architecture): string | null {
+export function tapTableArchitectureProblem(a: Architecture): string | null {
   if (!a.ctle) return `“${a.label}” has no CTLE; tap tables hold the budget's CTLE setting, so choose an architecture with one.`;
   if (a.ffe) return `“${a.label}” has a receive FFE; tap tables hold transmit FIR, CTLE and DFE settings only — choose an architecture without one.`;
   return null;
 }
 
 /**
- * The budget for a table of this architecture (call only when {@link tableArchitectureProblem}
+ * The budget for a table of this architecture (call only when {@link tapTableArchitectureProblem}
  * is null).
  */
 export function budgetForArchitecture(b: Budget, a: Architecture): BudgetInput {

@@ -1,7 +1,7 @@
 // What changed between two versions of a tap table: classes added, removed or changed (a class
 // matches by name, or else by holding the same channels), their register codes and worst headroom,
 // and per channel its class, the codes it gets and its headroom with its class default.
-import type { ClassResult } from "./tables";
+import type { ClassResult } from "./tapTables";
 
 export interface CodeChange {
   field: string;

@@ -1,11 +1,11 @@
 // The three export formats of a tap table version, in Tapwright's own layout (documented in the
 // README): CSV (one row per class, register codes), JSON (everything, codes and physical values)
 // and a C header (the register map as macros and one array of default settings per class).
-import { codeRange } from "@lib/tables";
-import type { VersionState } from "@/db/schema/tables";
+import { codeRange } from "@lib/tapTables";
+import type { VersionState } from "@/db/schema/tapTables";
 import type { Architecture } from "@/features/studies/architecture";
 import type { RegisterField } from "./registerMap";
-import type { ClassResult, ExportFormat } from "./tables";
+import type { ClassResult, ExportFormat } from "./tapTables";
 
 /** Everything an export holds. */
 export interface ExportModel {

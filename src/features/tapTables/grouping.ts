@@ -1,5 +1,5 @@
 // Channel classes of a tap table: bins of insertion loss at Nyquist, or classes named by hand.
-import type { Grouping } from "./tables";
+import type { Grouping } from "./tapTables";
 
 /** A channel as grouping needs it. */
 export interface GroupableChannel {

@@ -4,9 +4,9 @@ import { createStore } from "zustand/vanilla";
 import { api } from "@/components/api";
 import { describeArchitecture, type Architecture } from "@/features/studies/architecture";
 import type { BudgetForMap, RegisterField } from "./registerMap";
-import type { Grouping } from "./tables";
+import type { Grouping } from "./tapTables";
 
-export interface TableBudgetChoice {
+export interface TapTableBudgetChoice {
   id: number;
   name: string;
   modulation: "nrz" | "pam4";
@@ -14,7 +14,7 @@ export interface TableBudgetChoice {
   params: BudgetForMap;
 }
 
-export interface TableChannelChoice {
+export interface TapTableChannelChoice {
   id: number;
   name: string;
   bitRate_bps: number;
@@ -37,7 +37,7 @@ export interface ManualArchitecture {
   dfeTaps: number;
 }
 
-export interface NewTableState {
+export interface NewTapTableState {
   name: string;
   description: string;
   note: string;
@@ -55,7 +55,7 @@ export interface NewTableState {
   mapKey: number;
   busy: boolean;
   error: string | null;
-  set(patch: Partial<Pick<NewTableState, "name" | "description" | "note" | "edgesText" | "mode">>): void;
+  set(patch: Partial<Pick<NewTapTableState, "name" | "description" | "note" | "edgesText" | "mode">>): void;
   setBudget(id: number): void;
   useStudy(id: number | null): void;
   setManual(patch: Partial<ManualArchitecture>): void;
@@ -85,15 +85,15 @@ export function parseEdges(text: string): number[] | null {
 }
 
 /** The transmit FIR of a budget (1 pre / 1 post when it has none). */
-function txOf(b: TableBudgetChoice | undefined): { pre: number; post: number } {
+function txOf(b: TapTableBudgetChoice | undefined): { pre: number; post: number } {
   const pre = b?.params.tx?.pre ?? 1;
   const post = b?.params.tx?.post ?? 1;
   return pre + post > 0 ? { pre, post } : { pre: 1, post: 1 };
 }
 
-export function createNewTableStore(init: { budgets: TableBudgetChoice[]; studies: DecidedStudy[]; channels: TableChannelChoice[] }) {
+export function createNewTapTableStore(init: { budgets: TapTableBudgetChoice[]; studies: DecidedStudy[]; channels: TapTableChannelChoice[] }) {
   const firstStudy = init.studies[0];
-  return createStore<NewTableState>()((set, get) => ({
+  return createStore<NewTapTableState>()((set, get) => ({
     name: "",
     description: "",
     note: "",
@@ -159,13 +159,13 @@ export function createNewTableStore(init: { budgets: TableBudgetChoice[]; studie
 }
 
 /** The architecture the builder currently stands for. */
-export function architectureOf(s: Pick<NewTableState, "source" | "studyId" | "manual">, studies: DecidedStudy[]): Architecture | null {
+export function architectureOf(s: Pick<NewTapTableState, "source" | "studyId" | "manual">, studies: DecidedStudy[]): Architecture | null {
   if (s.source === "study") return studies.find((x) => x.id === s.studyId)?.architecture ?? null;
   return manualArchitecture(s.manual);
 }
 
 /** The grouping request, or a sentence saying what is missing. */
-export function groupingOf(s: Pick<NewTableState, "mode" | "edgesText" | "channelIds" | "assignment">): Grouping | string {
+export function groupingOf(s: Pick<NewTapTableState, "mode" | "edgesText" | "channelIds" | "assignment">): Grouping | string {
   if (s.channelIds.length === 0) return "Choose at least one channel.";
   if (s.mode === "loss-bins") {
     const edges = parseEdges(s.edgesText);

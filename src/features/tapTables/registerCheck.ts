@@ -1,6 +1,6 @@
 // Server-side check of a register map against the architecture it encodes: one field per
 // parameter, no strays, and codes inside every field's range at its width and LSB (422 otherwise).
-import { codeRange } from "@lib/tables";
+import { codeRange } from "@lib/tapTables";
 import type { Architecture } from "@/features/studies/architecture";
 import { unprocessable } from "@/server/http/errors";
 import { requiredParameters, type BudgetForMap, type RegisterField } from "./registerMap";

@@ -2,7 +2,7 @@
 // architecture, each with a name, bit width, signedness, LSB in physical units and a range.
 // The default map follows the architecture and the budget; people edit it per field.
 import { z } from "zod";
-import { PARAMETER_PATTERN } from "@lib/tables/registerMap";
+import { PARAMETER_PATTERN } from "@lib/tapTables/registerMap";
 import type { Architecture } from "@/features/studies/architecture";
 
 /** Physical unit of a field (the engine's register map): taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */

@@ -3,10 +3,10 @@
 import { resolveBudget } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
 import { ENGINE_VERSION, tuningRun } from "@lib/run";
-import { populationDefault, type PopulationResult } from "@lib/tables";
+import { populationDefault, type PopulationResult } from "@lib/tapTables";
 import { applyFir } from "@lib/equalizers";
-import { budgetForArchitecture, receiverOnlyBudget, tableArchitectureProblem } from "./architectureBudget";
-import type { ClassResult, VersionInputs, VersionResult, WorstEye } from "./tables";
+import { budgetForArchitecture, receiverOnlyBudget, tapTableArchitectureProblem } from "./architectureBudget";
+import type { ClassResult, VersionInputs, VersionResult, WorstEye } from "./tapTables";
 
 /** Share of the progress bar the worst channel's eyes take at the end. */
 const EYE_SHARE = 0.1;
@@ -15,8 +15,8 @@ const EYE_SHARE = 0.1;
  * Computes a version from its inputs. Progress runs over the classes in proportion to their
  * channel counts, then the eyes of the worst channel under its class default.
  */
-export function computeTableVersion(inputs: VersionInputs, onProgress: (fraction: number) => void): VersionResult {
-  const problem = tableArchitectureProblem(inputs.architecture);
+export function computeTapTableVersion(inputs: VersionInputs, onProgress: (fraction: number) => void): VersionResult {
+  const problem = tapTableArchitectureProblem(inputs.architecture);
   if (problem) throw new Error(problem);
   const budget = resolveBudget(inputs.budget.params);
   const derived = resolveBudget(budgetForArchitecture(budget, inputs.architecture));

@@ -6,28 +6,29 @@ import { db, type DbOrTx, type Tx } from "@/server/db.server";
 import { jobs, signOffs, studies, tapTableRows, tapTables, tapTableVersions, users, type TapTableVersion } from "@/db/schema";
 import { ApiError, badRequest, conflict, notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
+import type { Download } from "@/server/http/download";
 import { enqueueJob, jobStatus, pumpJobs, registerJobKind } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import type { Architecture } from "@/features/studies/architecture";
 import type { StudyInputs } from "@/features/studies/studies";
-import { budgetCopy, channelCopies, checkBudgetFits, checkOneRate, findChannels, parseBudget, type BudgetCopy, type ChannelCopy } from "@/features/studies/sources.server";
+import { budgetCopy, channelCopies, checkBudgetFits, checkOneRate, findChannels, parseBudget, type BudgetCopy, type ChannelCopy } from "@/server/sources.server";
 import { classesOf, groupingChannelIds, GroupingError } from "./grouping";
 import { defaultRegisterMap, type RegisterField } from "./registerMap";
 import { checkRegisterMap } from "./registerCheck";
-import { budgetForArchitecture, tableArchitectureProblem } from "./architectureBudget";
-import { finishHere, type RunHere } from "@/features/studies/inlineJob.server";
+import { budgetForArchitecture, tapTableArchitectureProblem } from "./architectureBudget";
+import { finishHere, type RunHere } from "@/server/jobs/inlineJob.server";
 import { diffVersions } from "./diff";
 import { renderExport, exportFilename, exportMediaType, type ExportModel } from "./exports";
 import {
   isEditable,
-  type CreateTableRequest,
+  type CreateTapTableRequest,
   type CreateVersionRequest,
   type ExportFormat,
   type Grouping,
   type UpdateVersionRequest,
   type VersionInputs,
   type VersionResult,
-} from "./tables";
+} from "./tapTables";
 
 type ResolvedArchitecture = Pick<VersionInputs, "architecture" | "study">;
 
@@ -70,7 +71,7 @@ function versionInputs(
   grouping: Grouping,
   chans: ReadonlyMap<number, ChannelCopy>,
 ): VersionInputs {
-  const problem = tableArchitectureProblem(arch.architecture);
+  const problem = tapTableArchitectureProblem(arch.architecture);
   if (problem) throw unprocessable(problem, arch.study ? "studyId" : "architecture");
   const map = registerMap ?? defaultRegisterMap(arch.architecture, budget.budget);
   checkRegisterMap(map, arch.architecture, budget.budget);
@@ -124,7 +125,7 @@ async function computeVersion(queued: { versionId: number; jobId: number; inputs
 }
 
 /** POST /api/v1/tap-tables: a table and its v1, queued (computed here with `here`, for the demo seed). */
-export async function createTable(user: SessionUser, req: CreateTableRequest, here?: RunHere<VersionInputs, VersionResult>) {
+export async function createTapTable(user: SessionUser, req: CreateTapTableRequest, here?: RunHere<VersionInputs, VersionResult>) {
   const { tableId, queued } = await db.transaction(async (tx) => {
     const [taken] = await tx.select({ id: tapTables.id }).from(tapTables).where(eq(tapTables.name, req.name));
     if (taken) throw conflict(`A tap table named “${req.name}” exists; choose another name or add a version to it.`);
@@ -267,7 +268,7 @@ export async function getVersion(tableId: number, v: number) {
 }
 
 /** GET /api/v1/tap-tables/:id: the table and its versions (newest first). */
-export async function getTable(tableId: number) {
+export async function getTapTable(tableId: number) {
   const [table] = await db.select().from(tapTables).where(eq(tapTables.id, tableId));
   if (!table) throw notFound(`Tap table ${tableId}`);
   const rows = await db
@@ -307,13 +308,13 @@ export async function getTable(tableId: number) {
 }
 
 /** Number of tap tables (the overview's count). */
-export async function countTables(): Promise<number> {
+export async function countTapTables(): Promise<number> {
   const [{ n }] = await db.select({ n: count() }).from(tapTables);
   return n;
 }
 
 /** GET /api/v1/tap-tables: newest first, with the latest version's state. */
-export async function listTables(limit: number, cursor?: number) {
+export async function listTapTables(limit: number, cursor?: number) {
   const tables = await db
     .select({ t: tapTables, by: users.name })
     .from(tapTables)
@@ -395,7 +396,7 @@ export async function updateVersion(user: SessionUser, tableId: number, v: numbe
 }
 
 /** GET …/export?format=: the file, with the export recorded in the audit trail. */
-export async function exportVersion(user: SessionUser, via: "session" | "token" | null, tableId: number, v: number, format: ExportFormat) {
+export async function exportVersion(user: SessionUser, via: "session" | "token" | null, tableId: number, v: number, format: ExportFormat): Promise<Download> {
   const { version, table } = await versionRow(tableId, v);
   if (!version.result) {
     throw conflict(version.state === "failed" ? `v${v} failed to compute; there is nothing to export.` : `v${v} is still computing; export it when it is done.`);
@@ -403,14 +404,7 @@ export async function exportVersion(user: SessionUser, via: "session" | "token" 
   const model = await exportModel(table, version);
   const body = renderExport(model, format);
   await recordAudit(db, user, "table.export", "tap-table", tableId, { version: v, format, state: version.state, via });
-  return new Response(body, {
-    status: 200,
-    headers: {
-      "content-type": exportMediaType(format),
-      "content-disposition": `attachment; filename="${exportFilename(model, format)}"`,
-      "cache-control": "no-store",
-    },
-  });
+  return { filename: exportFilename(model, format), contentType: exportMediaType(format), body, cacheControl: "no-store" };
 }
 
 /** The approval behind a version (the approving sign-off's reviewer and time), if any. */

@@ -2,7 +2,7 @@
 // and small presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
 import type { BudgetInput } from "@lib/contract/budget";
-import type { VersionState } from "@/db/schema/tables";
+import type { VersionState } from "@/db/schema/tapTables";
 import type { StoredPulse } from "@/db/schema/channels";
 import type { EyeFigure } from "@lib/run";
 import { architectureSchema, type Architecture } from "@/features/studies/architecture";
@@ -63,7 +63,7 @@ export const groupingSchema = z.discriminatedUnion(
 export type Grouping = z.infer<typeof groupingSchema>;
 
 /** POST /api/v1/tap-tables: a new table and its first version. */
-export const createTableRequest = z.object({
+export const createTapTableRequest = z.object({
   name,
   description: z.string().trim().max(2000).optional(),
   budgetId: z.int({ error: "Choose a budget." }).positive(),
@@ -74,7 +74,7 @@ export const createTableRequest = z.object({
   grouping: groupingSchema,
   note: note.optional(),
 });
-export type CreateTableRequest = z.infer<typeof createTableRequest>;
+export type CreateTapTableRequest = z.infer<typeof createTapTableRequest>;
 
 /** POST /api/v1/tap-tables/:id/versions: a new version; what is left out is taken from the latest one. */
 export const createVersionRequest = z
@@ -103,8 +103,8 @@ export const exportQuery = z.object({
   format: z.enum(exportFormats, { error: 'format must be "csv", "json" or "c".' }).default("json"),
 });
 
-export const tableParams = z.object({ id: z.coerce.number({ error: "The table id must be a number." }).int().positive() });
-export const versionParams = tableParams.extend({
+export const tapTableParams = z.object({ id: z.coerce.number({ error: "The table id must be a number." }).int().positive() });
+export const versionParams = tapTableParams.extend({
   v: z.coerce.number({ error: "The version must be a number (1, 2, …)." }).int().positive(),
 });
 export const listQuery = z.object({

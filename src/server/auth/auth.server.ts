@@ -4,23 +4,18 @@ import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { db } from "@/server/db.server";
 import { accounts, rateLimits, sessions, users, verifications } from "@/db/schema";
+import { config } from "@/server/config.server";
 import { hashPassword, verifyPassword } from "./password.server";
 
-const baseURL = process.env.BETTER_AUTH_URL ?? `http://127.0.0.1:${process.env.PORT ?? 4321}`;
+const baseURL = config.publicUrl;
 const isLocal = /^http:\/\/(127\.0\.0\.1|localhost|\[::1\])(:\d+)?$/.test(baseURL);
 
 /** The header the auth route fills from the socket's address; clients cannot set it themselves. */
 export const CLIENT_IP_HEADER = "x-tapwright-client-ip";
 
-function signInLimit(): { window: number; max: number } {
-  // "max/window_s", e.g. "5/60": five sign-in attempts per minute per client address.
-  const [max, window] = (process.env.TAPWRIGHT_SIGN_IN_LIMIT ?? "5/60").split("/").map(Number);
-  return { max: max || 5, window: window || 60 };
-}
-
 export const auth = betterAuth({
   baseURL,
-  secret: process.env.BETTER_AUTH_SECRET,
+  secret: config.authSecret,
   database: drizzleAdapter(db, {
     provider: "mysql",
     schema: { user: users, session: sessions, account: accounts, verification: verifications, rateLimit: rateLimits },
@@ -45,7 +40,7 @@ export const auth = betterAuth({
     storage: "database",
     window: 60,
     max: 300,
-    customRules: { "/sign-in/email": signInLimit() },
+    customRules: { "/sign-in/email": config.signInLimit },
   },
   advanced: {
     useSecureCookies: !isLocal,

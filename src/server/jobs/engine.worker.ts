@@ -2,11 +2,11 @@
 // function per kind of job, each taking the job's input and posting progress 0…1 on `port`.
 import type { MessagePort } from "node:worker_threads";
 import type { JobKind } from "@/db/schema/jobs";
-import { computeStudy } from "@/features/studies/studyJob";
+import { computeStudy } from "@/features/studies/studies.job";
 import type { StudyInputs } from "@/features/studies/studies";
-import { computeTableVersion } from "@/features/tables/tableJob";
-import type { VersionInputs } from "@/features/tables/tables";
-import { computeRun, type RunJobInput } from "@/features/runs/computeRun";
+import { computeTapTableVersion } from "@/features/tapTables/tapTables.job";
+import type { VersionInputs } from "@/features/tapTables/tapTables";
+import { computeRun, type RunJobInput } from "@/features/runs/runs.job";
 
 interface Task {
   kind: JobKind;
@@ -18,6 +18,6 @@ export default async function engineTask({ kind, input, port }: Task): Promise<u
   const progress = (fraction: number) => port.postMessage(fraction);
   if (kind === "run") return computeRun(input as RunJobInput, progress);
   if (kind === "study") return computeStudy(input as StudyInputs, progress);
-  if (kind === "table-version") return computeTableVersion(input as VersionInputs, progress);
+  if (kind === "table-version") return computeTapTableVersion(input as VersionInputs, progress);
   throw new Error(`The engine worker cannot run jobs of kind ${kind}.`);
 }

@@ -6,10 +6,11 @@ import { dirname, join, resolve } from "node:path";
 import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
 import type { JobKind } from "@/db/schema";
+import { config } from "@/server/config.server";
 
 function workerFile(): string {
   const candidates = [
-    process.env.TAPWRIGHT_WORKER,
+    config.workerFile,
     process.argv[1] ? resolve(dirname(process.argv[1]), "..", "engine-worker.mjs") : undefined,
     join(process.cwd(), "dist", "engine-worker.mjs"),
   ].filter((p): p is string => Boolean(p));
@@ -19,7 +20,7 @@ function workerFile(): string {
 }
 
 /** Engine worker threads: TAPWRIGHT_WORKERS (default 2), at most one per core. */
-export const workerCount = Math.max(1, Math.min(Number(process.env.TAPWRIGHT_WORKERS) || 2, availableParallelism()));
+export const workerCount = Math.max(1, Math.min(config.workers, availableParallelism()));
 
 let pool: Piscina | undefined;
 function thePool(): Piscina {

@@ -4,19 +4,20 @@ import nodemailer from "nodemailer";
 import { and, asc, desc, eq, lt } from "drizzle-orm";
 import { db, type DbOrTx } from "@/server/db.server";
 import { devMailbox, mailOutbox } from "@/db/schema";
+import { config } from "@/server/config.server";
 
 const MAX_ATTEMPTS = 5;
 
 function transport() {
   return nodemailer.createTransport({
-    host: process.env.SMTP_HOST ?? "127.0.0.1",
-    port: Number(process.env.SMTP_PORT ?? 2525),
-    secure: process.env.SMTP_SECURE === "1",
+    host: config.smtp.host,
+    port: config.smtp.port,
+    secure: config.smtp.secure,
     connectionTimeout: 10_000,
     greetingTimeout: 10_000,
     socketTimeout: 20_000,
-    ignoreTLS: process.env.SMTP_HOST === undefined || process.env.SMTP_HOST === "127.0.0.1",
-    auth: process.env.SMTP_USER ? { user: process.env.SMTP_USER, pass: process.env.SMTP_PASSWORD ?? "" } : undefined,
+    ignoreTLS: config.smtp.ignoreTls,
+    auth: config.smtp.auth,
   });
 }
 
@@ -48,7 +49,7 @@ async function deliveryPass(): Promise<void> {
     for (const m of queued) {
       try {
         await t.sendMail({
-          from: process.env.MAIL_FROM ?? "Tapwright <no-reply@tapwright.test>",
+          from: config.smtp.from,
           to: m.toAddress,
           subject: m.subject,
           text: m.bodyText,
@@ -98,4 +99,4 @@ export async function listDevMail(limit: number) {
   return db.select().from(devMailbox).orderBy(desc(devMailbox.id)).limit(limit);
 }
 
-export const devMailEnabled = () => process.env.TAPWRIGHT_DEV_MAIL === "1" && process.env.NODE_ENV !== "production";
+export const devMailEnabled = () => config.devMail;

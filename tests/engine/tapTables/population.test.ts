@@ -1,15 +1,15 @@
 // Population defaults (minimax) and architecture studies: the minimax guarantees, a brute-force
 // oracle, the noise-enhancement identity of a receive FFE, ordering by complexity, edges.
 import { describe, expect, it } from "vitest";
-import { enumerateTxFirs } from "../../../lib/equalizers/enumerateTxFirs.ts";
-import { firNoiseGain } from "../../../lib/equalizers/firNoiseGain.ts";
-import { evaluateSetting } from "../../../lib/optimize/evaluateSetting.ts";
-import { prepareChannels } from "../../../lib/optimize/jointSearch.ts";
-import { searchSpace } from "../../../lib/optimize/searchSpace.ts";
-import { zeroForcing } from "../../../lib/solvers/zeroForcing.ts";
-import { architectureComplexity, evaluateArchitectures } from "../../../lib/tables/architectureEvaluation.ts";
-import { commonGrid, populationDefault } from "../../../lib/tables/populationDefault.ts";
-import type { RegisterField } from "../../../lib/tables/registerMap.ts";
+import { enumerateTxFirs } from "@lib/equalizers/enumerateTxFirs";
+import { firNoiseGain } from "@lib/equalizers/firNoiseGain";
+import { evaluateSetting } from "@lib/optimize/evaluateSetting";
+import { prepareChannels } from "@lib/optimize/jointSearch";
+import { searchSpace } from "@lib/optimize/searchSpace";
+import { zeroForcing } from "@lib/solvers/zeroForcing";
+import { architectureComplexity, evaluateArchitectures } from "@lib/tapTables/architectureEvaluation";
+import { commonGrid, populationDefault } from "@lib/tapTables/populationDefault";
+import type { RegisterField } from "@lib/tapTables/registerMap";
 import { stepwisePulse } from "../optimize/fixtures.ts";
 
 const pulses = [

@@ -1,8 +1,8 @@
 // Register fields: codes ↔ values round trips and ranges (fast-check), quantization of settings.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { quantizeSetting } from "../../../lib/tables/quantizeSetting.ts";
-import { codeBits, codeRange, decodeField, encodeField, type RegisterField } from "../../../lib/tables/registerMap.ts";
+import { quantizeSetting } from "@lib/tapTables/quantizeSetting";
+import { codeBits, codeRange, decodeField, encodeField, type RegisterField } from "@lib/tapTables/registerMap";
 
 const field = (over: Partial<RegisterField> = {}): RegisterField => ({
   name: "tx_post1",

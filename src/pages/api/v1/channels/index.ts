@@ -2,7 +2,8 @@
 import { currentUser, endpoint, readParams } from "@/server/http/handler";
 import { json } from "@/server/http/errors";
 import { listQuery } from "@/features/channels/channels";
-import { createChannel, listChannels, readChannelRequest } from "@/features/channels/channels.server";
+import { createChannel, listChannels } from "@/features/channels/channels.server";
+import { readChannelRequest } from "@/features/channels/channelRequest.server";
 
 export const GET = endpoint(async (ctx) => listChannels(readParams(Object.fromEntries(ctx.url.searchParams), listQuery)));
 

@@ -8,6 +8,5 @@ export const GET = endpoint(async () => ({ items: await listOpenInvitations(), n
 
 export const POST = endpoint(async (ctx) => {
   const { email, role } = await readJson(ctx.request, inviteRequest);
-  const base = process.env.BETTER_AUTH_URL ?? ctx.url.origin;
-  return json(await invite(currentUser(ctx), email, role, base), 201);
+  return json(await invite(currentUser(ctx), email, role), 201);
 });

@@ -1,6 +1,6 @@
 // One tap table and its versions.
 import { endpoint, readParams } from "@/server/http/handler";
-import { tableParams } from "@/features/tables/tables";
-import { getTable } from "@/features/tables/tables.server";
+import { tapTableParams } from "@/features/tapTables/tapTables";
+import { getTapTable } from "@/features/tapTables/tapTables.server";
 
-export const GET = endpoint(async (ctx) => getTable(readParams(ctx.params, tableParams).id));
+export const GET = endpoint(async (ctx) => getTapTable(readParams(ctx.params, tapTableParams).id));

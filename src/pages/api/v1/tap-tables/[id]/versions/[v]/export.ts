@@ -1,10 +1,11 @@
 // The export of a version as CSV, JSON or a C header (also with an API token); audited.
 import { currentUser, endpoint, readParams } from "@/server/http/handler";
-import { exportQuery, versionParams } from "@/features/tables/tables";
-import { exportVersion } from "@/features/tables/tables.server";
+import { downloadResponse } from "@/server/http/download";
+import { exportQuery, versionParams } from "@/features/tapTables/tapTables";
+import { exportVersion } from "@/features/tapTables/tapTables.server";
 
 export const GET = endpoint(async (ctx) => {
   const { id, v } = readParams(ctx.params, versionParams);
   const { format } = readParams(Object.fromEntries(ctx.url.searchParams), exportQuery);
-  return exportVersion(currentUser(ctx), ctx.locals.authVia, id, v, format);
+  return downloadResponse(await exportVersion(currentUser(ctx), ctx.locals.authVia, id, v, format));
 });

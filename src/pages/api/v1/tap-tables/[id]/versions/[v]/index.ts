@@ -1,8 +1,8 @@
 // One version: status, classes with their codes, per-channel headroom, the diff against the
 // previous version, its sign-offs; PUT edits what is not frozen (409 otherwise).
 import { currentUser, endpoint, readJson, readParams } from "@/server/http/handler";
-import { updateVersionRequest, versionParams } from "@/features/tables/tables";
-import { getVersion, updateVersion } from "@/features/tables/tables.server";
+import { updateVersionRequest, versionParams } from "@/features/tapTables/tapTables";
+import { getVersion, updateVersion } from "@/features/tapTables/tapTables.server";
 
 export const GET = endpoint(async (ctx) => {
   const { id, v } = readParams(ctx.params, versionParams);

@@ -1,7 +1,7 @@
 // Ask a reviewer to sign off a version (designers, admins); the reviewer gets an e-mail.
 import { currentUser, endpoint, readJson, readParams } from "@/server/http/handler";
 import { json } from "@/server/http/errors";
-import { versionParams } from "@/features/tables/tables";
+import { versionParams } from "@/features/tapTables/tapTables";
 import { signOffRequest } from "@/features/signoff/signoff";
 import { requestSignOff } from "@/features/signoff/signoff.server";
 

@@ -1,0 +1,50 @@
+// Reads POST /api/v1/channels (and the preview) off the request: a multipart upload with the file
+// and the fields of `uploadFields`, or JSON for a synthetic channel. The routes call this; the
+// services in channels.server.ts take its result and never see the request.
+import { ApiError, zodToApiError } from "@/server/http/errors";
+import { readJsonLimited, readMultipart, type UploadedFile } from "@/server/http/body";
+import { MAX_UPLOAD_BYTES, formatBytes, syntheticRequest, uploadFields, type SyntheticRequest, type UploadFields } from "./channels";
+
+/** Room for the multipart envelope around the file. */
+const MULTIPART_OVERHEAD = 256 * 1024;
+/** Largest JSON body of a synthetic channel. */
+const JSON_LIMIT = 1024 * 1024;
+const tooLarge = () =>
+  new ApiError(413, `The file is larger than the ${formatBytes(MAX_UPLOAD_BYTES)} limit; trim the frequency range or the record length and upload again.`, "file");
+
+/** A parsed channel request: a file upload (multipart) or a synthetic channel (JSON). */
+export type ChannelRequest =
+  | { source: "file"; fields: UploadFields; file: UploadedFile }
+  | { source: "synthetic"; body: SyntheticRequest };
+
+/**
+ * The channel request in `request`: 413 above the size limit, 415 for another content type, 400
+ * for missing or invalid fields. `fileOnly` (the preview) accepts uploads only, named after the file.
+ */
+export async function readChannelRequest(request: Request, { fileOnly = false } = {}): Promise<ChannelRequest> {
+  const type = request.headers.get("content-type") ?? "";
+  if (!fileOnly && type.startsWith("application/json")) {
+    const raw = await readJsonLimited(request, JSON_LIMIT, tooLarge, "The request body must be JSON: { name, bitRate_bps, lossModel: { lossAtNyquist_dB } }.");
+    const parsed = syntheticRequest.safeParse(raw);
+    if (!parsed.success) throw zodToApiError(parsed.error);
+    return { source: "synthetic", body: parsed.data };
+  }
+  if (!type.startsWith("multipart/form-data")) {
+    throw new ApiError(
+      415,
+      fileOnly
+        ? "Send the file as multipart/form-data (fields file, name, bitRate_bps…)."
+        : "Send a file as multipart/form-data (fields file, name, bitRate_bps…) or a synthetic channel as JSON.",
+    );
+  }
+  const { file, fields } = await readMultipart(request, {
+    limit: MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD,
+    fileField: "file",
+    fileLimit: MAX_UPLOAD_BYTES,
+    tooLarge,
+  });
+  if (fileOnly && !fields.name) fields.name = file.filename;
+  const parsed = uploadFields.safeParse(fields);
+  if (!parsed.success) throw zodToApiError(parsed.error);
+  return { source: "file", fields: parsed.data, file };
+}

@@ -1,0 +1,86 @@
+// The server's settings, read once from the environment and checked with zod: the one place in
+// src/ that reads process.env. README's "Configuration" table lists every variable.
+import { join } from "node:path";
+import { z } from "zod";
+
+const port = (name: string, fallback: number) =>
+  z.coerce
+    .number({ error: `${name} must be a port number` })
+    .int(`${name} must be a whole port number`)
+    .min(1, `${name} must be a port number (1…65535)`)
+    .max(65535, `${name} must be a port number (1…65535)`)
+    .default(fallback);
+
+/** Empty strings count as unset, as the start and test commands pass them for variables left out. */
+const optionalText = z.preprocess((v) => (v === "" ? undefined : v), z.string().optional());
+
+const envSchema = z.object({
+  NODE_ENV: z.string().default("development"),
+  HOST: z.string().default("127.0.0.1"),
+  PORT: port("PORT", 4321),
+  DATABASE_URL: optionalText,
+  BETTER_AUTH_SECRET: optionalText,
+  BETTER_AUTH_URL: optionalText.pipe(z.url({ error: "BETTER_AUTH_URL must be a URL, e.g. https://tapwright.example.com" }).optional()),
+  TAPWRIGHT_SIGN_IN_LIMIT: z
+    .string()
+    .regex(/^\d+\/\d+$/, "TAPWRIGHT_SIGN_IN_LIMIT must be attempts/window_s, e.g. 5/60")
+    .default("5/60"),
+  SMTP_HOST: optionalText,
+  SMTP_PORT: port("SMTP_PORT", 2525),
+  SMTP_SECURE: z.string().optional(),
+  SMTP_USER: optionalText,
+  SMTP_PASSWORD: z.string().default(""),
+  MAIL_FROM: z.string().default("Tapwright <no-reply@tapwright.test>"),
+  TAPWRIGHT_DEV_MAIL: z.string().optional(),
+  TAPWRIGHT_WORKERS: optionalText,
+  TAPWRIGHT_WORKER: optionalText,
+  TAPWRIGHT_DATA_DIR: optionalText,
+});
+
+/** The address people reach the server at, when BETTER_AUTH_URL does not say: the listening host (loopback for a wildcard) and port. */
+export function defaultPublicUrl(host: string, port: number): string {
+  const publicHost = host === "0.0.0.0" || host === "::" ? "127.0.0.1" : host;
+  return `http://${publicHost}:${port}`;
+}
+
+/** The settings for an environment; throws one message naming every variable that is wrong. */
+export function parseConfig(env: Record<string, string | undefined>, cwd: string) {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    throw new Error(`The server's configuration is not usable: ${parsed.error.issues.map((i) => i.message).join("; ")}.`);
+  }
+  const e = parsed.data;
+  const [max, window] = e.TAPWRIGHT_SIGN_IN_LIMIT.split("/").map(Number);
+  const smtpHost = e.SMTP_HOST ?? "127.0.0.1";
+  return {
+    production: e.NODE_ENV === "production",
+    databaseUrl: e.DATABASE_URL,
+    /** The public address: links in e-mails, the auth library's base URL (https turns on Secure cookies). */
+    publicUrl: e.BETTER_AUTH_URL ?? defaultPublicUrl(e.HOST, e.PORT),
+    authSecret: e.BETTER_AUTH_SECRET,
+    /** Sign-in attempts per client address per window (s). */
+    signInLimit: { max: max || 5, window: window || 60 },
+    smtp: {
+      host: smtpHost,
+      port: e.SMTP_PORT,
+      secure: e.SMTP_SECURE === "1",
+      /** The local fake on loopback speaks no TLS. */
+      ignoreTls: smtpHost === "127.0.0.1",
+      auth: e.SMTP_USER ? { user: e.SMTP_USER, pass: e.SMTP_PASSWORD } : undefined,
+      from: e.MAIL_FROM,
+    },
+    /** Whether admins may read the messages the local fake SMTP server caught (never in production). */
+    devMail: e.TAPWRIGHT_DEV_MAIL === "1" && e.NODE_ENV !== "production",
+    /** Engine worker threads asked for (the pool keeps at most one per core). */
+    workers: Number(e.TAPWRIGHT_WORKERS) || 2,
+    /** Where the bundled engine worker is, when not beside the server's build. */
+    workerFile: e.TAPWRIGHT_WORKER,
+    /** The checkout's private data folder (the database, the demo's computed results). */
+    dataDir: e.TAPWRIGHT_DATA_DIR ?? join(cwd, ".data"),
+  };
+}
+
+export type Config = ReturnType<typeof parseConfig>;
+
+/** This process's settings. */
+export const config: Config = parseConfig(process.env, process.cwd());

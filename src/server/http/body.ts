@@ -1,0 +1,72 @@
+// Request bodies with a size limit: the raw bytes, JSON, or a multipart form. Above the limit the
+// rest is read and dropped (so the client gets the answer instead of a reset connection) and the
+// caller's 413 is thrown.
+import { badRequest, type ApiError } from "./errors";
+
+/** Reads a request body up to `limit` bytes; throws `tooLarge()` beyond it. */
+export async function readBodyLimited(request: Request, limit: number, tooLarge: () => ApiError): Promise<Uint8Array<ArrayBuffer>> {
+  const declared = Number(request.headers.get("content-length") ?? NaN);
+  const reader = request.body?.getReader();
+  if (!reader) return new Uint8Array();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  let over = Number.isFinite(declared) && declared > limit;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.length;
+    if (total > limit) over = true;
+    if (!over) chunks.push(value);
+  }
+  if (over) throw tooLarge();
+  const out = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.length;
+  }
+  return out;
+}
+
+/** A JSON body of at most `limit` bytes, not yet validated; 400 with `hint` when it is not JSON. */
+export async function readJsonLimited(request: Request, limit: number, tooLarge: () => ApiError, hint: string): Promise<unknown> {
+  const body = await readBodyLimited(request, limit, tooLarge);
+  try {
+    return JSON.parse(new TextDecoder().decode(body));
+  } catch {
+    throw badRequest(hint);
+  }
+}
+
+/** A file part of a multipart form. */
+export interface UploadedFile {
+  filename: string;
+  contentType: string;
+  bytes: Uint8Array;
+}
+
+/**
+ * A multipart/form-data body of at most `limit` bytes: the file in `fileField` (at most `fileLimit`
+ * bytes) and the non-empty text fields. 400 when the body cannot be read or the file is missing.
+ */
+export async function readMultipart(
+  request: Request,
+  o: { limit: number; fileField: string; fileLimit: number; tooLarge: () => ApiError },
+): Promise<{ file: UploadedFile; fields: Record<string, string> }> {
+  const body = await readBodyLimited(request, o.limit, o.tooLarge);
+  let form: FormData;
+  try {
+    form = await new Response(body, { headers: { "content-type": request.headers.get("content-type") ?? "" } }).formData();
+  } catch {
+    throw badRequest("The multipart body cannot be read; send it as a browser or curl -F would.");
+  }
+  const file = form.get(o.fileField);
+  if (!(file instanceof File)) throw badRequest(`Attach the file in the field '${o.fileField}'.`, o.fileField);
+  if (file.size > o.fileLimit) throw o.tooLarge();
+  const fields: Record<string, string> = {};
+  for (const [k, v] of form.entries()) if (typeof v === "string" && v !== "") fields[k] = v;
+  return {
+    file: { filename: file.name || "upload", contentType: file.type || "application/octet-stream", bytes: new Uint8Array(await file.arrayBuffer()) },
+    fields,
+  };
+}
