@@ -1,7 +1,7 @@
 // Aggressors: pair selection in multi-port files, the synthetic coupling forms, the worst sampling
 // phase and the rms an aggressor adds, and integrated crosstalk noise (ICN).
 import { describe, expect, it } from "vitest";
-import { differentialNetwork, lossModelS21, sdd21, sParameter, type NetworkData } from "../../../lib/channel/index.ts";
+import { differentialNetwork, lossModelS21, sdd21, sParameter, type NetworkData } from "@lib/channel";
 import {
   couplingTransfer,
   crosstalkRms,
@@ -10,10 +10,10 @@ import {
   pulseFromCoupling,
   symbolPower,
   worstPhaseSampling,
-} from "../../../lib/crosstalk/index.ts";
-import { pulseArea } from "../../../lib/pulse/index.ts";
-import { seededRandom } from "../../../lib/signal/index.ts";
-import type { Pulse } from "../../../lib/types.ts";
+} from "@lib/crosstalk";
+import { pulseArea } from "@lib/pulse";
+import { seededRandom } from "@lib/signal";
+import type { Pulse } from "@lib/types";
 
 const randomNet = (seed: number, ports: number): NetworkData => {
   const r = seededRandom(seed);

@@ -2,8 +2,8 @@
 // cascading and the front end applied to pulses.
 import { inverse, Matrix } from "ml-matrix";
 import { describe, expect, it } from "vitest";
-import type { NetworkData } from "../../../lib/channel/index.ts";
-import { pulseFromLossModel } from "../../../lib/channel/index.ts";
+import type { NetworkData } from "@lib/channel";
+import { pulseFromLossModel } from "@lib/channel";
 import {
   ANNEX_93A_PACKAGE,
   applyFrontEnd,
@@ -19,9 +19,9 @@ import {
   terminatedTransfer,
   transmissionLine,
   type LineSegment,
-} from "../../../lib/package/index.ts";
-import { pulseArea } from "../../../lib/pulse/index.ts";
-import { seededRandom } from "../../../lib/signal/index.ts";
+} from "@lib/package";
+import { pulseArea } from "@lib/pulse";
+import { seededRandom } from "@lib/signal";
 
 type C = [number, number];
 const cmul = (a: C, b: C): C => [a[0] * b[0] - a[1] * b[1], a[0] * b[1] + a[1] * b[0]];

@@ -1,9 +1,9 @@
 // The MMSE-DFE feed-forward filter for coloured noise, and the symbol-spaced noise correlation it uses.
 import { inverse, Matrix } from "ml-matrix";
 import { describe, expect, it } from "vitest";
-import { noiseCorrelation } from "../../../lib/analysis/noiseCorrelation.ts";
-import { ctleNoiseGain, type CtleParams, ctleResponse } from "../../../lib/equalizers/index.ts";
-import { mmseDfe, mmseEqualizer } from "../../../lib/solvers/index.ts";
+import { noiseCorrelation } from "@lib/analysis/noiseCorrelation";
+import { ctleNoiseGain, type CtleParams, ctleResponse } from "@lib/equalizers";
+import { mmseDfe, mmseEqualizer } from "@lib/solvers";
 
 /**
  * Oracle: the finite-length MMSE-DFE in the form of Al-Dhahir and Cioffi (IEEE Trans. Inform. Theory
