@@ -2,7 +2,7 @@
 import { spawn, spawnSync } from "node:child_process";
 import { join } from "node:path";
 import { setTimeout as sleep } from "node:timers/promises";
-import { distDir, root } from "./config.mjs";
+import { root } from "./config.mjs";
 import { log } from "./log.mjs";
 
 const bin = (name) => join(root, "node_modules", ".bin", name);
@@ -16,15 +16,16 @@ export function build(env) {
   log("Building the app (astro build and the engine worker)…");
   runStep("astro build", bin("astro"), ["build", "--silent"], env);
   runStep("Engine worker build", process.execPath, ["scripts/build-worker.mjs"], env);
+  runStep("Precompressing assets", process.execPath, ["scripts/precompress.mjs"], env);
 }
 
 export function seed(env) {
   runStep("Seeding", bin("tsx"), ["scripts/seed.ts"], env);
 }
 
-/** Starts `node dist/server/entry.mjs`; resolves once /api/v1/health answers. */
+/** Starts `node scripts/serve.mjs` (the built app); resolves once /api/v1/health answers. */
 export async function serve(env, { quiet = false } = {}) {
-  const child = spawn(process.execPath, [join(distDir, "server", "entry.mjs")], {
+  const child = spawn(process.execPath, [join(root, "scripts", "serve.mjs")], {
     cwd: root,
     env: { ...process.env, ...env },
     stdio: quiet ? ["ignore", "ignore", "inherit"] : "inherit",

@@ -159,4 +159,23 @@ describe("sign-in is rate limited per client address", () => {
       await server.stop();
     }
   });
+
+  it("a different X-Forwarded-For on every attempt does not dodge it (the address comes from the socket)", async () => {
+    const server = await startServer(sparePort(3), { TAPWRIGHT_SIGN_IN_LIMIT: "5/60" });
+    try {
+      const statuses: number[] = [];
+      for (let i = 0; i < 9; i++) {
+        const res = await fetch(`${server.base}/api/auth/sign-in/email`, {
+          method: "POST",
+          headers: { "content-type": "application/json", origin: server.base, "x-forwarded-for": `203.0.113.${i + 1}` },
+          body: JSON.stringify({ email: "firmware@tapwright.test", password: "wrong-password-123" }),
+        });
+        statuses.push(res.status);
+      }
+      expect(statuses).toContain(429);
+      expect(statuses.at(-1)).toBe(429);
+    } finally {
+      await server.stop();
+    }
+  });
 });

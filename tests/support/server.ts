@@ -12,7 +12,7 @@ export interface TestServer {
 
 export async function startServer(port: number, extraEnv: Record<string, string> = {}): Promise<TestServer> {
   const base = `http://127.0.0.1:${port}`;
-  const child: ChildProcess = spawn(process.execPath, [join(root, process.env.TAPWRIGHT_OUT_DIR ?? "dist", "server", "entry.mjs")], {
+  const child: ChildProcess = spawn(process.execPath, [join(root, "scripts", "serve.mjs")], {
     cwd: root,
     env: { ...process.env, PORT: String(port), HOST: "127.0.0.1", BETTER_AUTH_URL: base, ...extraEnv },
     stdio: ["ignore", "ignore", "inherit"],
