@@ -28,9 +28,11 @@ describe("the run page over the wire", () => {
       const s = await request.sizes();
       sizes.push({ url: request.url(), type: request.resourceType(), bytes: s.responseBodySize, encoding: (await response?.allHeaders())?.["content-encoding"] ?? null });
     });
-    await page.goto(`${baseUrl}/runs/${run.id}`);
-    await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
+    await page.goto(`${baseUrl}/runs/${run.id}`, { waitUntil: "networkidle" });
+    // Islands below the fold load when they come into view: scroll through the page first.
+    for (let y = 0; y < 12; y++) await page.mouse.wheel(0, 900);
     await page.waitForLoadState("networkidle");
+    await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
     const byType: Record<string, number> = {};
     for (const s of sizes) byType[s.type] = (byType[s.type] ?? 0) + s.bytes;
     writeFileSync(join(screenshotDir, "run-page-transfer.json"), JSON.stringify({ run: run.id, byType, requests: sizes }, null, 2));
