@@ -161,7 +161,7 @@ describe("sign-in is rate limited per client address", () => {
   });
 
   it("a different X-Forwarded-For on every attempt does not dodge it (the address comes from the socket)", async () => {
-    const server = await startServer(sparePort(3), { TAPWRIGHT_SIGN_IN_LIMIT: "5/60" });
+    const server = await startServer(await freePort(), { TAPWRIGHT_SIGN_IN_LIMIT: "5/60" });
     try {
       const statuses: number[] = [];
       for (let i = 0; i < 9; i++) {
