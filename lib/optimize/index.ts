@@ -1,7 +1,6 @@
 export * from "./ctleChannel.ts";
 export * from "./ctleGridPulses.ts";
 export * from "./evaluateSetting.ts";
-export * from "./headroomBound.ts";
 export * from "./jointSearch.ts";
 export * from "./nelderMead.ts";
 export * from "./optimize.ts";

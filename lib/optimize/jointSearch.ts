@@ -9,18 +9,13 @@ import type { Pulse } from "../types.ts";
 import { type CtleChannel, filteredChannel, phaseReach } from "./ctleChannel.ts";
 import { ctleGridPulses } from "./ctleGridPulses.ts";
 import { criterionPhaseOf, finishEye, heavyPhaseBound, lightPhaseBound, type PhaseEye, prepareEye } from "./evaluateSetting.ts";
-import {
-  type BoundSetup,
-  BoxRanges,
-  boundSetup,
-  boxBound,
-  boxRange,
-  type CoefficientSource,
-  createTapBox,
-  leafBound,
-  type PhaseCoefficients,
-  phaseCoefficients,
-} from "./headroomBound.ts";
+import { type BoundScratch, createBoundScratch } from "./bound/boundScratch.ts";
+import { type BoundSetup, boundSetup } from "./bound/boundSetup.ts";
+import { boxBound } from "./bound/boxBound.ts";
+import { BoxRanges } from "./bound/boxRanges.ts";
+import { leafBound } from "./bound/leafBound.ts";
+import { cachedCoefficients, type CoefficientSource } from "./bound/phaseCoefficients.ts";
+import { affineRangeInto, createTapBox } from "./bound/tapBox.ts";
 import type { CtleSetting, SearchSpace } from "./searchSpace.ts";
 
 /** One evaluated setting. */
@@ -259,7 +254,7 @@ export function jointSearch(
     /** Jitter phase that last pruned a box (tried first on the next). */
     firstShift: number;
     crit: Map<number, Float64Array>;
-    scratch: Float64Array;
+    scratch: BoundScratch;
     /** The sampling phases the policy may choose for the leaf being evaluated (`leafSerial`). */
     leafPhases: readonly number[];
     leafSerial: number;
@@ -334,13 +329,14 @@ export function jointSearch(
     let worstPruned = Number.NEGATIVE_INFINITY;
     for (const t of phases) {
       const floor = bestEye === null ? Number.NEGATIVE_INFINITY : bestEye.limiterHeadroom_V;
-      const ub1 = leafBound(mc.setup, mc.coef, t, taps, counts[o], mc.scratch);
+      const lb = leafBound(mc.setup, mc.coef, t, taps, counts[o], mc.scratch);
+      const ub1 = lb.bound_V;
       if (!passes(o, ub1) || !(ub1 > floor)) {
         worstPruned = Math.max(worstPruned, ub1);
         continue;
       }
       const prepared = prepareEye(mc.channel, space, taps, counts[o], t);
-      const jj = mc.scratch[mc.setup.offsets.length];
+      const jj = lb.shiftIndex;
       const shift = mc.setup.shifts.length === 0 ? 0 : mc.setup.shifts[jj];
       const weight = mc.setup.shifts.length === 0 ? 1 : mc.setup.weights[jj];
       const ubL = lightPhaseBound(space, prepared, shift, weight);
@@ -445,11 +441,9 @@ export function jointSearch(
 
   // Phases the policy may choose for some setting of the box, among `parent` (the phases of an
   // enclosing box: a setting's phase does not depend on the box it is seen in).
-  const critLo = new Float64Array(window.hi - window.lo + 1);
-  const critHi = new Float64Array(window.hi - window.lo + 1);
+  const critTable = new Float64Array(2 * (window.hi - window.lo + 1));
   const critStamp = new Int32Array(window.hi - window.lo + 1);
   let critSerial = 0;
-  const critRange = new Float64Array(2);
   const boxPhases = (mc: Member, parent: readonly number[]): readonly number[] => {
     if (space.policy === "max-height") return allPhases;
     // A small tolerance keeps rounding differences from hiding a phase the leaf would choose.
@@ -462,26 +456,24 @@ export function jointSearch(
       let keep = false;
       for (let u = t; u <= t + 1 && !keep; u++) {
         if (u - 1 < window.lo || u > window.hi) continue;
-        keep = critLo[critIndex(mc, u - 1)] < eps && critHi[critIndex(mc, u)] >= -eps;
+        keep = critTable[critIndex(mc, u - 1)] < eps && critTable[critIndex(mc, u) + 1] >= -eps;
       }
-      if (!keep && t === window.lo) keep = critHi[critIndex(mc, t)] >= -eps; // no crossing and F(lo) ≥ 0
-      if (!keep && t === window.hi) keep = critLo[critIndex(mc, t)] < eps; // no crossing and F(hi) < 0
+      if (!keep && t === window.lo) keep = critTable[critIndex(mc, t) + 1] >= -eps; // no crossing and F(lo) ≥ 0
+      if (!keep && t === window.hi) keep = critTable[critIndex(mc, t)] < eps; // no crossing and F(hi) < 0
       if (keep) {
         if (out !== null) out.push(t);
       } else if (out === null) out = parent.slice(0, n);
     }
     return out ?? parent;
   };
-  // Index of phase t in the criterion range buffers, filled for the current box when first asked.
+  // Offset of phase t's [lo, hi] in the criterion range table, filled for the current box when first asked.
   const critIndex = (mc: Member, t: number): number => {
     const i = t - window.lo;
     if (critStamp[i] !== critSerial) {
-      boxRange(box, critAt(mc, t), T, critRange);
-      critLo[i] = critRange[0];
-      critHi[i] = critRange[1];
+      affineRangeInto(box, critAt(mc, t), 0, critTable, 2 * i);
       critStamp[i] = critSerial;
     }
-    return i;
+    return 2 * i;
   };
 
   // The coarse figure of the last box bounded (see boxBound), likewise over phases and members: what
@@ -503,10 +495,11 @@ export function jointSearch(
       let v = Number.NEGATIVE_INFINITY;
       let score = Number.NEGATIVE_INFINITY;
       for (const t of phases[m]) {
-        const b = boxBound(mc.setup, mc.ranges, t, counts[o], mc.scratch, thr, mc.firstShift);
-        if (b <= thr) mc.firstShift = mc.scratch[mc.setup.offsets.length];
+        const bb = boxBound(mc.setup, mc.ranges, t, counts[o], mc.scratch, thr, mc.firstShift);
+        const b = bb.bound_V;
+        if (b <= thr) mc.firstShift = bb.shiftIndex;
         if (b > v) v = b;
-        const coarse = mc.scratch[mc.setup.offsets.length + 1];
+        const coarse = bb.coarse_V;
         if (coarse > score) score = coarse;
         if (passes(o, v)) break;
       }
@@ -658,15 +651,7 @@ export function jointSearch(
       members: members.map((m, index) => {
         const channel = m.channels[ci];
         const setup = boundSetup(space, channel, maxCount);
-        const cache = new Map<number, PhaseCoefficients>();
-        const coef = (p: number): PhaseCoefficients => {
-          let c = cache.get(p);
-          if (c === undefined) {
-            c = phaseCoefficients(setup, space, channel, p);
-            cache.set(p, c);
-          }
-          return c;
-        };
+        const coef = cachedCoefficients(setup, space, channel);
         let reach = 0;
         for (const sh of setup.shifts) reach = Math.max(reach, Math.abs(sh));
         return {
@@ -677,7 +662,7 @@ export function jointSearch(
           ranges: new BoxRanges(setup, coef, window.lo - reach, window.hi + reach),
           firstShift: 0,
           crit: new Map<number, Float64Array>(),
-          scratch: new Float64Array(setup.offsets.length + 4),
+          scratch: createBoundScratch(setup),
           leafPhases: allPhases,
           leafSerial: -1,
         };
@@ -720,9 +705,10 @@ export function jointSearch(
       const phases = space.policy === "max-height" ? allPhases : [criterionPhaseOf(mc.channel, space, taps)];
       let best = Number.NEGATIVE_INFINITY;
       for (const t of phases) {
-        const ub = leafBound(mc.setup, mc.coef, t, taps, counts[o], mc.scratch);
+        const lb = leafBound(mc.setup, mc.coef, t, taps, counts[o], mc.scratch);
+        const ub = lb.bound_V;
         if (!(ub > best)) continue;
-        const jj = mc.scratch[mc.setup.offsets.length];
+        const jj = lb.shiftIndex;
         const light =
           mc.setup.shifts.length === 0
             ? ub
@@ -845,8 +831,9 @@ export function jointSearch(
           let key = Number.POSITIVE_INFINITY;
           for (const mc of ctx.members) {
             const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(mc.channel, space, s);
-            const ub = leafBound(mc.setup, mc.coef, phase, s, counts[0], mc.scratch);
-            const jj = mc.scratch[mc.setup.offsets.length];
+            const lb = leafBound(mc.setup, mc.coef, phase, s, counts[0], mc.scratch);
+            const ub = lb.bound_V;
+            const jj = lb.shiftIndex;
             const light =
               mc.setup.shifts.length === 0
                 ? ub

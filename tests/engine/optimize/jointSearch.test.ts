@@ -5,7 +5,13 @@ import { describe, expect, it } from "vitest";
 import { enumerateTxFirs } from "@lib/equalizers/enumerateTxFirs";
 import { isLegalTxFir } from "@lib/equalizers/txFirConstraints";
 import { evaluateSetting, heavyPhaseBound, lightPhaseBound, phaseEye, prepareEye } from "@lib/optimize/evaluateSetting";
-import { BoxRanges, boundSetup, boxBound, createTapBox, leafBound, phaseCoefficients } from "@lib/optimize/headroomBound";
+import { createBoundScratch } from "@lib/optimize/bound/boundScratch";
+import { boundSetup } from "@lib/optimize/bound/boundSetup";
+import { boxBound } from "@lib/optimize/bound/boxBound";
+import { BoxRanges } from "@lib/optimize/bound/boxRanges";
+import { leafBound } from "@lib/optimize/bound/leafBound";
+import { phaseCoefficients } from "@lib/optimize/bound/phaseCoefficients";
+import { createTapBox } from "@lib/optimize/bound/tapBox";
 import { jointSearch, prepareChannels, startingPoints } from "@lib/optimize/jointSearch";
 import { searchSpace } from "@lib/optimize/searchSpace";
 import { cursorPulse } from "../analysis/helpers.ts";
@@ -104,7 +110,7 @@ describe("headroom bounds", () => {
           const taps = Float64Array.of(-kPre * 0.05, 0, 0.1 - kPost * 0.05);
           taps[1] = Math.min(1, 1 - Math.abs(taps[0]) - Math.abs(taps[2]));
           const coef = (p: number) => phaseCoefficients(setup, space, ch, p);
-          const ub = leafBound(setup, coef, phase, taps, n, new Float64Array(setup.offsets.length + 4));
+          const ub = leafBound(setup, coef, phase, taps, n, createBoundScratch(setup)).bound_V;
           const exact = phaseEye(ch, space, taps, n, phase).limiterHeadroom_V;
           return ub >= exact;
         },
@@ -156,7 +162,7 @@ describe("box bound", () => {
           box.count = c;
           box.mainLo = 0;
           ranges.reset(box);
-          const bound = boxBound(setup, ranges, t, n, new Float64Array(setup.offsets.length + 4));
+          const bound = boxBound(setup, ranges, t, n, createBoundScratch(setup)).bound_V;
           for (let x = pre[0]; x <= pre[1] + 1e-9; x += 0.05) {
             for (let y = post[0]; y <= post[1] + 1e-9; y += 0.05) {
               const taps = Float64Array.of(x, 1 + x + y, y);

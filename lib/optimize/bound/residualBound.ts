@@ -1,0 +1,56 @@
+// The bound of facts 1–3 (see BoundSetup) from a main cursor and residual magnitudes: the piece the
+// leaf bound and the box bound share.
+import { DEFAULT_HALF_BINS, NOISE_TAIL_SIGMAS } from "../../analysis/sampleDistribution.ts";
+import type { BoundSetup } from "./boundSetup.ts";
+
+/**
+ * Upper bound on the statistical eye's ISI grid step Δ, volts: the eye spans the residuals' total
+ * `residualSum_V`, the unwatched tail and the noise's tails over `DEFAULT_HALF_BINS` bins.
+ */
+export function binStepBound(setup: BoundSetup, residualSum_V: number, tail_V: number): number {
+  return (residualSum_V + tail_V + NOISE_TAIL_SIGMAS * setup.noiseRms_V) / DEFAULT_HALF_BINS;
+}
+
+/** Limiter headroom of an eye opening (a negative opening is a closed eye, 0). */
+export function headroomOfEye(setup: BoundSetup, eye_V: number): number {
+  return (eye_V > 0 ? eye_V : 0) - setup.sensitivity_V;
+}
+
+/**
+ * Headroom bound from the main cursor `main_V` and the watched residual magnitudes
+ * `residuals[0 … count)` (sorted here in place, descending) at jitter phase `shiftIndex`: the least
+ * over k of `levelGap·g₀ − 2·Σ_{k largest}|r| − 2·σQ_k + slack_k·Δ`. `residualSum_V` bounds the
+ * residuals' total from above (for Δ); `tail_V` bounds the unwatched cursors.
+ */
+export function residualBound(
+  setup: BoundSetup,
+  shiftIndex: number,
+  tail_V: number,
+  main_V: number,
+  residuals: Float64Array,
+  count: number,
+  residualSum_V: number,
+): number {
+  for (let i = 1; i < count; i++) {
+    const x = residuals[i];
+    let j = i - 1;
+    while (j >= 0 && residuals[j] < x) {
+      residuals[j + 1] = residuals[j];
+      j--;
+    }
+    residuals[j + 1] = x;
+  }
+  const delta = binStepBound(setup, residualSum_V, tail_V);
+  const qSigma = setup.qSigma;
+  const watchedCount = setup.offsets.length;
+  let best = Number.POSITIVE_INFINITY;
+  let cumulative = 0;
+  for (let k = 0; k < watchedCount; k++) {
+    if (k > 0) cumulative += residuals[k - 1];
+    const qk = qSigma[shiftIndex * watchedCount + k];
+    if (Number.isNaN(qk)) break;
+    const v = -2 * cumulative - 2 * qk + setup.slack[k] * delta;
+    if (v < best) best = v;
+  }
+  return headroomOfEye(setup, setup.levelGap * main_V + best);
+}
