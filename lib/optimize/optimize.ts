@@ -4,8 +4,10 @@ import { eyeWidth } from "../analysis/bathtub.ts";
 import type { BudgetInput } from "../contract/budget.ts";
 import type { Pulse } from "../types.ts";
 import type { CtleChannel } from "./ctleChannel.ts";
-import { evaluateSetting, type PhaseEye, phaseEye } from "./evaluateSetting.ts";
-import { type Candidate, jointSearch, type PreparedChannels, prepareChannels } from "./jointSearch.ts";
+import { type PhaseEye, phaseEye } from "./evaluateSetting.ts";
+import { fewestDfeTaps } from "./fewestDfeTaps.ts";
+import { type Candidate, jointSearch } from "./jointSearch.ts";
+import { type PreparedChannels, prepareChannels } from "./prepareChannels.ts";
 import { refineFir } from "./refineFir.ts";
 import { type SearchSpace, searchSpace } from "./searchSpace.ts";
 import { type Verdict, verdict } from "./verdict.ts";
@@ -89,6 +91,24 @@ export interface OptimizeDetail {
   readonly linear: { readonly taps: Float64Array; readonly channel: CtleChannel; readonly eye: PhaseEye };
 }
 
+/** A setting with its figures as plain JSON. */
+function settingResult(space: SearchSpace, s: { taps: Float64Array; channel: CtleChannel; eye: PhaseEye }): SettingResult {
+  const spu = s.channel.pulse.samplesPerUi;
+  const limits = Array.from(space.dfeLimits_V.subarray(0, s.eye.dfeTaps.length), (l) => (Number.isFinite(l) ? l : null));
+  return {
+    tx: { taps: Array.from(s.taps, tidyTap) },
+    ctle: { gDc_dB: s.channel.setting.gDc_dB, gDc2_dB: s.channel.setting.gDc2_dB },
+    dfe: { taps: Array.from(s.eye.dfeTaps), limits_V: limits, clipped: [...s.eye.dfeClipped] },
+    eye: {
+      eyeHeight_V: s.eye.eyeHeight_V,
+      eyeWidth_UI: eyeWidth(s.eye.eye, s.eye.phase, space.budget.targetBer).eyeWidth_UI,
+    },
+    limiterHeadroom_V: s.eye.limiterHeadroom_V,
+    samplingPhase_UI: s.eye.phase / spu,
+    noiseRms_V: s.channel.noiseRms_V,
+  };
+}
+
 /**
  * Optimizes transmit FIR × CTLE × DFE for a pulse under a budget (see {@link jointSearch}): the best
  * setting with the budget's DFE taps and the best without DFE in one pass, then the fewest DFE taps
@@ -104,52 +124,15 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
   const report = options.onProgress ?? (() => {});
   report(0);
   const prepared = prepareChannels(pulse, space);
-  const N = space.dfeCount;
-  const counts = N > 0 ? [N, 0] : [0];
+  const budgetDfeCount = space.dfeCount;
+  const counts = budgetDfeCount > 0 ? [budgetDfeCount, 0] : [0];
   const main = jointSearch(pulse, space, { dfeCounts: counts, topCount: options.topCount, onProgress: (f) => report(0.75 * f) }, prepared);
   const fullC = main.best[0];
   const linC = main.best[counts.length - 1];
   if (fullC === null || linC === null) {
     throw new RangeError("budget.tx: no transmit FIR setting satisfies the tap ranges, the step and Σ|c| ≤ 1");
   }
-  let stats = { ...main.stats };
-  const required = space.budget.requiredHeadroom_V;
-
-  // Fewest DFE taps: linear and full are known; bisect between them with feasibility passes.
-  let fewest: number | null = null;
-  if (fullC.limiterHeadroom_V >= required) {
-    if (linC.limiterHeadroom_V >= required) fewest = 0;
-    else {
-      let lo = 0; // fails
-      let hi = N; // succeeds
-      // A setting already found that meets the requirement with `n` taps proves `n` feasible (the
-      // best linear one first: few taps added to it often suffice); otherwise a feasibility pass
-      // decides, visiting the CTLE settings best first by the main pass and starting from the
-      // settings it found there.
-      const known = [linC, fullC, ...main.top];
-      const order = space.ctleSettings
-        .map((_, ci) => ci)
-        .sort((a, b) => main.perCtle[0][b].upperBound_V - main.perCtle[0][a].upperBound_V || a - b);
-      const seeds = space.ctleSettings.map((_, ci) =>
-        main.perCtle.flatMap((per) => (per[ci].best === null ? [] : [(per[ci].best as Candidate).taps])),
-      );
-      const feasible = (n: number): boolean => {
-        for (const c of known) {
-          stats.exact++;
-          if (evaluateSetting(prepared.channels[c.ctleIndex], space, c.taps, n).limiterHeadroom_V >= required) return true;
-        }
-        const r = jointSearch(pulse, space, { dfeCounts: [n], target_V: required, order, seeds }, prepared);
-        stats = { exact: stats.exact + r.stats.exact, heavy: stats.heavy + r.stats.heavy, boxes: stats.boxes + r.stats.boxes, leaves: stats.leaves + r.stats.leaves };
-        return r.best[0] !== null;
-      };
-      while (hi - lo > 1) {
-        const mid = (lo + hi) >> 1;
-        if (feasible(mid)) hi = mid;
-        else lo = mid;
-      }
-      fewest = hi;
-    }
-  }
+  const fewest = fewestDfeTaps(pulse, space, prepared, main, fullC, linC);
   report(0.9);
 
   const channelOf = (c: Candidate) => prepared.channels[c.ctleIndex];
@@ -157,49 +140,33 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
   let linear = { taps: linC.taps, channel: channelOf(linC), eye: phaseEye(channelOf(linC), space, linC.taps, 0, linC.phase) };
   let refinement: OptimizeResult["refinement"] = null;
   if (space.continuousFir) {
-    const rf = refineFir(full.channel, space, N, [full.taps]);
-    const rl = N > 0 ? refineFir(linear.channel, space, 0, [linear.taps]) : rf;
+    const rf = refineFir(full.channel, space, budgetDfeCount, [full.taps]);
+    const rl = budgetDfeCount > 0 ? refineFir(linear.channel, space, 0, [linear.taps]) : rf;
     const gain = Math.max(0, rf.eye.limiterHeadroom_V - full.eye.limiterHeadroom_V);
     const linearGain = Math.max(0, rl.eye.limiterHeadroom_V - linear.eye.limiterHeadroom_V);
     if (rf.eye.limiterHeadroom_V > full.eye.limiterHeadroom_V) full = { taps: rf.taps, channel: full.channel, eye: rf.eye };
     if (rl.eye.limiterHeadroom_V > linear.eye.limiterHeadroom_V) {
       linear = { taps: rl.taps, channel: linear.channel, eye: rl.eye };
     }
-    refinement = { gain_V: gain, linearGain_V: linearGain, evaluations: rf.evaluations + (N > 0 ? rl.evaluations : 0) };
+    refinement = { gain_V: gain, linearGain_V: linearGain, evaluations: rf.evaluations + (budgetDfeCount > 0 ? rl.evaluations : 0) };
   }
   report(0.97);
 
-  const setting = (s: { taps: Float64Array; channel: CtleChannel; eye: PhaseEye }): SettingResult => {
-    const spu = s.channel.pulse.samplesPerUi;
-    const limits = Array.from(space.dfeLimits_V.subarray(0, s.eye.dfeTaps.length), (l) => (Number.isFinite(l) ? l : null));
-    return {
-      tx: { taps: Array.from(s.taps, tidyTap) },
-      ctle: { gDc_dB: s.channel.setting.gDc_dB, gDc2_dB: s.channel.setting.gDc2_dB },
-      dfe: { taps: Array.from(s.eye.dfeTaps), limits_V: limits, clipped: [...s.eye.dfeClipped] },
-      eye: {
-        eyeHeight_V: s.eye.eyeHeight_V,
-        eyeWidth_UI: eyeWidth(s.eye.eye, s.eye.phase, space.budget.targetBer).eyeWidth_UI,
-      },
-      limiterHeadroom_V: s.eye.limiterHeadroom_V,
-      samplingPhase_UI: s.eye.phase / spu,
-      noiseRms_V: s.channel.noiseRms_V,
-    };
-  };
   const fullCandidate: Candidate = { ...fullC, taps: full.taps, limiterHeadroom_V: full.eye.limiterHeadroom_V, eyeHeight_V: full.eye.eyeHeight_V };
   const linCandidate: Candidate = { ...linC, taps: linear.taps, limiterHeadroom_V: linear.eye.limiterHeadroom_V, eyeHeight_V: linear.eye.eyeHeight_V };
   const v = verdict(
     space,
     { candidate: linCandidate, mainCursor_V: linear.eye.eye.main(linear.eye.phase), noiseRms_V: linear.channel.noiseRms_V },
     { candidate: fullCandidate },
-    fewest,
+    fewest.taps,
   );
 
   const g1 = space.ctleAxes.gDc_dB;
   const g2 = space.ctleAxes.gDc2_dB;
   const cell = (i2: number, i1: number) => main.perCtle[0][i2 * g1.length + i1];
   const result: OptimizeResult = {
-    ...setting(full),
-    linearOnly: setting(linear),
+    ...settingResult(space, full),
+    linearOnly: settingResult(space, linear),
     verdict: v,
     clocking: {
       scheme: space.jitter.scheme,
@@ -225,7 +192,7 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
       limiterHeadroom_V: c.limiterHeadroom_V,
     })),
     refinement,
-    search: { exactEvaluations: stats.exact, boundedBoxes: stats.boxes, settingsReached: stats.leaves },
+    search: { exactEvaluations: fewest.stats.exact, boundedBoxes: fewest.stats.boxes, settingsReached: fewest.stats.leaves },
   };
   report(1);
   return { result, space, prepared, full, linear };

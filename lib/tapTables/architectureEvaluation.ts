@@ -3,7 +3,8 @@
 import type { BudgetInput } from "../contract/budget.ts";
 import { applyFir } from "../equalizers/applyFir.ts";
 import { convolveCursors } from "../equalizers/convolveCursors.ts";
-import { jointSearch, prepareChannels } from "../optimize/jointSearch.ts";
+import { jointSearch } from "../optimize/jointSearch.ts";
+import { prepareChannels } from "../optimize/prepareChannels.ts";
 import { resolveBudget, searchSpace } from "../optimize/searchSpace.ts";
 import { mmseEqualizer } from "../solvers/mmse.ts";
 import type { Pulse } from "../types.ts";

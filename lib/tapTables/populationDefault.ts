@@ -4,8 +4,9 @@
 import type { BudgetInput } from "../contract/budget.ts";
 import { channelFor } from "../optimize/ctleChannel.ts";
 import { evaluateSetting, type PhaseEye } from "../optimize/evaluateSetting.ts";
-import { type Candidate, jointSearch, type PreparedChannels, prepareChannels } from "../optimize/jointSearch.ts";
+import { type Candidate, jointSearch } from "../optimize/jointSearch.ts";
 import { tidyTap } from "../optimize/optimize.ts";
+import { type PreparedChannels, prepareChannels } from "../optimize/prepareChannels.ts";
 import { searchSpace } from "../optimize/searchSpace.ts";
 import { assertPulse } from "../pulse/assertPulse.ts";
 import { resampleLinear } from "../signal/resampleLinear.ts";

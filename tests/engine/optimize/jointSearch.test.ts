@@ -12,7 +12,9 @@ import { BoxRanges } from "@lib/optimize/bound/boxRanges";
 import { leafBound } from "@lib/optimize/bound/leafBound";
 import { phaseCoefficients } from "@lib/optimize/bound/phaseCoefficients";
 import { createTapBox } from "@lib/optimize/bound/tapBox";
-import { jointSearch, prepareChannels, startingPoints } from "@lib/optimize/jointSearch";
+import { jointSearch } from "@lib/optimize/jointSearch";
+import { prepareChannels } from "@lib/optimize/prepareChannels";
+import { startingPoints } from "@lib/optimize/search/startingPoints";
 import { searchSpace } from "@lib/optimize/searchSpace";
 import { cursorPulse } from "../analysis/helpers.ts";
 
@@ -66,7 +68,7 @@ describe("jointSearch — oracle: exhaustive evaluation of the grid", () => {
       expect(r.best[o]?.limiterHeadroom_V).toBe(all[0]);
       if (o === 0) expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 5));
     }
-  });
+  }, 30_000); // the exhaustive oracle takes seconds (more on a busy machine): not a speed check
 
   it("a given CTLE order and extra starting points change the work, not the answer", () => {
     const space = searchSpace(channel, budget("centre", "nrz", true));

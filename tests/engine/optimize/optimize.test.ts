@@ -7,7 +7,7 @@ import { isLegalTxFir } from "@lib/equalizers/txFirConstraints";
 import { equalizedCursors } from "@lib/optimize/ctleChannel";
 import { nelderMead } from "@lib/optimize/nelderMead";
 import { optimize } from "@lib/optimize/optimize";
-import { prepareChannels } from "@lib/optimize/jointSearch";
+import { prepareChannels } from "@lib/optimize/prepareChannels";
 import { searchSpace } from "@lib/optimize/searchSpace";
 import { flatCtle, rcPulse, stepwisePulse } from "./fixtures.ts";
 

@@ -4,7 +4,7 @@ import { describe, expect, it } from "vitest";
 import { enumerateTxFirs } from "@lib/equalizers/enumerateTxFirs";
 import { firNoiseGain } from "@lib/equalizers/firNoiseGain";
 import { evaluateSetting } from "@lib/optimize/evaluateSetting";
-import { prepareChannels } from "@lib/optimize/jointSearch";
+import { prepareChannels } from "@lib/optimize/prepareChannels";
 import { searchSpace } from "@lib/optimize/searchSpace";
 import { zeroForcing } from "@lib/solvers/zeroForcing";
 import { architectureComplexity, evaluateArchitectures } from "@lib/tapTables/architectureEvaluation";
