@@ -3,3 +3,4 @@ export * from "./aggressorSampling.ts";
 export * from "./couplingModel.ts";
 export * from "./crosstalkTransfers.ts";
 export * from "./integratedCrosstalkNoise.ts";
+export * from "./linkFromTouchstone.ts";

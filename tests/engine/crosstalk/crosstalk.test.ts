@@ -1,12 +1,22 @@
 // Aggressors: pair selection in multi-port files, the synthetic coupling forms, the worst sampling
 // phase and the rms an aggressor adds, and integrated crosstalk noise (ICN).
 import { describe, expect, it } from "vitest";
-import { differentialNetwork, lossModelS21, sdd21, sParameter, type NetworkData } from "@lib/channel";
+import {
+  differentialNetwork,
+  formatTouchstone,
+  lossModelS21,
+  pulseFromS21,
+  sdd21,
+  sParameter,
+  type NetworkData,
+} from "@lib/channel";
 import {
   couplingTransfer,
   crosstalkRms,
   crosstalkTransfers,
+  linkFromTouchstone,
   integratedCrosstalkNoise,
+  integratedCrosstalkNoiseOfPulses,
   pulseFromCoupling,
   symbolPower,
   worstPhaseSampling,
@@ -68,6 +78,45 @@ describe("crosstalkTransfers", () => {
     expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "next", p: 3, n: 5 }])).toThrow(/port 3 appears in more than one pair/);
     expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "side" as "next", p: 5, n: 6 }])).toThrow(/aggressors\[0\]\.kind/);
     expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "fext", p: 5, n: 9 }])).toThrow(/pairs\[2\]\.n must be a port 1…8/);
+  });
+});
+
+describe("linkFromTouchstone", () => {
+  it("an 8-port file: the victim's pulse and each aggressor's crosstalk pulse come from their mixed-mode terms", () => {
+    // Left ports 1–4, right ports 5–8; the victim runs (1,2) → (5,6). The neighbour's pair (7,8) is driven
+    // beside the victim's receiver (NEXT), its pair (3,4) at the far end (FEXT).
+    const fN = 14e9;
+    const freqs = Float64Array.from({ length: 1200 }, (_, k) => (k + 1) * 25e6);
+    const thru = lossModelS21(freqs, { lossAtNyquist_dB: 15, delay_s: 1e-9 }, fN);
+    const next = couplingTransfer({ kind: "next", backwardCoefficient: 0.02, line: { lossAtNyquist_dB: 1, delay_s: 1e-10 } }, freqs, fN);
+    const fext = couplingTransfer({ kind: "fext", forwardCoupling_s: 2e-12, line: { lossAtNyquist_dB: 15, delay_s: 1e-9 } }, freqs, fN);
+    const n = 8;
+    const sm = new Float64Array(freqs.length * n * n * 2);
+    const put = (f: number, o: number, i: number, re: number, im: number) => {
+      for (const [a, b] of [[o, i], [i, o]]) {
+        sm[2 * ((f * n + a - 1) * n + b - 1)] = re;
+        sm[2 * ((f * n + a - 1) * n + b - 1) + 1] = im;
+      }
+    };
+    for (let f = 0; f < freqs.length; f++) {
+      for (const [o, i, x] of [[5, 1, thru], [6, 2, thru], [7, 3, thru], [8, 4, thru], [5, 7, next], [6, 8, next], [5, 3, fext], [6, 4, fext]] as const) {
+        put(f, o, i, x.re[f], x.im[f]);
+      }
+    }
+    const text = formatTouchstone({ ports: n, freqs_Hz: freqs, s: sm, referenceOhms: new Float64Array(n).fill(50) }, { version: 2 });
+    const grid = { ui_s: 1 / 28e9, samplesPerUi: 8 };
+    const link = linkFromTouchstone(text, {
+      ...grid,
+      victim: { inP: 1, inN: 2, outP: 5, outN: 6 },
+      aggressors: [{ kind: "next", p: 7, n: 8, name: "lane B NEXT" }, { kind: "fext", p: 3, n: 4 }],
+    });
+    const want = (x: { re: Float64Array; im: Float64Array }) => pulseFromS21(freqs, x, grid).pulse.values_V;
+    const close = (a: Float64Array, b: Float64Array) => a.forEach((v, i) => expect(v).toBeCloseTo(b[i], 6));
+    close(link.victim.pulse.values_V, want(thru));
+    close(link.aggressors[0].pulse.values_V, want(next));
+    close(link.aggressors[1].pulse.values_V, want(fext));
+    expect(link.aggressors.map((a) => [a.name, a.kind])).toEqual([["lane B NEXT", "next"], ["FEXT 3/4", "fext"]]);
+    expect(link.aggressors[0].insertionLoss.magnitude_dB[600]).toBeCloseTo(20 * Math.log10(Math.hypot(next.re[600], next.im[600])), 3);
   });
 });
 
@@ -200,6 +249,33 @@ describe("integratedCrosstalkNoise", () => {
     const loud = integratedCrosstalkNoise(freqs, [{ ...a, amplitude_V: 0.8 }], { baud_Hz: 1e10 });
     expect(loud.rms_V / one.rms_V).toBeCloseTo(2, 14);
     expect(integratedCrosstalkNoise(freqs, [], { baud_Hz: 1e10 }).rms_V).toBe(0);
+  });
+
+  it("oracle: from the crosstalk pulses (|P|²/UI² for sinc²·|X|²) it equals the transfer form on a fine grid", () => {
+    const fb = 28e9;
+    const ui = 1 / fb;
+    const next = { kind: "next" as const, backwardCoefficient: 0.03, line: { lossAtNyquist_dB: 3, delay_s: 150e-12 } };
+    const fext = { kind: "fext" as const, forwardCoupling_s: 4e-12, line: { lossAtNyquist_dB: 20, delay_s: 2e-9 } };
+    const freqs = Float64Array.from({ length: 3001 }, (_, k) => k * 1e7);
+    const byTransfer = integratedCrosstalkNoise(
+      freqs,
+      [
+        { kind: "next", transfer: couplingTransfer(next, freqs, fb / 2), amplitude_V: 0.4 },
+        { kind: "fext", transfer: couplingTransfer(fext, freqs, fb / 2), amplitude_V: 0.5 },
+      ],
+      { baud_Hz: fb },
+    );
+    const grid = { ui_s: ui, samplesPerUi: 16 };
+    const byPulse = integratedCrosstalkNoiseOfPulses(
+      [
+        { kind: "next", pulse: pulseFromCoupling(next, grid).pulse, amplitude_V: 0.4 },
+        { kind: "fext", pulse: pulseFromCoupling(fext, grid).pulse, amplitude_V: 0.5 },
+      ],
+      { baud_Hz: fb },
+    );
+    expect(byPulse.next_V / byTransfer.next_V).toBeCloseTo(1, 2);
+    expect(byPulse.fext_V / byTransfer.fext_V).toBeCloseTo(1, 2);
+    expect(() => integratedCrosstalkNoiseOfPulses([{ kind: "next", pulse: pulseFromCoupling(next, grid).pulse, amplitude_V: 1 }], { baud_Hz: 25e9 })).toThrow(/does not match/);
   });
 
   it("edges: a non-uniform grid, mismatched lengths or a bad baud rate are refused", () => {
