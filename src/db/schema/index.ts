@@ -8,3 +8,4 @@ export * from "./jobs";
 export * from "./studies";
 export * from "./tapTables";
 export * from "./signoff";
+export * from "./aggressors";

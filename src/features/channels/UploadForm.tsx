@@ -6,6 +6,8 @@ import { useStore } from "zustand";
 import { createUploadStore, type CsvKind } from "./uploadStore";
 import { commonPairings, formatBytes, formatDb, formatMv, type PortPairs } from "./channels";
 import ChannelCharts from "./ChannelCharts";
+import AggressorCharts from "./AggressorCharts";
+import AggressorRows from "./AggressorRows";
 
 const csvKinds: { value: CsvKind; label: string }[] = [
   { value: "pulse-csv", label: "Pulse response" },
@@ -53,7 +55,8 @@ export default function UploadForm() {
         }}
       >
         <p className="text-ink-soft">
-          Drop a <strong>.csv</strong> pulse, step or impulse response, or a Touchstone <strong>.s2p</strong> / <strong>.s4p</strong> file here
+          Drop a <strong>.csv</strong> pulse, step or impulse response, a Touchstone <strong>.s2p</strong> / <strong>.s4p</strong> file, or a lane with its
+          neighbours in one <strong>.s8p</strong> / <strong>.s12p</strong> / <strong>.s16p</strong> file here
         </p>
         <label className="btn cursor-pointer">
           Choose a file…
@@ -62,7 +65,7 @@ export default function UploadForm() {
             type="file"
             className="sr-only"
             aria-label="Channel file"
-            accept=".csv,.txt,.s2p,.s4p"
+            accept=".csv,.txt,.s2p,.s4p,.s8p,.s12p,.s16p"
             onChange={(e) => s.pickFile(e.target.files?.[0] ?? null)}
           />
         </label>
@@ -152,6 +155,33 @@ export default function UploadForm() {
         </fieldset>
       )}
 
+      {s.format === "multiport" && (
+        <fieldset className="flex flex-col gap-2">
+          <legend className="mb-1 text-sm font-medium text-ink-soft">This lane's ports in the {s.ports}-port file (its SDD21 is the victim's channel)</legend>
+          <div className="flex flex-wrap items-end gap-3">
+            {(["inP", "inN", "outP", "outN"] as const).map((k) => (
+              <label key={k} className="field w-20">
+                <span>{{ inP: "In +", inN: "In −", outP: "Out +", outN: "Out −" }[k]}</span>
+                <input className="input num" type="number" min={1} max={s.ports} aria-label={`Victim ${k}`} value={s.fields.pairs[k]} onChange={setPort(k)} />
+              </label>
+            ))}
+            <button type="button" className="btn" disabled={busy || !s.file} onClick={() => void s.runPreview()}>Preview</button>
+          </div>
+          <span className="help">By default the first pair on each side (ports 1,2 → {s.ports / 2 + 1},{s.ports / 2 + 2}). Name the neighbours' pairs as aggressors below.</span>
+        </fieldset>
+      )}
+
+      {s.file && s.format !== "other" && (
+        <AggressorRows
+          rows={s.fields.aggressors}
+          multiPorts={s.format === "multiport" ? s.ports : 0}
+          disabled={busy}
+          onAdd={s.addAggressor}
+          onChange={s.updateAggressor}
+          onRemove={s.removeAggressor}
+        />
+      )}
+
       {s.error && (
         <p className="notice notice-bad" role="alert" data-testid="upload-error">
           {s.error.message}
@@ -182,12 +212,21 @@ export default function UploadForm() {
             transfer={String(s.preview.derivation.transfer ?? "S21")}
             height={240}
           />
+          {s.preview.aggressors.length > 0 && (
+            <div className="mt-4" data-testid="preview-aggressors">
+              <p className="mb-2 text-sm text-ink-soft">
+                {s.preview.aggressors.length} aggressor{s.preview.aggressors.length === 1 ? "" : "s"}; ICN for 1 Vppd:{" "}
+                {s.preview.aggressors.map((a) => `${a.name} ${formatMv(a.icnRms_V)}`).join(", ")}.
+              </p>
+              <AggressorCharts aggressors={s.preview.aggressors} insertionLoss={s.preview.insertionLoss} transfer={String(s.preview.derivation.transfer ?? "S21")} height={220} />
+            </div>
+          )}
         </section>
       )}
 
       <div className="flex gap-3">
         <button className="btn btn-primary" type="submit" disabled={busy || !s.file || s.format === "other"}>Upload and derive the pulse</button>
-        {s.file && s.format !== "s4p" && s.format !== "other" && !s.preview && (
+        {s.file && s.format !== "s4p" && s.format !== "multiport" && s.format !== "other" && !s.preview && (
           <button type="button" className="btn" disabled={busy} onClick={() => void s.runPreview()}>Preview first</button>
         )}
       </div>

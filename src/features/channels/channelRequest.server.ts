@@ -1,9 +1,11 @@
-// Reads POST /api/v1/channels (and the preview) off the request: a multipart upload with the file
-// and the fields of `uploadFields`, or JSON for a synthetic channel. The routes call this; the
+// Reads POST /api/v1/channels (and the preview) off the request: a multipart upload with the file,
+// the fields of `uploadFields` and any aggressors' own files (aggressor0 … aggressor7), or JSON for
+// a synthetic channel. The routes call this; the
 // services in channels.server.ts take its result and never see the request.
 import { ApiError, zodToApiError } from "@/server/http/errors";
 import { readJsonLimited, readMultipart, type UploadedFile } from "@/server/http/body";
 import { MAX_UPLOAD_BYTES, formatBytes, syntheticRequest, uploadFields, type SyntheticRequest, type UploadFields } from "./channels";
+import { AGGRESSOR_FILE_FIELD } from "./aggressors";
 
 /** Room for the multipart envelope around the file. */
 const MULTIPART_OVERHEAD = 256 * 1024;
@@ -14,7 +16,7 @@ const tooLarge = () =>
 
 /** A parsed channel request: a file upload (multipart) or a synthetic channel (JSON). */
 export type ChannelRequest =
-  | { source: "file"; fields: UploadFields; file: UploadedFile }
+  | { source: "file"; fields: UploadFields; file: UploadedFile; aggressorFiles: Record<string, UploadedFile> }
   | { source: "synthetic"; body: SyntheticRequest };
 
 /**
@@ -37,14 +39,15 @@ export async function readChannelRequest(request: Request, { fileOnly = false } 
         : "Send a file as multipart/form-data (fields file, name, bitRate_bps…) or a synthetic channel as JSON.",
     );
   }
-  const { file, fields } = await readMultipart(request, {
+  const { file, fields, extras } = await readMultipart(request, {
     limit: MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD,
     fileField: "file",
     fileLimit: MAX_UPLOAD_BYTES,
     tooLarge,
+    extraFiles: AGGRESSOR_FILE_FIELD,
   });
   if (fileOnly && !fields.name) fields.name = file.filename;
   const parsed = uploadFields.safeParse(fields);
   if (!parsed.success) throw zodToApiError(parsed.error);
-  return { source: "file", fields: parsed.data, file };
+  return { source: "file", fields: parsed.data, file, aggressorFiles: extras };
 }

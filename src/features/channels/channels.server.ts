@@ -4,19 +4,20 @@
 import { createHash } from "node:crypto";
 import { and, asc, count, desc, eq, like, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
-import { channels, channelSources, programs, runs, users } from "@/db/schema";
+import { channelAggressors, channels, channelSources, programs, runs, users } from "@/db/schema";
 import { conflict, notFound } from "@/server/http/errors";
 import type { UploadedFile } from "@/server/http/body";
 import type { Download } from "@/server/http/download";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import type { ChannelDetail, ChannelListItem, DerivedChannel, ListQuery, ModulationName } from "./channels";
+import type { AggressorView } from "./aggressors";
 import type { ChannelRequest } from "./channelRequest.server";
 import { deriveFromFile, deriveSynthetic } from "./derive";
 
 /** Runs the engine on a request: the derived pulse, insertion loss and their provenance. */
 export function deriveChannel(req: ChannelRequest): DerivedChannel {
-  if (req.source === "synthetic") return deriveSynthetic(req.body.bitRate_bps, req.body.modulation, req.body.lossModel);
+  if (req.source === "synthetic") return deriveSynthetic(req.body.bitRate_bps, req.body.modulation, req.body.lossModel, req.body.aggressors);
   const f = req.fields;
   return deriveFromFile({
     filename: req.file.filename,
@@ -26,6 +27,8 @@ export function deriveChannel(req: ChannelRequest): DerivedChannel {
     kind: f.kind,
     pairs: f.pairs,
     riseTime_s: f.riseTime_s,
+    aggressors: f.aggressors,
+    aggressorFiles: req.aggressorFiles,
   });
 }
 
@@ -48,12 +51,21 @@ async function programFor(tx: Tx, name: string | undefined): Promise<number> {
 export const sha256Hex = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
 
 /**
- * Stores a derived channel and, for uploads, the original file byte for byte, in one transaction
- * with its audit event. Returns the new channel's list item.
+ * Stores a derived channel with its aggressors and, for uploads, the original files byte for byte
+ * (the victim's and each aggressor's own), in one transaction with its audit event. Returns the new
+ * channel's list item.
  */
 export async function saveChannel(
   user: SessionUser | null,
-  input: { name: string; bitRate_bps: number; modulation: ModulationName; program?: string; file?: UploadedFile },
+  input: {
+    name: string;
+    bitRate_bps: number;
+    modulation: ModulationName;
+    program?: string;
+    file?: UploadedFile;
+    aggressors?: { source: string; field?: string }[];
+    aggressorFiles?: Record<string, UploadedFile>;
+  },
   derived: DerivedChannel,
 ): Promise<ChannelListItem & { sha256?: string }> {
   const { id, sha256 } = await db.transaction(async (tx) => {
@@ -85,10 +97,35 @@ export async function saveChannel(
         bytes: Buffer.from(input.file.bytes.buffer, input.file.bytes.byteOffset, input.file.bytes.byteLength),
       });
     }
+    for (const [position, a] of derived.aggressors.entries()) {
+      const field = input.aggressors?.[position]?.field;
+      const own = field ? input.aggressorFiles?.[field] : undefined;
+      await tx.insert(channelAggressors).values({
+        channelId: id,
+        position,
+        name: a.name,
+        kind: a.kind,
+        source: a.source,
+        pulse: a.pulse,
+        coupling: a.coupling,
+        icnRms_V: a.icnRms_V,
+        derivation: a.derivation,
+        ...(own
+          ? {
+              filename: own.filename.slice(0, 255),
+              contentType: own.contentType.slice(0, 100),
+              size_bytes: own.bytes.length,
+              sha256: sha256Hex(own.bytes),
+              bytes: Buffer.from(own.bytes.buffer, own.bytes.byteOffset, own.bytes.byteLength),
+            }
+          : {}),
+      });
+    }
     await recordAudit(tx, user, input.file ? "channel.upload" : "channel.synthesize", "channel", id, {
       name: input.name,
       kind: derived.kind,
       ...(input.file ? { filename: input.file.filename, bytes: input.file.bytes.length, sha256 } : {}),
+      ...(derived.aggressors.length > 0 ? { aggressors: derived.aggressors.map((a) => `${a.name} (${a.kind})`) } : {}),
     });
     return { id, sha256 };
   });
@@ -100,7 +137,7 @@ export async function saveChannel(
 export async function createChannel(user: SessionUser, req: ChannelRequest) {
   const derived = deriveChannel(req);
   if (req.source === "synthetic") return saveChannel(user, req.body, derived);
-  return saveChannel(user, { ...req.fields, file: req.file }, derived);
+  return saveChannel(user, { ...req.fields, file: req.file, aggressorFiles: req.aggressorFiles }, derived);
 }
 
 /** POST /api/v1/channels/preview: what the engine derives, without storing anything. */
@@ -217,6 +254,49 @@ export async function getChannel(id: number): Promise<ChannelDetail> {
     derivation: row.derivation,
     source: source ?? null,
     runCount: n,
+    aggressors: await channelAggressorViews(id),
+  };
+}
+
+/** A channel's aggressors in upload order (without their files' bytes). */
+export async function channelAggressorViews(channelId: number): Promise<AggressorView[]> {
+  const rows = await db
+    .select({
+      position: channelAggressors.position,
+      name: channelAggressors.name,
+      kind: channelAggressors.kind,
+      source: channelAggressors.source,
+      pulse: channelAggressors.pulse,
+      coupling: channelAggressors.coupling,
+      icnRms_V: channelAggressors.icnRms_V,
+      derivation: channelAggressors.derivation,
+      filename: channelAggressors.filename,
+      size_bytes: channelAggressors.size_bytes,
+      sha256: channelAggressors.sha256,
+    })
+    .from(channelAggressors)
+    .where(eq(channelAggressors.channelId, channelId))
+    .orderBy(asc(channelAggressors.position));
+  return rows.map(({ filename, size_bytes, sha256, coupling, ...a }) => ({
+    ...a,
+    coupling: coupling ?? null,
+    file: filename && sha256 ? { filename, bytes: size_bytes ?? 0, sha256 } : null,
+  }));
+}
+
+/** GET /api/v1/channels/:id/aggressors/:position/original: an aggressor's own file, byte for byte. */
+export async function aggressorOriginalFile(id: number, position: number): Promise<Download> {
+  const [a] = await db
+    .select({ filename: channelAggressors.filename, contentType: channelAggressors.contentType, sha256: channelAggressors.sha256, bytes: channelAggressors.bytes })
+    .from(channelAggressors)
+    .where(and(eq(channelAggressors.channelId, id), eq(channelAggressors.position, position)));
+  if (!a?.bytes || !a.filename) throw notFound(`A file of aggressor ${position} of channel ${id}`);
+  return {
+    filename: a.filename,
+    contentType: a.contentType || "application/octet-stream",
+    body: a.bytes,
+    cacheControl: "private, max-age=0",
+    headers: { "x-content-sha256": a.sha256 ?? "" },
   };
 }
 

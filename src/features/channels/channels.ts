@@ -2,6 +2,7 @@
 // and small presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
 import type { ChannelKind, StoredCurve, StoredPulse } from "@/db/schema/channels";
+import { aggressorsField, aggressorSpecs, type AggressorView, type DerivedAggressor } from "./aggressors";
 
 /** Largest uploaded file, in bytes (the API answers 413 above it). */
 export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
@@ -40,13 +41,13 @@ const bitRateRange = (n: z.ZodNumber) =>
 const bitRateMessage = { error: "Give the bit rate in bit/s, e.g. 28e9." };
 const program = z.string().trim().min(1).max(200).optional();
 
-/** Which single-ended ports of a 4-port file form the input and output pairs. */
+/** Which single-ended ports of a 4-port (or multi-port) file form the victim's input and output pairs. */
 export const portPairsSchema = z
   .object({
-    inP: z.int().min(1).max(4),
-    inN: z.int().min(1).max(4),
-    outP: z.int().min(1).max(4),
-    outN: z.int().min(1).max(4),
+    inP: z.int().min(1).max(64),
+    inN: z.int().min(1).max(64),
+    outP: z.int().min(1).max(64),
+    outN: z.int().min(1).max(64),
   })
   .refine((p) => new Set([p.inP, p.inN, p.outP, p.outN]).size === 4, {
     message: "The four ports of the pairing must be different (e.g. 1,2 in and 3,4 out).",
@@ -90,6 +91,7 @@ export const uploadFields = z.object({
     .max(1e-9, "riseTime_s must be at most 1 ns.")
     .optional(),
   program,
+  aggressors: aggressorsField.optional(),
 });
 export type UploadFields = z.infer<typeof uploadFields>;
 
@@ -111,6 +113,7 @@ export const syntheticRequest = z.object({
   modulation: z.enum(modulations, { error: "modulation must be nrz or pam4." }).default("nrz"),
   lossModel: lossModelSchema,
   program,
+  aggressors: aggressorSpecs.optional(),
 });
 export type SyntheticRequest = z.infer<typeof syntheticRequest>;
 
@@ -161,6 +164,7 @@ export interface ChannelDetail extends ChannelListItem {
   derivation: Record<string, unknown>;
   source: ChannelSourceInfo | null;
   runCount: number;
+  aggressors: AggressorView[];
 }
 
 /** What the engine derived from a file or a loss model (the preview, and what a channel stores). */
@@ -171,6 +175,8 @@ export interface DerivedChannel {
   lossAtNyquist_dB: number | null;
   mainCursor_V: number;
   derivation: Record<string, unknown>;
+  /** The victim's aggressors (none for a lane alone). */
+  aggressors: DerivedAggressor[];
 }
 
 /** Bit rate for people: "28 Gb/s", "106.25 Gb/s". */

@@ -10,11 +10,13 @@ import {
   readCsvResponse,
   type FrequencyPulse,
 } from "@lib/channel";
-import { pulseToJson, trimPulse } from "@lib/pulse";
+import { integratedCrosstalkNoiseOfPulses, linkFromTouchstone, pulseFromCoupling, type CouplingModel } from "@lib/crosstalk";
+import { pulseFromJson, pulseToJson, trimPulse } from "@lib/pulse";
 import { interpolateLinear } from "@lib/signal";
 import type { Pulse } from "@lib/types";
-import { ApiError, unprocessable } from "@/server/http/errors";
+import { ApiError, badRequest, unprocessable } from "@/server/http/errors";
 import type { ChannelKind, StoredCurve } from "@/db/schema/channels";
+import { aggressorName, ICN_REFERENCE_AMPLITUDE_V, type AggressorSpec, type CouplingSpec, type DerivedAggressor } from "./aggressors";
 import {
   PULSE_KEEP_UI,
   SAMPLES_PER_UI,
@@ -35,9 +37,12 @@ const EXTENSIONS: Record<string, { format: "csv" | "touchstone"; ports?: number 
   txt: { format: "csv" },
   s2p: { format: "touchstone", ports: 2 },
   s4p: { format: "touchstone", ports: 4 },
+  s8p: { format: "touchstone", ports: 8 },
+  s12p: { format: "touchstone", ports: 12 },
+  s16p: { format: "touchstone", ports: 16 },
 };
 
-const accepted = "Tapwright reads pulse, step or impulse responses as .csv (or .txt) and Touchstone .s2p / .s4p files";
+const accepted = "Tapwright reads pulse, step or impulse responses as .csv (or .txt) and Touchstone .s2p / .s4p files (.s8p / .s12p / .s16p for a lane with its neighbours)";
 
 export interface FileOptions {
   filename: string;
@@ -47,6 +52,9 @@ export interface FileOptions {
   kind?: FileKind;
   pairs?: PortPairs;
   riseTime_s?: number;
+  /** The victim's aggressors, and the files of those that came with their own (by multipart field). */
+  aggressors?: AggressorSpec[];
+  aggressorFiles?: Record<string, { filename: string; bytes: Uint8Array }>;
 }
 
 /** The extension's format, or a 415 that says what Tapwright reads. */
@@ -64,7 +72,7 @@ export function fileFormat(filename: string, kind?: FileKind) {
     );
   }
   if (kind === "touchstone" && known.format !== "touchstone") {
-    throw new ApiError(415, `kind is touchstone but ${filename} is not a .s2p or .s4p file.`, "kind");
+    throw new ApiError(415, `kind is touchstone but ${filename} is not a Touchstone (.sNp) file.`, "kind");
   }
   if (kind && kind !== "touchstone" && known.format === "touchstone") {
     throw new ApiError(415, `kind is ${kind} but ${filename} is a Touchstone file; leave kind out or upload a .csv.`, "kind");
@@ -127,13 +135,20 @@ function fromFrequency(kind: ChannelKind, fp: FrequencyPulse, ui_s: number, deri
     lossAtNyquist_dB: lossAt(fp.insertionLoss, 1 / (2 * ui_s)),
     mainCursor_V,
     derivation,
+    aggressors: [],
   };
 }
 
+/** The default victim pairing of a multi-port file: the first pair on the left to the first on the right. */
+export function defaultMultiPortPairs(ports: number): PortPairs {
+  return ports === 4 ? DEFAULT_PORT_PAIRS : { inP: 1, inN: 2, outP: ports / 2 + 1, outN: ports / 2 + 2 };
+}
+
 /**
- * Derives a channel from an uploaded file.
+ * Derives a channel from an uploaded file, with its aggressors: pairs of the same multi-port file,
+ * files of their own, or the coupling model.
  * @throws ApiError 415 for a file type Tapwright does not read, 422 for an unusable file (the
- *   message names the line and what is wrong there).
+ *   message names the line and what is wrong there) or an aggressor that does not fit the file.
  */
 export function deriveFromFile(o: FileOptions): DerivedChannel {
   const format = fileFormat(o.filename, o.kind);
@@ -141,38 +156,131 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
   const ui_s = unitInterval_s(o.bitRate_bps, o.modulation);
   const grid = { ui_s, samplesPerUi: SAMPLES_PER_UI, riseTime_s: o.riseTime_s };
   const common = { modulation: o.modulation, ui_s, samplesPerUi: SAMPLES_PER_UI, ...(o.riseTime_s ? { riseTime_s: o.riseTime_s } : {}) };
+  const specs = o.aggressors ?? [];
+  const fromPorts = specs.flatMap((a, i) => (a.source === "ports" ? [{ a, i }] : []));
+  if (fromPorts.length > 0 && !(format.format === "touchstone" && (format.ports ?? 0) >= 8)) {
+    throw unprocessable(`Aggressor ${aggressorName(fromPorts[0].a, fromPorts[0].i)} names ports of the victim's file, which needs a multi-port Touchstone file (.s8p, .s12p or .s16p).`, "aggressors");
+  }
+  let derived: DerivedChannel;
+  const multiPort: DerivedAggressor[] = [];
   if (format.format === "touchstone") {
-    const pairs = format.ports === 4 ? (o.pairs ?? DEFAULT_PORT_PAIRS) : undefined;
+    const ports = format.ports ?? 2;
+    const pairs = ports >= 4 ? (o.pairs ?? defaultMultiPortPairs(ports)) : undefined;
+    if (pairs) {
+      const bad = Object.entries(pairs).find(([, p]) => p > ports);
+      if (bad) throw unprocessable(`pairs.${bad[0]} is port ${bad[1]}, but ${o.filename} has ${ports} ports.`, "pairs");
+    }
     let fp: FrequencyPulse;
     try {
-      fp = pulseFromTouchstone(text, { ...grid, ports: format.ports, pairs });
+      if (ports >= 8) {
+        const link = linkFromTouchstone(text, {
+          ...grid,
+          ports,
+          victim: pairs!,
+          aggressors: fromPorts.map(({ a, i }) => ({ kind: a.kind, p: (a as { p: number }).p, n: (a as { n: number }).n, name: aggressorName(a, i) })),
+        });
+        fp = link.victim;
+        link.aggressors.forEach((x, j) => {
+          const { a } = fromPorts[j];
+          multiPort.push(storedAggressor(x.name, x.kind, "ports", x.pulse, x.insertionLoss, { ports: { p: (a as { p: number }).p, n: (a as { n: number }).n } }));
+        });
+      } else fp = pulseFromTouchstone(text, { ...grid, ports, pairs });
     } catch (e) {
       readerError(o.filename, e);
     }
-    return fromFrequency("touchstone", fp, ui_s, {
+    derived = fromFrequency("touchstone", fp, ui_s, {
       ...common,
       source: "touchstone",
-      ports: format.ports,
+      ports,
       ...(pairs ? { pairs, transfer: "SDD21" } : { transfer: "S21" }),
     });
+  } else {
+    const kind = o.kind ?? "pulse-csv";
+    const response = kind === "step-csv" ? "step" : kind === "impulse-csv" ? "impulse" : "pulse";
+    let pulse: Pulse;
+    let rows: number;
+    try {
+      const record = readCsvResponse(text);
+      rows = record.time_s.length;
+      pulse = pulseFromSamples({ response, values: record.values, time_s: record.time_s }, grid).pulse;
+    } catch (e) {
+      readerError(o.filename, e);
+    }
+    const s = stored(pulse);
+    derived = { kind, pulse: s.pulse, insertionLoss: null, lossAtNyquist_dB: null, mainCursor_V: s.mainCursor_V, derivation: { ...common, source: kind, response, rows }, aggressors: [] };
   }
-  const kind = o.kind ?? "pulse-csv";
-  const response = kind === "step-csv" ? "step" : kind === "impulse-csv" ? "impulse" : "pulse";
-  let pulse: Pulse;
-  let rows: number;
-  try {
-    const record = readCsvResponse(text);
-    rows = record.time_s.length;
-    pulse = pulseFromSamples({ response, values: record.values, time_s: record.time_s }, grid).pulse;
-  } catch (e) {
-    readerError(o.filename, e);
-  }
-  const s = stored(pulse);
-  return { kind, pulse: s.pulse, insertionLoss: null, lossAtNyquist_dB: null, mainCursor_V: s.mainCursor_V, derivation: { ...common, source: kind, response, rows } };
+  // The aggressors in the order given: pairs of this file, files of their own, coupling models.
+  let nextPort = 0;
+  const aggressors = specs.map((a, i) => {
+    if (a.source === "ports") return multiPort[nextPort++];
+    if (a.source === "coupling") return couplingAggressor(a, i, grid);
+    const file = o.aggressorFiles?.[a.field];
+    if (!file) throw badRequest(`Aggressor ${aggressorName(a, i)} names the file field '${a.field}', but no file came in it.`, "aggressors");
+    const own = deriveFromFile({
+      filename: file.filename,
+      bytes: file.bytes,
+      bitRate_bps: o.bitRate_bps,
+      modulation: o.modulation,
+      kind: a.csvKind ?? (fileFormat(file.filename).format === "touchstone" ? undefined : "pulse-csv"),
+      pairs: a.pairs,
+      riseTime_s: o.riseTime_s,
+    });
+    return storedAggressor(aggressorName(a, i), a.kind, "file", pulseFromJson(own.pulse), own.insertionLoss, { file: own.derivation });
+  });
+  return { ...derived, aggressors: withIcn(aggressors, ui_s) };
 }
 
-/** Derives a synthetic channel from the loss model. */
-export function deriveSynthetic(bitRate_bps: number, modulation: ModulationName, model: LossModel): DerivedChannel {
+/** An aggressor's pulse in the stored form: kept from 64 UI before its peak to 240 after. */
+function storedAggressor(
+  name: string,
+  kind: DerivedAggressor["kind"],
+  source: DerivedAggressor["source"],
+  pulse: Pulse,
+  coupling: { freqs_Hz: ArrayLike<number>; magnitude_dB: ArrayLike<number> } | StoredCurve | null,
+  derivation: Record<string, unknown>,
+): DerivedAggressor {
+  const before = Math.floor(pulse.mainIndex / pulse.samplesPerUi);
+  const after = Math.floor((pulse.values_V.length - 1 - pulse.mainIndex) / pulse.samplesPerUi);
+  const trimmed = trimPulse(pulse, Math.min(before, 64), Math.min(after, PULSE_KEEP_UI.post));
+  return {
+    name,
+    kind,
+    source,
+    pulse: pulseToJson(trimmed),
+    coupling: coupling === null ? null : thinCurve(coupling.freqs_Hz, coupling.magnitude_dB),
+    icnRms_V: 0,
+    derivation,
+  };
+}
+
+/** The coupling model's pulse on the channel's grid. */
+function couplingAggressor(a: AggressorSpec & { source: "coupling" }, i: number, grid: { ui_s: number; samplesPerUi: number }): DerivedAggressor {
+  const c: CouplingSpec = a.coupling;
+  const line = { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s };
+  const model: CouplingModel =
+    a.kind === "next" ? { kind: "next", backwardCoefficient: c.backwardCoefficient ?? 0, line } : { kind: "fext", forwardCoupling_s: c.forwardCoupling_s ?? 0, line };
+  let fp: FrequencyPulse;
+  try {
+    fp = pulseFromCoupling(model, grid);
+  } catch (e) {
+    if (e instanceof RangeError || e instanceof TypeError) throw unprocessable(`Aggressor ${aggressorName(a, i)}: ${e.message}`, "aggressors");
+    throw e;
+  }
+  return storedAggressor(aggressorName(a, i), a.kind, "coupling", fp.pulse, fp.insertionLoss, { coupling: model });
+}
+
+/** Each aggressor's ICN for a 1 Vppd transmitter (IEEE 802.3 Annex 85A form, from its stored pulse). */
+function withIcn(aggressors: DerivedAggressor[], ui_s: number): DerivedAggressor[] {
+  if (aggressors.length === 0) return aggressors;
+  const icn = integratedCrosstalkNoiseOfPulses(
+    aggressors.map((a) => ({ kind: a.kind, pulse: pulseFromJson(a.pulse), amplitude_V: ICN_REFERENCE_AMPLITUDE_V })),
+    { baud_Hz: 1 / ui_s },
+  );
+  return aggressors.map((a, i) => ({ ...a, icnRms_V: icn.perAggressor_V[i] }));
+}
+
+/** Derives a synthetic channel from the loss model, with coupling-model aggressors. */
+export function deriveSynthetic(bitRate_bps: number, modulation: ModulationName, model: LossModel, aggressors: AggressorSpec[] = []): DerivedChannel {
   const ui_s = unitInterval_s(bitRate_bps, modulation);
   let fp: FrequencyPulse;
   try {
@@ -181,5 +289,11 @@ export function deriveSynthetic(bitRate_bps: number, modulation: ModulationName,
     if (e instanceof RangeError || e instanceof TypeError) throw unprocessable(e.message, "lossModel");
     throw e;
   }
-  return fromFrequency("synthetic", fp, ui_s, { modulation, ui_s, samplesPerUi: SAMPLES_PER_UI, source: "loss-model", lossModel: model });
+  const derived = fromFrequency("synthetic", fp, ui_s, { modulation, ui_s, samplesPerUi: SAMPLES_PER_UI, source: "loss-model", lossModel: model });
+  const grid = { ui_s, samplesPerUi: SAMPLES_PER_UI };
+  const own = aggressors.map((a, i) => {
+    if (a.source !== "coupling") throw badRequest(`Aggressor ${aggressorName(a, i)}: a synthetic channel's aggressors come from the coupling model (source "coupling").`, "aggressors");
+    return couplingAggressor(a, i, grid);
+  });
+  return { ...derived, aggressors: withIcn(own, ui_s) };
 }

@@ -47,12 +47,13 @@ export interface UploadedFile {
 
 /**
  * A multipart/form-data body of at most `limit` bytes: the file in `fileField` (at most `fileLimit`
- * bytes) and the non-empty text fields. 400 when the body cannot be read or the file is missing.
+ * bytes), the files of fields matching `extraFiles` (all files together at most `fileLimit`), and the
+ * non-empty text fields. 400 when the body cannot be read or the file is missing.
  */
 export async function readMultipart(
   request: Request,
-  o: { limit: number; fileField: string; fileLimit: number; tooLarge: () => ApiError },
-): Promise<{ file: UploadedFile; fields: Record<string, string> }> {
+  o: { limit: number; fileField: string; fileLimit: number; tooLarge: () => ApiError; extraFiles?: RegExp },
+): Promise<{ file: UploadedFile; fields: Record<string, string>; extras: Record<string, UploadedFile> }> {
   const body = await readBodyLimited(request, o.limit, o.tooLarge);
   let form: FormData;
   try {
@@ -64,9 +65,20 @@ export async function readMultipart(
   if (!(file instanceof File)) throw badRequest(`Attach the file in the field '${o.fileField}'.`, o.fileField);
   if (file.size > o.fileLimit) throw o.tooLarge();
   const fields: Record<string, string> = {};
-  for (const [k, v] of form.entries()) if (typeof v === "string" && v !== "") fields[k] = v;
-  return {
-    file: { filename: file.name || "upload", contentType: file.type || "application/octet-stream", bytes: new Uint8Array(await file.arrayBuffer()) },
-    fields,
-  };
+  const extras: Record<string, UploadedFile> = {};
+  let total = file.size;
+  for (const [k, v] of form.entries()) {
+    if (typeof v === "string") {
+      if (v !== "") fields[k] = v;
+    } else if (k !== o.fileField && o.extraFiles?.test(k)) {
+      total += v.size;
+      if (total > o.fileLimit) throw o.tooLarge();
+      extras[k] = await uploaded(v);
+    }
+  }
+  return { file: await uploaded(file), fields, extras };
+}
+
+async function uploaded(file: File): Promise<UploadedFile> {
+  return { filename: file.name || "upload", contentType: file.type || "application/octet-stream", bytes: new Uint8Array(await file.arrayBuffer()) };
 }
