@@ -29,7 +29,8 @@ try {
   const server = await serve(cfg.env);
   log(`Tapwright is ready: ${cfg.env.BETTER_AUTH_URL} (Ctrl-C stops it; MariaDB keeps running until \`npm run db:stop\`).`);
   if (cfg.queue === "bullmq") {
-    log(`Jobs go to BullMQ on ${cfg.redis.url}; start workers with \`npm run worker\` (here or on any machine that reaches Redis and MariaDB).`);
+    const where = new URL(cfg.redis.url);
+    log(`Jobs go to BullMQ on Redis at ${where.host}; start workers with \`npm run worker\` (here or on any machine that reaches Redis and MariaDB).`);
   }
   const stop = async () => {
     server.kill("SIGTERM");

@@ -58,11 +58,14 @@ export function settings(mode) {
   }
   // npm test always uses its own private server (it empties it), never a REDIS_URL from outside.
   const privateRedis = isTest || !process.env.REDIS_URL;
+  // Like MariaDB's root, the private Redis asks for a password generated once per checkout.
+  const redisPassword = privateRedis ? storedSecret("redis-password") : null;
   const redis = {
     dir: join(dataDir, isTest ? "redis-test" : "redis"),
     port: redisPort,
     private: privateRedis,
-    url: privateRedis ? `redis://127.0.0.1:${redisPort}` : process.env.REDIS_URL,
+    password: redisPassword,
+    url: privateRedis ? `redis://:${encodeURIComponent(redisPassword)}@127.0.0.1:${redisPort}` : process.env.REDIS_URL,
   };
   const publicHost = host === "0.0.0.0" || host === "::" ? "127.0.0.1" : host;
   return {

@@ -1,6 +1,7 @@
 // The private Redis of this checkout, for the distributed job queue (BullMQ): installed from Debian's
-// `redis-server` package when missing, listening on 127.0.0.1:$port only, its data in a git-ignored
-// folder with append-only persistence. Idempotent like the MariaDB one: a running server is reused,
+// `redis-server` package when missing, listening on 127.0.0.1:$port only and asking for the
+// checkout's password (.data/redis-password, 0600), its data in a git-ignored folder with
+// append-only persistence. Idempotent like the MariaDB one: a running server is reused,
 // a stale pid file is cleaned, and a kill -9 leaves an append-only file that the next start replays.
 import { spawn } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
@@ -27,32 +28,45 @@ function paths(redis) {
   };
 }
 
+const resp = (args) => `*${args.length}\r\n${args.map((a) => `$${Buffer.byteLength(a)}\r\n${a}\r\n`).join("")}`;
+
 /**
- * Sends one command (RESP) and resolves with the first line of the reply ("+PONG", "+OK", "-ERR …"),
- * or with "" when the server closes the connection without answering (SHUTDOWN does).
+ * Sends one command (RESP) after AUTH with the checkout's password, and resolves with the first line
+ * of its reply ("+PONG", "+OK", "-ERR …"), or with "" when the server closes the connection without
+ * answering (SHUTDOWN does). A refused AUTH resolves with AUTH's own error line.
  */
-export function redisCommand(port, args, timeout_ms = 2000) {
+export function redisCommand(redis, args, timeout_ms = 2000) {
   return new Promise((resolve, reject) => {
-    const socket = connect({ host: "127.0.0.1", port });
-    let reply = "";
+    const socket = connect({ host: "127.0.0.1", port: redis.port });
+    const lines = [];
+    let buffer = "";
+    const expected = redis.password ? 2 : 1;
     const timer = setTimeout(() => {
       socket.destroy();
-      reject(new Error(`Redis on 127.0.0.1:${port} did not answer ${args[0]} within ${timeout_ms} ms.`));
+      reject(new Error(`Redis on 127.0.0.1:${redis.port} did not answer ${args[0]} within ${timeout_ms} ms.`));
     }, timeout_ms);
     const done = (fn) => {
       clearTimeout(timer);
       socket.destroy();
       fn();
     };
+    const answer = () => {
+      if (redis.password && lines[0] !== undefined && lines[0] !== "+OK") return lines[0];
+      return lines[expected - 1] ?? "";
+    };
     socket.on("connect", () => {
-      socket.write(`*${args.length}\r\n${args.map((a) => `$${Buffer.byteLength(a)}\r\n${a}\r\n`).join("")}`);
+      socket.write((redis.password ? resp(["AUTH", redis.password]) : "") + resp(args));
     });
     socket.on("data", (chunk) => {
-      reply += chunk.toString("utf8");
-      const end = reply.indexOf("\r\n");
-      if (end >= 0) done(() => resolve(reply.slice(0, end)));
+      buffer += chunk.toString("utf8");
+      let end;
+      while ((end = buffer.indexOf("\r\n")) >= 0 && lines.length < expected) {
+        lines.push(buffer.slice(0, end));
+        buffer = buffer.slice(end + 2);
+      }
+      if (lines.length >= expected || (redis.password && lines[0] !== undefined && lines[0] !== "+OK")) done(() => resolve(answer()));
     });
-    socket.on("close", () => done(() => resolve(reply)));
+    socket.on("close", () => done(() => resolve(answer())));
     socket.on("error", (e) => done(() => reject(e)));
   });
 }
@@ -74,9 +88,11 @@ async function waitUntilReady(redis, timeout_ms) {
   while (Date.now() < until) {
     try {
       // A server still replaying its append-only file answers -LOADING; wait for +PONG.
-      last = await redisCommand(redis.port, ["PING"]);
+      last = await redisCommand(redis, ["PING"]);
       if (last === "+PONG") return;
+      if (/^-(WRONGPASS|ERR AUTH|NOAUTH)/.test(last)) throw new Error(`Redis refuses the checkout's password (${last}).`);
     } catch (e) {
+      if (e.message.startsWith("Redis refuses")) throw e;
       last = e.message;
     }
     await sleep(50);
@@ -94,12 +110,18 @@ export async function startRedis(redis, { fresh = false } = {}) {
     const pid = runningRedisPid(redis);
     if (pid) {
       const port = existsSync(p.portFile) ? Number(readFileSync(p.portFile, "utf8")) : redis.port;
+      let restart = `the running server listens on ${port}, not ${redis.port}`;
       if (port === redis.port) {
-        await waitUntilReady(redis, 10_000);
-        log(`Redis: reusing the running server (pid ${pid}, 127.0.0.1:${redis.port}).`);
-        return { pid, reused: true };
+        try {
+          await waitUntilReady(redis, 10_000);
+          log(`Redis: reusing the running server (pid ${pid}, 127.0.0.1:${redis.port}).`);
+          return { pid, reused: true };
+        } catch (e) {
+          if (!e.message.startsWith("Redis refuses")) throw e;
+          restart = "the running server was started without the checkout's password";
+        }
       }
-      log(`Redis: the running server listens on ${port}, not ${redis.port}; restarting it.`);
+      log(`Redis: ${restart}; restarting it.`);
       await stopRedis(redis);
     }
     mkdirSync(p.data, { recursive: true });
@@ -116,6 +138,7 @@ export async function startRedis(redis, { fresh = false } = {}) {
         "--save", "",
         // BullMQ needs every key kept: refuse writes rather than evict when memory is full.
         "--maxmemory-policy", "noeviction",
+        ...(redis.password ? ["--requirepass", redis.password] : []),
         "--daemonize", "no",
         "--pidfile", p.pid,
         "--logfile", p.log,
@@ -136,7 +159,7 @@ export async function startRedis(redis, { fresh = false } = {}) {
     return { pid: child.pid, reused: false };
   });
   if (fresh) {
-    const r = await redisCommand(redis.port, ["FLUSHALL"]);
+    const r = await redisCommand(redis, ["FLUSHALL"]);
     if (r !== "+OK") throw new Error(`Redis FLUSHALL answered ${r}.`);
   }
   return result;
@@ -149,11 +172,9 @@ export async function stopRedis(redis) {
     log("Redis: not running.");
     return;
   }
-  try {
-    await redisCommand(redis.port, ["SHUTDOWN"], 10_000);
-  } catch {
-    process.kill(pid, "SIGTERM");
-  }
+  // SHUTDOWN answers nothing when it works; on any answer (or none at all) SIGTERM does the same.
+  const reply = await redisCommand(redis, ["SHUTDOWN"], 10_000).catch(() => "no answer");
+  if (reply !== "") process.kill(pid, "SIGTERM");
   const until = Date.now() + 20_000;
   while (alive(pid) && Date.now() < until) await sleep(50);
   if (alive(pid)) throw new Error(`Redis (pid ${pid}) did not stop within 20 s.`);
