@@ -1,6 +1,7 @@
 #!/usr/bin/env node
-// `npm start`: install what is missing, start the private MariaDB, migrate, seed the demo, build and
-// serve on http://$HOST:$PORT. Ctrl-C stops the web server; `npm run db:stop` stops the database.
+// `npm start`: install what is missing, start the private MariaDB (and, with TAPWRIGHT_QUEUE=bullmq,
+// the private Redis and one worker), migrate, seed the demo, build and serve on http://$HOST:$PORT.
+// Ctrl-C stops the web server; `npm run db:stop` stops the database and Redis.
 import { ensureNpmPackages } from "./lib/deps.mjs";
 import { settings } from "./lib/config.mjs";
 import { log } from "./lib/log.mjs";
@@ -28,11 +29,19 @@ try {
   build(cfg.env);
   const server = await serve(cfg.env);
   log(`Tapwright is ready: ${cfg.env.BETTER_AUTH_URL} (Ctrl-C stops it; MariaDB keeps running until \`npm run db:stop\`).`);
+  // With the distributed queue this machine also runs one worker (unless TAPWRIGHT_LOCAL_WORKER=0);
+  // more machines add theirs with `npm run worker`.
+  let worker = null;
   if (cfg.queue === "bullmq") {
     const where = new URL(cfg.redis.url);
-    log(`Jobs go to BullMQ on Redis at ${where.host}; start workers with \`npm run worker\` (here or on any machine that reaches Redis and MariaDB).`);
+    if (process.env.TAPWRIGHT_LOCAL_WORKER !== "0") {
+      const { startWorker } = await import("./lib/worker.mjs");
+      worker = startWorker(cfg.env);
+    }
+    log(`Jobs go to BullMQ on Redis at ${where.host}${worker ? ", computed by a worker on this machine" : ""}; add workers with \`npm run worker\` (here or on any machine that reaches Redis and MariaDB).`);
   }
   const stop = async () => {
+    worker?.kill("SIGTERM");
     server.kill("SIGTERM");
     await smtp?.close();
     process.exit(0);

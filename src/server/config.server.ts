@@ -35,6 +35,10 @@ const envSchema = z.object({
   TAPWRIGHT_WORKERS: optionalText,
   TAPWRIGHT_WORKER: optionalText,
   TAPWRIGHT_DATA_DIR: optionalText,
+  TAPWRIGHT_QUEUE: z.preprocess((v) => (v === "" ? undefined : v), z.enum(["embedded", "bullmq"], { error: 'TAPWRIGHT_QUEUE must be "embedded" or "bullmq"' }).default("embedded")),
+  REDIS_URL: optionalText.pipe(z.url({ error: "REDIS_URL must be a URL, e.g. redis://:password@10.0.0.5:6379" }).optional()),
+  TAPWRIGHT_JOB_LOCK_S: z.coerce.number({ error: "TAPWRIGHT_JOB_LOCK_S must be a number of seconds" }).min(2, "TAPWRIGHT_JOB_LOCK_S must be at least 2 s").max(3600).default(30),
+  TAPWRIGHT_WORKER_NAME: optionalText,
 });
 
 /** The address people reach the server at, when BETTER_AUTH_URL does not say: the listening host (loopback for a wildcard) and port. */
@@ -50,6 +54,9 @@ export function parseConfig(env: Record<string, string | undefined>, cwd: string
     throw new Error(`The server's configuration is not usable: ${parsed.error.issues.map((i) => i.message).join("; ")}.`);
   }
   const e = parsed.data;
+  if (e.TAPWRIGHT_QUEUE === "bullmq" && !e.REDIS_URL) {
+    throw new Error("The server's configuration is not usable: TAPWRIGHT_QUEUE=bullmq needs REDIS_URL (npm start sets it for the private Redis).");
+  }
   const [max, window] = e.TAPWRIGHT_SIGN_IN_LIMIT.split("/").map(Number);
   const smtpHost = e.SMTP_HOST ?? "127.0.0.1";
   return {
@@ -77,6 +84,11 @@ export function parseConfig(env: Record<string, string | undefined>, cwd: string
     workerFile: e.TAPWRIGHT_WORKER,
     /** The checkout's private data folder (the database, the demo's computed results). */
     dataDir: e.TAPWRIGHT_DATA_DIR ?? join(cwd, ".data"),
+    /**
+     * Who runs long work: the embedded queue (MariaDB plus this process's worker pool) or BullMQ on
+     * Redis (standalone workers started with `npm run worker`).
+     */
+    queue: { backend: e.TAPWRIGHT_QUEUE, redisUrl: e.REDIS_URL, lock_s: e.TAPWRIGHT_JOB_LOCK_S, workerName: e.TAPWRIGHT_WORKER_NAME },
   };
 }
 

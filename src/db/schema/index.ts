@@ -9,3 +9,4 @@ export * from "./studies";
 export * from "./tapTables";
 export * from "./signoff";
 export * from "./aggressors";
+export * from "./sweeps";

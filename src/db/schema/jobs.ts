@@ -5,15 +5,24 @@ import { users } from "./auth";
 import { channels, type StoredPulse } from "./channels";
 import { budgets } from "./budgets";
 
-export const jobKinds = ["run", "study", "table-version"] as const;
+export const jobKinds = ["run", "study", "table-version", "sweep", "sweep-batch"] as const;
 export type JobKind = (typeof jobKinds)[number];
-export const jobStatuses = ["queued", "running", "done", "failed"] as const;
+/** `waiting`: a parent job whose children are not all done yet (it is queued when the last one is). */
+export const jobStatuses = ["queued", "waiting", "running", "done", "failed"] as const;
 export type JobStatus = (typeof jobStatuses)[number];
+/** Which backend a job was handed to: the embedded dispatcher claims only its own rows. */
+export const jobQueues = ["embedded", "bullmq"] as const;
+export type JobQueue = (typeof jobQueues)[number];
+/** A job's status as the API and the pages tell it (a parent waiting for its children is running). */
+export type ApiJobStatus = Exclude<JobStatus, "waiting">;
 
 /**
- * One unit of engine work. A server process claims a queued job by writing its own id into
- * `lockedBy` and keeps `lockedUntil` fresh while it works; a job whose lock lapsed (its server
- * died) is queued again.
+ * One unit of engine work, whichever backend runs it (the embedded dispatcher or BullMQ workers):
+ * the row is the truth about its status and progress. Each attempt claims it with a fresh
+ * `lockToken` and keeps `lockedUntil` fresh while it works; the result is stored only while the
+ * token is still the row's (a late or duplicate attempt is fenced off), and a job whose lock lapsed
+ * (its worker died) is queued again. A job may have a parent (`parentId`), which waits for all its
+ * children; `part` tells siblings apart (a sweep's batches).
  */
 export const jobs = mysqlTable(
   "jobs",
@@ -25,14 +34,20 @@ export const jobs = mysqlTable(
     progress: double("progress").notNull().default(0),
     error: varchar("error", { length: 2000 }),
     attempts: int("attempts").notNull().default(0),
+    queue: mysqlEnum("queue", jobQueues).notNull().default("embedded"),
+    parentId: int("parent_id"),
+    part: int("part"),
+    lockToken: varchar("lock_token", { length: 36 }),
     lockedBy: varchar("locked_by", { length: 64 }),
     lockedUntil: timestamp("locked_until", { fsp: 3 }),
     startedAt: timestamp("started_at", { fsp: 3 }),
     finishedAt: timestamp("finished_at", { fsp: 3 }),
     compute_ms: bigint("compute_ms", { mode: "number" }),
+    /** A child job's result when its parent reads it (a tap table class reads its members' own optima). */
+    result: json("result").$type<unknown>(),
     ...timestamps,
   },
-  (t) => [index("jobs_status_idx").on(t.status, t.id), index("jobs_target_idx").on(t.kind, t.targetId)],
+  (t) => [index("jobs_status_idx").on(t.status, t.id), index("jobs_queue_idx").on(t.queue, t.status, t.id), index("jobs_target_idx").on(t.kind, t.targetId), index("jobs_parent_idx").on(t.parentId, t.status)],
 );
 
 /** What a run was computed from, copied at its start so that it never changes afterwards. */

@@ -117,8 +117,8 @@ function lossAt(curve: { freqs_Hz: Float64Array; magnitude_dB: Float64Array }, f
   return -interpolateLinear(f, curve.magnitude_dB, Float64Array.of(freq_Hz))[0];
 }
 
-/** The stored form of a pulse: trimmed around the main cursor, plain numbers. */
-function stored(pulse: Pulse) {
+/** The stored form of a pulse: trimmed around the main cursor, plain numbers (also a sweep's corner pulses). */
+export function storedPulse(pulse: Pulse) {
   const before = Math.floor(pulse.mainIndex / pulse.samplesPerUi);
   const after = Math.floor((pulse.values_V.length - 1 - pulse.mainIndex) / pulse.samplesPerUi);
   const trimmed = trimPulse(pulse, Math.min(before, PULSE_KEEP_UI.pre), Math.min(after, PULSE_KEEP_UI.post));
@@ -127,7 +127,7 @@ function stored(pulse: Pulse) {
 }
 
 function fromFrequency(kind: ChannelKind, fp: FrequencyPulse, ui_s: number, derivation: Record<string, unknown>): DerivedChannel {
-  const { pulse, mainCursor_V } = stored(fp.pulse);
+  const { pulse, mainCursor_V } = storedPulse(fp.pulse);
   return {
     kind,
     pulse,
@@ -206,7 +206,7 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
     } catch (e) {
       readerError(o.filename, e);
     }
-    const s = stored(pulse);
+    const s = storedPulse(pulse);
     derived = { kind, pulse: s.pulse, insertionLoss: null, lossAtNyquist_dB: null, mainCursor_V: s.mainCursor_V, derivation: { ...common, source: kind, response, rows }, aggressors: [] };
   }
   // The aggressors in the order given: pairs of this file, files of their own, coupling models.

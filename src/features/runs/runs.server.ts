@@ -3,8 +3,8 @@
 // (runs.job.ts); this module tells the queue how to read a run's input and store its result.
 import { and, count, desc, eq, sql, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
-import { budgets, channels, jobs, runs, users, type RunInputs } from "@/db/schema";
-import { enqueueJob, pumpJobs, registerJobKind } from "@/server/jobs/queue.server";
+import { budgets, channels, jobs, runs, users, type JobStatus, type RunInputs } from "@/db/schema";
+import { apiStatus, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
@@ -20,6 +20,11 @@ async function insertRun(tx: Tx, user: SessionUser | null, inputs: RunInputs, li
     .$returningId();
   await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
   return id;
+}
+
+async function runJobId(runId: number): Promise<number> {
+  const [row] = await db.select({ jobId: runs.jobId }).from(runs).where(eq(runs.id, runId));
+  return row.jobId;
 }
 
 /** Stores a finished run's result, engine version and list summary (inside the job's closing transaction). */
@@ -83,7 +88,7 @@ export async function startRun(user: SessionUser | null, req: StartRunRequest) {
     await recordAudit(tx, user, "run.start", "run", id, { channel: channel.name, budget: budget.name });
     return id;
   });
-  void pumpJobs();
+  startJobs(await runJobId(id));
   return { id, status: "queued" as const };
 }
 
@@ -96,7 +101,7 @@ export async function rerun(user: SessionUser, runId: number) {
     await recordAudit(tx, user, "run.rerun", "run", id, { of: old.id });
     return id;
   });
-  void pumpJobs();
+  startJobs(await runJobId(id));
   return { id, status: "queued" as const };
 }
 
@@ -119,7 +124,7 @@ const listColumns = {
 
 interface Row {
   id: number;
-  status: RunListItem["status"];
+  status: JobStatus;
   progress: number;
   error: string | null;
   channelId: number | null;
@@ -135,7 +140,7 @@ interface Row {
 function toItem(r: Row): RunListItem {
   return {
     id: r.id,
-    status: r.status,
+    status: apiStatus(r.status),
     progress: r.progress,
     channel: { id: r.channelId, name: r.channelName },
     budget: { id: r.budgetId, name: r.budgetName },
@@ -204,7 +209,7 @@ export async function runStatus(id: number) {
     .innerJoin(jobs, eq(jobs.id, runs.jobId))
     .where(eq(runs.id, id));
   if (!r) throw notFound(`Run ${id}`);
-  return { id: r.id, status: r.status, progress: r.progress, ...(r.error ? { error: { message: r.error } } : {}), startedAt: r.startedAt, finishedAt: r.finishedAt };
+  return { id: r.id, status: apiStatus(r.status), progress: r.progress, ...(r.error ? { error: { message: r.error } } : {}), startedAt: r.startedAt, finishedAt: r.finishedAt };
 }
 
 /** How many tuning runs the workspace holds. */
@@ -214,6 +219,6 @@ export async function countRuns(): Promise<number> {
 }
 
 registerJobKind("run", {
-  input: runJobInput,
-  save: (tx, runId, result) => storeRunResult(tx, runId, result as TuningRunResult),
+  input: (job) => runJobInput(job.targetId),
+  save: (tx, job, result) => storeRunResult(tx, job.targetId, result as TuningRunResult),
 });

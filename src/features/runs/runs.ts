@@ -1,7 +1,7 @@
 // Tuning runs: request schemas, the shapes the API answers, and small presentation helpers.
 // No server code here: islands import this file.
 import { z } from "zod";
-import type { JobStatus, RunInputs } from "@/db/schema/jobs";
+import type { ApiJobStatus, RunInputs } from "@/db/schema/jobs";
 import type { TuningRunResult } from "@lib/run";
 
 const id = (what: string) => z.number({ error: `${what} must be a number.` }).int(`${what} must be an integer.`).positive(`${what} must be positive.`);
@@ -32,7 +32,7 @@ export interface RunSummary {
 /** A row of a run list. */
 export interface RunListItem {
   id: number;
-  status: JobStatus;
+  status: ApiJobStatus;
   progress: number;
   channel: { id: number | null; name: string };
   budget: { id: number | null; name: string };
@@ -62,10 +62,10 @@ export interface RunView extends RunListItem {
   timings: RunTimings;
 }
 
-export const statusLabels: Record<JobStatus, string> = { queued: "Queued", running: "Running", done: "Done", failed: "Failed" };
+export const statusLabels: Record<ApiJobStatus, string> = { queued: "Queued", running: "Running", done: "Done", failed: "Failed" };
 
 /** Badge classes for a status. */
-export function statusClass(status: JobStatus): string {
+export function statusClass(status: ApiJobStatus): string {
   return { queued: "bg-line text-ink-soft", running: "bg-warn-soft text-warn", done: "bg-good-soft text-good", failed: "bg-bad-soft text-bad" }[status];
 }
 

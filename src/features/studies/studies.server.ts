@@ -6,7 +6,7 @@ import { db, type Tx } from "@/server/db.server";
 import { budgets, jobs, studies, users, type Study } from "@/db/schema";
 import { conflict, notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
-import { enqueueJob, jobStatus, pumpJobs, registerJobKind } from "@/server/jobs/queue.server";
+import { apiStatus, enqueueJob, jobStatus, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { defaultCandidates } from "./architecture";
 import { budgetCopy, channelCopies, checkBudgetFits, withoutPulses } from "@/server/sources.server";
@@ -45,7 +45,7 @@ export async function startStudy(user: SessionUser, req: CreateStudyRequest, her
     return { id, jobId, inputs };
   });
   if (here) await finishHere(jobId, inputs, here, (tx, result) => saveStudy(tx, id, result));
-  else void pumpJobs();
+  else startJobs(jobId);
   return { id, status: here ? ("done" as const) : ("queued" as const) };
 }
 
@@ -128,7 +128,7 @@ export async function listStudies(limit: number, cursor?: number) {
     return {
       id: study.id,
       name: study.name,
-      status: job.status,
+      status: apiStatus(job.status),
       progress: job.progress,
       budget: inputs.budget.name,
       channelCount: inputs.channels.length,
@@ -210,10 +210,10 @@ export async function decidedStudies() {
 }
 
 registerJobKind("study", {
-  async input(targetId) {
-    const [row] = await db.select({ inputs: studies.inputs }).from(studies).where(eq(studies.id, targetId));
-    if (!row) throw new Error(`Study ${targetId} no longer exists.`);
+  async input(job) {
+    const [row] = await db.select({ inputs: studies.inputs }).from(studies).where(eq(studies.id, job.targetId));
+    if (!row) throw new Error(`Study ${job.targetId} no longer exists.`);
     return row.inputs;
   },
-  save: (tx, targetId, result) => saveStudy(tx, targetId, result as StudyResult),
+  save: (tx, job, result) => saveStudy(tx, job.targetId, result as StudyResult),
 });

@@ -7,7 +7,7 @@ import { jobs, signOffs, studies, tapTableRows, tapTables, tapTableVersions, use
 import { ApiError, badRequest, conflict, notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { Download } from "@/server/http/download";
-import { enqueueJob, jobStatus, pumpJobs, registerJobKind } from "@/server/jobs/queue.server";
+import { apiStatus, enqueueJob, jobStatus, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import type { Architecture } from "@/features/studies/architecture";
 import type { StudyInputs } from "@/features/studies/studies";
@@ -121,7 +121,7 @@ async function insertVersion(tx: DbOrTx, user: SessionUser, tableId: number, ver
 /** After the commit: the worker pool computes the version — or, with `here` (the demo seed), this process does. */
 async function computeVersion(queued: { versionId: number; jobId: number; inputs: VersionInputs }, here: RunHere<VersionInputs, VersionResult> | undefined) {
   if (here) await finishHere(queued.jobId, queued.inputs, here, (tx, result) => saveVersion(tx, queued.versionId, result));
-  else void pumpJobs();
+  else startJobs(queued.jobId);
 }
 
 /** POST /api/v1/tap-tables: a table and its v1, queued (computed here with `here`, for the demo seed). */
@@ -290,7 +290,7 @@ export async function getTapTable(tableId: number) {
       return {
         version: v.version,
         state: v.state,
-        status: job.status,
+        status: apiStatus(job.status),
         progress: job.progress,
         error: job.error,
         note: v.note,
@@ -389,9 +389,9 @@ export async function updateVersion(user: SessionUser, tableId: number, v: numbe
       ...(req.note !== undefined ? { note: true } : {}),
       ...(mapChanged ? { registerMap: req.registerMap!.map((f) => f.name) } : {}),
     });
-    return mapChanged;
+    return mapChanged ? (changes.jobId as number) : null;
   });
-  if (recompute) void pumpJobs();
+  if (recompute !== null) startJobs(recompute);
   return getVersion(tableId, v);
 }
 
@@ -476,14 +476,26 @@ async function saveVersion(tx: Tx, versionId: number, r: VersionResult) {
   }
 }
 
+/**
+ * Whether a job is still the one that computes its version: a version recomputed since (a new
+ * register map) has a newer job, and a version past "computing" (signed off, in review) is frozen.
+ * A late job's result is then dropped, never written over the newer one.
+ */
+async function stillComputes(tx: Tx, versionId: number, jobId: number): Promise<boolean> {
+  const [v] = await tx.select({ jobId: tapTableVersions.jobId, state: tapTableVersions.state }).from(tapTableVersions).where(eq(tapTableVersions.id, versionId)).for("update");
+  return v !== undefined && v.jobId === jobId && v.state === "computing";
+}
+
 registerJobKind("table-version", {
-  async input(targetId) {
-    const [row] = await db.select({ inputs: tapTableVersions.inputs }).from(tapTableVersions).where(eq(tapTableVersions.id, targetId));
-    if (!row) throw new Error(`Tap table version ${targetId} no longer exists.`);
+  async input(job) {
+    const [row] = await db.select({ inputs: tapTableVersions.inputs }).from(tapTableVersions).where(eq(tapTableVersions.id, job.targetId));
+    if (!row) throw new Error(`Tap table version ${job.targetId} no longer exists.`);
     return row.inputs;
   },
-  save: (tx, targetId, result) => saveVersion(tx, targetId, result as VersionResult),
-  async fail(tx, targetId) {
-    await tx.update(tapTableVersions).set({ state: "failed" }).where(eq(tapTableVersions.id, targetId));
+  async save(tx, job, result) {
+    if (await stillComputes(tx, job.targetId, job.id)) await saveVersion(tx, job.targetId, result as VersionResult);
+  },
+  async fail(tx, job) {
+    if (await stillComputes(tx, job.targetId, job.id)) await tx.update(tapTableVersions).set({ state: "failed" }).where(eq(tapTableVersions.id, job.targetId));
   },
 });

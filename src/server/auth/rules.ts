@@ -30,7 +30,7 @@ export const rules: readonly Rule[] = [
   { path: /^\/(_astro|fonts|favicon)/, access: "public" },
 
   // Admin: people, roles, invitations, the audit trail, the dev mailbox.
-  { path: /^\/api\/v1\/(users|invitations|audit)(\/|$)/, access: ADMIN },
+  { path: /^\/api\/v1\/(users|invitations|audit|queue)(\/|$)/, access: ADMIN },
   { path: /^\/api\/v1\/dev\/mail\/?$/, access: ADMIN },
   { path: /^\/admin(\/|$)/, access: ADMIN },
 
@@ -44,8 +44,8 @@ export const rules: readonly Rule[] = [
   { methods: ["POST"], path: /^\/api\/v1\/sign-offs\/[^/]+\/comments\/?$/, access: EVERYONE },
 
   // The work itself: everyone reads (also with a token), designers and admins write.
-  { methods: READ, path: /^\/api\/v1\/(channels|budgets|runs|studies|tap-tables|sign-offs)(\/|$)/, access: EVERYONE, token: true },
-  { methods: WRITE, path: /^\/api\/v1\/(channels|budgets|runs|studies|tap-tables)(\/|$)/, access: AUTHORS },
+  { methods: READ, path: /^\/api\/v1\/(channels|budgets|runs|studies|tap-tables|sweeps|sign-offs)(\/|$)/, access: EVERYONE, token: true },
+  { methods: WRITE, path: /^\/api\/v1\/(channels|budgets|runs|studies|tap-tables|sweeps)(\/|$)/, access: AUTHORS },
 
   // Everything else (the pages and /api/v1/me) needs a signed-in person of any role.
   { methods: READ, path: /^\/api\/v1\/me\/?$/, access: "signed-in", token: true },

@@ -7,6 +7,7 @@ import type { StudyInputs } from "@/features/studies/studies";
 import { computeTapTableVersion } from "@/features/tapTables/tapTables.job";
 import type { VersionInputs } from "@/features/tapTables/tapTables";
 import { computeRun, type RunJobInput } from "@/features/runs/runs.job";
+import { computeSweepBatch, summarizeSweep, type SweepBatchInput } from "@/features/sweeps/sweeps.job";
 
 interface Task {
   kind: JobKind;
@@ -19,5 +20,7 @@ export default async function engineTask({ kind, input, port }: Task): Promise<u
   if (kind === "run") return computeRun(input as RunJobInput, progress);
   if (kind === "study") return computeStudy(input as StudyInputs, progress);
   if (kind === "table-version") return computeTapTableVersion(input as VersionInputs, progress);
+  if (kind === "sweep-batch") return computeSweepBatch(input as SweepBatchInput, progress);
+  if (kind === "sweep") return summarizeSweep(input as Parameters<typeof summarizeSweep>[0]);
   throw new Error(`The engine worker cannot run jobs of kind ${kind}.`);
 }

@@ -11,7 +11,9 @@ import { config } from "@/server/config.server";
 function workerFile(): string {
   const candidates = [
     config.workerFile,
+    // Beside the web server's build (dist/server/entry.mjs) or the worker process's (dist/worker.mjs).
     process.argv[1] ? resolve(dirname(process.argv[1]), "..", "engine-worker.mjs") : undefined,
+    process.argv[1] ? resolve(dirname(process.argv[1]), "engine-worker.mjs") : undefined,
     join(process.cwd(), "dist", "engine-worker.mjs"),
   ].filter((p): p is string => Boolean(p));
   const found = candidates.find((p) => existsSync(p));
@@ -41,4 +43,10 @@ export async function runInPool(kind: JobKind, input: unknown, onProgress: (p: n
   } finally {
     port1.close();
   }
+}
+
+/** Ends the pool's threads (a worker process shutting down). */
+export async function closePool(): Promise<void> {
+  await pool?.destroy();
+  pool = undefined;
 }

@@ -1,141 +1,51 @@
-// The job queue kept in MariaDB. Features register what to do with a kind of job; the dispatcher
-// claims queued jobs (SELECT … FOR UPDATE SKIP LOCKED), runs them in the worker pool off the event
-// loop, writes progress, and stores the result and the job's end in one transaction.
-import { randomUUID } from "node:crypto";
-import { and, asc, eq, lt, or, sql } from "drizzle-orm";
-import { db, type DbOrTx, type Tx } from "../db.server";
-import { jobs, type Job, type JobKind } from "@/db/schema";
-import { runInPool, workerCount } from "./pool.server";
+// Long work behind one interface, whichever backend runs it: services add job rows inside their
+// own transaction (`enqueueJob`) and, after the commit, start them (`startJobs`). The embedded
+// backend (the default) runs them in this web server's worker pool; with TAPWRIGHT_QUEUE=bullmq they
+// go to BullMQ on Redis for standalone workers. The rows in MariaDB carry status and progress either way.
+import { count, eq, inArray } from "drizzle-orm";
+import { db, type DbOrTx } from "../db.server";
+import { jobs, type ApiJobStatus, type Job, type JobKind, type JobStatus } from "@/db/schema";
+import { config } from "../config.server";
+import { embeddedWorker, pumpEmbedded, startEmbeddedDispatcher } from "./embedded.server";
 
-/** What the server does around the worker for one kind of job. */
-export interface JobHandler {
-  /** The worker's input, read from the job's target row. */
-  input(targetId: number): Promise<unknown>;
-  /** Stores the worker's result on the target row (inside the job's closing transaction). */
-  save(tx: Tx, targetId: number, result: unknown): Promise<void>;
-  /** Marks the target row as failed, when it has a state of its own. */
-  fail?(tx: Tx, targetId: number, message: string): Promise<void>;
+export { registerJobKind, type JobHandler } from "./kinds.server";
+
+export interface EnqueueOptions {
+  /** The parent this job is a share of (the parent waits for all its children). */
+  parentId?: number;
+  /** Which share of the parent's target this is (a sweep's batch). */
+  part?: number;
+  /** A parent added before its children: it waits until they are all done. */
+  waitForChildren?: boolean;
 }
 
-const handlers = new Map<JobKind, JobHandler>();
-export function registerJobKind(kind: JobKind, handler: JobHandler): void {
-  handlers.set(kind, handler);
-}
-
-const SERVER_ID = `${process.pid}-${randomUUID().slice(0, 8)}`;
-const LOCK_S = 30;
-const MAX_ATTEMPTS = 3;
-let active = 0;
-
-/** Adds a job inside the caller's transaction; call `pumpJobs()` after the commit. */
-export async function enqueueJob(tx: DbOrTx, kind: JobKind, targetId: number): Promise<number> {
-  const [{ id }] = await tx.insert(jobs).values({ kind, targetId }).$returningId();
+/** Adds a job inside the caller's transaction; call `startJobs` with the root's id after the commit. */
+export async function enqueueJob(tx: DbOrTx, kind: JobKind, targetId: number, options: EnqueueOptions = {}): Promise<number> {
+  const [{ id }] = await tx
+    .insert(jobs)
+    .values({ kind, targetId, queue: config.queue.backend, parentId: options.parentId ?? null, part: options.part ?? null, status: options.waitForChildren ? "waiting" : "queued" })
+    .$returningId();
   return id;
 }
 
-async function claim(): Promise<Job | null> {
-  return db.transaction(async (tx) => {
-    const [job] = await tx
-      .select()
-      .from(jobs)
-      .where(or(eq(jobs.status, "queued"), and(eq(jobs.status, "running"), lt(jobs.lockedUntil, sql`NOW(3)`))))
-      .orderBy(asc(jobs.id))
-      .limit(1)
-      .for("update", { skipLocked: true });
-    if (!job) return null;
-    if (job.attempts >= MAX_ATTEMPTS) {
-      await finishFailed(tx, job, "The server stopped while computing this job several times; start it again.");
-      return null;
-    }
-    await tx
-      .update(jobs)
-      .set({
-        status: "running",
-        lockedBy: SERVER_ID,
-        lockedUntil: sql`NOW(3) + INTERVAL ${LOCK_S} SECOND`,
-        startedAt: sql`NOW(3)`,
-        attempts: job.attempts + 1,
-        progress: 0,
-        error: null,
-      })
-      .where(eq(jobs.id, job.id));
-    return { ...job, attempts: job.attempts + 1 };
-  });
-}
-
-async function finishFailed(tx: Tx, job: Job, message: string) {
-  await tx
-    .update(jobs)
-    .set({ status: "failed", error: message.slice(0, 2000), finishedAt: sql`NOW(3)`, lockedBy: null, lockedUntil: null })
-    .where(eq(jobs.id, job.id));
-  await handlers.get(job.kind)?.fail?.(tx, job.targetId, message);
-}
-
-/** Turns an engine error into a sentence for the person who started the job. */
-function reason(e: unknown): string {
-  const message = e instanceof Error ? e.message : String(e);
-  return message.length > 0 ? message : "The engine stopped without saying why.";
-}
-
-async function execute(job: Job): Promise<void> {
-  const handler = handlers.get(job.kind);
-  const mine = and(eq(jobs.id, job.id), eq(jobs.lockedBy, SERVER_ID));
-  const heartbeat = setInterval(() => {
-    void db.update(jobs).set({ lockedUntil: sql`NOW(3) + INTERVAL ${LOCK_S} SECOND` }).where(mine).catch(() => {});
-  }, (LOCK_S * 1000) / 3);
-  let lastWrite = 0;
-  const started = performance.now();
-  try {
-    if (!handler) throw new Error(`No handler for jobs of kind ${job.kind}.`);
-    const input = await handler.input(job.targetId);
-    const result = await runInPool(job.kind, input, (progress) => {
-      const now = Date.now();
-      if (now - lastWrite < 250) return;
-      lastWrite = now;
-      void db.update(jobs).set({ progress: Math.min(0.99, Math.max(0, progress)) }).where(mine).catch(() => {});
-    });
-    const compute_ms = Math.round(performance.now() - started);
-    await db.transaction(async (tx) => {
-      await handler.save(tx, job.targetId, result);
-      await tx
-        .update(jobs)
-        .set({ status: "done", progress: 1, finishedAt: sql`NOW(3)`, compute_ms, lockedBy: null, lockedUntil: null })
-        .where(mine);
-    });
-  } catch (e) {
-    await db.transaction((tx) => finishFailed(tx, job, reason(e))).catch((err) => console.error("[tapwright] job bookkeeping:", err));
-  } finally {
-    clearInterval(heartbeat);
+/**
+ * Starts a committed job and its children: the embedded dispatcher claims them, or they are handed
+ * to BullMQ. Never throws: a job that could not be handed over stays queued in MariaDB, where the
+ * embedded dispatcher's polling or the distributed reconciler picks it up.
+ */
+export function startJobs(rootId: number): void {
+  if (config.queue.backend === "embedded") {
+    void pumpEmbedded();
+    return;
   }
+  void import("./bullmq.server")
+    .then((b) => b.publishJob(rootId))
+    .catch((e) => console.error(`[tapwright] job ${rootId} stays queued until the reconciler hands it over:`, e.message));
 }
 
-let pumping = false;
-/** Claims and starts jobs while workers are free. Safe to call often. */
-export async function pumpJobs(): Promise<void> {
-  if (pumping) return;
-  pumping = true;
-  try {
-    while (active < workerCount) {
-      const job = await claim();
-      if (!job) break;
-      active++;
-      void execute(job).finally(() => {
-        active--;
-        void pumpJobs();
-      });
-    }
-  } catch (e) {
-    console.error("[tapwright] job queue:", e);
-  } finally {
-    pumping = false;
-  }
-}
-
-let timer: NodeJS.Timeout | undefined;
-/** Polls the queue every two seconds (jobs from other processes, lapsed locks). */
-export function startJobDispatcher(): void {
-  timer ??= setInterval(() => void pumpJobs(), 2000).unref();
-  void pumpJobs();
+/** Starts this web server's share of the work: the embedded dispatcher (nothing with BullMQ: workers compute). */
+export function startJobBackend(): void {
+  if (config.queue.backend === "embedded") startEmbeddedDispatcher();
 }
 
 export async function jobById(id: number): Promise<Job | null> {
@@ -143,14 +53,36 @@ export async function jobById(id: number): Promise<Job | null> {
   return job ?? null;
 }
 
+/** A job's status as the API tells it: a parent waiting for its children is running. */
+export function apiStatus(status: JobStatus): ApiJobStatus {
+  return status === "waiting" ? "running" : status;
+}
+
 /** The status fields the API shows for a job. */
 export function jobStatus(job: Job) {
   return {
-    status: job.status,
+    status: apiStatus(job.status),
     progress: job.progress,
     ...(job.error ? { error: { message: job.error } } : {}),
     startedAt: job.startedAt,
     finishedAt: job.finishedAt,
     compute_ms: job.compute_ms,
   };
+}
+
+/** The admin page's view of the queue: backend, job rows by status, and the workers computing them. */
+export async function queueOverview() {
+  const byStatus = await db.select({ status: jobs.status, n: count() }).from(jobs).groupBy(jobs.status);
+  const rows = Object.fromEntries(byStatus.map((r) => [r.status, Number(r.n)])) as Partial<Record<JobStatus, number>>;
+  const running = await db
+    .select({ lockedBy: jobs.lockedBy, n: count() })
+    .from(jobs)
+    .where(inArray(jobs.status, ["running"]))
+    .groupBy(jobs.lockedBy);
+  const busy = running.map((r) => ({ name: r.lockedBy ?? "—", running: Number(r.n) }));
+  if (config.queue.backend === "embedded") {
+    return { backend: "embedded" as const, rows, busy, here: embeddedWorker(), distributed: null };
+  }
+  const { distributedOverview } = await import("./bullmq.server");
+  return { backend: "bullmq" as const, rows, busy, here: null, distributed: await distributedOverview() };
 }

@@ -1,0 +1,183 @@
+// One attempt at a job, the same for both backends: claim the row with a fresh lock token, read the
+// input, compute in a worker pool, and close the row — storing the result only while the token is
+// still the row's, so that a late or duplicate attempt (a worker thought dead, a job delivered twice)
+// can never overwrite a newer result. Closing the last child of a parent queues the parent.
+import { randomUUID } from "node:crypto";
+import { and, asc, eq, inArray, lt, ne, or, sql } from "drizzle-orm";
+import { db, type Tx } from "../db.server";
+import { jobs, type Job, type JobKind } from "@/db/schema";
+import { config } from "../config.server";
+import { handlerFor } from "./kinds.server";
+
+/** Attempts a job gets before it is failed for good (workers that died under it count). */
+export const MAX_ATTEMPTS = 3;
+
+/** A job claimed by this attempt, and the token that proves it. */
+export interface Claim {
+  job: Job;
+  token: string;
+}
+
+/** How an attempt ended: stored, failed (the engine refused: no retry), or fenced off by a newer attempt. */
+export type Outcome = { kind: "done"; parentQueued: number | null } | { kind: "failed"; message: string } | { kind: "fenced" };
+
+/** Computes one job's result off the event loop (the piscina pool), reporting progress 0…1. */
+export type Compute = (kind: JobKind, input: unknown, onProgress: (p: number) => void) => Promise<unknown>;
+
+const lockExpiry = () => sql`NOW(3) + INTERVAL ${Math.round(config.queue.lock_s * 1e6)} MICROSECOND`;
+
+async function takeRow(tx: Tx, job: Job, owner: string): Promise<Claim | null> {
+  if (job.attempts >= MAX_ATTEMPTS) {
+    await failInTx(tx, job, `The job stopped ${job.attempts} times before it could finish (a worker or server died under it); start it again.`);
+    return null;
+  }
+  const token = randomUUID();
+  await tx
+    .update(jobs)
+    .set({
+      status: "running",
+      lockToken: token,
+      lockedBy: owner.slice(0, 64),
+      lockedUntil: lockExpiry(),
+      startedAt: job.startedAt ?? sql`NOW(3)`,
+      attempts: job.attempts + 1,
+      progress: 0,
+      error: null,
+    })
+    .where(eq(jobs.id, job.id));
+  return { job: { ...job, status: "running", lockToken: token, attempts: job.attempts + 1 }, token };
+}
+
+/**
+ * The embedded dispatcher's claim: the oldest queued job, or a running one whose lock lapsed (its
+ * process died), skipping rows another dispatcher is claiming.
+ */
+export async function claimNext(owner: string): Promise<Claim | null> {
+  return db.transaction(async (tx) => {
+    const [job] = await tx
+      .select()
+      .from(jobs)
+      .where(and(eq(jobs.queue, "embedded"), or(eq(jobs.status, "queued"), and(eq(jobs.status, "running"), lt(jobs.lockedUntil, sql`NOW(3)`)))))
+      .orderBy(asc(jobs.id))
+      .limit(1)
+      .for("update", { skipLocked: true });
+    return job ? takeRow(tx, job, owner) : null;
+  });
+}
+
+/**
+ * A distributed worker's claim of the job it was handed. BullMQ hands a job to one worker at a time
+ * and hands it again only once the previous holder's lock lapsed, so a running row is taken over
+ * (its old token stops counting). Done, failed and waiting rows are not claimed.
+ */
+export async function claimJob(id: number, owner: string): Promise<Claim | null> {
+  return db.transaction(async (tx) => {
+    const [job] = await tx.select().from(jobs).where(eq(jobs.id, id)).for("update");
+    if (!job || (job.status !== "queued" && job.status !== "running")) return null;
+    return takeRow(tx, job, owner);
+  });
+}
+
+/** Turns an engine error into a sentence for the person who started the job. */
+function reason(e: unknown): string {
+  const message = e instanceof Error ? e.message : String(e);
+  return message.length > 0 ? message : "The engine stopped without saying why.";
+}
+
+/**
+ * Runs a claimed attempt to its end. The engine's refusals fail the job (they would fail again);
+ * a failure to store the result (the database went away) is thrown, so the attempt's lock lapses
+ * and the job is tried again.
+ */
+export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcome> {
+  const { job, token } = claim;
+  const handler = handlerFor(job.kind);
+  const mine = and(eq(jobs.id, job.id), eq(jobs.lockToken, token));
+  const heartbeat = setInterval(() => {
+    void db.update(jobs).set({ lockedUntil: lockExpiry() }).where(mine).catch(() => {});
+  }, (config.queue.lock_s * 1000) / 3);
+  let lastWrite = 0;
+  const started = performance.now();
+  try {
+    let result: unknown;
+    try {
+      const input = await handler.input(job);
+      result = await compute(job.kind, input, (progress) => {
+        const now = Date.now();
+        if (now - lastWrite < 250) return;
+        lastWrite = now;
+        void db.update(jobs).set({ progress: Math.min(0.99, Math.max(0, progress)) }).where(mine).catch(() => {});
+      });
+    } catch (e) {
+      return await failAttempt(claim, reason(e));
+    }
+    const compute_ms = Math.round(performance.now() - started);
+    return await closeAttempt(claim, async (tx) => {
+      await handler.save(tx, job, result);
+      await tx.update(jobs).set({ status: "done", progress: 1, finishedAt: sql`NOW(3)`, compute_ms, lockedBy: null, lockedUntil: null }).where(eq(jobs.id, job.id));
+    });
+  } finally {
+    clearInterval(heartbeat);
+  }
+}
+
+/**
+ * One closing transaction, fenced: the parent row is locked first (siblings finishing at once take
+ * turns, so exactly one of them sees the last child done), then this job's row, whose token must
+ * still be this attempt's and whose status must still be running.
+ */
+async function closeAttempt(claim: Claim, close: (tx: Tx) => Promise<void>): Promise<Outcome> {
+  const { job, token } = claim;
+  return db.transaction(async (tx) => {
+    if (job.parentId !== null) await tx.select({ id: jobs.id }).from(jobs).where(eq(jobs.id, job.parentId)).for("update");
+    const [row] = await tx.select({ status: jobs.status, lockToken: jobs.lockToken }).from(jobs).where(eq(jobs.id, job.id)).for("update");
+    if (!row || row.status !== "running" || row.lockToken !== token) return { kind: "fenced" } as const;
+    await close(tx);
+    return { kind: "done", parentQueued: job.parentId === null ? null : await queueParentIfReady(tx, job.parentId) } as const;
+  });
+}
+
+/** Queues a waiting parent whose children are all done; its id, or null. */
+async function queueParentIfReady(tx: Tx, parentId: number): Promise<number | null> {
+  const [open] = await tx
+    .select({ n: sql<number>`COUNT(*)` })
+    .from(jobs)
+    .where(and(eq(jobs.parentId, parentId), ne(jobs.status, "done")));
+  if (Number(open.n) > 0) return null;
+  const r = await tx.update(jobs).set({ status: "queued" }).where(and(eq(jobs.id, parentId), eq(jobs.status, "waiting")));
+  return r[0].affectedRows > 0 ? parentId : null;
+}
+
+async function failAttempt(claim: Claim, message: string): Promise<Outcome> {
+  const out = await closeAttempt(claim, (tx) => failInTx(tx, claim.job, message));
+  return out.kind === "fenced" ? out : { kind: "failed", message };
+}
+
+/**
+ * Fails a job (and its target), its parent (a sweep with a failed share cannot be whole) and the
+ * parent's other children that have not run yet.
+ */
+async function failInTx(tx: Tx, job: Job, message: string): Promise<void> {
+  const text = message.slice(0, 2000);
+  await tx
+    .update(jobs)
+    .set({ status: "failed", error: text, finishedAt: sql`NOW(3)`, lockedBy: null, lockedUntil: null })
+    .where(eq(jobs.id, job.id));
+  await handlerFor(job.kind).fail?.(tx, job, text);
+  if (job.parentId === null) return;
+  const [parent] = await tx.select().from(jobs).where(eq(jobs.id, job.parentId));
+  if (!parent || parent.status === "failed" || parent.status === "done") return;
+  await tx
+    .update(jobs)
+    .set({ status: "failed", error: "Another part of this job failed.", finishedAt: sql`NOW(3)` })
+    .where(and(eq(jobs.parentId, job.parentId), inArray(jobs.status, ["queued", "waiting"])));
+  await failInTx(tx, parent, text);
+}
+
+/** Marks a job failed from outside an attempt (a distributed job that failed for good in the queue itself). */
+export async function failJob(id: number, message: string): Promise<void> {
+  await db.transaction(async (tx) => {
+    const [job] = await tx.select().from(jobs).where(eq(jobs.id, id)).for("update");
+    if (job && job.status !== "done" && job.status !== "failed") await failInTx(tx, job, message);
+  });
+}
