@@ -36,7 +36,13 @@ try {
   const { startFakeSmtp } = await import("./lib/fake-smtp.mjs");
   const { build, seed, serve } = await import("./lib/server.mjs");
 
-  const env = { ...cfg.env, TAPWRIGHT_SIGN_IN_LIMIT: process.env.TAPWRIGHT_SIGN_IN_LIMIT ?? "1000/60" };
+  const env = {
+    ...cfg.env,
+    TAPWRIGHT_SIGN_IN_LIMIT: process.env.TAPWRIGHT_SIGN_IN_LIMIT ?? "1000/60",
+    TAPWRIGHT_INVITE_LIMIT: process.env.TAPWRIGHT_INVITE_LIMIT ?? "1000/60",
+    // A short lease, so the fault tests see a job taken over within seconds of its server dying.
+    TAPWRIGHT_JOB_LOCK_S: process.env.TAPWRIGHT_JOB_LOCK_S ?? "10",
+  };
   const { startRedis, stopRedis } = await import("./lib/redis.mjs");
   const database = await startMariadb(cfg.db);
   await ensureDatabase(cfg.db, { fresh: true });

@@ -39,6 +39,10 @@ const envSchema = z.object({
   REDIS_URL: optionalText.pipe(z.url({ error: "REDIS_URL must be a URL, e.g. redis://:password@10.0.0.5:6379" }).optional()),
   TAPWRIGHT_JOB_LOCK_S: z.coerce.number({ error: "TAPWRIGHT_JOB_LOCK_S must be a number of seconds" }).min(2, "TAPWRIGHT_JOB_LOCK_S must be at least 2 s").max(3600).default(30),
   TAPWRIGHT_WORKER_NAME: optionalText,
+  TAPWRIGHT_INVITE_LIMIT: z
+    .string()
+    .regex(/^\d+\/\d+$/, "TAPWRIGHT_INVITE_LIMIT must be attempts/window_s, e.g. 10/600")
+    .default("10/600"),
 });
 
 /** The address people reach the server at, when BETTER_AUTH_URL does not say: the listening host (loopback for a wildcard) and port. */
@@ -58,6 +62,7 @@ export function parseConfig(env: Record<string, string | undefined>, cwd: string
     throw new Error("The server's configuration is not usable: TAPWRIGHT_QUEUE=bullmq needs REDIS_URL (npm start sets it for the private Redis).");
   }
   const [max, window] = e.TAPWRIGHT_SIGN_IN_LIMIT.split("/").map(Number);
+  const [inviteMax, inviteWindow] = e.TAPWRIGHT_INVITE_LIMIT.split("/").map(Number);
   const smtpHost = e.SMTP_HOST ?? "127.0.0.1";
   return {
     production: e.NODE_ENV === "production",
@@ -67,6 +72,8 @@ export function parseConfig(env: Record<string, string | undefined>, cwd: string
     authSecret: e.BETTER_AUTH_SECRET,
     /** Sign-in attempts per client address per window (s). */
     signInLimit: { max: max || 5, window: window || 60 },
+    /** Invitation-accept attempts per client address per window (s). */
+    inviteLimit: { max: inviteMax || 10, window: inviteWindow || 600 },
     smtp: {
       host: smtpHost,
       port: e.SMTP_PORT,

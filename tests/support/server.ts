@@ -8,6 +8,8 @@ const root = join(import.meta.dirname, "..", "..");
 export interface TestServer {
   base: string;
   stop(): Promise<void>;
+  /** kill -9: the process ends at once, mid-request, without any shutdown. */
+  kill(): void;
 }
 
 export async function startServer(port: number, extraEnv: Record<string, string> = {}): Promise<TestServer> {
@@ -30,6 +32,7 @@ export async function startServer(port: number, extraEnv: Record<string, string>
   }
   return {
     base,
+    kill: () => child.kill("SIGKILL"),
     stop: () =>
       new Promise<void>((resolve) => {
         if (child.exitCode !== null) return resolve();

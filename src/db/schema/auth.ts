@@ -14,6 +14,8 @@ export const users = mysqlTable("users", {
   emailVerified: boolean("email_verified").notNull().default(false),
   image: varchar("image", { length: 1000 }),
   role: mysqlEnum("role", roles).notNull().default("designer"),
+  /** Set when an admin offboards the person: they cannot sign in, and their sessions and tokens are gone. */
+  deactivatedAt: timestamp("deactivated_at", { fsp: 3 }),
   ...timestamps,
 });
 
@@ -96,6 +98,8 @@ export const apiTokens = mysqlTable(
     prefix: varchar("prefix", { length: 16 }).notNull(),
     secretHash: varchar("secret_hash", { length: 64 }).notNull().unique(),
     lastUsedAt: timestamp("last_used_at", { fsp: 3 }),
+    /** After this the token is refused; null for a token that lasts until revoked. */
+    expiresAt: timestamp("expires_at", { fsp: 3 }),
     revokedAt: timestamp("revoked_at", { fsp: 3 }),
     revokedBy: varchar("revoked_by", { length: 36 }),
     ...timestamps,

@@ -9,6 +9,7 @@ import { recordAudit } from "@/server/audit/audit.server";
 import { enqueueMail, deliverQueuedMail } from "@/server/mail/mail.server";
 import { hashPassword } from "@/server/auth/password.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
+import { logError } from "@/server/http/logError";
 
 const INVITATION_DAYS = 7;
 const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
@@ -67,7 +68,7 @@ export async function invite(actor: SessionUser, email: string, role: Role) {
     });
     await recordAudit(tx, actor, "user.invite", "invitation", id, { email, role });
   });
-  void deliverQueuedMail().catch((e) => console.error("[tapwright] mail delivery:", e));
+  void deliverQueuedMail().catch((e) => logError("mail delivery", e));
   return { email, role, link };
 }
 

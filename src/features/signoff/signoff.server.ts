@@ -13,6 +13,7 @@ import type { SessionUser } from "@/server/auth/sessionUser";
 import { parseBudget } from "@/server/sources.server";
 import type { VersionInputs, VersionResult } from "@/features/tapTables/tapTables";
 import type { CommentRequest, CommentView, DecisionRequest, Person, SignOffDetail, SignOffListItem, SignOffRequest, SignOffState } from "./signoff";
+import { logError } from "@/server/http/logError";
 
 const requester = alias(users, "requester");
 const reviewer = alias(users, "reviewer");
@@ -29,7 +30,7 @@ export type Delivery = "now" | "later";
 
 /** Delivers the outbox after a commit (a pass already running is followed by another). */
 function sendMailSoon() {
-  void deliverQueuedMail().catch((e) => console.error("[tapwright] mail delivery:", e));
+  void deliverQueuedMail().catch((e) => logError("mail delivery", e));
 }
 
 /** People who may decide a sign-off (reviewers and admins). */

@@ -1,5 +1,6 @@
 // The one error shape of the API, `{ error: { message, path? } }`, and the statuses api.md lists.
 import { z } from "zod";
+import { logError } from "./logError";
 
 export type ErrorStatus = 400 | 401 | 403 | 404 | 409 | 413 | 415 | 422 | 429 | 500 | 503;
 
@@ -46,6 +47,6 @@ export function errorResponse(e: unknown): Response {
     const a = zodToApiError(e);
     return json(errorBody(a.message, a.path), a.status);
   }
-  console.error("[tapwright] unexpected error:", e);
+  logError("unexpected error", e);
   return json(errorBody("Something went wrong on the server; the request changed nothing. Try again, or tell an admin."), 500);
 }

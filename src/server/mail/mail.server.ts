@@ -5,8 +5,17 @@ import { and, asc, desc, eq, lt } from "drizzle-orm";
 import { db, type DbOrTx } from "@/server/db.server";
 import { devMailbox, mailOutbox } from "@/db/schema";
 import { config } from "@/server/config.server";
+import { logError } from "@/server/http/logError";
 
 const MAX_ATTEMPTS = 5;
+
+/**
+ * A sent message's text as the outbox keeps it: invitation links carry a secret that works once,
+ * and once the message is delivered the outbox has no reason to hold it in plain text.
+ */
+export function withoutSecrets(text: string): string {
+  return text.replace(/\/invite\/[A-Za-z0-9_-]+/g, "/invite/[link removed after delivery]");
+}
 
 function transport() {
   return nodemailer.createTransport({
@@ -54,7 +63,10 @@ async function deliveryPass(): Promise<void> {
           subject: m.subject,
           text: m.bodyText,
         });
-        await db.update(mailOutbox).set({ status: "sent", sentAt: new Date(), attempts: m.attempts + 1 }).where(eq(mailOutbox.id, m.id));
+        await db
+          .update(mailOutbox)
+          .set({ status: "sent", sentAt: new Date(), attempts: m.attempts + 1, bodyText: withoutSecrets(m.bodyText) })
+          .where(eq(mailOutbox.id, m.id));
       } catch (e) {
         const attempts = m.attempts + 1;
         await db
@@ -91,7 +103,7 @@ export function deliverQueuedMail(): Promise<void> {
 let retryTimer: NodeJS.Timeout | undefined;
 /** Retries queued mail every 30 s in the background (started once per process). */
 export function startMailRetries(): void {
-  retryTimer ??= setInterval(() => void deliverQueuedMail().catch((e) => console.error("[tapwright] mail delivery:", e)), 30_000).unref();
+  retryTimer ??= setInterval(() => void deliverQueuedMail().catch((e) => logError("mail delivery", e)), 30_000).unref();
 }
 
 /** Messages the fake SMTP server caught (development and tests), newest first. */
