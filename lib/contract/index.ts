@@ -8,6 +8,7 @@ export * from "./prbs.ts";
 export * from "./pulse.ts";
 export * from "./zf.ts";
 export * from "./budget.ts";
+export * from "./formatQuantity.ts";
 export * from "./corner.ts";
 export * from "./eye.ts";
 export * from "./optimize.ts";

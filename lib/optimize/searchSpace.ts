@@ -5,6 +5,7 @@ import { type SamplerJitter, samplerJitter } from "../clocking/jitterTransfer.ts
 import type { SamplingPolicy } from "../clocking/samplingPhase.ts";
 import { type Budget, type BudgetInput, budgetSchema, gridValues } from "../contract/budget.ts";
 import { formatPath } from "../contract/common.ts";
+import { formatQuantity } from "../contract/formatQuantity.ts";
 import type { CtleParams } from "../equalizers/ctleResponse.ts";
 import type { TxFirSpec } from "../equalizers/txFirConstraints.ts";
 import { assertPulse } from "../pulse/assertPulse.ts";
@@ -81,7 +82,7 @@ export function searchSpace(pulse: Pulse, budget: BudgetInput | Budget): SearchS
     const want = baud_Hz * bitsPerSymbol(b.modulation);
     if (Math.abs(b.bitRate_bps / want - 1) > 0.01) {
       throw new RangeError(
-        `budget.bitRate_bps: ${b.bitRate_bps} b/s does not match the pulse (UI ${pulse.ui_s} s gives ${want} b/s for ${b.modulation})`,
+        `budget.bitRate_bps: ${formatQuantity(b.bitRate_bps, "b/s")} does not match the channel's ${formatQuantity(want, "b/s")} (${b.modulation.toUpperCase()}, UI ${formatQuantity(pulse.ui_s, "s")})`,
       );
     }
   }
