@@ -6,6 +6,7 @@ import { allows, ruleFor } from "./server/auth/rules";
 import type { SessionUser } from "./server/auth/sessionUser";
 import { userForToken } from "./features/tokens/tokens.server";
 import { errorBody, json } from "./server/http/errors";
+import { refuseDeclaredBody } from "./server/http/bodyLimits";
 import { startBackgroundWork } from "./server/background.server";
 
 async function sessionUser(headers: Headers): Promise<SessionUser | null> {
@@ -19,6 +20,9 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   startBackgroundWork();
   const { pathname } = ctx.url;
   const isApi = pathname.startsWith("/api/");
+  // A body larger than the route takes is refused on its declared length, before anything is read.
+  const tooLarge = refuseDeclaredBody(ctx.request.method, pathname, ctx.request.headers.get("content-length"));
+  if (tooLarge) return json(errorBody(tooLarge.message, tooLarge.path), 413);
   const rule = ruleFor(ctx.request.method, pathname);
   ctx.locals.user = null;
   ctx.locals.authVia = null;

@@ -92,20 +92,32 @@ describe("a tuning run", () => {
     expect(second.result).toEqual(firstRun.result);
   });
 
-  it("that the engine refuses ends failed, says why, and keeps its inputs", async () => {
-    // The budget states 10 Gb/s; the channel was derived for 28 Gb/s. The API accepts the pair; the engine refuses it.
+  it("whose budget's bit rate does not match the channel's is refused up front (422), in rounded units, leaving nothing behind", async () => {
+    // The budget states 10 Gb/s; the channel was derived for 28 Gb/s.
     const mismatched = (await (await designer.send("POST", "/api/v1/budgets", nrzBudgetBody(unique("Wrong rate"), { bitRate_bps: 10e9 }))).json()).id;
-    const { id } = await (await designer.send("POST", "/api/v1/runs", { channelId: shortLane, budgetId: mismatched })).json();
+    const before = await rowCounts();
+    const res = await designer.send("POST", "/api/v1/runs", { channelId: shortLane, budgetId: mismatched });
+    expect(res.status).toBe(422);
+    const { error } = await res.json();
+    expect(error.path).toBe("budgetId");
+    expect(error.message).toMatch(/bitRate_bps: 10\.0 Gb\/s does not match the channel's 28\.0 Gb\/s \(NRZ, UI 35\.7 ps\)/);
+    expect(error.message).not.toMatch(/\d{7,}/);
+    const after = await rowCounts();
+    expect([after.runs, after.jobs, after.audit_events]).toEqual([before.runs, before.jobs, before.audit_events]);
+  });
+
+  it("that is cancelled ends failed, says why on its page, and keeps its inputs", async () => {
+    const { id } = await (await designer.send("POST", "/api/v1/runs", { channelId: longLane, budgetId: nrzBudget })).json();
+    expect((await designer.send("POST", `/api/v1/runs/${id}/cancel`)).status).toBe(200);
     const end = await finished(designer, id);
     expect(end.status).toBe("failed");
-    expect(end.error?.message).toMatch(/bitRate_bps.*does not match the pulse/);
+    expect(end.error?.message).toMatch(/^Cancelled by Tomas Ekwueme\.$/);
     const run = await (await designer.get(`/api/v1/runs/${id}`)).json();
     expect(run.result).toBeNull();
     expect(run.error.message).toBe(end.error?.message);
-    expect(run.inputs.budget.params.bitRate_bps).toBe(10e9);
     expect(run.inputs.channel.pulse.values_V.length).toBeGreaterThan(0);
     const page = await designer.get(`/runs/${id}`);
-    expect(await page.text()).toContain("does not match the pulse");
+    expect(await page.text()).toContain("Cancelled by Tomas Ekwueme");
   });
 
   it("is refused up front when the channel or budget does not exist, leaving nothing behind", async () => {

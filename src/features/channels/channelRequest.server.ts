@@ -3,16 +3,10 @@
 // a synthetic channel. The routes call this; the
 // services in channels.server.ts take its result and never see the request.
 import { ApiError, zodToApiError } from "@/server/http/errors";
-import { readJsonLimited, readMultipart, type UploadedFile } from "@/server/http/body";
-import { MAX_UPLOAD_BYTES, formatBytes, syntheticRequest, uploadFields, type SyntheticRequest, type UploadFields } from "./channels";
+import { bodyTooLarge, JSON_BODY_LIMIT, readJsonLimited, readMultipart, type UploadedFile } from "@/server/http/body";
+import { UPLOAD_BODY_LIMIT, uploadTooLarge } from "@/server/http/bodyLimits";
+import { MAX_UPLOAD_BYTES, syntheticRequest, uploadFields, type SyntheticRequest, type UploadFields } from "./channels";
 import { AGGRESSOR_FILE_FIELD } from "./aggressors";
-
-/** Room for the multipart envelope around the file. */
-const MULTIPART_OVERHEAD = 256 * 1024;
-/** Largest JSON body of a synthetic channel. */
-const JSON_LIMIT = 1024 * 1024;
-const tooLarge = () =>
-  new ApiError(413, `The file is larger than the ${formatBytes(MAX_UPLOAD_BYTES)} limit; trim the frequency range or the record length and upload again.`, "file");
 
 /** A parsed channel request: a file upload (multipart) or a synthetic channel (JSON). */
 export type ChannelRequest =
@@ -26,7 +20,7 @@ export type ChannelRequest =
 export async function readChannelRequest(request: Request, { fileOnly = false } = {}): Promise<ChannelRequest> {
   const type = request.headers.get("content-type") ?? "";
   if (!fileOnly && type.startsWith("application/json")) {
-    const raw = await readJsonLimited(request, JSON_LIMIT, tooLarge, "The request body must be JSON: { name, bitRate_bps, lossModel: { lossAtNyquist_dB } }.");
+    const raw = await readJsonLimited(request, JSON_BODY_LIMIT, () => bodyTooLarge(JSON_BODY_LIMIT), "The request body must be JSON: { name, bitRate_bps, lossModel: { lossAtNyquist_dB } }.");
     const parsed = syntheticRequest.safeParse(raw);
     if (!parsed.success) throw zodToApiError(parsed.error);
     return { source: "synthetic", body: parsed.data };
@@ -40,10 +34,10 @@ export async function readChannelRequest(request: Request, { fileOnly = false } 
     );
   }
   const { file, fields, extras } = await readMultipart(request, {
-    limit: MAX_UPLOAD_BYTES + MULTIPART_OVERHEAD,
+    limit: UPLOAD_BODY_LIMIT,
     fileField: "file",
     fileLimit: MAX_UPLOAD_BYTES,
-    tooLarge,
+    tooLarge: uploadTooLarge,
     extraFiles: AGGRESSOR_FILE_FIELD,
   });
   if (fileOnly && !fields.name) fields.name = file.filename;

@@ -306,7 +306,8 @@ export async function originalFile(id: number): Promise<Download> {
   if (!src) throw notFound(`An uploaded file for channel ${id}`);
   return {
     filename: src.filename,
-    contentType: src.contentType || "application/octet-stream",
+    // Never the type the uploader claimed: a stored file is bytes to save, not something to render.
+    contentType: "application/octet-stream",
     body: src.bytes,
     cacheControl: "private, max-age=0",
     headers: { "x-content-sha256": src.sha256 },

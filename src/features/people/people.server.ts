@@ -1,6 +1,6 @@
 // People: the list, role changes, invitations and their acceptance. Admin actions are audited.
 import { createHash, randomBytes } from "node:crypto";
-import { and, asc, count, eq, gt, isNull } from "drizzle-orm";
+import { and, asc, eq, gt, isNull } from "drizzle-orm";
 import { db } from "@/server/db.server";
 import { config } from "@/server/config.server";
 import { accounts, invitations, users, type Role } from "@/db/schema";
@@ -10,8 +10,10 @@ import { enqueueMail, deliverQueuedMail } from "@/server/mail/mail.server";
 import { hashPassword } from "@/server/auth/password.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { logError } from "@/server/http/logError";
+import { countAttempt } from "@/server/auth/attempts.server";
 
 const INVITATION_DAYS = 7;
+const invitationGone = () => new ApiError(404, "This invitation link is unknown, already used or expired; ask an admin for a new one.");
 const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
 
 export async function listPeople() {
@@ -36,8 +38,9 @@ export async function setRole(actor: SessionUser, userId: string, role: Role) {
     if (!target) throw notFound("That person");
     if (target.role === role) return;
     if (target.role === "admin") {
-      const [{ n }] = await tx.select({ n: count() }).from(users).where(eq(users.role, "admin"));
-      if (n <= 1) throw conflict("This is the only admin; make someone else admin first.");
+      // Lock every admin row, so that two admins demoting each other at once cannot both pass the check.
+      const admins = await tx.select({ id: users.id }).from(users).where(eq(users.role, "admin")).for("update");
+      if (admins.length <= 1) throw conflict("This is the only admin; make someone else admin first.");
     }
     await tx.update(users).set({ role }).where(eq(users.id, userId));
     await recordAudit(tx, actor, "user.role", "user", userId, { email: target.email, from: target.role, to: role });
@@ -81,8 +84,19 @@ export async function findInvitation(secret: string) {
   return row ?? null;
 }
 
-/** Creates the person and their password in one transaction, and uses up the invitation. */
+/** Counts an attempt to accept an invitation from `address`; 429 past TAPWRIGHT_INVITE_LIMIT (secrets cannot be guessed at speed). */
+export async function limitInvitationAttempts(address: string): Promise<void> {
+  const { max, window } = config.inviteLimit;
+  const { allowed, retryAfter_s } = await countAttempt(`tapwright:invitation-accept:${address}`, max, window);
+  if (!allowed) throw new ApiError(429, `Too many attempts to accept invitations from here; wait ${retryAfter_s} s and try again.`);
+}
+
+/**
+ * Creates the person and their password in one transaction, and uses up the invitation. An unknown,
+ * used or expired link is refused before the (deliberately slow) password hash is computed.
+ */
 export async function acceptInvitation(secret: string, name: string, password: string) {
+  if (!(await findInvitation(secret))) throw invitationGone();
   const passwordHash = await hashPassword(password);
   return db.transaction(async (tx) => {
     const [inv] = await tx
@@ -90,7 +104,7 @@ export async function acceptInvitation(secret: string, name: string, password: s
       .from(invitations)
       .where(and(eq(invitations.tokenHash, sha256(secret)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
       .for("update");
-    if (!inv) throw new ApiError(404, "This invitation link is unknown, already used or expired; ask an admin for a new one.");
+    if (!inv) throw invitationGone();
     const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, inv.email));
     if (existing) throw conflict(`${inv.email} already has an account; sign in instead.`);
     const id = crypto.randomUUID();

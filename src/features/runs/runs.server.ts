@@ -9,6 +9,8 @@ import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import type { TuningRunResult } from "@lib/run";
+import type { BudgetInput } from "@lib/contract/budget";
+import { checkBudgetFits } from "@/server/sources.server";
 import { listQuery, type RunListItem, type RunListQuery, type RunSummary, type RunView, type StartRunRequest } from "./runs";
 
 /** Adds the run and its queued job; the job's target is the run (so the job comes first, then points back). */
@@ -84,6 +86,8 @@ export async function startRun(user: SessionUser | null, req: StartRunRequest) {
     if (!channel) throw unprocessable(`There is no channel ${req.channelId}.`, "channelId");
     const [budget] = await tx.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).where(eq(budgets.id, req.budgetId));
     if (!budget) throw unprocessable(`There is no budget ${req.budgetId}.`, "budgetId");
+    // Refused here (422), not queued and failed later: a budget whose bit rate or grids the channel cannot take.
+    checkBudgetFits(budget.params as BudgetInput, budget.name, [{ ...channel, lossAtNyquist_dB: null }]);
     const id = await insertRun(tx, user, { channel, budget }, { channelId: channel.id, budgetId: budget.id });
     await recordAudit(tx, user, "run.start", "run", id, { channel: channel.name, budget: budget.name });
     return id;

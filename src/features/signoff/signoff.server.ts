@@ -63,6 +63,7 @@ export async function requestSignOff(user: SessionUser, tableId: number, v: numb
       throw unprocessable(`${who.name} is a ${who.role} and cannot decide sign-offs; choose a reviewer.`, "reviewerId");
     }
     if (who.id === user.id) throw unprocessable("You cannot sign off your own request; choose another reviewer.", "reviewerId");
+    if (who.id === version.createdBy) throw unprocessable(`${who.name} built this version and cannot sign it off; choose another reviewer.`, "reviewerId");
     const [{ id }] = await tx
       .insert(signOffs)
       .values({ versionId: version.id, requestedBy: user.id, reviewerId: who.id, message: req.message ?? null })
@@ -95,6 +96,9 @@ export async function decide(user: SessionUser, id: number, req: DecisionRequest
       .for("update");
     if (!row) throw notFound(`Sign-off ${id}`);
     const { s, version, table } = row;
+    // Four eyes: whoever asked for the sign-off or built the version decides neither, admins included.
+    if (s.requestedBy === user.id) throw forbidden("You asked for this sign-off, so someone else must decide it (four eyes; admins too).");
+    if (version.createdBy === user.id) throw forbidden("You built this version, so someone else must decide its sign-off (four eyes; admins too).");
     if (s.reviewerId !== user.id && user.role !== "admin") throw forbidden("This sign-off was asked of another reviewer.");
     if (s.state !== "pending") throw conflict(`This sign-off was already decided (${s.state === "approved" ? "approved" : "sent back"}).`);
     const approve = req.decision === "approve";

@@ -53,9 +53,14 @@ export function exportMediaType(format: ExportFormat): string {
   return mediaTypes[format];
 }
 
+/**
+ * One CSV cell, quoted as RFC 4180 asks. Text that starts with = + - @, a tab or a carriage return
+ * gets a leading ' so that a spreadsheet shows it instead of running it as a formula (OWASP's CSV
+ * injection guidance); numbers are written as numbers.
+ */
 function csvCell(value: string | number | null): string {
   if (value === null) return "";
-  const s = String(value);
+  const s = typeof value === "number" ? String(value) : /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
@@ -165,17 +170,20 @@ function toCHeader(m: ExportModel): string {
     lines.push(`#define ${F}_MIN_CODE (${lo})`);
     lines.push(`#define ${F}_MAX_CODE (${hi})`, "");
   }
-  const classIds = uniqueIdentifiers(m.classes.map((c) => classIdentifier(c.name)));
+  const classIds = uniqueIdentifiers(
+    m.classes.map((c) => classIdentifier(c.name)),
+    takenClassIds(m.registerMap),
+  );
   lines.push(`enum ${p}_class {`);
   m.classes.forEach((c, i) => lines.push(`  ${P}_CLASS_${classIds[i]} = ${i}, /* ${commentText(c.name)} */`));
   lines.push("};", "");
   lines.push("typedef struct {");
-  for (const f of m.registerMap) lines.push(`  ${cType(f)} ${f.name};`);
+  for (const f of m.registerMap) lines.push(`  ${cType(f)} ${memberName(f.name)};`);
   lines.push(`} ${p}_setting_t;`, "");
   lines.push(`static const ${p}_setting_t ${p}_defaults[${P}_CLASS_COUNT] = {`);
   m.classes.forEach((c, i) => {
     lines.push(`  /* ${commentText(`${c.name}: ${c.channels.length} channels, worst limiter headroom ${(c.worstHeadroom_V * 1e3).toFixed(1)} mV`)} */`);
-    const members = m.registerMap.map((f) => `.${f.name} = ${c.codes[f.name]}`).join(", ");
+    const members = m.registerMap.map((f) => `.${memberName(f.name)} = ${c.codes[f.name]}`).join(", ");
     lines.push(`  [${P}_CLASS_${classIds[i]}] = { ${members} },`);
   });
   lines.push("};", "", `#endif /* ${guard} */`, "");
@@ -188,14 +196,42 @@ function classIdentifier(name: string): string {
   return slug(spelled, 32).toUpperCase();
 }
 
-/** Makes identifiers unique by suffixing repeats with _2, _3, … */
-function uniqueIdentifiers(ids: string[]): string[] {
-  const seen = new Map<string, number>();
+/** Makes identifiers unique, also against `taken`: a repeat gets the first free suffix _2, _3, … */
+function uniqueIdentifiers(ids: string[], taken: Iterable<string> = []): string[] {
+  const used = new Set(taken);
   return ids.map((id) => {
-    const n = (seen.get(id) ?? 0) + 1;
-    seen.set(id, n);
-    return n === 1 ? id : `${id}_${n}`;
+    let out = id;
+    for (let n = 2; used.has(out); n++) out = `${id}_${n}`;
+    used.add(out);
+    return out;
   });
+}
+
+/** C99 and C11 keywords, and the C23 ones a newer compiler reserves, in the lower case field names use. */
+const C_KEYWORDS = new Set(
+  ("auto break case char const continue default do double else enum extern float for goto if inline int long register restrict return " +
+    "short signed sizeof static struct switch typedef union unsigned void volatile while alignas alignof bool constexpr false nullptr " +
+    "static_assert thread_local true typeof typeof_unqual").split(" "),
+);
+
+/** A register field's name as a struct member: a C keyword gets a trailing underscore ("int" → "int_"). */
+function memberName(name: string): string {
+  return C_KEYWORDS.has(name) ? `${name}_` : name;
+}
+
+/**
+ * Class enum names already spelled by other macros: `<P>_CLASS_<id>` must not equal `<P>_CLASS_COUNT`,
+ * nor a field macro `<P>_<FIELD>_<suffix>` whose field name starts with "class_" (or is "class").
+ */
+function takenClassIds(fields: RegisterField[]): string[] {
+  const taken = ["COUNT"];
+  for (const f of fields) {
+    for (const suffix of ["BITS", "SIGNED", "LSB", "MIN_CODE", "MAX_CODE"]) {
+      const macro = `${f.name.toUpperCase()}_${suffix}`;
+      if (macro.startsWith("CLASS_")) taken.push(macro.slice("CLASS_".length));
+    }
+  }
+  return taken;
 }
 
 /** The export in one format. */

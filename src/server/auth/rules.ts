@@ -27,7 +27,8 @@ export const rules: readonly Rule[] = [
   { path: /^\/sign-in\/?$/, access: "public" },
   { path: /^\/invite\/[^/]+\/?$/, access: "public" },
   { path: /^\/api\/v1\/invitations\/[^/]+\/accept\/?$/, access: "public" },
-  { path: /^\/(_astro|fonts|favicon)/, access: "public" },
+  // Whole path segments only: /_astro/… and /fonts/…, and the icon itself (not /fontsecret or /favicon-admin).
+  { path: /^\/(_astro|fonts)\/|^\/favicon\.svg$/, access: "public" },
 
   // Admin: people, roles, invitations, the audit trail, the dev mailbox.
   { path: /^\/api\/v1\/(users|invitations|audit|queue)(\/|$)/, access: ADMIN },

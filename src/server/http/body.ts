@@ -1,7 +1,16 @@
 // Request bodies with a size limit: the raw bytes, JSON, or a multipart form. Above the limit the
 // rest is read and dropped (so the client gets the answer instead of a reset connection) and the
 // caller's 413 is thrown.
-import { badRequest, type ApiError } from "./errors";
+import { ApiError, badRequest } from "./errors";
+
+/** Largest JSON body any route takes (budgets, runs, tables, sign-in…): 64 KiB. */
+export const JSON_BODY_LIMIT = 64 * 1024;
+
+/** The 413 for a body above `limit` bytes, in words a person can act on. */
+export function bodyTooLarge(limit: number, what = "The request body"): ApiError {
+  const size = limit >= 1024 * 1024 ? `${Math.round(limit / 1024 / 1024)} MiB` : `${Math.round(limit / 1024)} KiB`;
+  return new ApiError(413, `${what} is larger than the ${size} this route takes; send less.`);
+}
 
 /** Reads a request body up to `limit` bytes; throws `tooLarge()` beyond it. */
 export async function readBodyLimited(request: Request, limit: number, tooLarge: () => ApiError): Promise<Uint8Array<ArrayBuffer>> {

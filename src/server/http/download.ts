@@ -10,10 +10,17 @@ export interface Download {
   headers?: Record<string, string>;
 }
 
-/** `attachment; filename="…"; filename*=UTF-8''…`. */
+/** RFC 5987's attr-char encoding: what encodeURIComponent leaves alone, less ' ( ) and *. */
+const rfc5987 = (s: string) => encodeURIComponent(s).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
+
+/**
+ * `attachment; filename="…"; filename*=UTF-8''…` (RFC 6266): the quoted name in printable ASCII
+ * only (a header cannot carry other characters, and a name like 通道.s2p must not break the answer),
+ * and the exact name, percent-encoded, for the clients that read filename*.
+ */
 export function attachmentDisposition(filename: string): string {
-  const safe = filename.replace(/["\\\r\n]/g, "_");
-  return `attachment; filename="${safe}"; filename*=UTF-8''${encodeURIComponent(filename)}`;
+  const ascii = filename.normalize("NFKD").replace(/[^\x20-\x7e]|["\\]/g, "_") || "download";
+  return `attachment; filename="${ascii}"; filename*=UTF-8''${rfc5987(filename)}`;
 }
 
 /** The response that downloads a file. */
@@ -25,6 +32,8 @@ export function downloadResponse(d: Download): Response {
       "content-type": d.contentType,
       ...(typeof body === "string" ? {} : { "content-length": String(body.byteLength) }),
       "content-disposition": attachmentDisposition(d.filename),
+      // Browsers must take the declared type, never guess one from the bytes (an uploaded file may hold HTML).
+      "x-content-type-options": "nosniff",
       "cache-control": d.cacheControl,
       ...d.headers,
     },

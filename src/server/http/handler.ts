@@ -1,7 +1,8 @@
 // Thin endpoints: parse → authorize (done by the middleware's rule table) → call a service → answer.
 import type { APIContext } from "astro";
 import type { z } from "zod";
-import { badRequest, errorResponse, json, zodToApiError } from "./errors";
+import { errorResponse, json, zodToApiError } from "./errors";
+import { bodyTooLarge, JSON_BODY_LIMIT, readJsonLimited } from "./body";
 
 type Handler = (ctx: APIContext) => Promise<Response | unknown>;
 
@@ -17,14 +18,9 @@ export function endpoint(fn: Handler) {
   };
 }
 
-/** Reads and validates a JSON body. */
+/** Reads (at most JSON_BODY_LIMIT bytes, else 413) and validates a JSON body. */
 export async function readJson<T extends z.ZodType>(request: Request, schema: T): Promise<z.infer<T>> {
-  let raw: unknown;
-  try {
-    raw = await request.json();
-  } catch {
-    throw badRequest("The request body must be JSON (Content-Type: application/json).");
-  }
+  const raw = await readJsonLimited(request, JSON_BODY_LIMIT, () => bodyTooLarge(JSON_BODY_LIMIT), "The request body must be JSON (Content-Type: application/json).");
   const parsed = schema.safeParse(raw);
   if (!parsed.success) throw zodToApiError(parsed.error);
   return parsed.data;

@@ -16,3 +16,18 @@ export async function loadOrNull<T>(load: () => Promise<T>): Promise<T | null> {
     throw e;
   }
 }
+
+/**
+ * Where sign-in may send a person next: `next` resolved against this site's origin, kept only when
+ * it stays on that origin and names a path ("/\\evil.example" and "//evil.example" resolve to another
+ * host and are dropped); otherwise the overview.
+ */
+export function safeNextPath(next: string | null, origin: string): string {
+  if (!next?.startsWith("/")) return "/";
+  try {
+    const url = new URL(next, origin);
+    return url.origin === origin ? `${url.pathname}${url.search}${url.hash}` : "/";
+  } catch {
+    return "/";
+  }
+}
