@@ -4,15 +4,12 @@ import { ensurePerson } from "@/features/people/people.server";
 import { pool } from "@/server/db.server";
 import { seedDemoWork } from "@/features/demo/demo.server";
 import { seedHandoff } from "@/features/demo/handoff.server";
+import type { Role } from "@/db/schema";
+import { DEMO_PEOPLE } from "./lib/demo.mjs";
 
 export const DEMO_PASSWORD = process.env.DEMO_PASSWORD ?? "tapwright-demo";
 
-const people = [
-  { email: "admin@tapwright.test", name: "Odile Marchetti", role: "admin" },
-  { email: "designer@tapwright.test", name: "Tomas Ekwueme", role: "designer" },
-  { email: "firmware@tapwright.test", name: "Priya Halvorsen", role: "firmware" },
-  { email: "reviewer@tapwright.test", name: "Jun Castellanos", role: "reviewer" },
-] as const;
+const people = DEMO_PEOPLE as readonly { email: string; name: string; role: Role }[];
 
 async function main() {
   if (process.env.NODE_ENV === "production") {

@@ -4,12 +4,14 @@
 // - the client's address comes from the socket; X-Forwarded-* headers count only when the peer is
 //   one of TAPWRIGHT_TRUSTED_PROXIES (the adapter believes any X-Forwarded-For it is sent);
 // - hashed assets (/_astro/*) are served from the .br / .gz files made at build time;
-// - HTML, JSON and other text responses are compressed (brotli or gzip) on the fly.
+// - HTML, JSON and other text responses are compressed (brotli or gzip) on the fly;
+// and in production it refuses to start while a demo account can sign in.
 import { createReadStream, existsSync, statSync } from "node:fs";
 import http from "node:http";
 import { extname, join, resolve, sep } from "node:path";
 import { pathToFileURL } from "node:url";
 import compression from "compression";
+import { activeDemoAccounts } from "./lib/demo.mjs";
 import { clientAddress, isTrusted, parseProxies } from "./lib/proxies.mjs";
 
 const root = resolve(import.meta.dirname, "..");
@@ -83,6 +85,18 @@ function servePrecompressed(req, res) {
 // Dynamic pages and JSON: the package's fast defaults (gzip 6, brotli 4, nothing under 1 KiB); the
 // build already squeezed the static assets hard.
 const compress = compression();
+
+// Production refuses to start while a demo account could still sign in (its password is public).
+if (process.env.NODE_ENV === "production" && process.env.DATABASE_URL) {
+  const demo = await activeDemoAccounts(process.env.DATABASE_URL);
+  if (demo.length > 0) {
+    console.error(
+      `[tapwright] Refusing to start in production: the demo accounts ${demo.join(", ")} can still sign in. ` +
+        "Invite an admin of your own, then run `npm run demo:remove` (README, Demo accounts).",
+    );
+    process.exit(1);
+  }
+}
 
 const { handler } = await import(pathToFileURL(join(outDir, "server", "entry.mjs")).href);
 

@@ -5,6 +5,7 @@
 import { ensureNpmPackages } from "./lib/deps.mjs";
 import { settings } from "./lib/config.mjs";
 import { log } from "./lib/log.mjs";
+import { demoWanted } from "./lib/demo.mjs";
 
 try {
   ensureNpmPackages();
@@ -20,7 +21,9 @@ try {
     await startRedis(cfg.redis);
   }
   await migrate(cfg.env.DATABASE_URL);
-  seed(cfg.env);
+  const demo = demoWanted({ ...process.env, HOST: cfg.host });
+  if (demo.seed) seed(cfg.env);
+  else log(`Demo data: not seeded (${demo.why}).`);
   let smtp = null;
   if (cfg.smtp.fake) {
     const { startFakeSmtp } = await import("./lib/fake-smtp.mjs");

@@ -3,7 +3,7 @@
 // requests in all. Whatever arrives, the server answers below 500, every 4xx carries the API's
 // error shape ({ error: { message, path? } }), and nothing is left half-written: after the suite
 // deletes what it created, every table holds what it held before, and no row points at a missing
-// parent.
+// parent. Generous time limits: the machine may be shared, and this suite's point is its count.
 import fc from "fast-check";
 import mysql from "mysql2/promise";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -229,7 +229,7 @@ describe("fuzz: 2000+ generated requests", () => {
     // Most requests got past the form fields to the readers (saved, or refused for their content).
     const readers = (uploadStatuses.get(200) ?? 0) + (uploadStatuses.get(201) ?? 0) + (uploadStatuses.get(415) ?? 0) + (uploadStatuses.get(422) ?? 0);
     expect(readers).toBeGreaterThan(500);
-  });
+  }, 300_000);
 
   it("mutated budgets (create and replace), synthetic channels, runs and tap tables: 1100 JSON bodies", async () => {
     const budgetTemplate = { ...quickBudget, name: "fuzz budget" };
@@ -265,7 +265,7 @@ describe("fuzz: 2000+ generated requests", () => {
         { seed: 20261205 + n, numRuns: c.runs, endOnFailure: true },
       );
     }
-  });
+  }, 300_000);
 
   it("deleting what it created leaves every table as it was, and no row without its parent", async () => {
     for (const id of created.channels) expect((await designer.send("DELETE", `/api/v1/channels/${id}?confirm=true`)).status).toBe(200);
@@ -283,5 +283,5 @@ describe("fuzz: 2000+ generated requests", () => {
     expect(Object.values(await orphans()).every((n) => n === 0)).toBe(true);
     expect(tally.requests).toBeGreaterThanOrEqual(2000);
     console.log(`fuzz: ${tally.requests} requests, statuses ${JSON.stringify(Object.fromEntries([...tally.byStatus].sort()))}`);
-  });
+  }, 300_000);
 });

@@ -181,3 +181,97 @@ describe("the outbox", () => {
     expect((await anonymous().send("POST", `/api/v1/invitations/${secret}/accept`, { name: "Outbox Reader", password: "a-long-password-1" })).status).toBe(201);
   });
 });
+
+describe("offboarding", () => {
+  /** A fresh person who accepted an invitation, signed in. */
+  async function newcomer(role = "designer") {
+    const email = `${unique("leaver").replace(/\W+/g, "-")}@tapwright.test`;
+    const { link } = await (await admin.send("POST", "/api/v1/invitations", { email, role })).json();
+    const person = await (await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, { name: "Leaving Person", password: "a-long-password-1" })).json();
+    return { id: person.id as string, email, client: await signIn(email, "a-long-password-1") };
+  }
+
+  it("deactivating a person ends their sessions and tokens and keeps them out; reactivating lets them back", async () => {
+    const p = await newcomer();
+    const { secret } = await (await p.client.send("POST", "/api/v1/tokens", { name: "build box" })).json();
+    const bearer = () => fetch(`${baseUrl}/api/v1/channels`, { headers: { authorization: `Bearer ${secret}` } });
+    expect((await bearer()).status).toBe(200);
+    expect((await admin.send("PUT", `/api/v1/users/${p.id}/active`, { active: false })).status).toBe(200);
+    expect((await p.client.get("/api/v1/me")).status).toBe(401);
+    expect((await bearer()).status).toBe(401);
+    const again = await signInRaw(p.email, "a-long-password-1");
+    expect(again.status).toBe(403);
+    expect((await again.json()).error.message).toMatch(/deactivated/);
+    expect((await admin.send("PUT", `/api/v1/users/${p.id}/active`, { active: true })).status).toBe(200);
+    expect((await signInRaw(p.email, "a-long-password-1")).status).toBe(200);
+    expect((await bearer()).status).toBe(401); // revoked tokens stay revoked
+    expect((await designer.send("PUT", `/api/v1/users/${p.id}/active`, { active: false })).status).toBe(403);
+  });
+
+  it("an admin ends someone's sessions: they must sign in again", async () => {
+    const p = await newcomer("firmware");
+    expect((await p.client.get("/api/v1/me")).status).toBe(200);
+    const res = await admin.send("DELETE", `/api/v1/users/${p.id}/sessions`);
+    expect(res.status).toBe(200);
+    expect((await res.json()).sessionsEnded).toBeGreaterThanOrEqual(1);
+    expect((await p.client.get("/api/v1/me")).status).toBe(401);
+  });
+
+  it("a revoked invitation's link no longer works", async () => {
+    const email = `${unique("revoked").replace(/\W+/g, "-")}@tapwright.test`;
+    const { link } = await (await admin.send("POST", "/api/v1/invitations", { email, role: "reviewer" })).json();
+    const open = (await (await admin.get("/api/v1/invitations")).json()).items as { id: number; email: string }[];
+    const inv = open.find((i) => i.email === email)!;
+    expect((await admin.send("DELETE", `/api/v1/invitations/${inv.id}`)).status).toBe(200);
+    const accept = await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, { name: "Too Late", password: "a-long-password-1" });
+    expect(accept.status).toBe(404);
+  });
+
+  it("an API token with an expiry stops working when it expires", async () => {
+    const res = await designer.send("POST", "/api/v1/tokens", { name: unique("short-lived"), expiresInDays: 1 });
+    expect(res.status).toBe(201);
+    const token = await res.json();
+    expect(new Date(token.expiresAt).getTime()).toBeGreaterThan(Date.now());
+    const bearer = () => fetch(`${baseUrl}/api/v1/channels`, { headers: { authorization: `Bearer ${token.secret}` } });
+    expect((await bearer()).status).toBe(200);
+    const db = await import("mysql2/promise").then((m) => m.createConnection({ uri: process.env.DATABASE_URL! }));
+    await db.query("UPDATE api_tokens SET expires_at = NOW(3) - INTERVAL 1 SECOND WHERE id = ?", [token.id]);
+    await db.end();
+    expect((await bearer()).status).toBe(401);
+    expect((await designer.send("POST", "/api/v1/tokens", { name: "x", expiresInDays: 0 })).status).toBe(400);
+  });
+});
+
+describe("demo accounts", () => {
+  it("production refuses to start while a demo account can sign in", async () => {
+    await expect(startServer(await freePort(), { NODE_ENV: "production", BETTER_AUTH_SECRET: "a-production-secret-of-forty-characters!!" })).rejects.toThrow(/exited with 1/);
+  });
+});
+
+describe("lists read only what they show", () => {
+  it("the tap-table list costs one query for its page, not two per table (and never loads a version's inputs)", async () => {
+    for (let i = 0; i < 3; i++) {
+      const res = await designer.send("POST", "/api/v1/tap-tables", {
+        name: unique("Listed"),
+        budgetId: pop.budgetId,
+        architecture: { key: "tx-ctle", label: "TX FIR + CTLE", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 0, ffe: null },
+        grouping: { mode: "manual", classes: [{ name: "All", channelIds: pop.channelIds }] },
+      });
+      expect(res.status).toBe(202);
+    }
+    const db = await import("mysql2/promise").then((m) => m.createConnection({ uri: process.env.DATABASE_URL! }));
+    const selects = async () => Number(((await db.query("SHOW GLOBAL STATUS LIKE 'Com_select'"))[0] as { Value: string }[])[0].Value);
+    try {
+      const before = await selects();
+      const res = await designer.get("/api/v1/tap-tables?limit=50");
+      const after = await selects();
+      const { items } = await res.json();
+      expect(items.length).toBeGreaterThanOrEqual(4);
+      expect(items.find((t: { name: string }) => t.name.startsWith("Listed"))).toMatchObject({ architecture: "TX FIR + CTLE", classCount: 1, latestVersion: 1 });
+      // The session's own lookups and a background poll may land in the window; a query per table may not.
+      expect(after - before).toBeLessThan(items.length);
+    } finally {
+      await db.end();
+    }
+  });
+});

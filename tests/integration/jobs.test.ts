@@ -58,7 +58,7 @@ describe("fencing", () => {
     await query("UPDATE jobs SET locked_until = NOW(3) - INTERVAL 1 SECOND WHERE id = ?", [(await jobOfRun(stale)).id]);
     expect((await finished(designer, stale)).status).toBe("done");
     expect(await runResultStored(stale)).toBe(true);
-  });
+  }, 180_000);
 
   it("a stale job for a signed-off version does not move it back out of approval", async () => {
     const res = await designer.send("POST", "/api/v1/tap-tables", {
@@ -84,7 +84,7 @@ describe("fencing", () => {
     const [after] = await query<{ state: string; result: string }>("SELECT state, result FROM tap_table_versions WHERE id = ?", [version.id]);
     expect(after.state).toBe("approved");
     expect(after.result).toEqual(version.result);
-  });
+  }, 180_000);
 });
 
 describe("faults", () => {
@@ -97,7 +97,7 @@ describe("faults", () => {
     expect(end.status).toBe("done");
     expect((await jobOfRun(id)).attempts).toBe(2);
     expect(await runResultStored(id)).toBe(true);
-  });
+  }, 180_000);
 
   it("kill -9 of the web server mid-upload: nothing of the upload is stored; what was committed stays", async () => {
     const server = await startServer(await freePort());
@@ -156,5 +156,5 @@ describe("faults", () => {
     const stillDone = await query<{ id: number }>("SELECT r.id FROM runs r JOIN jobs j ON j.id = r.job_id WHERE j.status = 'done' AND r.result IS NOT NULL AND r.id IN (?)", [doneRuns.map((r) => r.id)]);
     expect(stillDone.length).toBe(doneRuns.length);
     expect((await finished(designer, id, 120_000)).status).toBe("done");
-  });
+  }, 180_000);
 });

@@ -1,11 +1,12 @@
-// Admin: everyone's role (changeable), invitations by e-mail, and the open invitations.
+// Admin: everyone's role (changeable), offboarding (deactivate, end sessions), invitations by
+// e-mail, and the open invitations (revocable).
 import { useState } from "react";
 import { api, formatWhen } from "@/components/api";
 
 type Role = "admin" | "designer" | "firmware" | "reviewer";
 const ROLES: Role[] = ["admin", "designer", "firmware", "reviewer"];
 
-interface Person { id: string; name: string; email: string; role: Role; createdAt: string | Date }
+interface Person { id: string; name: string; email: string; role: Role; deactivatedAt: string | Date | null; createdAt: string | Date }
 interface Invitation { id: number; email: string; role: Role; expiresAt: string | Date }
 
 export default function PeoplePanel(props: { people: Person[]; invitations: Invitation[]; selfId: string }) {
@@ -25,6 +26,18 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
     try {
       await api(`/api/v1/users/${person.id}/role`, { method: "PUT", json: { role } });
       setMessage({ kind: "good", text: `${person.email} is now ${role}.` });
+    } catch (e) {
+      setMessage({ kind: "bad", text: (e as Error).message });
+    }
+    await reload();
+  }
+
+  /** One admin action on the API, its outcome shown above the tables, then the lists reloaded. */
+  async function act(done: string, url: string, init: Parameters<typeof api>[1]) {
+    setMessage(null);
+    try {
+      await api(url, init);
+      setMessage({ kind: "good", text: done });
     } catch (e) {
       setMessage({ kind: "bad", text: (e as Error).message });
     }
@@ -66,15 +79,28 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
         {link && <p className="mt-3 text-sm text-ink-soft">Link (also in the e-mail): <code className="break-all">{link}</code></p>}
         {invitations.length > 0 && (
           <table className="table mt-4">
-            <thead><tr><th>Invited</th><th>Role</th><th>Expires</th></tr></thead>
-            <tbody>{invitations.map((i) => <tr key={i.id}><td>{i.email}</td><td>{i.role}</td><td className="num">{formatWhen(i.expiresAt)}</td></tr>)}</tbody>
+            <thead><tr><th>Invited</th><th>Role</th><th>Expires</th><th></th></tr></thead>
+            <tbody>
+              {invitations.map((i) => (
+                <tr key={i.id}>
+                  <td>{i.email}</td>
+                  <td>{i.role}</td>
+                  <td className="num">{formatWhen(i.expiresAt)}</td>
+                  <td>
+                    <button type="button" className="btn py-1" onClick={() => act(`The invitation of ${i.email} is revoked.`, `/api/v1/invitations/${i.id}`, { method: "DELETE" })}>
+                      Revoke
+                    </button>
+                  </td>
+                </tr>
+              ))}
+            </tbody>
           </table>
         )}
       </section>
       <section className="card">
         <h2>People</h2>
         <table className="table mt-3">
-          <thead><tr><th>Name</th><th>E-mail</th><th>Role</th><th>Joined</th></tr></thead>
+          <thead><tr><th>Name</th><th>E-mail</th><th>Role</th><th>Joined</th><th>Access</th></tr></thead>
           <tbody>
             {people.map((p) => (
               <tr key={p.id}>
@@ -92,6 +118,27 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
                   {p.id === props.selfId && <span className="ml-2 text-xs text-muted">(you)</span>}
                 </td>
                 <td className="num">{formatWhen(p.createdAt)}</td>
+                <td>
+                  {p.id !== props.selfId && (
+                    <span className="flex gap-2">
+                      {p.deactivatedAt ? (
+                        <button type="button" className="btn py-1" onClick={() => act(`${p.email} may sign in again.`, `/api/v1/users/${p.id}/active`, { method: "PUT", json: { active: true } })}>
+                          Reactivate
+                        </button>
+                      ) : (
+                        <>
+                          <button type="button" className="btn py-1" onClick={() => act(`${p.email} is deactivated; their sessions and API tokens have ended.`, `/api/v1/users/${p.id}/active`, { method: "PUT", json: { active: false } })}>
+                            Deactivate
+                          </button>
+                          <button type="button" className="btn py-1" onClick={() => act(`${p.email} is signed out everywhere.`, `/api/v1/users/${p.id}/sessions`, { method: "DELETE" })}>
+                            End sessions
+                          </button>
+                        </>
+                      )}
+                    </span>
+                  )}
+                  {p.deactivatedAt && <span className="text-xs text-muted">deactivated {formatWhen(p.deactivatedAt)}</span>}
+                </td>
               </tr>
             ))}
           </tbody>

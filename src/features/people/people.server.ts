@@ -1,9 +1,9 @@
 // People: the list, role changes, invitations and their acceptance. Admin actions are audited.
 import { createHash, randomBytes } from "node:crypto";
 import { and, asc, eq, gt, isNull } from "drizzle-orm";
-import { db } from "@/server/db.server";
+import { db, type Tx } from "@/server/db.server";
 import { config } from "@/server/config.server";
-import { accounts, invitations, users, type Role } from "@/db/schema";
+import { accounts, apiTokens, invitations, sessions, users, type Role } from "@/db/schema";
 import { ApiError, conflict, notFound } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import { enqueueMail, deliverQueuedMail } from "@/server/mail/mail.server";
@@ -18,7 +18,7 @@ const sha256 = (text: string) => createHash("sha256").update(text).digest("hex")
 
 export async function listPeople() {
   return db
-    .select({ id: users.id, name: users.name, email: users.email, role: users.role, createdAt: users.createdAt })
+    .select({ id: users.id, name: users.name, email: users.email, role: users.role, deactivatedAt: users.deactivatedAt, createdAt: users.createdAt })
     .from(users)
     .orderBy(asc(users.email));
 }
@@ -31,17 +31,61 @@ export async function listOpenInvitations() {
     .orderBy(asc(invitations.email));
 }
 
+/** Refuses (409) when `userId` is the last active admin; locks every admin row so two changes at once cannot both pass. */
+async function keepAnAdmin(tx: Tx, userId: string, what: string) {
+  const admins = await tx.select({ id: users.id }).from(users).where(and(eq(users.role, "admin"), isNull(users.deactivatedAt))).for("update");
+  if (admins.length <= 1 && admins.some((a) => a.id === userId)) throw conflict(`This is the only admin; make someone else admin before you ${what}.`);
+}
+
+/**
+ * Deactivates a person (offboarding) or lets them back in. Deactivation ends their sessions and
+ * revokes their API tokens in the same transaction; they can no longer sign in.
+ */
+export async function setActive(actor: SessionUser, userId: string, active: boolean) {
+  await db.transaction(async (tx) => {
+    const [target] = await tx.select().from(users).where(eq(users.id, userId)).for("update");
+    if (!target) throw notFound("That person");
+    if (active === !target.deactivatedAt) return;
+    if (!active) {
+      if (target.role === "admin") await keepAnAdmin(tx, userId, "deactivate them");
+      await tx.update(users).set({ deactivatedAt: new Date() }).where(eq(users.id, userId));
+      await tx.delete(sessions).where(eq(sessions.userId, userId));
+      await tx.update(apiTokens).set({ revokedAt: new Date(), revokedBy: actor.id }).where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
+    } else {
+      await tx.update(users).set({ deactivatedAt: null }).where(eq(users.id, userId));
+    }
+    await recordAudit(tx, actor, active ? "user.reactivate" : "user.deactivate", "user", userId, { email: target.email });
+  });
+}
+
+/** Ends every session of a person (they must sign in again); their API tokens stay. */
+export async function endSessions(actor: SessionUser, userId: string) {
+  return db.transaction(async (tx) => {
+    const [target] = await tx.select({ email: users.email }).from(users).where(eq(users.id, userId));
+    if (!target) throw notFound("That person");
+    const [result] = await tx.delete(sessions).where(eq(sessions.userId, userId));
+    await recordAudit(tx, actor, "user.sessions.end", "user", userId, { email: target.email, sessions: result.affectedRows });
+    return { id: userId, sessionsEnded: result.affectedRows };
+  });
+}
+
+/** Revokes an open invitation: its link stops working at once. */
+export async function revokeInvitation(actor: SessionUser, id: number) {
+  await db.transaction(async (tx) => {
+    const [inv] = await tx.select().from(invitations).where(and(eq(invitations.id, id), isNull(invitations.acceptedAt))).for("update");
+    if (!inv) throw notFound("That open invitation");
+    await tx.delete(invitations).where(eq(invitations.id, id));
+    await recordAudit(tx, actor, "user.invite.revoke", "invitation", id, { email: inv.email, role: inv.role });
+  });
+}
+
 /** Changes a person's role; refuses to leave the workspace without an admin. */
 export async function setRole(actor: SessionUser, userId: string, role: Role) {
   await db.transaction(async (tx) => {
     const [target] = await tx.select().from(users).where(eq(users.id, userId)).for("update");
     if (!target) throw notFound("That person");
     if (target.role === role) return;
-    if (target.role === "admin") {
-      // Lock every admin row, so that two admins demoting each other at once cannot both pass the check.
-      const admins = await tx.select({ id: users.id }).from(users).where(eq(users.role, "admin")).for("update");
-      if (admins.length <= 1) throw conflict("This is the only admin; make someone else admin first.");
-    }
+    if (target.role === "admin") await keepAnAdmin(tx, userId, "change their role");
     await tx.update(users).set({ role }).where(eq(users.id, userId));
     await recordAudit(tx, actor, "user.role", "user", userId, { email: target.email, from: target.role, to: role });
   });

@@ -11,6 +11,9 @@ export const inviteRequest = z.object({
 
 export const setRoleRequest = z.object({ role: roleSchema });
 
+/** PUT /api/v1/users/:id/active: false deactivates (sessions and tokens end), true lets the person back in. */
+export const setActiveRequest = z.object({ active: z.boolean({ error: "Give active: true or false." }) });
+
 export const acceptInvitationRequest = z.object({
   name: z.string().trim().min(1, "Give your name.").max(200),
   password: z.string().min(10, "Use at least 10 characters.").max(128, "Use at most 128 characters."),

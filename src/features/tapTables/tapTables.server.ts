@@ -1,7 +1,8 @@
 // Tap tables: create a table and its versions (each computed as a job in the worker pool), read
 // them with the diff against the previous version, edit what is not frozen, and export. Every
 // write is one transaction with its audit event.
-import { and, asc, count, desc, eq, lt, max } from "drizzle-orm";
+import { and, asc, count, desc, eq, lt, sql } from "drizzle-orm";
+import { alias } from "drizzle-orm/mysql-core";
 import { db, type DbOrTx, type Tx } from "@/server/db.server";
 import { jobs, signOffs, studies, tapTableRows, tapTables, tapTableVersions, users, type TapTableVersion } from "@/db/schema";
 import { ApiError, badRequest, conflict, notFound, unprocessable } from "@/server/http/errors";
@@ -271,8 +272,24 @@ export async function getVersion(tableId: number, v: number) {
 export async function getTapTable(tableId: number) {
   const [table] = await db.select().from(tapTables).where(eq(tapTables.id, tableId));
   if (!table) throw notFound(`Tap table ${tableId}`);
+  // Each version's summary is read in SQL: its inputs and result (every channel's pulse) stay in the database.
   const rows = await db
-    .select({ v: tapTableVersions, job: jobs, by: users.name })
+    .select({
+      version: tapTableVersions.version,
+      state: tapTableVersions.state,
+      status: jobs.status,
+      progress: jobs.progress,
+      error: jobs.error,
+      note: tapTableVersions.note,
+      architecture: sql<string>`JSON_VALUE(${tapTableVersions.inputs}, '$.architecture.label')`,
+      budget: sql<string>`JSON_VALUE(${tapTableVersions.inputs}, '$.budget.name')`,
+      classCount: sql<number>`JSON_LENGTH(${tapTableVersions.inputs}, '$.classes')`,
+      channelCount: sql<number>`JSON_LENGTH(JSON_EXTRACT(${tapTableVersions.inputs}, '$.classes[*].channels[*].name'))`,
+      worstHeadroom_V: sql<number | null>`(SELECT MIN(r.worst_headroom_v) FROM ${tapTableRows} r WHERE r.version_id = ${tapTableVersions.id})`,
+      frozenAt: tapTableVersions.frozenAt,
+      createdBy: users.name,
+      createdAt: tapTableVersions.createdAt,
+    })
     .from(tapTableVersions)
     .innerJoin(jobs, eq(jobs.id, tapTableVersions.jobId))
     .leftJoin(users, eq(users.id, tapTableVersions.createdBy))
@@ -284,26 +301,13 @@ export async function getTapTable(tableId: number) {
     description: table.description,
     studyId: table.studyId,
     createdAt: table.createdAt,
-    versions: rows.map(({ v, job, by }) => {
-      const inputs = v.inputs as unknown as VersionInputs;
-      const result = v.result as unknown as VersionResult | null;
-      return {
-        version: v.version,
-        state: v.state,
-        status: apiStatus(job.status),
-        progress: job.progress,
-        error: job.error,
-        note: v.note,
-        architecture: inputs.architecture.label,
-        budget: inputs.budget.name,
-        classCount: inputs.classes.length,
-        channelCount: inputs.classes.reduce((n, c) => n + c.channels.length, 0),
-        worstHeadroom_V: result ? Math.min(...result.classes.map((c) => c.worstHeadroom_V)) : null,
-        frozenAt: v.frozenAt,
-        createdBy: by,
-        createdAt: v.createdAt,
-      };
-    }),
+    versions: rows.map(({ status, ...v }) => ({
+      ...v,
+      status: apiStatus(status),
+      classCount: Number(v.classCount ?? 0),
+      channelCount: Number(v.channelCount ?? 0),
+      worstHeadroom_V: v.worstHeadroom_V === null ? null : Number(v.worstHeadroom_V),
+    })),
   };
 }
 
@@ -313,44 +317,49 @@ export async function countTapTables(): Promise<number> {
   return n;
 }
 
-/** GET /api/v1/tap-tables: newest first, with the latest version's state. */
+/**
+ * GET /api/v1/tap-tables: newest first, one query for the page. Each row carries its latest
+ * version's number, state and the three names the list shows, read in SQL from that version's
+ * inputs (never the inputs themselves: they hold every channel's pulse), and its signed-off version.
+ */
 export async function listTapTables(limit: number, cursor?: number) {
-  const tables = await db
-    .select({ t: tapTables, by: users.name })
+  const latest = alias(tapTableVersions, "latest");
+  const newest = sql`(SELECT MAX(v.version) FROM ${tapTableVersions} v WHERE v.table_id = ${tapTables.id})`;
+  const rows = await db
+    .select({
+      id: tapTables.id,
+      name: tapTables.name,
+      description: tapTables.description,
+      createdAt: tapTables.createdAt,
+      createdBy: users.name,
+      latestVersion: latest.version,
+      latestState: latest.state,
+      architecture: sql<string | null>`JSON_VALUE(${latest.inputs}, '$.architecture.label')`,
+      budget: sql<string | null>`JSON_VALUE(${latest.inputs}, '$.budget.name')`,
+      classCount: sql<number | null>`JSON_LENGTH(${latest.inputs}, '$.classes')`,
+      signedOffVersion: sql<number | null>`(SELECT MAX(a.version) FROM ${tapTableVersions} a WHERE a.table_id = ${tapTables.id} AND a.state = 'approved')`,
+    })
     .from(tapTables)
     .leftJoin(users, eq(users.id, tapTables.createdBy))
+    .leftJoin(latest, and(eq(latest.tableId, tapTables.id), eq(latest.version, newest)))
     .where(cursor ? lt(tapTables.id, cursor) : undefined)
     .orderBy(desc(tapTables.id))
     .limit(limit + 1);
-  const page = tables.slice(0, limit);
-  const items = [];
-  for (const { t, by } of page) {
-    const [latest] = await db
-      .select({ version: tapTableVersions.version, state: tapTableVersions.state, inputs: tapTableVersions.inputs })
-      .from(tapTableVersions)
-      .where(eq(tapTableVersions.tableId, t.id))
-      .orderBy(desc(tapTableVersions.version))
-      .limit(1);
-    const [approved] = await db
-      .select({ v: max(tapTableVersions.version) })
-      .from(tapTableVersions)
-      .where(and(eq(tapTableVersions.tableId, t.id), eq(tapTableVersions.state, "approved")));
-    const inputs = latest?.inputs as unknown as VersionInputs | undefined;
-    items.push({
-      id: t.id,
-      name: t.name,
-      description: t.description,
-      latestVersion: latest?.version ?? 0,
-      latestState: latest?.state ?? "computing",
-      signedOffVersion: approved?.v ?? null,
-      architecture: inputs?.architecture.label ?? "",
-      budget: inputs?.budget.name ?? "",
-      classCount: inputs?.classes.length ?? 0,
-      createdBy: by,
-      createdAt: t.createdAt,
-    });
-  }
-  return { items, nextCursor: tables.length > limit ? String(page[page.length - 1].t.id) : null };
+  const page = rows.slice(0, limit);
+  const items = page.map((r) => ({
+    id: r.id,
+    name: r.name,
+    description: r.description,
+    latestVersion: r.latestVersion ?? 0,
+    latestState: r.latestState ?? "computing",
+    signedOffVersion: r.signedOffVersion === null ? null : Number(r.signedOffVersion),
+    architecture: r.architecture ?? "",
+    budget: r.budget ?? "",
+    classCount: Number(r.classCount ?? 0),
+    createdBy: r.createdBy,
+    createdAt: r.createdAt,
+  }));
+  return { items, nextCursor: rows.length > limit ? String(page[page.length - 1].id) : null };
 }
 
 /** Refuses changes to a version that is signed off, in review or computing (409 with the reason). */

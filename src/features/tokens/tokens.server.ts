@@ -1,6 +1,6 @@
 // API tokens for scripts and build machines: `tw_<prefix>_<secret>`, shown once, kept as SHA-256.
 import { createHash, randomBytes } from "node:crypto";
-import { and, desc, eq, isNull } from "drizzle-orm";
+import { and, desc, eq, gt, isNull, or, sql } from "drizzle-orm";
 import { db } from "@/server/db.server";
 import { apiTokens, users, type Role } from "@/db/schema";
 import { ApiError, notFound } from "@/server/http/errors";
@@ -15,20 +15,21 @@ export interface TokenView {
   prefix: string;
   createdAt: Date;
   lastUsedAt: Date | null;
+  expiresAt: Date | null;
   revokedAt: Date | null;
   owner?: { id: string; email: string };
 }
 
 /** Creates a token for the user; the returned secret is the only copy that ever leaves the server. */
-export async function createToken(user: SessionUser, name: string): Promise<{ token: TokenView; secret: string }> {
+export async function createToken(user: SessionUser, name: string, expiresInDays?: number): Promise<{ token: TokenView; secret: string }> {
   const prefix = randomBytes(4).toString("hex");
   const secret = `tw_${prefix}_${randomBytes(24).toString("base64url")}`;
   return db.transaction(async (tx) => {
     const [{ id }] = await tx
       .insert(apiTokens)
-      .values({ userId: user.id, name, prefix, secretHash: sha256(secret) })
+      .values({ userId: user.id, name, prefix, secretHash: sha256(secret), expiresAt: expiresInDays ? new Date(Date.now() + expiresInDays * 86_400_000) : null })
       .$returningId();
-    await recordAudit(tx, user, "token.create", "token", id, { name, prefix });
+    await recordAudit(tx, user, "token.create", "token", id, { name, prefix, ...(expiresInDays ? { expiresInDays } : {}) });
     const [row] = await tx.select().from(apiTokens).where(eq(apiTokens.id, id));
     return { token: view(row), secret };
   });
@@ -41,6 +42,7 @@ function view(row: typeof apiTokens.$inferSelect): TokenView {
     prefix: row.prefix,
     createdAt: row.createdAt,
     lastUsedAt: row.lastUsedAt,
+    expiresAt: row.expiresAt,
     revokedAt: row.revokedAt,
   };
 }
@@ -67,14 +69,21 @@ export async function revokeToken(user: SessionUser, id: number): Promise<void> 
   });
 }
 
-/** The person behind a bearer secret, or null when it is unknown or revoked. */
+/** The person behind a bearer secret, or null when it is unknown, revoked, expired, or its owner was deactivated. */
 export async function userForToken(secret: string): Promise<SessionUser | null> {
   if (!/^tw_[0-9a-f]{8}_[A-Za-z0-9_-]{20,}$/.test(secret)) return null;
   const [row] = await db
     .select({ tokenId: apiTokens.id, id: users.id, email: users.email, name: users.name, role: users.role })
     .from(apiTokens)
     .innerJoin(users, eq(users.id, apiTokens.userId))
-    .where(and(eq(apiTokens.secretHash, sha256(secret)), isNull(apiTokens.revokedAt)));
+    .where(
+      and(
+        eq(apiTokens.secretHash, sha256(secret)),
+        isNull(apiTokens.revokedAt),
+        or(isNull(apiTokens.expiresAt), gt(apiTokens.expiresAt, sql`NOW(3)`)),
+        isNull(users.deactivatedAt),
+      ),
+    );
   if (!row) return null;
   await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.tokenId));
   return { id: row.id, email: row.email, name: row.name, role: row.role as Role };

@@ -10,7 +10,7 @@ export const GET = endpoint(async (ctx) => ({
 }));
 
 export const POST = endpoint(async (ctx) => {
-  const { name } = await readJson(ctx.request, createTokenRequest);
-  const { token, secret } = await createToken(currentUser(ctx), name);
+  const { name, expiresInDays } = await readJson(ctx.request, createTokenRequest);
+  const { token, secret } = await createToken(currentUser(ctx), name, expiresInDays);
   return json({ ...token, secret }, 201);
 });
