@@ -145,8 +145,17 @@ describe("faults", () => {
     const committed = await count();
     const doneRuns = await query<{ id: number }>("SELECT r.id FROM runs r JOIN jobs j ON j.id = r.job_id WHERE j.status = 'done' AND r.result IS NOT NULL");
 
-    process.kill(Number(readFileSync(join(dbDir, "mariadbd.pid"), "utf8").trim()), "SIGKILL");
-    await new Promise((r) => setTimeout(r, 500));
+    const mariadbPid = Number(readFileSync(join(dbDir, "mariadbd.pid"), "utf8").trim());
+    process.kill(mariadbPid, "SIGKILL");
+    // Start again only once the killed process is gone, or the start command would reuse it.
+    await eventually(async () => {
+      try {
+        process.kill(mariadbPid, 0);
+        return undefined;
+      } catch {
+        return true;
+      }
+    }, 20_000, "the killed MariaDB to end");
     execFileSync(process.execPath, [join(root, "scripts", "db.mjs"), "start"], {
       env: { ...process.env, TAPWRIGHT_DATA_DIR: dirname(dbDir), DB_PORT: url.port, TAPWRIGHT_MODE: "test", DB_NAME: url.pathname.slice(1) },
       stdio: "ignore",
