@@ -12,3 +12,4 @@ export * from "./pulseFromTouchstone.ts";
 export * from "./readCsvResponse.ts";
 export * from "./riseTimeFilter.ts";
 export * from "./sdd21.ts";
+export { TOUCHSTONE_MAX_FREQUENCIES, TOUCHSTONE_MAX_PORTS } from "./touchstoneReader.ts";
