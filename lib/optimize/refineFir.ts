@@ -25,11 +25,11 @@ export interface RefinedFir {
 export function projectFir(space: SearchSpace, side: readonly number[]): Float64Array {
   const spec = space.firSpec;
   const ranges = resolveTapRanges(spec);
-  const T = ranges.length;
-  const taps = new Float64Array(T);
+  const tapCount = ranges.length;
+  const taps = new Float64Array(tapCount);
   let k = 0;
   let sum = 0;
-  for (let j = 0; j < T; j++) {
+  for (let j = 0; j < tapCount; j++) {
     if (j === spec.pre) continue;
     const v = Math.min(ranges[j][1], Math.max(ranges[j][0], side[k++]));
     taps[j] = v;
@@ -39,7 +39,7 @@ export function projectFir(space: SearchSpace, side: readonly number[]): Float64
   if (1 - sum < mainMin && sum > 0) {
     const f = (1 - mainMin) / sum;
     sum = 0;
-    for (let j = 0; j < T; j++) {
+    for (let j = 0; j < tapCount; j++) {
       if (j === spec.pre) continue;
       // Scaling toward 0 keeps a tap inside its range when the range contains 0; otherwise clamp again.
       taps[j] = Math.min(ranges[j][1], Math.max(ranges[j][0], taps[j] * f));

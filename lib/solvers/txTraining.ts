@@ -54,6 +54,122 @@ export interface TxTrainingResult {
   readonly objective: number;
 }
 
+/** What the link-training exchange works with: the channel, the transmitter's grid and limits, the receiver's noise and DFE. */
+interface TrainingLink {
+  readonly cursors: Cursors;
+  readonly pre: number;
+  readonly step: number;
+  readonly ranges: readonly (readonly [number, number])[];
+  readonly noiseRms_V: number;
+  readonly dfeTaps: number;
+}
+
+/** A change the receiver may ask for: step `d[i]` (±1) on tap `j[i]` (a paired main step: `d` 0, see {@link applyMove}). */
+interface Move {
+  readonly j: readonly number[];
+  readonly d: readonly number[];
+  readonly id: string;
+}
+
+/** Tap values of integer step counts. */
+function tapValues(link: TrainingLink, steps: Int32Array): Float64Array {
+  return Float64Array.from(steps, (v) => v * link.step);
+}
+
+/** The starting step counts: the caller's taps, or main tap 1 and side taps 0 (checked legal). */
+function initialSteps(link: TrainingLink, initial: ArrayLike<number> | undefined): Int32Array {
+  const { pre, step, ranges } = link;
+  const n = ranges.length;
+  const k = new Int32Array(n);
+  if (initial === undefined) {
+    k[pre] = Math.floor(1 / step + 1e-9);
+  } else {
+    if (initial.length !== n) throw new RangeError(`initial must hold ${n} taps, got ${initial.length}`);
+    for (let j = 0; j < n; j++) {
+      const q = initial[j] / step;
+      if (!Number.isFinite(q) || Math.abs(q - Math.round(q)) > 1e-6) {
+        throw new RangeError(`initial[${j}] must be a finite multiple of the step ${step}`);
+      }
+      k[j] = Math.round(q);
+    }
+  }
+  if (!isLegal(link, k)) throw new RangeError("initial taps are not a legal setting of spec (range or Σ|c| ≤ 1)");
+  return k;
+}
+
+/** Whether step counts are a legal setting: every tap in its range and `Σ|c| ≤ 1`. */
+function isLegal(link: TrainingLink, steps: Int32Array): boolean {
+  let s = 0;
+  for (let j = 0; j < steps.length; j++) {
+    const c = steps[j] * link.step;
+    if (c < link.ranges[j][0] - TAP_TOLERANCE || c > link.ranges[j][1] + TAP_TOLERANCE) return false;
+    s += Math.abs(c);
+  }
+  return s <= 1 + TAP_TOLERANCE;
+}
+
+/** The receiver's figure of merit `(ISI power + σ²) / g₀²` for step counts `steps` (lower is better). */
+function figureOfMerit(link: TrainingLink, steps: Int32Array): number {
+  const g = convolveCursors(link.cursors, tapValues(link, steps), link.pre);
+  const g0 = g.h[g.main];
+  if (!(g0 > 0)) return Number.POSITIVE_INFINITY;
+  let isi = 0;
+  for (let i = 0; i < g.h.length; i++) {
+    if (i === g.main || (i > g.main && i <= g.main + link.dfeTaps)) continue;
+    isi += g.h[i] * g.h[i];
+  }
+  return (isi + link.noiseRms_V * link.noiseRms_V) / (g0 * g0);
+}
+
+/** Every change the receiver may ask for: one step of one tap, and one step of a side tap paired with the main tap. */
+function candidateMoves(tapCount: number, pre: number): Move[] {
+  const moves: Move[] = [];
+  for (let j = 0; j < tapCount; j++) {
+    for (const d of [1, -1]) {
+      moves.push({ j: [j], d: [d], id: `${j}:${d}` });
+      if (j !== pre) moves.push({ j: [j, pre], d: [d, 0], id: `${j}:${d}+main` });
+    }
+  }
+  return moves;
+}
+
+/** Applies a move to step counts; a paired main step goes against the side tap's magnitude change. */
+function applyMove(link: TrainingLink, steps: Int32Array, m: Move): Int32Array {
+  const t = Int32Array.from(steps);
+  const side = m.j[0];
+  t[side] += m.d[0];
+  if (m.j.length === 2) {
+    const grows = Math.abs(t[side]) > Math.abs(steps[side]);
+    t[link.pre] += grows ? -1 : 1;
+  }
+  return t;
+}
+
+/** Which limit changed tap `j` breaks (moving in direction `dir`) in the proposed step counts, if any. */
+function brokenLimit(link: TrainingLink, next: Int32Array, j: number, dir: number): TapStatus | null {
+  const { step, ranges } = link;
+  const c = next[j] * step;
+  if (c < ranges[j][0] - TAP_TOLERANCE) return "minimum";
+  if (c > ranges[j][1] + TAP_TOLERANCE) return "maximum";
+  let s = 0;
+  for (let i = 0; i < next.length; i++) s += Math.abs(next[i] * step);
+  if (s > 1 + TAP_TOLERANCE) return dir > 0 ? "maximum" : "minimum";
+  return null;
+}
+
+/** Per tap, the limit that refuses an improving change of it (alone or paired), at the end of training. */
+function saturationOf(link: TrainingLink, moves: readonly Move[], steps: Int32Array, improves: (value: number) => boolean): TapSaturation[] {
+  const saturation: TapSaturation[] = new Array(steps.length).fill("none");
+  for (const move of moves) {
+    const next = applyMove(link, steps, move);
+    if (!improves(figureOfMerit(link, next))) continue;
+    const j = move.j[0];
+    const why = brokenLimit(link, next, j, move.d[0]);
+    if (why === "minimum" || why === "maximum") saturation[j] = why;
+  }
+  return saturation;
+}
+
 /**
  * Simulates transmit training over a back channel. The receiver's figure of merit is
  * `(ISI power + σ²) / g₀²` on the combined cursors `g = h * c` (ISI excluding the main cursor and
@@ -82,82 +198,14 @@ export function txTraining(cursors: Cursors, options: TxTrainingOptions): TxTrai
   if (!Number.isInteger(maxRounds) || maxRounds < 0) {
     throw new RangeError(`maxRounds must be an integer ≥ 0, got ${String(maxRounds)}`);
   }
-  const { pre, step } = spec;
+  const link: TrainingLink = { cursors, pre: spec.pre, step: spec.step, ranges, noiseRms_V: noise, dfeTaps: dfe };
   const n = ranges.length;
   // Taps are held as integer step counts so that repeated steps do not drift off the grid.
-  const k = new Int32Array(n);
-  if (options.initial === undefined) {
-    k[pre] = Math.floor(1 / step + 1e-9);
-  } else {
-    if (options.initial.length !== n) throw new RangeError(`initial must hold ${n} taps, got ${options.initial.length}`);
-    for (let j = 0; j < n; j++) {
-      const q = options.initial[j] / step;
-      if (!Number.isFinite(q) || Math.abs(q - Math.round(q)) > 1e-6) {
-        throw new RangeError(`initial[${j}] must be a finite multiple of the step ${step}`);
-      }
-      k[j] = Math.round(q);
-    }
-  }
-  const valueOf = (kk: Int32Array) => Float64Array.from(kk, (v) => v * step);
-  const legal = (kk: Int32Array): boolean => {
-    let s = 0;
-    for (let j = 0; j < n; j++) {
-      const c = kk[j] * step;
-      if (c < ranges[j][0] - TAP_TOLERANCE || c > ranges[j][1] + TAP_TOLERANCE) return false;
-      s += Math.abs(c);
-    }
-    return s <= 1 + TAP_TOLERANCE;
-  };
-  if (!legal(k)) throw new RangeError("initial taps are not a legal setting of spec (range or Σ|c| ≤ 1)");
-
-  const objective = (kk: Int32Array): number => {
-    const g = convolveCursors(cursors, valueOf(kk), pre);
-    const g0 = g.h[g.main];
-    if (!(g0 > 0)) return Number.POSITIVE_INFINITY;
-    let isi = 0;
-    for (let i = 0; i < g.h.length; i++) {
-      if (i === g.main || (i > g.main && i <= g.main + dfe)) continue;
-      isi += g.h[i] * g.h[i];
-    }
-    return (isi + noise * noise) / (g0 * g0);
-  };
-  /** A change the receiver may ask for: step `d[i]` (±1) on tap `j[i]`. */
-  interface Move {
-    readonly j: readonly number[];
-    readonly d: readonly number[];
-    readonly id: string;
-  }
-  const moves: Move[] = [];
-  for (let j = 0; j < n; j++) {
-    for (const d of [1, -1]) {
-      moves.push({ j: [j], d: [d], id: `${j}:${d}` });
-      if (j !== pre) moves.push({ j: [j, pre], d: [d, 0], id: `${j}:${d}+main` });
-    }
-  }
-  /** Applies a move to step counts; a paired main step goes against the side tap's magnitude change. */
-  const apply = (kk: Int32Array, m: Move): Int32Array => {
-    const t = Int32Array.from(kk);
-    const side = m.j[0];
-    t[side] += m.d[0];
-    if (m.j.length === 2) {
-      const grows = Math.abs(t[side]) > Math.abs(kk[side]);
-      t[pre] += grows ? -1 : 1;
-    }
-    return t;
-  };
-  /** Which limit a changed tap breaks, if any, in the proposed step counts. */
-  const broken = (next: Int32Array, j: number, dir: number): TapStatus | null => {
-    const c = next[j] * step;
-    if (c < ranges[j][0] - TAP_TOLERANCE) return "minimum";
-    if (c > ranges[j][1] + TAP_TOLERANCE) return "maximum";
-    let s = 0;
-    for (let i = 0; i < n; i++) s += Math.abs(next[i] * step);
-    if (s > 1 + TAP_TOLERANCE) return dir > 0 ? "maximum" : "minimum";
-    return null;
-  };
+  const k = initialSteps(link, options.initial);
+  const moves = candidateMoves(n, spec.pre);
 
   const rounds: TrainingRound[] = [];
-  const objectiveStart = objective(k);
+  const objectiveStart = figureOfMerit(link, k);
   let current = objectiveStart;
   let blocked = new Set<string>(); // moves refused since the last accepted round
   let converged = false;
@@ -166,8 +214,8 @@ export function txTraining(cursors: Cursors, options: TxTrainingOptions): TxTrai
     let best: { move: Move; next: Int32Array; value: number } | null = null;
     for (const move of moves) {
       if (blocked.has(move.id)) continue;
-      const next = apply(k, move);
-      const value = objective(next);
+      const next = applyMove(link, k, move);
+      const value = figureOfMerit(link, next);
       if (improves(value) && (best === null || value < best.value)) best = { move, next, value };
     }
     if (best === null) {
@@ -180,7 +228,7 @@ export function txTraining(cursors: Cursors, options: TxTrainingOptions): TxTrai
     for (const j of move.j) requests[j] = next[j] > k[j] ? "increment" : "decrement";
     let refused = false;
     for (const j of move.j) {
-      const why = broken(next, j, next[j] - k[j]);
+      const why = brokenLimit(link, next, j, next[j] - k[j]);
       if (why !== null) {
         status[j] = why;
         refused = true;
@@ -194,16 +242,8 @@ export function txTraining(cursors: Cursors, options: TxTrainingOptions): TxTrai
       current = best.value;
       blocked = new Set();
     }
-    rounds.push({ requests, status, taps: valueOf(k), objective: current });
+    rounds.push({ requests, status, taps: tapValues(link, k), objective: current });
   }
-  // Saturation: an improving change of a tap that its own limit refuses (alone or paired).
-  const saturation: TapSaturation[] = new Array(n).fill("none");
-  for (const move of moves) {
-    const next = apply(k, move);
-    if (!improves(objective(next))) continue;
-    const j = move.j[0];
-    const why = broken(next, j, move.d[0]);
-    if (why === "minimum" || why === "maximum") saturation[j] = why;
-  }
-  return { taps: valueOf(k), rounds, converged, saturation, objectiveStart, objective: current };
+  const saturation = saturationOf(link, moves, k, improves);
+  return { taps: tapValues(link, k), rounds, converged, saturation, objectiveStart, objective: current };
 }

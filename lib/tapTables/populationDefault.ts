@@ -101,17 +101,17 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
   const members = commonGrid(pulses);
   const space = searchSpace(members[0], budget);
   const report = options.onProgress ?? (() => {});
-  const N = space.dfeCount;
-  const M = members.length;
+  const dfeCount = space.dfeCount;
+  const memberCount = members.length;
   const prepared: PreparedChannels[] = members.map((p) => prepareChannels(p, space));
   report(0.05);
   const own: Candidate[] = members.map((p, i) => {
-    const r = jointSearch(p, space, { dfeCounts: [N], topCount: 1 }, prepared[i]);
-    report(0.05 + (0.45 * (i + 1)) / M);
+    const r = jointSearch(p, space, { dfeCounts: [dfeCount], topCount: 1 }, prepared[i]);
+    report(0.05 + (0.45 * (i + 1)) / memberCount);
     if (r.best[0] === null) throw new RangeError("budget.tx: no transmit FIR setting satisfies the tap ranges, the step and Σ|c| ≤ 1");
     return r.best[0];
   });
-  const pop = jointSearch(members[0], space, { dfeCounts: [N], topCount: 1, onProgress: (f) => report(0.5 + 0.4 * f) }, prepared);
+  const pop = jointSearch(members[0], space, { dfeCounts: [dfeCount], topCount: 1, onProgress: (f) => report(0.5 + 0.4 * f) }, prepared);
   const best = pop.best[0] as Candidate;
 
   const asSetting = (c: Candidate): EqualizerSetting => ({
@@ -125,7 +125,7 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
     const eyes = members.map((p, i) => {
       const onGrid = space.ctleSettings.findIndex((x) => x.gDc_dB === s.ctle.gDc_dB && x.gDc2_dB === s.ctle.gDc2_dB);
       const ch = onGrid >= 0 ? prepared[i].channels[onGrid] : channelFor(p, space, s.ctle);
-      return evaluateSetting(ch, space, s.tx, N);
+      return evaluateSetting(ch, space, s.tx, dfeCount);
     });
     let worstIndex = 0;
     eyes.forEach((e, i) => {
@@ -157,7 +157,7 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
 
   // DFE starting values: per tap the centre of the channels' adapted taps (then rounded to codes).
   const dfeStart: number[] = [];
-  for (let k = 0; k < N; k++) {
+  for (let k = 0; k < dfeCount; k++) {
     const taps = chosen.eyes.map((e) => e.dfeTaps[k]);
     dfeStart.push((Math.min(...taps) + Math.max(...taps)) / 2);
   }
@@ -166,7 +166,7 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
       const m = /^dfe\[(\d+)\]$/.exec(f.parameter);
       if (m === null) continue;
       const k = Number(m[1]) - 1;
-      if (k >= N) continue;
+      if (k >= dfeCount) continue;
       const v = Math.min(f.max, Math.max(f.min, dfeStart[k]));
       const code = encodeField(f, v);
       codes[f.name] = code;
