@@ -1,3 +1,4 @@
+export * from "./channelWarning.ts";
 export * from "./differentialNetwork.ts";
 export * from "./formatTouchstone.ts";
 export * from "./InputFileError.ts";
@@ -11,5 +12,6 @@ export * from "./pulseFromSpectrum.ts";
 export * from "./pulseFromTouchstone.ts";
 export * from "./readCsvResponse.ts";
 export * from "./riseTimeFilter.ts";
+export * from "./s21OnFftGrid.ts";
 export * from "./sdd21.ts";
 export { TOUCHSTONE_MAX_FREQUENCIES, TOUCHSTONE_MAX_PORTS } from "./touchstoneReader.ts";

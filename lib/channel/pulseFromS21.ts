@@ -2,8 +2,8 @@
 import type { MagnitudeCurve } from "../types.ts";
 import { magnitudeDb } from "../signal/decibels.ts";
 import { nextPowerOfTwo, type ComplexArray } from "../signal/fftPlan.ts";
-import { interpolateLinear } from "../signal/interpolateLinear.ts";
-import { raisedCosineRolloff } from "../signal/windows.ts";
+import type { ChannelWarning } from "./channelWarning.ts";
+import { s21OnFftGrid } from "./s21OnFftGrid.ts";
 import { checkPulseGrid, type PulseGrid, type PulseWithTime } from "./pulseFromSamples.ts";
 import { MAX_CHANNEL_FFT, pulseFromSpectrum, type SpectrumPulseOptions } from "./pulseFromSpectrum.ts";
 
@@ -21,19 +21,31 @@ export interface FrequencyPulse extends PulseWithTime {
   readonly insertionLoss: MagnitudeCurve;
 }
 
+/** A pulse from S21 data, with what the data could not support. */
+export interface S21Pulse extends FrequencyPulse {
+  /** True when the data had no 0 Hz point and S21(0) was extrapolated. */
+  readonly dcExtrapolated: boolean;
+  /** The FFT's time window in seconds (at least 1/Δf of the data). */
+  readonly window_s: number;
+  /** Findings a designer should act on: a window too short for the response, data that stop below the baud rate. */
+  readonly warnings: ChannelWarning[];
+}
+
 /**
- * Pulse response from S21 samples: a DC point extrapolated from the low-frequency trend (real;
- * magnitude linear in f, unwrapped phase linear in f rounded to 0 or π at DC), interpolation of
- * magnitude and unwrapped phase onto a uniform grid `k·Δf` (Δf no coarser than the data's mean
- * spacing, so the impulse response does not wrap around), a raised-cosine taper over the top of
- * the band against truncation ringing, zero above it, then {@link pulseFromSpectrum} (rise-time
- * filter, Hermitian extension and real IFFT, step, pulse). The delay is kept.
+ * Pulse response from S21 samples: the spectrum on a uniform grid `k·Δf` ({@link s21OnFftGrid}:
+ * magnitude and unwrapped phase interpolated, only the DC bin made real, a raised-cosine taper over
+ * the top of the band, zero above it), then {@link pulseFromSpectrum} (rise-time filter, Hermitian
+ * extension and real IFFT, step, pulse). The delay is kept. The time window is at least 1/Δf of the
+ * data and `minWindow_UI`; a pulse that has not died out by the window's end (more than 1e-6 of its
+ * energy in the window's last tenth: delay plus ring-down longer than the data's 1/Δf, so its tail
+ * wraps onto its start) gives a `window-short` warning. Data that stop below the baud rate give a `band-below-baud` warning: above the data S21 is
+ * taken as zero, so the file, not the channel, limits the pulse's bandwidth.
  *
  * @param freqs_Hz - ascending frequencies in Hz (≥ 0), at least 2.
  * @param s21 - S21 at those frequencies (engineering convention: a delay τ is `exp(−i2πfτ)`).
  * @param options - target grid and shaping.
  */
-export function pulseFromS21(freqs_Hz: Float64Array, s21: ComplexArray, options: S21PulseOptions): FrequencyPulse {
+export function pulseFromS21(freqs_Hz: Float64Array, s21: ComplexArray, options: S21PulseOptions): S21Pulse {
   checkPulseGrid(options);
   const count = freqs_Hz.length;
   if (count < 2) throw new RangeError(`freqs_Hz must hold at least 2 frequencies, got ${count}`);
@@ -48,46 +60,6 @@ export function pulseFromS21(freqs_Hz: Float64Array, s21: ComplexArray, options:
   const minWindow = options.minWindow_UI ?? 64;
   if (!Number.isInteger(minWindow) || minWindow < 1) throw new RangeError(`minWindow_UI must be an integer ≥ 1, got ${String(minWindow)}`);
 
-  // Magnitude and unwrapped phase of the data.
-  const mag = new Float64Array(count);
-  const phase = new Float64Array(count);
-  for (let i = 0; i < count; i++) {
-    mag[i] = Math.hypot(s21.re[i], s21.im[i]);
-    const raw = Math.atan2(s21.im[i], s21.re[i]);
-    if (i === 0) phase[i] = raw;
-    else {
-      let d = raw - (phase[i - 1] % (2 * Math.PI));
-      d -= 2 * Math.PI * Math.round(d / (2 * Math.PI));
-      phase[i] = phase[i - 1] + d;
-    }
-  }
-  // The DC point: measured, or extrapolated from the first two points.
-  let f: Float64Array;
-  let m: Float64Array;
-  let ph: Float64Array;
-  if (freqs_Hz[0] === 0) {
-    f = freqs_Hz;
-    m = mag;
-    ph = phase;
-    const shift = s21.re[0] >= 0 ? -phase[0] : Math.PI - phase[0];
-    for (let i = 0; i < count; i++) ph[i] += shift;
-  } else {
-    const [f0, f1] = [freqs_Hz[0], freqs_Hz[1]];
-    const m0 = Math.max(0, mag[0] - (f0 * (mag[1] - mag[0])) / (f1 - f0));
-    let p0 = phase[0] - (f0 * (phase[1] - phase[0])) / (f1 - f0);
-    const turns = Math.round(p0 / (2 * Math.PI));
-    p0 -= 2 * Math.PI * turns;
-    const dcPhase = Math.abs(p0) <= Math.PI / 2 ? 0 : Math.sign(p0) * Math.PI;
-    f = new Float64Array(count + 1);
-    m = new Float64Array(count + 1);
-    ph = new Float64Array(count + 1);
-    f.set(freqs_Hz, 1);
-    m.set(mag, 1);
-    m[0] = m0;
-    for (let i = 0; i < count; i++) ph[i + 1] = phase[i] - 2 * Math.PI * turns;
-    ph[0] = dcPhase;
-  }
-
   // The FFT grid: time step from the pulse grid, window from the data's frequency spacing.
   const spu = options.samplesPerUi;
   const dt = options.ui_s / spu;
@@ -100,21 +72,57 @@ export function pulseFromS21(freqs_Hz: Float64Array, s21: ComplexArray, options:
       `the data's ${spacing} Hz spacing at samplesPerUi ${spu} needs an FFT of ${size} points (at most ${MAX_CHANNEL_FFT}); use fewer samples per UI`,
     );
   }
-  const half = size / 2 + 1;
-  const df = 1 / (size * dt);
-  const top = Math.min(fMax, 1 / (2 * dt));
-  const used = Math.min(half, Math.floor(top / df) + 1);
-  const gridF = Float64Array.from({ length: used }, (_, k) => k * df);
-  const gm = interpolateLinear(f, m, gridF);
-  const gp = interpolateLinear(f, ph, gridF);
-  const re = new Float64Array(half);
-  const im = new Float64Array(half);
-  for (let k = 0; k < used; k++) {
-    const w = raisedCosineRolloff(gridF[k], top * (1 - taper), top);
-    re[k] = w * gm[k] * Math.cos(gp[k]);
-    im[k] = w * gm[k] * Math.sin(gp[k]);
+  // The window must hold the delay and the ring-down: a response still ringing when the window ends
+  // wraps its tail onto its start. Widening the FFT beyond 1/Δf cannot help (interpolating data
+  // spaced Δf repeats the response every 1/Δf), so the remedy is finer data: warn.
+  const { spectrum, dcExtrapolated } = s21OnFftGrid(freqs_Hz, s21, size, dt, taper);
+  const { pulse, start_s } = pulseFromSpectrum(spectrum, size, options, options);
+  const warnings: ChannelWarning[] = [];
+  if (tailEnergyShare(pulse.values_V, size) > TAIL_ENERGY_LIMIT) {
+    const window = size * dt;
+    const peak_s = start_s + pulse.mainIndex * dt;
+    warnings.push({
+      code: "window-short",
+      message:
+        `the response has not died out within the ${formatTime(window)} time window that the data's ${formatFreq(spacing)} frequency step allows ` +
+        `(its peak is at ${formatTime(peak_s)}): its tail wraps onto its start; use data with a frequency step of at most ${formatFreq(1 / (2 * window))}`,
+    });
   }
-  const { pulse, start_s } = pulseFromSpectrum({ re, im }, size, options, options);
+  const baud_Hz = 1 / options.ui_s;
+  if (fMax < baud_Hz) {
+    warnings.push({
+      code: "band-below-baud",
+      message:
+        `the data stop at ${formatFreq(fMax)}, ${(fMax / baud_Hz).toFixed(2)}× the baud rate: the pulse is band-limited by the file, not the channel ` +
+        `(S21 is taken as zero above ${formatFreq(fMax)}, rolled off over its top ${Math.round(taper * 100)} %); use data that reach at least the baud rate (${formatFreq(baud_Hz)})`,
+    });
+  }
   const magnitude_dB = magnitudeDb(s21.re, s21.im);
-  return { pulse, start_s, insertionLoss: { freqs_Hz: Float64Array.from(freqs_Hz), magnitude_dB } };
+  return { pulse, start_s, insertionLoss: { freqs_Hz: Float64Array.from(freqs_Hz), magnitude_dB }, dcExtrapolated, window_s: size * dt, warnings };
+}
+
+/**
+ * Largest share of the pulse's energy allowed in the window's last tenth (−60 dB): more means the
+ * response is still ringing where the periodic FFT wraps it onto its start.
+ */
+const TAIL_ENERGY_LIMIT = 1e-6;
+
+/** Share of the energy of the pulse's first `size` samples that lies in their last tenth. */
+function tailEnergyShare(values_V: Float64Array, size: number): number {
+  let total = 0;
+  let tail = 0;
+  const from = Math.floor(0.9 * size);
+  for (let i = 0; i < Math.min(values_V.length, size); i++) {
+    total += values_V[i] * values_V[i];
+    if (i >= from) tail += values_V[i] * values_V[i];
+  }
+  return total > 0 ? tail / total : 0;
+}
+
+function formatFreq(f_Hz: number): string {
+  return f_Hz >= 1e9 ? `${+(f_Hz / 1e9).toPrecision(3)} GHz` : `${+(f_Hz / 1e6).toPrecision(3)} MHz`;
+}
+
+function formatTime(t_s: number): string {
+  return `${+(t_s * 1e9).toPrecision(3)} ns`;
 }

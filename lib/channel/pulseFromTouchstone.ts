@@ -1,6 +1,6 @@
 // Touchstone text → channel transfer (S21 or SDD21) → pulse response, in one call.
 import { parseTouchstone } from "./parseTouchstone.ts";
-import { pulseFromS21, type FrequencyPulse, type S21PulseOptions } from "./pulseFromS21.ts";
+import { pulseFromS21, type S21Pulse, type S21PulseOptions } from "./pulseFromS21.ts";
 import { channelTransfer, type PortPairs } from "./sdd21.ts";
 
 /**
@@ -14,7 +14,7 @@ import { channelTransfer, type PortPairs } from "./sdd21.ts";
 export function pulseFromTouchstone(
   text: string,
   options: S21PulseOptions & { readonly ports?: number; readonly pairs?: PortPairs },
-): FrequencyPulse {
+): S21Pulse {
   const net = parseTouchstone(text, { ports: options.ports });
   return pulseFromS21(net.freqs_Hz, channelTransfer(net, options.pairs), options);
 }

@@ -1,6 +1,6 @@
 // S21 → pulse: delay line, attenuator, first-order low-pass, area = S21(0)·UI, DC extrapolation, grids, taper.
 import { describe, expect, it } from "vitest";
-import { formatTouchstone, pulseFromS21, pulseFromTouchstone, pulseFromSamples, type NetworkData } from "@lib/channel";
+import { formatTouchstone, pulseFromS21, pulseFromTouchstone, pulseFromSamples, s21OnFftGrid, type NetworkData } from "@lib/channel";
 import { pulseArea } from "@lib/pulse";
 
 const UI = 1 / 25e9;
@@ -173,5 +173,70 @@ describe("pulseFromS21 — pitfalls and identities", () => {
     expect(() => pulseFromS21(Float64Array.of(0, 1), s, { ui_s: UI, samplesPerUi: 1024 })).toThrow(/FFT of/);
     expect(() => pulseFromS21(f, s, { ...g, taperFraction: 2 })).toThrow(/taperFraction/);
     expect(() => pulseFromS21(f, s, { ...g, guard_UI: -1 })).toThrow(/guard_UI/);
+  });
+});
+
+describe("pulseFromS21 — the DC bin, the time window and the band (input checks)", () => {
+  // A real impulse response has a real spectrum at 0 Hz (Hermitian symmetry) [common practice]; only
+  // that bin may be corrected. Rotating every bin by the DC point's phase distorts the whole pulse.
+  it("analytic: a measured DC point with a 0.3 rad phase error leaves the delay line's pulse unchanged (tol 0.01)", () => {
+    const f = linspace(0, 50e9, 5001);
+    const clean = sample(f, delay(0.5e-9));
+    const bad = sample(f, delay(0.5e-9));
+    bad.re[0] = Math.cos(0.3);
+    bad.im[0] = Math.sin(0.3);
+    const a = pulseFromS21(f, clean, { ui_s: UI, samplesPerUi: 16 });
+    const b = pulseFromS21(f, bad, { ui_s: UI, samplesPerUi: 16 });
+    expect(b.pulse.values_V.length).toBe(a.pulse.values_V.length);
+    for (let i = 0; i < a.pulse.values_V.length; i++) expect(Math.abs(a.pulse.values_V[i] - b.pulse.values_V[i])).toBeLessThan(0.01);
+    expect(b.dcExtrapolated).toBe(false);
+  });
+
+  it("identities: on the FFT grid the DC bin is real with the sign of Re S21(0), and every other bin keeps the data's phase", () => {
+    const f = linspace(0, 20e9, 201); // bins fall on the data's points: size·dt = 1/Δf
+    const h = (x: number): [number, number] => { const [a, b] = delay(0.3e-9, -0.7)(x); return [a, b + (x === 0 ? 0.05 : 0)]; };
+    const s = sample(f, h);
+    const dt = 1 / (2 * 20e9);
+    const { spectrum, dcExtrapolated } = s21OnFftGrid(f, s, 400, dt, 0);
+    expect(dcExtrapolated).toBe(false);
+    expect(spectrum.im[0]).toBe(0);
+    expect(spectrum.re[0]).toBeCloseTo(-Math.hypot(0.7, 0.05), 12);
+    for (const k of [1, 7, 50, 123]) {
+      expect(spectrum.re[k]).toBeCloseTo(s.re[k], 9);
+      expect(spectrum.im[k]).toBeCloseTo(s.im[k], 9);
+    }
+  });
+
+  // Interpolating data spaced Δf repeats the response every 1/Δf [common practice: sampling in
+  // frequency aliases in time], so delay plus ring-down must fit in 1/Δf.
+  it("analytic: a 5 ns ring-down (single pole) is named in the 20 ns window of a 50 MHz step, and fits the 200 ns of a 5 MHz step", () => {
+    const coarse = linspace(0, 40e9, 801);
+    const r = pulseFromS21(coarse, sample(coarse, lowPass(5e-9)), { ui_s: UI, samplesPerUi: 8, minWindow_UI: 1 });
+    const w = r.warnings.find((x) => x.code === "window-short");
+    expect(w?.message).toMatch(/not died out within the 20\.5 ns time window that the data's 50 MHz frequency step allows/);
+    expect(w?.message).toMatch(/frequency step of at most 24\.4 MHz/);
+    const fine = linspace(0, 40e9, 8001);
+    const ok = pulseFromS21(fine, sample(fine, lowPass(5e-9)), { ui_s: UI, samplesPerUi: 8, minWindow_UI: 1 });
+    expect(ok.warnings).toEqual([]);
+    expect(Math.abs(pulseArea(ok.pulse) / UI - 1)).toBeLessThan(0.01);
+  });
+
+  it("edges: a 9.5 ns delay in the 10 ns window of a 100 MHz step is named; a 5 ns delay is not", () => {
+    const f = linspace(0, 40e9, 401);
+    const h = (tau: number) => (x: number): [number, number] => { const [a, b] = lowPass(10e-12)(x); const [c, d] = delay(tau)(x); return [a * c - b * d, a * d + b * c]; };
+    expect(pulseFromS21(f, sample(f, h(9.5e-9)), { ui_s: UI, samplesPerUi: 8 }).warnings.map((x) => x.code)).toEqual(["window-short"]);
+    expect(pulseFromS21(f, sample(f, h(5e-9)), { ui_s: UI, samplesPerUi: 8 }).warnings).toEqual([]);
+  });
+
+  it("edges: data stopping at 0.8× the baud rate are named, with what the pulse assumed above them; data to 1.2× are not", () => {
+    const short = linspace(0, 20e9, 201);
+    const r = pulseFromS21(short, sample(short, delay(0.2e-9)), { ui_s: UI, samplesPerUi: 8 });
+    const w = r.warnings.find((x) => x.code === "band-below-baud");
+    expect(w?.message).toMatch(/stop at 20 GHz, 0\.80× the baud rate/);
+    expect(w?.message).toMatch(/taken as zero above 20 GHz, rolled off over its top 10 %/);
+    const full = linspace(0, 30e9, 301);
+    expect(pulseFromS21(full, sample(full, delay(0.2e-9)), { ui_s: UI, samplesPerUi: 8 }).warnings).toEqual([]);
+    const noDc = linspace(10e6, 30e9, 300);
+    expect(pulseFromS21(noDc, sample(noDc, delay(0.2e-9)), { ui_s: UI, samplesPerUi: 8 }).dcExtrapolated).toBe(true);
   });
 });
