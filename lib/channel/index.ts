@@ -1,4 +1,5 @@
 export * from "./channelWarning.ts";
+export * from "./complexEmbedding.ts";
 export * from "./differentialNetwork.ts";
 export * from "./formatTouchstone.ts";
 export * from "./InputFileError.ts";
@@ -11,6 +12,7 @@ export * from "./pulseFromSamples.ts";
 export * from "./pulseFromSpectrum.ts";
 export * from "./pulseFromTouchstone.ts";
 export * from "./readCsvResponse.ts";
+export * from "./renormalizeNetwork.ts";
 export * from "./riseTimeFilter.ts";
 export * from "./s21OnFftGrid.ts";
 export * from "./sdd21.ts";

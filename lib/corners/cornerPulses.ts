@@ -3,6 +3,7 @@
 import { type LossModel, pulseFromLossModel } from "../channel/lossModel.ts";
 import { parseTouchstone } from "../channel/parseTouchstone.ts";
 import { pulseFromS21 } from "../channel/pulseFromS21.ts";
+import { renormalizeNetwork } from "../channel/renormalizeNetwork.ts";
 import type { PulseGrid } from "../channel/pulseFromSamples.ts";
 import { channelTransfer, type PortPairs } from "../channel/sdd21.ts";
 import type { Pulse } from "../types.ts";
@@ -47,7 +48,7 @@ export function cornerPulses(source: CornerSource, lossScales: readonly number[]
       return pulseFromLossModel({ ...source.model, lossAtNyquist_dB: loss }, source.grid).pulse;
     };
   } else if (source.kind === "touchstone") {
-    const net = parseTouchstone(source.text, { ports: source.ports });
+    const net = renormalizeNetwork(parseTouchstone(source.text, { ports: source.ports }));
     const transfer = channelTransfer(net, source.pairs);
     build = (s) => pulseFromS21(net.freqs_Hz, lossScaledS21(net.freqs_Hz, transfer, s), source.grid).pulse;
   } else {

@@ -1,6 +1,7 @@
 // One multi-port S-parameter file → the victim's pulse response and each aggressor's crosstalk pulse.
 import { parseTouchstone } from "../channel/parseTouchstone.ts";
 import { type FrequencyPulse, pulseFromS21, type S21PulseOptions } from "../channel/pulseFromS21.ts";
+import { renormalizeNetwork } from "../channel/renormalizeNetwork.ts";
 import type { PortPairs } from "../channel/sdd21.ts";
 import type { AggressorKind } from "./aggressorKind.ts";
 import { type AggressorPorts, crosstalkTransfers } from "./crosstalkTransfers.ts";
@@ -18,7 +19,7 @@ export interface LinkPulses {
 }
 
 /**
- * Reads a multi-port Touchstone file once and derives the victim's pulse (its SDD21) and every
+ * Reads a multi-port Touchstone file once, re-references its ports to 50 Ω, and derives the victim's pulse (its SDD21) and every
  * aggressor's crosstalk pulse (the mixed-mode term from the aggressor's pair to the victim's output
  * pair, see {@link crosstalkTransfers}), each through {@link pulseFromS21} with the same options;
  * an aggressor's `insertionLoss` is its coupling `20·log10|X(f)|`.
@@ -32,7 +33,7 @@ export function linkFromTouchstone(
   text: string,
   options: S21PulseOptions & { readonly ports?: number; readonly victim: PortPairs; readonly aggressors: readonly AggressorPorts[] },
 ): LinkPulses {
-  const net = parseTouchstone(text, { ports: options.ports });
+  const net = renormalizeNetwork(parseTouchstone(text, { ports: options.ports }));
   const t = crosstalkTransfers(net, options.victim, options.aggressors);
   return {
     victim: pulseFromS21(t.freqs_Hz, t.victim, options),

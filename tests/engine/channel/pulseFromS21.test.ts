@@ -240,3 +240,36 @@ describe("pulseFromS21 — the DC bin, the time window and the band (input check
     expect(pulseFromS21(noDc, sample(noDc, delay(0.2e-9)), { ui_s: UI, samplesPerUi: 8 }).dcExtrapolated).toBe(true);
   });
 });
+
+describe("pulseFromTouchstone — port reference impedances", () => {
+  // A lossless 100 Ω line of delay τ seen from 50 Ω: S21 = 2z / (2z·cosθ + j(z² + 1)·sinθ), z = 2,
+  // θ = 2πfτ [computed from the line's ABCD matrix and Pozar's ABCD→S table, from memory].
+  it("oracle: a matched 100 Ω line stated with [Reference] 100 100 gives the pulse of its 50 Ω closed form, reflections included (tol 1e-9)", () => {
+    const f = linspace(0, 40e9, 4001);
+    const tau = 0.3e-9;
+    const n = 2;
+    const s = new Float64Array(f.length * n * n * 2);
+    f.forEach((x, k) => {
+      for (const [o, i] of [[2, 1], [1, 2]]) {
+        const at = 2 * ((k * n + (o - 1)) * n + (i - 1));
+        s[at] = Math.cos(2 * Math.PI * x * tau);
+        s[at + 1] = -Math.sin(2 * Math.PI * x * tau);
+      }
+    });
+    const text = formatTouchstone({ ports: 2, freqs_Hz: f, s, referenceOhms: Float64Array.of(100, 100) }, { version: 2, format: "RI" });
+    const viaFile = pulseFromTouchstone(text, { ui_s: UI, samplesPerUi: 16 });
+    const z = 2;
+    const closed = sample(f, (x) => {
+      const th = 2 * Math.PI * x * tau;
+      const [dr, di] = [2 * z * Math.cos(th), (z * z + 1) * Math.sin(th)];
+      const d2 = dr * dr + di * di;
+      return [(2 * z * dr) / d2, (-2 * z * di) / d2];
+    });
+    const direct = pulseFromS21(f, closed, { ui_s: UI, samplesPerUi: 16 });
+    expect(viaFile.pulse.values_V.length).toBe(direct.pulse.values_V.length);
+    for (let i = 0; i < direct.pulse.values_V.length; i++) expect(Math.abs(viaFile.pulse.values_V[i] - direct.pulse.values_V[i])).toBeLessThan(1e-9);
+    // The first arrival is (1 − Γ²) = 8/9 of the 50 Ω thru's, Γ = 1/3.
+    expect(viaFile.pulse.values_V[viaFile.pulse.mainIndex]).toBeGreaterThan(0.8);
+    expect(viaFile.pulse.values_V[viaFile.pulse.mainIndex]).toBeLessThan(0.95);
+  });
+});
