@@ -4,7 +4,7 @@ import { ensurePerson } from "@/features/people/people.server";
 import { pool } from "@/server/db.server";
 import { seedDemoWork } from "@/features/demo/demo.server";
 import { seedHandoff } from "@/features/demo/handoff.server";
-import type { Role } from "@/db/schema";
+import type { Role } from "@/features/people/people";
 import { DEMO_PEOPLE } from "./lib/demo.mjs";
 
 export const DEMO_PASSWORD = process.env.DEMO_PASSWORD ?? "tapwright-demo";

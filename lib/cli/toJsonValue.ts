@@ -12,6 +12,7 @@ export function toJsonValue(value: unknown, path = ""): unknown {
   }
   if (value === null || typeof value === "string" || typeof value === "boolean") return value;
   if (ArrayBuffer.isView(value) && !(value instanceof DataView)) {
+    // Every view but DataView (excluded above) is a typed array, but TypeScript's ArrayBufferView does not say it is indexable.
     return toJsonValue(Array.from(value as unknown as ArrayLike<number>), path);
   }
   if (Array.isArray(value)) return value.map((v, i) => toJsonValue(v, path ? `${path}.${i}` : String(i)));

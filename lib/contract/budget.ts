@@ -1,7 +1,7 @@
 // The link budget: what a tuning run is asked to achieve and with which equalizers. The command
 // line's `optimize` request, the web API and the budget form all use this one schema.
 import { z } from "zod";
-import { finiteNumber, nonNegativeInt, nonNegativeNumber, positiveNumber } from "./common.ts";
+import { finiteNumber, modulationSchema, nonNegativeInt, nonNegativeNumber, positiveNumber } from "./common.ts";
 
 /** Largest number of settings one CTLE grid axis may hold. */
 export const MAX_GRID_POINTS = 512;
@@ -123,7 +123,7 @@ export const clockingSchema = z.object({
  * required headroom and the clocking. Units are in the field names (volts, hertz, UI).
  */
 export const budgetSchema = z.object({
-  modulation: z.enum(["nrz", "pam4"], { error: 'expected "nrz" or "pam4"' }).default("nrz"),
+  modulation: modulationSchema.default("nrz"),
   bitRate_bps: positiveNumber.optional().describe("bit rate; checked against the pulse's UI when given"),
   txSwing_Vppd: positiveNumber
     .max(10, { error: "expected a peak-to-peak differential swing in volts, at most 10 (e.g. 0.8)" })

@@ -1,6 +1,7 @@
 // Building blocks of the engine's request schemas (zod), shared by every command and by the web API.
 import { z } from "zod";
 import { pulseFromJson } from "../pulse/pulseJson.ts";
+import type { Modulation } from "../types.ts";
 
 /** Largest sample array accepted in a request (pulse values, cursors, frequency grids). */
 export const MAX_ARRAY_LENGTH = 1 << 22;
@@ -12,6 +13,12 @@ export function fieldError(text: string): (issue: { input?: unknown }) => string
 
 /** A finite JSON number (zod 4 refuses NaN and ±Infinity). */
 export const finiteNumber = z.number({ error: fieldError("expected a finite number") });
+
+/** The modulations the engine knows: NRZ (two levels) and PAM4 (four). */
+export const modulations = ["nrz", "pam4"] as const satisfies readonly Modulation[];
+
+/** A modulation name, `"nrz"` or `"pam4"`. */
+export const modulationSchema = z.enum(modulations, { error: 'expected "nrz" or "pam4"' });
 
 /** A finite number > 0. */
 export const positiveNumber = finiteNumber.positive({ error: "expected a number > 0" });

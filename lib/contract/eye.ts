@@ -1,6 +1,6 @@
 // Request of the `eye` command: the statistical eye of an (already equalized) pulse.
 import { z } from "zod";
-import { finiteNumber, nonNegativeNumber, pulseSchema } from "./common.ts";
+import { finiteNumber, modulationSchema, nonNegativeNumber, pulseSchema } from "./common.ts";
 
 /** Target BER accepted by the engine. */
 export const targetBerSchema = finiteNumber
@@ -19,7 +19,7 @@ export const eyeJitterSchema = z.object({
  */
 export const eyeRequestSchema = z.object({
   pulse: pulseSchema,
-  modulation: z.enum(["nrz", "pam4"], { error: 'expected "nrz" or "pam4"' }).default("nrz"),
+  modulation: modulationSchema.default("nrz"),
   noiseRms_V: nonNegativeNumber.max(10, { error: "expected a noise rms in volts, at most 10" }),
   targetBer: targetBerSchema.default(1e-12),
   jitter: eyeJitterSchema.optional(),

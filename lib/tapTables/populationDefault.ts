@@ -140,16 +140,15 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
     chosen = evaluate(asSetting(best));
   } else {
     const candidates = [best, ...own].map((c) => quantizeSetting(asSetting(c), map));
-    let pick = -1;
-    let pickEval: Evaluated | null = null;
-    candidates.forEach((q, i) => {
-      const e = evaluate(q.setting);
-      if (pickEval === null || e.worst > pickEval.worst) {
+    let pick = 0;
+    chosen = evaluate(candidates[0].setting);
+    for (let i = 1; i < candidates.length; i++) {
+      const e = evaluate(candidates[i].setting);
+      if (e.worst > chosen.worst) {
         pick = i;
-        pickEval = e;
+        chosen = e;
       }
-    });
-    chosen = pickEval as unknown as Evaluated;
+    }
     codes = { ...candidates[pick].codes };
     values = { ...candidates[pick].values };
   }

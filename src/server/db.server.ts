@@ -10,17 +10,18 @@ function databaseUrl(): string {
   return url;
 }
 
-const globalForDb = globalThis as unknown as { tapwrightPool?: mysql.Pool };
+declare global {
+  // The pool outlives module reloads in development: kept on the global object.
+  var tapwrightPool: mysql.Pool | undefined;
+}
 
 /** The shared pool (one per process; reused across hot reloads in development). */
-export const pool: mysql.Pool =
-  globalForDb.tapwrightPool ??
-  (globalForDb.tapwrightPool = mysql.createPool({
-    uri: databaseUrl(),
-    connectionLimit: 10,
-    timezone: "Z",
-    dateStrings: false,
-  }));
+export const pool: mysql.Pool = (globalThis.tapwrightPool ??= mysql.createPool({
+  uri: databaseUrl(),
+  connectionLimit: 10,
+  timezone: "Z",
+  dateStrings: false,
+}));
 
 export const db = drizzle(pool, { schema, mode: "default" });
 export type Db = typeof db;

@@ -4,7 +4,8 @@ import { inArray, eq } from "drizzle-orm";
 import { budgetSchema, type Budget, type BudgetInput } from "@lib/contract/budget";
 import { searchSpace } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
-import { budgets, channels, type StoredPulse } from "@/db/schema";
+import { budgets, channels } from "@/db/schema";
+import type { StoredPulse } from "@/features/channels/channels";
 import type { DbOrTx } from "@/server/db.server";
 import { notFound, unprocessable } from "@/server/http/errors";
 
@@ -27,7 +28,7 @@ export interface ChannelCopy {
 export async function budgetCopy(tx: DbOrTx, id: number): Promise<BudgetCopy> {
   const [row] = await tx.select().from(budgets).where(eq(budgets.id, id));
   if (!row) throw notFound(`Budget ${id}`);
-  return { id: row.id, name: row.name, params: row.params as BudgetInput, budget: parseBudget(row.params, row.name) };
+  return { id: row.id, name: row.name, params: row.params, budget: parseBudget(row.params, row.name) };
 }
 
 /** A stored budget's params with defaults filled in; 422 naming the field when they do not validate. */

@@ -1,31 +1,12 @@
 // The dependency rule of lib/: pure TypeScript with no app, framework, database or Node imports.
-import { readdirSync, readFileSync, statSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import { join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
+import { sourceFiles, specifiers } from "../support/sourceImports";
 
 const root = fileURLToPath(new URL("../..", import.meta.url));
 const libDir = join(root, "lib");
-
-function sourceFiles(dir: string): string[] {
-  return readdirSync(dir).flatMap((name) => {
-    const full = join(dir, name);
-    if (statSync(full).isDirectory()) return sourceFiles(full);
-    return /\.(ts|tsx|js|mjs|cjs)$/.test(name) ? [full] : [];
-  });
-}
-
-/** Every module specifier a file imports or re-exports, statically or dynamically. */
-function specifiers(text: string): string[] {
-  const out: string[] = [];
-  const patterns = [
-    /\b(?:import|export)\s+(?:type\s+)?(?:[\s\S]*?\sfrom\s+)?["']([^"']+)["']/g,
-    /\bimport\s*\(\s*["']([^"']+)["']\s*\)/g,
-    /\brequire\s*\(\s*["']([^"']+)["']\s*\)/g,
-  ];
-  for (const re of patterns) for (const m of text.matchAll(re)) out.push(m[1]);
-  return out;
-}
 
 const FORBIDDEN: [RegExp, string][] = [
   [/^node:/, "Node built-ins (node:*)"],

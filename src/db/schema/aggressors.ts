@@ -2,15 +2,10 @@
 // crosstalk pulse at the victim's receiver, its coupling curve, its ICN and, when it came from a file
 // of its own, that file byte for byte.
 import { double, index, int, json, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
+import { aggressorKinds, aggressorSources } from "@/features/channels/aggressors";
+import type { StoredCurve, StoredPulse } from "@/features/channels/channels";
 import { timestamps } from "./columns";
-import { channels, longBlob, type StoredCurve, type StoredPulse } from "./channels";
-
-export const aggressorKinds = ["next", "fext"] as const;
-export type AggressorKindName = (typeof aggressorKinds)[number];
-
-/** Where an aggressor came from: a pair of the victim's multi-port file, a file of its own, or the coupling model. */
-export const aggressorSources = ["ports", "file", "coupling"] as const;
-export type AggressorSource = (typeof aggressorSources)[number];
+import { channels, longBlob } from "./channels";
 
 export const channelAggressors = mysqlTable(
   "channel_aggressors",

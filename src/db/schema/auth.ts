@@ -1,11 +1,8 @@
 // People, their sessions and credentials (the tables better-auth reads and writes), roles,
 // invitations and API tokens.
 import { bigint, boolean, index, int, mysqlEnum, mysqlTable, timestamp, varchar } from "drizzle-orm/mysql-core";
+import { roles } from "@/features/people/people";
 import { timestamps } from "./columns";
-
-/** The four roles of Tapwright; the rules of what each may do live in src/server/auth/rules.ts. */
-export const roles = ["admin", "designer", "firmware", "reviewer"] as const;
-export type Role = (typeof roles)[number];
 
 export const users = mysqlTable("users", {
   id: varchar("id", { length: 36 }).primaryKey(),

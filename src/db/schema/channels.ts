@@ -1,6 +1,7 @@
 // Programs (the product or board channels belong to), channels with their derived pulse response,
 // and the original upload kept byte for byte.
 import { customType, double, index, int, json, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
+import { channelKinds, type ChannelDerivation, type StoredCurve, type StoredPulse } from "@/features/channels/channels";
 import { timestamps } from "./columns";
 import { users } from "./auth";
 
@@ -15,21 +16,6 @@ export const programs = mysqlTable("programs", {
   description: varchar("description", { length: 2000 }),
   ...timestamps,
 });
-
-export const channelKinds = ["pulse-csv", "step-csv", "impulse-csv", "touchstone", "synthetic"] as const;
-export type ChannelKind = (typeof channelKinds)[number];
-
-/** A pulse response as stored (plain JSON numbers; see lib/types.ts for the engine's form). */
-export interface StoredPulse {
-  ui_s: number;
-  samplesPerUi: number;
-  values_V: number[];
-  mainIndex: number;
-}
-export interface StoredCurve {
-  freqs_Hz: number[];
-  magnitude_dB: number[];
-}
 
 export const channels = mysqlTable(
   "channels",
@@ -47,7 +33,7 @@ export const channels = mysqlTable(
     lossAtNyquist_dB: double("loss_at_nyquist_db"),
     mainCursor_V: double("main_cursor_v").notNull(),
     /** How the pulse was derived: the loss model, the port pairing, the response kind… */
-    derivation: json("derivation").$type<Record<string, unknown>>().notNull(),
+    derivation: json("derivation").$type<ChannelDerivation>().notNull(),
     createdBy: varchar("created_by", { length: 36 }).references(() => users.id, { onDelete: "set null" }),
     ...timestamps,
   },

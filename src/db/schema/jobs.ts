@@ -1,20 +1,16 @@
 // Long work kept in MariaDB: a queue of jobs run by the worker pool, and tuning runs.
 import { bigint, double, index, int, json, mysqlEnum, mysqlTable, timestamp, varchar } from "drizzle-orm/mysql-core";
+import type { TuningRunResult } from "@lib/run";
+import { jobKinds, jobStatuses } from "@/features/jobs/jobs";
+import type { RunInputs, RunSummary } from "@/features/runs/runs";
 import { timestamps } from "./columns";
 import { users } from "./auth";
-import { channels, type StoredPulse } from "./channels";
+import { channels } from "./channels";
 import { budgets } from "./budgets";
 
-export const jobKinds = ["run", "study", "table-version", "sweep", "sweep-batch"] as const;
-export type JobKind = (typeof jobKinds)[number];
-/** `waiting`: a parent job whose children are not all done yet (it is queued when the last one is). */
-export const jobStatuses = ["queued", "waiting", "running", "done", "failed"] as const;
-export type JobStatus = (typeof jobStatuses)[number];
 /** Which backend a job was handed to: the embedded dispatcher claims only its own rows. */
 export const jobQueues = ["embedded", "bullmq"] as const;
 export type JobQueue = (typeof jobQueues)[number];
-/** A job's status as the API and the pages tell it (a parent waiting for its children is running). */
-export type ApiJobStatus = Exclude<JobStatus, "waiting">;
 
 /**
  * One unit of engine work, whichever backend runs it (the embedded dispatcher or BullMQ workers):
@@ -50,12 +46,6 @@ export const jobs = mysqlTable(
   (t) => [index("jobs_status_idx").on(t.status, t.id), index("jobs_queue_idx").on(t.queue, t.status, t.id), index("jobs_target_idx").on(t.kind, t.targetId), index("jobs_parent_idx").on(t.parentId, t.status)],
 );
 
-/** What a run was computed from, copied at its start so that it never changes afterwards. */
-export interface RunInputs {
-  channel: { id: number; name: string; bitRate_bps: number; pulse: StoredPulse };
-  budget: { id: number; name: string; params: Record<string, unknown> };
-}
-
 export const runs = mysqlTable(
   "runs",
   {
@@ -67,10 +57,10 @@ export const runs = mysqlTable(
     budgetId: int("budget_id").references(() => budgets.id, { onDelete: "set null" }),
     inputs: json("inputs").$type<RunInputs>().notNull(),
     /** The engine's tuning result (lib/run), when done. */
-    result: json("result").$type<Record<string, unknown>>(),
+    result: json("result").$type<TuningRunResult>(),
     engineVersion: varchar("engine_version", { length: 40 }),
     /** A short summary for lists: headroom, eye height, the verdict and whether any DFE tap count closes the link. */
-    summary: json("summary").$type<{ limiterHeadroom_V: number; eyeHeight_V: number; linearReachExhausted: boolean; closes?: boolean } | null>(),
+    summary: json("summary").$type<RunSummary>(),
     /** The run this one re-ran, if any. */
     rerunOf: int("rerun_of"),
     createdBy: varchar("created_by", { length: 36 }).references(() => users.id, { onDelete: "set null" }),

@@ -1,10 +1,9 @@
 // Sign-off of a tap table version: a request to a reviewer, threaded comments, the decision.
 import { index, int, mysqlEnum, mysqlTable, text, timestamp, varchar } from "drizzle-orm/mysql-core";
+import { signOffStates } from "@/features/signoff/signoff";
 import { timestamps } from "./columns";
 import { users } from "./auth";
 import { tapTableVersions } from "./tapTables";
-
-export const signOffStates = ["pending", "approved", "rejected"] as const;
 
 export const signOffs = mysqlTable(
   "sign_offs",

@@ -1,14 +1,10 @@
 // Architecture studies: candidate equalizer architectures over a set of channels, and the decision.
 import { int, json, mysqlTable, timestamp, varchar } from "drizzle-orm/mysql-core";
+import type { StudyDecision, StudyInputs, StudyResult } from "@/features/studies/studies";
 import { timestamps } from "./columns";
 import { users } from "./auth";
 import { budgets } from "./budgets";
 import { jobs } from "./jobs";
-
-export interface StudyDecision {
-  candidateKey: string;
-  rationale: string;
-}
 
 export const studies = mysqlTable("architecture_studies", {
   id: int("id").autoincrement().primaryKey(),
@@ -18,8 +14,8 @@ export const studies = mysqlTable("architecture_studies", {
     .references(() => jobs.id),
   budgetId: int("budget_id").references(() => budgets.id, { onDelete: "set null" }),
   /** Copies of the channels (id, name, pulse), the budget and the candidates, taken at the start. */
-  inputs: json("inputs").$type<Record<string, unknown>>().notNull(),
-  result: json("result").$type<Record<string, unknown>>(),
+  inputs: json("inputs").$type<StudyInputs>().notNull(),
+  result: json("result").$type<StudyResult>(),
   engineVersion: varchar("engine_version", { length: 40 }),
   decision: json("decision").$type<StudyDecision | null>(),
   decidedBy: varchar("decided_by", { length: 36 }).references(() => users.id, { onDelete: "set null" }),

@@ -3,10 +3,10 @@
 import { boolean, double, index, int, json, mysqlEnum, mysqlTable, primaryKey, timestamp, unique, varchar } from "drizzle-orm/mysql-core";
 import type { BudgetInput } from "@lib/contract/budget";
 import type { Corner } from "@lib/contract/corner";
+import { channelKinds, type StoredPulse } from "@/features/channels/channels";
 import { timestamps } from "./columns";
 import { users } from "./auth";
 import { budgets } from "./budgets";
-import { channelKinds, type StoredPulse } from "./channels";
 import { jobs } from "./jobs";
 
 /** What a sweep was started with: copies, so later edits of the budget or channels do not change it. */

@@ -1,6 +1,7 @@
 // Tap tables for firmware: a table names the architecture, budget and register map; each version
 // holds the channel classes, the quantized default per class, and every channel's headroom.
 import { double, index, int, json, mysqlEnum, mysqlTable, timestamp, uniqueIndex, varchar } from "drizzle-orm/mysql-core";
+import { versionStates, type VersionInputs, type VersionResult } from "@/features/tapTables/tapTables";
 import { timestamps } from "./columns";
 import { users } from "./auth";
 import { budgets } from "./budgets";
@@ -16,10 +17,6 @@ export const tapTables = mysqlTable("tap_tables", {
   ...timestamps,
 });
 
-/** draft → (computed) ready → in-review → approved (frozen) | changes-requested. */
-export const versionStates = ["computing", "failed", "ready", "in-review", "approved", "changes-requested"] as const;
-export type VersionState = (typeof versionStates)[number];
-
 export const tapTableVersions = mysqlTable(
   "tap_table_versions",
   {
@@ -34,9 +31,9 @@ export const tapTableVersions = mysqlTable(
       .references(() => jobs.id),
     budgetId: int("budget_id").references(() => budgets.id, { onDelete: "set null" }),
     /** Copies of the budget, the architecture, the register map and the classes with their channels. */
-    inputs: json("inputs").$type<Record<string, unknown>>().notNull(),
+    inputs: json("inputs").$type<VersionInputs>().notNull(),
     /** Per class and per channel results of the minimax, when computed. */
-    result: json("result").$type<Record<string, unknown>>(),
+    result: json("result").$type<VersionResult>(),
     engineVersion: varchar("engine_version", { length: 40 }),
     note: varchar("note", { length: 2000 }),
     frozenAt: timestamp("frozen_at", { fsp: 3 }),

@@ -2,9 +2,7 @@
 // e-mail, and the open invitations (revocable).
 import { useState } from "react";
 import { api, formatWhen } from "@/components/api";
-
-type Role = "admin" | "designer" | "firmware" | "reviewer";
-const ROLES: Role[] = ["admin", "designer", "firmware", "reviewer"];
+import { roles, type Role } from "@/features/people/people";
 
 interface Person { id: string; name: string; email: string; role: Role; deactivatedAt: string | Date | null; createdAt: string | Date }
 interface Invitation { id: number; email: string; role: Role; expiresAt: string | Date }
@@ -72,7 +70,7 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
         <form className="mt-3 flex flex-wrap items-end gap-3" onSubmit={invite}>
           <label className="field"><span>E-mail</span><input className="input w-72" type="email" name="email" required /></label>
           <label className="field"><span>Role</span>
-            <select className="input" name="role" defaultValue="designer">{ROLES.map((r) => <option key={r} value={r}>{r}</option>)}</select>
+            <select className="input" name="role" defaultValue="designer">{roles.map((r) => <option key={r} value={r}>{r}</option>)}</select>
           </label>
           <button className="btn btn-primary" type="submit">Send invitation</button>
         </form>
@@ -113,7 +111,7 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
                     value={p.role}
                     onChange={(e) => changeRole(p, e.target.value as Role)}
                   >
-                    {ROLES.map((r) => <option key={r} value={r}>{r}</option>)}
+                    {roles.map((r) => <option key={r} value={r}>{r}</option>)}
                   </select>
                   {p.id === props.selfId && <span className="ml-2 text-xs text-muted">(you)</span>}
                 </td>

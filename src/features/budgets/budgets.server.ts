@@ -21,7 +21,7 @@ const columns = {
 
 function toView(r: Pick<BudgetRow, "id" | "name" | "description" | "params" | "createdAt" | "updatedAt"> & { createdBy: string | null }): BudgetView {
   return {
-    ...(r.params as Budget),
+    ...r.params,
     id: r.id,
     name: r.name,
     description: r.description,
@@ -57,7 +57,7 @@ export async function listBudgets(limit: number, offset = 0) {
 export async function budgetChoices() {
   const rows = await db.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).orderBy(asc(budgets.name));
   return rows.map((r) => {
-    const p = r.params as Budget;
+    const p = r.params;
     return { id: r.id, name: r.name, modulation: p.modulation, bitRate_bps: p.bitRate_bps ?? null };
   });
 }

@@ -4,9 +4,8 @@
 import { useMemo } from "react";
 import LineChart, { type LineSeries } from "@/components/charts/LineChart";
 import { chartColors, seriesColor } from "@/components/charts/axisStyle";
-import type { StoredCurve, StoredPulse } from "@/db/schema/channels";
 import { aggressorKindLabels } from "./aggressors";
-import { pulseForChart, pulseSpanUi } from "./channels";
+import { pulseForChart, pulseSpanUi, type StoredCurve, type StoredPulse } from "./channels";
 
 interface Props {
   aggressors: { name: string; kind: "next" | "fext"; pulse: StoredPulse; coupling: StoredCurve | null }[];

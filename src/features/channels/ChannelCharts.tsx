@@ -3,7 +3,7 @@
 import { useMemo, useState } from "react";
 import LineChart from "@/components/charts/LineChart";
 import { chartColors } from "@/components/charts/axisStyle";
-import type { StoredCurve, StoredPulse } from "@/db/schema/channels";
+import type { StoredCurve, StoredPulse } from "./channels";
 import { pulseForChart, pulseSpanUi } from "./channels";
 
 interface Props {

@@ -8,6 +8,7 @@ import { commonPairings, formatBytes, formatDb, formatMv, type PortPairs } from 
 import ChannelCharts from "./ChannelCharts";
 import AggressorCharts from "./AggressorCharts";
 import AggressorRows from "./AggressorRows";
+import type { Modulation } from "@lib/types";
 
 const csvKinds: { value: CsvKind; label: string }[] = [
   { value: "pulse-csv", label: "Pulse response" },
@@ -90,7 +91,7 @@ export default function UploadForm() {
         </div>
         <div className="field">
           <label htmlFor="up-modulation" className="font-medium text-ink-soft">Modulation</label>
-          <select id="up-modulation" aria-describedby="up-modulation-help" className="input" value={s.fields.modulation} onChange={(e) => s.setFields({ modulation: e.target.value as "nrz" | "pam4" })}>
+          <select id="up-modulation" aria-describedby="up-modulation-help" className="input" value={s.fields.modulation} onChange={(e) => s.setFields({ modulation: e.target.value as Modulation })}>
             <option value="nrz">NRZ</option>
             <option value="pam4">PAM4</option>
           </select>

@@ -2,8 +2,15 @@
 // of their own, or the coupling model), what the engine derives for each, and presentation helpers.
 // No server code here: islands import this file.
 import { z } from "zod";
-import type { AggressorKindName, AggressorSource } from "@/db/schema/aggressors";
-import type { StoredCurve, StoredPulse } from "@/db/schema/channels";
+import type { StoredCurve, StoredPulse } from "./channels";
+
+/** Near-end or far-end crosstalk (the database schema's `kind` of an aggressor). */
+export const aggressorKinds = ["next", "fext"] as const;
+export type AggressorKindName = (typeof aggressorKinds)[number];
+
+/** Where an aggressor came from: a pair of the victim's multi-port file, a file of its own, or the coupling model. */
+export const aggressorSources = ["ports", "file", "coupling"] as const;
+export type AggressorSource = (typeof aggressorSources)[number];
 
 /** Most aggressors per channel. */
 export const MAX_CHANNEL_AGGRESSORS = 8;

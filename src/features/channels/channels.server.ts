@@ -5,18 +5,19 @@ import { createHash } from "node:crypto";
 import { and, asc, count, desc, eq, like, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
 import { channelAggressors, channels, channelSources, programs, runs, users } from "@/db/schema";
-import { conflict, notFound } from "@/server/http/errors";
+import { ApiError, conflict, notFound } from "@/server/http/errors";
 import type { UploadedFile } from "@/server/http/body";
 import type { Download } from "@/server/http/download";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
-import type { ChannelDetail, ChannelListItem, DerivedChannel, ListQuery, ModulationName } from "./channels";
+import type { Modulation } from "@lib/types";
+import type { ChannelDerivation, ChannelDetail, ChannelListItem, DerivedChannel, ListQuery } from "./channels";
 import type { AggressorView } from "./aggressors";
 import type { ChannelRequest } from "./channelRequest.server";
-import { deriveFromFile, deriveSynthetic } from "./derive";
+import { ChannelInputError, deriveFromFile, deriveSynthetic } from "./derive";
 
-/** Runs the engine on a request: the derived pulse, insertion loss and their provenance. */
-export function deriveChannel(req: ChannelRequest): DerivedChannel {
+/** The engine's derivation of a request (ChannelInputError when the file or model gives no channel). */
+function derive(req: ChannelRequest): DerivedChannel {
   if (req.source === "synthetic") return deriveSynthetic(req.body.bitRate_bps, req.body.modulation, req.body.lossModel, req.body.aggressors);
   const f = req.fields;
   return deriveFromFile({
@@ -30,6 +31,18 @@ export function deriveChannel(req: ChannelRequest): DerivedChannel {
     aggressors: f.aggressors,
     aggressorFiles: req.aggressorFiles,
   });
+}
+
+const inputErrorStatus = { unsupported: 415, unusable: 422, malformed: 400 } as const;
+
+/** Runs the engine on a request: the derived pulse, insertion loss, aggressors and their provenance. */
+export function deriveChannel(req: ChannelRequest): DerivedChannel {
+  try {
+    return derive(req);
+  } catch (e) {
+    if (e instanceof ChannelInputError) throw new ApiError(inputErrorStatus[e.reason], e.message, e.path);
+    throw e;
+  }
 }
 
 const DEFAULT_PROGRAM = "General";
@@ -60,7 +73,7 @@ export async function saveChannel(
   input: {
     name: string;
     bitRate_bps: number;
-    modulation: ModulationName;
+    modulation: Modulation;
     program?: string;
     file?: UploadedFile;
     aggressors?: { source: string; field?: string }[];
@@ -159,21 +172,32 @@ const listColumns = {
   createdAt: channels.createdAt,
 };
 
-type ListRow = { [K in keyof typeof listColumns]: unknown } & Record<string, unknown>;
+/** A row of `listColumns` (the creator's name is null when the account is gone). */
+interface ListRow {
+  id: number;
+  name: string;
+  kind: ChannelListItem["kind"];
+  program: string;
+  bitRate_bps: number;
+  derivation: ChannelDerivation;
+  lossAtNyquist_dB: number | null;
+  mainCursor_V: number;
+  createdBy: string | null;
+  createdAt: Date;
+}
 
 function toItem(r: ListRow): ChannelListItem {
-  const derivation = (r.derivation ?? {}) as { modulation?: ModulationName };
   return {
-    id: r.id as number,
-    name: r.name as string,
-    kind: r.kind as ChannelListItem["kind"],
-    program: r.program as string,
-    bitRate_bps: r.bitRate_bps as number,
-    modulation: derivation.modulation ?? "nrz",
-    lossAtNyquist_dB: r.lossAtNyquist_dB as number | null,
-    mainCursor_V: r.mainCursor_V as number,
-    createdBy: (r.createdBy as string | null) ?? null,
-    createdAt: r.createdAt as Date,
+    id: r.id,
+    name: r.name,
+    kind: r.kind,
+    program: r.program,
+    bitRate_bps: r.bitRate_bps,
+    modulation: r.derivation.modulation ?? "nrz",
+    lossAtNyquist_dB: r.lossAtNyquist_dB,
+    mainCursor_V: r.mainCursor_V,
+    createdBy: r.createdBy,
+    createdAt: r.createdAt,
   };
 }
 
@@ -227,7 +251,7 @@ export async function channelChoices() {
     id: r.id,
     name: r.name,
     bitRate_bps: r.bitRate_bps,
-    modulation: ((r.derivation ?? {}) as { modulation?: ModulationName }).modulation ?? "nrz",
+    modulation: r.derivation.modulation ?? "nrz",
     lossAtNyquist_dB: r.lossAtNyquist_dB,
   }));
 }

@@ -1,8 +1,33 @@
 // Channels: request schemas (shared by the API and the upload form), the shapes the API answers,
 // and small presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
-import type { ChannelKind, StoredCurve, StoredPulse } from "@/db/schema/channels";
+import { modulationSchema } from "@lib/contract/common";
+import type { Modulation } from "@lib/types";
 import { aggressorsField, aggressorSpecs, type AggressorView, type DerivedAggressor } from "./aggressors";
+
+/** Where a channel's pulse came from (the database schema's `kind` column). */
+export const channelKinds = ["pulse-csv", "step-csv", "impulse-csv", "touchstone", "synthetic"] as const;
+export type ChannelKind = (typeof channelKinds)[number];
+
+/** A pulse response as stored (plain JSON numbers; see lib/types.ts for the engine's form). */
+export interface StoredPulse {
+  ui_s: number;
+  samplesPerUi: number;
+  values_V: number[];
+  mainIndex: number;
+}
+
+/** An insertion-loss curve as stored, for plotting. */
+export interface StoredCurve {
+  freqs_Hz: number[];
+  magnitude_dB: number[];
+}
+
+/** How a pulse was derived: the modulation it was derived for, the loss model, the port pairing, the response kind… */
+export interface ChannelDerivation {
+  modulation?: Modulation;
+  [detail: string]: unknown;
+}
 
 /** Largest uploaded file, in bytes (the API answers 413 above it). */
 export const MAX_UPLOAD_BYTES = 50 * 1024 * 1024;
@@ -23,11 +48,8 @@ export const kindLabels: Record<ChannelKind, string> = {
   synthetic: "Synthetic loss model",
 };
 
-export const modulations = ["nrz", "pam4"] as const;
-export type ModulationName = (typeof modulations)[number];
-
 /** Unit interval in seconds for a bit rate and modulation (PAM4 carries two bits per symbol). */
-export function unitInterval_s(bitRate_bps: number, modulation: ModulationName): number {
+export function unitInterval_s(bitRate_bps: number, modulation: Modulation): number {
   return (modulation === "pam4" ? 2 : 1) / bitRate_bps;
 }
 
@@ -81,7 +103,7 @@ const pairsField = z
 export const uploadFields = z.object({
   name,
   bitRate_bps: z.string(bitRateMessage).trim().regex(/^[0-9.eE+-]+$/, "Give the bit rate in bit/s, e.g. 28e9.").pipe(z.coerce.number()).pipe(bitRateRange(z.number(bitRateMessage))),
-  modulation: z.enum(modulations, { error: "modulation must be nrz or pam4." }).default("nrz"),
+  modulation: modulationSchema.default("nrz"),
   kind: z.enum(fileKinds, { error: `kind must be one of ${fileKinds.join(", ")}.` }).optional(),
   pairs: pairsField.optional(),
   riseTime_s: z.coerce
@@ -110,7 +132,7 @@ export type LossModel = z.infer<typeof lossModelSchema>;
 export const syntheticRequest = z.object({
   name,
   bitRate_bps: bitRateRange(z.number(bitRateMessage)),
-  modulation: z.enum(modulations, { error: "modulation must be nrz or pam4." }).default("nrz"),
+  modulation: modulationSchema.default("nrz"),
   lossModel: lossModelSchema,
   program,
   aggressors: aggressorSpecs.optional(),
@@ -141,7 +163,7 @@ export interface ChannelListItem {
   kind: ChannelKind;
   program: string;
   bitRate_bps: number;
-  modulation: ModulationName;
+  modulation: Modulation;
   lossAtNyquist_dB: number | null;
   mainCursor_V: number;
   createdBy: string | null;
@@ -161,7 +183,7 @@ export interface ChannelDetail extends ChannelListItem {
   programId: number;
   pulse: StoredPulse;
   insertionLoss: StoredCurve | null;
-  derivation: Record<string, unknown>;
+  derivation: ChannelDerivation;
   source: ChannelSourceInfo | null;
   runCount: number;
   aggressors: AggressorView[];
@@ -174,7 +196,7 @@ export interface DerivedChannel {
   insertionLoss: StoredCurve | null;
   lossAtNyquist_dB: number | null;
   mainCursor_V: number;
-  derivation: Record<string, unknown>;
+  derivation: ChannelDerivation;
   /** The victim's aggressors (none for a lane alone). */
   aggressors: DerivedAggressor[];
 }

@@ -1,6 +1,7 @@
 // From an uploaded file or a loss model to the channel's pulse response, through the engine
-// (lib/channel). Decides the file type from its name, and turns the readers' errors into the API's
-// 415 / 422 answers that name the line at fault. Pure: no database, no request objects.
+// (lib/channel). Decides the file type from its name, and turns the readers' errors into
+// ChannelInputErrors that name the line at fault (the service answers them as 400 / 415 / 422).
+// Pure: no database, no request objects.
 import {
   DEFAULT_PORT_PAIRS,
   InputFileError,
@@ -13,20 +14,40 @@ import {
 import { integratedCrosstalkNoiseOfPulses, linkFromTouchstone, pulseFromCoupling, type CouplingModel } from "@lib/crosstalk";
 import { pulseFromJson, pulseToJson, trimPulse } from "@lib/pulse";
 import { interpolateLinear } from "@lib/signal";
-import type { Pulse } from "@lib/types";
-import { ApiError, badRequest, unprocessable } from "@/server/http/errors";
-import type { ChannelKind, StoredCurve } from "@/db/schema/channels";
+import type { Modulation, Pulse } from "@lib/types";
 import { aggressorName, ICN_REFERENCE_AMPLITUDE_V, type AggressorSpec, type CouplingSpec, type DerivedAggressor } from "./aggressors";
 import {
   PULSE_KEEP_UI,
   SAMPLES_PER_UI,
   unitInterval_s,
+  type ChannelDerivation,
+  type ChannelKind,
   type DerivedChannel,
+  type StoredCurve,
   type FileKind,
   type LossModel,
-  type ModulationName,
   type PortPairs,
 } from "./channels";
+
+/**
+ * Why a file or a loss model gives no channel: `unsupported` for a file type Tapwright does not
+ * read, `unusable` for one it reads but cannot use, `malformed` for a request that does not hang
+ * together (an aggressor naming a file that did not come); `path` is the request field at fault.
+ */
+export class ChannelInputError extends Error {
+  constructor(
+    readonly reason: "unsupported" | "unusable" | "malformed",
+    message: string,
+    readonly path: string,
+  ) {
+    super(message);
+    this.name = "ChannelInputError";
+  }
+}
+
+const unsupported = (message: string, path: string) => new ChannelInputError("unsupported", message, path);
+const unusable = (message: string, path: string) => new ChannelInputError("unusable", message, path);
+const malformed = (message: string, path: string) => new ChannelInputError("malformed", message, path);
 
 /** Most insertion-loss points stored for plotting (longer curves are thinned evenly). */
 const MAX_CURVE_POINTS = 2000;
@@ -48,7 +69,7 @@ export interface FileOptions {
   filename: string;
   bytes: Uint8Array;
   bitRate_bps: number;
-  modulation: ModulationName;
+  modulation: Modulation;
   kind?: FileKind;
   pairs?: PortPairs;
   riseTime_s?: number;
@@ -57,14 +78,13 @@ export interface FileOptions {
   aggressorFiles?: Record<string, { filename: string; bytes: Uint8Array }>;
 }
 
-/** The extension's format, or a 415 that says what Tapwright reads. */
+/** The extension's format, or an `unsupported` error that says what Tapwright reads. */
 export function fileFormat(filename: string, kind?: FileKind) {
   const ext = /\.([A-Za-z0-9]+)$/.exec(filename)?.[1]?.toLowerCase();
   const known = ext ? EXTENSIONS[ext] : undefined;
   if (!known) {
     const sNp = ext && /^s\d+p$/.test(ext);
-    throw new ApiError(
-      415,
+    throw unsupported(
       sNp
         ? `${filename} is a ${ext!.slice(1, -1)}-port Touchstone file; ${accepted}.`
         : `${filename}: ${ext ? `.${ext} files are not read` : "the file name has no extension"}; ${accepted}.`,
@@ -72,26 +92,26 @@ export function fileFormat(filename: string, kind?: FileKind) {
     );
   }
   if (kind === "touchstone" && known.format !== "touchstone") {
-    throw new ApiError(415, `kind is touchstone but ${filename} is not a Touchstone (.sNp) file.`, "kind");
+    throw unsupported(`kind is touchstone but ${filename} is not a Touchstone (.sNp) file.`, "kind");
   }
   if (kind && kind !== "touchstone" && known.format === "touchstone") {
-    throw new ApiError(415, `kind is ${kind} but ${filename} is a Touchstone file; leave kind out or upload a .csv.`, "kind");
+    throw unsupported(`kind is ${kind} but ${filename} is a Touchstone file; leave kind out or upload a .csv.`, "kind");
   }
   return known;
 }
 
 function decodeText(filename: string, bytes: Uint8Array): string {
-  if (bytes.length === 0) throw unprocessable(`${filename} is empty.`, "file");
+  if (bytes.length === 0) throw unusable(`${filename} is empty.`, "file");
   if (bytes.subarray(0, 8192).includes(0)) {
-    throw unprocessable(`${filename} looks like a binary file; expected plain text (CSV or Touchstone).`, "file");
+    throw unusable(`${filename} looks like a binary file; expected plain text (CSV or Touchstone).`, "file");
   }
   return new TextDecoder("utf-8").decode(bytes);
 }
 
-/** Engine errors → 422 with the reader's own words ("line 12: frequencies must ascend"). */
+/** Engine errors → `unusable`, in the reader's own words ("line 12: frequencies must ascend"). */
 function readerError(filename: string, e: unknown): never {
-  if (e instanceof InputFileError) throw unprocessable(`${filename}, ${e.message}`, "file");
-  if (e instanceof RangeError || e instanceof TypeError) throw unprocessable(`${filename}: ${e.message}`, "file");
+  if (e instanceof InputFileError) throw unusable(`${filename}, ${e.message}`, "file");
+  if (e instanceof RangeError || e instanceof TypeError) throw unusable(`${filename}: ${e.message}`, "file");
   throw e;
 }
 
@@ -126,7 +146,7 @@ export function storedPulse(pulse: Pulse) {
   return { pulse: json, mainCursor_V: json.values_V[json.mainIndex] };
 }
 
-function fromFrequency(kind: ChannelKind, fp: FrequencyPulse, ui_s: number, derivation: Record<string, unknown>): DerivedChannel {
+function fromFrequency(kind: ChannelKind, fp: FrequencyPulse, ui_s: number, derivation: ChannelDerivation): DerivedChannel {
   const { pulse, mainCursor_V } = storedPulse(fp.pulse);
   return {
     kind,
@@ -147,8 +167,9 @@ export function defaultMultiPortPairs(ports: number): PortPairs {
 /**
  * Derives a channel from an uploaded file, with its aggressors: pairs of the same multi-port file,
  * files of their own, or the coupling model.
- * @throws ApiError 415 for a file type Tapwright does not read, 422 for an unusable file (the
- *   message names the line and what is wrong there) or an aggressor that does not fit the file.
+ * @throws ChannelInputError `unsupported` for a file type Tapwright does not read, `unusable` for a
+ *   file it cannot use (the message names the line and what is wrong there) or an aggressor that
+ *   does not fit the file, `malformed` for an aggressor whose file did not come.
  */
 export function deriveFromFile(o: FileOptions): DerivedChannel {
   const format = fileFormat(o.filename, o.kind);
@@ -159,7 +180,7 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
   const specs = o.aggressors ?? [];
   const fromPorts = specs.flatMap((a, i) => (a.source === "ports" ? [{ a, i }] : []));
   if (fromPorts.length > 0 && !(format.format === "touchstone" && (format.ports ?? 0) >= 8)) {
-    throw unprocessable(`Aggressor ${aggressorName(fromPorts[0].a, fromPorts[0].i)} names ports of the victim's file, which needs a multi-port Touchstone file (.s8p, .s12p or .s16p).`, "aggressors");
+    throw unusable(`Aggressor ${aggressorName(fromPorts[0].a, fromPorts[0].i)} names ports of the victim's file, which needs a multi-port Touchstone file (.s8p, .s12p or .s16p).`, "aggressors");
   }
   let derived: DerivedChannel;
   const multiPort: DerivedAggressor[] = [];
@@ -168,7 +189,7 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
     const pairs = ports >= 4 ? (o.pairs ?? defaultMultiPortPairs(ports)) : undefined;
     if (pairs) {
       const bad = Object.entries(pairs).find(([, p]) => p > ports);
-      if (bad) throw unprocessable(`pairs.${bad[0]} is port ${bad[1]}, but ${o.filename} has ${ports} ports.`, "pairs");
+      if (bad) throw unusable(`pairs.${bad[0]} is port ${bad[1]}, but ${o.filename} has ${ports} ports.`, "pairs");
     }
     let fp: FrequencyPulse;
     try {
@@ -215,7 +236,7 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
     if (a.source === "ports") return multiPort[nextPort++];
     if (a.source === "coupling") return couplingAggressor(a, i, grid);
     const file = o.aggressorFiles?.[a.field];
-    if (!file) throw badRequest(`Aggressor ${aggressorName(a, i)} names the file field '${a.field}', but no file came in it.`, "aggressors");
+    if (!file) throw malformed(`Aggressor ${aggressorName(a, i)} names the file field '${a.field}', but no file came in it.`, "aggressors");
     const own = deriveFromFile({
       filename: file.filename,
       bytes: file.bytes,
@@ -263,7 +284,7 @@ function couplingAggressor(a: AggressorSpec & { source: "coupling" }, i: number,
   try {
     fp = pulseFromCoupling(model, grid);
   } catch (e) {
-    if (e instanceof RangeError || e instanceof TypeError) throw unprocessable(`Aggressor ${aggressorName(a, i)}: ${e.message}`, "aggressors");
+    if (e instanceof RangeError || e instanceof TypeError) throw unusable(`Aggressor ${aggressorName(a, i)}: ${e.message}`, "aggressors");
     throw e;
   }
   return storedAggressor(aggressorName(a, i), a.kind, "coupling", fp.pulse, fp.insertionLoss, { coupling: model });
@@ -280,19 +301,19 @@ function withIcn(aggressors: DerivedAggressor[], ui_s: number): DerivedAggressor
 }
 
 /** Derives a synthetic channel from the loss model, with coupling-model aggressors. */
-export function deriveSynthetic(bitRate_bps: number, modulation: ModulationName, model: LossModel, aggressors: AggressorSpec[] = []): DerivedChannel {
+export function deriveSynthetic(bitRate_bps: number, modulation: Modulation, model: LossModel, aggressors: AggressorSpec[] = []): DerivedChannel {
   const ui_s = unitInterval_s(bitRate_bps, modulation);
   let fp: FrequencyPulse;
   try {
     fp = pulseFromLossModel(model, { ui_s, samplesPerUi: SAMPLES_PER_UI });
   } catch (e) {
-    if (e instanceof RangeError || e instanceof TypeError) throw unprocessable(e.message, "lossModel");
+    if (e instanceof RangeError || e instanceof TypeError) throw unusable(e.message, "lossModel");
     throw e;
   }
   const derived = fromFrequency("synthetic", fp, ui_s, { modulation, ui_s, samplesPerUi: SAMPLES_PER_UI, source: "loss-model", lossModel: model });
   const grid = { ui_s, samplesPerUi: SAMPLES_PER_UI };
   const own = aggressors.map((a, i) => {
-    if (a.source !== "coupling") throw badRequest(`Aggressor ${aggressorName(a, i)}: a synthetic channel's aggressors come from the coupling model (source "coupling").`, "aggressors");
+    if (a.source !== "coupling") throw malformed(`Aggressor ${aggressorName(a, i)}: a synthetic channel's aggressors come from the coupling model (source "coupling").`, "aggressors");
     return couplingAggressor(a, i, grid);
   });
   return { ...derived, aggressors: withIcn(own, ui_s) };

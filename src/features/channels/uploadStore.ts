@@ -5,6 +5,7 @@ import { createStore } from "zustand/vanilla";
 import { sendForm } from "./sendForm";
 import { MAX_UPLOAD_BYTES, commonPairings, formatBytes, type DerivedChannel, type PortPairs } from "./channels";
 import { MAX_CHANNEL_AGGRESSORS, type AggressorSpec } from "./aggressors";
+import type { Modulation } from "@lib/types";
 
 export type CsvKind = "pulse-csv" | "step-csv" | "impulse-csv";
 /** The victim file's format; "multiport" is an .s8p, .s12p or .s16p file (a lane with its neighbours). */
@@ -31,7 +32,7 @@ export interface AggressorRow {
 export interface UploadFields {
   name: string;
   bitRate_Gbps: string;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
   csvKind: CsvKind;
   pairs: PortPairs;
   riseTime_ps: string;

@@ -2,6 +2,7 @@
 // Brackenridge backplane to the switch card, plus the module cage's PAM4 lanes. Channels from
 // short to very long reach, two budgets, and the tuning runs that the seed computes.
 import { budgetPresets } from "@/features/budgets/budgets";
+import type { Modulation } from "@lib/types";
 
 export const DEMO_PROGRAM = {
   name: "QL-48 line card · Brackenridge backplane",
@@ -12,7 +13,7 @@ export const DEMO_PROGRAM = {
 export interface DemoChannel {
   name: string;
   bitRate_bps: number;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
   lossAtNyquist_dB: number;
   delay_s: number;
   /** Delivered as a generated Touchstone 4-port file (kept as the channel's original) instead of a loss model. */

@@ -1,6 +1,10 @@
-// Request schemas for people, roles and invitations (shared by the API and the admin page).
+// People's roles, and the request schemas for people, roles and invitations (shared by the API,
+// the admin page and the database schema).
 import { z } from "zod";
-import { roles } from "@/db/schema/auth";
+
+/** The four roles of Tapwright; the rules of what each may do live in src/server/auth/rules.ts. */
+export const roles = ["admin", "designer", "firmware", "reviewer"] as const;
+export type Role = (typeof roles)[number];
 
 export const roleSchema = z.enum(roles, { message: `Role must be one of ${roles.join(", ")}.` });
 
@@ -19,7 +23,7 @@ export const acceptInvitationRequest = z.object({
   password: z.string().min(10, "Use at least 10 characters.").max(128, "Use at most 128 characters."),
 });
 
-export const roleLabels: Record<(typeof roles)[number], string> = {
+export const roleLabels: Record<Role, string> = {
   admin: "Admin",
   designer: "Designer",
   firmware: "Firmware",

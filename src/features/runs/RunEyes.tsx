@@ -3,11 +3,12 @@
 import { useMemo, useState } from "react";
 import DensityEye, { type EyeOpening } from "@/components/charts/DensityEye";
 import { unpackEye, type PackedEye } from "./runs";
+import type { Modulation } from "@lib/types";
 
 interface Props {
   before: PackedEye;
   after: PackedEye;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
 }
 
 const mV = (v: number) => v * 1e3;

@@ -1,18 +1,19 @@
 // Start a tuning run: pick a channel and a budget (one may be fixed by the page), then go to the run.
 import { useState } from "react";
 import { api } from "@/components/api";
+import type { Modulation } from "@lib/types";
 
 interface ChannelChoice {
   id: number;
   name: string;
   bitRate_bps: number;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
   lossAtNyquist_dB: number | null;
 }
 interface BudgetChoice {
   id: number;
   name: string;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
   bitRate_bps: number | null;
 }
 

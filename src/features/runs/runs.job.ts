@@ -3,14 +3,14 @@
 import { pulseFromJson } from "@lib/pulse";
 import { tuningRun, type TuningRunResult } from "@lib/run";
 import type { BudgetInput } from "@lib/contract/budget";
-import type { StoredPulse } from "@/db/schema/channels";
+import type { StoredPulse } from "@/features/channels/channels";
 
 /** What the worker receives for a run: the copies taken when the run started. */
 export interface RunJobInput {
   pulse: StoredPulse;
-  budget: Record<string, unknown>;
+  budget: BudgetInput;
 }
 
 export function computeRun(input: RunJobInput, onProgress?: (fraction: number) => void): TuningRunResult {
-  return tuningRun(pulseFromJson(input.pulse), input.budget as BudgetInput, onProgress);
+  return tuningRun(pulseFromJson(input.pulse), input.budget, onProgress);
 }

@@ -3,7 +3,8 @@
 // (runs.job.ts); this module tells the queue how to read a run's input and store its result.
 import { and, count, desc, eq, sql, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
-import { budgets, channels, jobs, runs, users, type JobStatus, type RunInputs } from "@/db/schema";
+import { budgets, channels, jobs, runs, users } from "@/db/schema";
+import type { JobStatus } from "@/features/jobs/jobs";
 import { apiStatus, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
@@ -11,7 +12,7 @@ import type { SessionUser } from "@/server/auth/sessionUser";
 import type { TuningRunResult } from "@lib/run";
 import type { BudgetInput } from "@lib/contract/budget";
 import { checkBudgetFits } from "@/server/sources.server";
-import { listQuery, type RunListItem, type RunListQuery, type RunSummary, type RunView, type StartRunRequest } from "./runs";
+import { listQuery, type RunInputs, type RunListItem, type RunListQuery, type RunSummary, type RunView, type StartRunRequest } from "./runs";
 
 /** Adds the run and its queued job; the job's target is the run (so the job comes first, then points back). */
 async function insertRun(tx: Tx, user: SessionUser | null, inputs: RunInputs, links: { channelId: number | null; budgetId: number | null; rerunOf?: number }) {
@@ -39,7 +40,7 @@ export async function storeRunResult(tx: Tx, runId: number, result: TuningRunRes
   };
   await tx
     .update(runs)
-    .set({ result: result as unknown as Record<string, unknown>, engineVersion: result.engineVersion, summary })
+    .set({ result: result, engineVersion: result.engineVersion, summary })
     .where(eq(runs.id, runId));
 }
 

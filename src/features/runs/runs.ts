@@ -1,8 +1,10 @@
 // Tuning runs: request schemas, the shapes the API answers, and small presentation helpers.
 // No server code here: islands import this file.
 import { z } from "zod";
-import type { ApiJobStatus, RunInputs } from "@/db/schema/jobs";
+import type { Budget } from "@lib/contract/budget";
 import type { TuningRunResult } from "@lib/run";
+import type { ApiJobStatus } from "@/features/jobs/jobs";
+import type { StoredPulse } from "@/features/channels/channels";
 
 const id = (what: string) => z.number({ error: `${what} must be a number.` }).int(`${what} must be an integer.`).positive(`${what} must be positive.`);
 
@@ -19,6 +21,12 @@ export const listQuery = z.object({
 export type RunListQuery = z.input<typeof listQuery>;
 
 export const idParams = z.object({ id: z.coerce.number({ error: "The id must be a number." }).int().positive() });
+
+/** What a run was computed from, copied at its start so that it never changes afterwards (the budget as stored, defaults filled in). */
+export interface RunInputs {
+  channel: { id: number; name: string; bitRate_bps: number; pulse: StoredPulse };
+  budget: { id: number; name: string; params: Budget };
+}
 
 /** The short summary a finished run keeps for lists. */
 export interface RunSummary {
@@ -56,7 +64,7 @@ export interface RunTimings {
 export interface RunView extends RunListItem {
   jobId: number;
   inputs: RunInputs;
-  result: Record<string, unknown> | null;
+  result: TuningRunResult | null;
   engineVersion: string | null;
   rerunOf: number | null;
   timings: RunTimings;

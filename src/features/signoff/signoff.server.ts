@@ -150,7 +150,7 @@ export async function addComment(user: SessionUser, id: number, req: CommentRequ
       if (!parent || parent.signOffId !== id) throw unprocessable("The comment you reply to is not in this sign-off.", "parentId");
     }
     if (req.channelName) {
-      const inputs = row.inputs as unknown as VersionInputs;
+      const inputs = row.inputs;
       const names = inputs.classes.flatMap((c) => c.channels.map((ch) => ch.name));
       if (!names.includes(req.channelName)) throw unprocessable(`“${req.channelName}” is not a channel of this version.`, "channelName");
     }
@@ -251,8 +251,8 @@ export async function detail(id: number): Promise<SignOffDetail> {
   const [row] = await listBase().where(eq(signOffs.id, id));
   if (!row) throw notFound(`Sign-off ${id}`);
   const [v] = await db.select({ inputs: tapTableVersions.inputs, result: tapTableVersions.result }).from(tapTableVersions).where(eq(tapTableVersions.id, row.s.versionId));
-  const inputs = v.inputs as unknown as VersionInputs;
-  const result = v.result as unknown as VersionResult | null;
+  const inputs = v.inputs;
+  const result = v.result;
   const b = parseBudget(inputs.budget.params, inputs.budget.name);
   return {
     ...listItem(row),

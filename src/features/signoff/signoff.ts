@@ -1,8 +1,7 @@
 // Sign-off of a tap table version: request schemas, the shapes the API answers, and the comment
 // thread as a tree. No server code here: islands import this file.
 import { z } from "zod";
-import type { VersionState } from "@/db/schema/tapTables";
-import type { ClassResult, VersionInputs } from "@/features/tapTables/tapTables";
+import type { ClassResult, VersionInputs, VersionState } from "@/features/tapTables/tapTables";
 
 export const signOffStates = ["pending", "approved", "rejected"] as const;
 export type SignOffState = (typeof signOffStates)[number];

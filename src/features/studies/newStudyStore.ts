@@ -3,11 +3,12 @@
 import { createStore } from "zustand/vanilla";
 import { api } from "@/components/api";
 import type { Architecture } from "./architecture";
+import type { Modulation } from "@lib/types";
 
 export interface StudyBudgetChoice {
   id: number;
   name: string;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
   bitRate_bps: number | null;
   /** The usual candidates under this budget (its transmit FIR, DFE up to its tap count). */
   candidates: Architecture[];
@@ -17,7 +18,7 @@ export interface StudyChannelChoice {
   id: number;
   name: string;
   bitRate_bps: number;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
   lossAtNyquist_dB: number | null;
 }
 

@@ -33,7 +33,7 @@ export async function startStudy(user: SessionUser, req: CreateStudyRequest, her
     const jobId = await enqueueJob(tx, "study", 0);
     const [{ id }] = await tx
       .insert(studies)
-      .values({ name, jobId, budgetId: budget.id, inputs: inputs as unknown as Record<string, unknown>, createdBy: user.id })
+      .values({ name, jobId, budgetId: budget.id, inputs, createdBy: user.id })
       .$returningId();
     await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
     await recordAudit(tx, user, "study.start", "study", id, {
@@ -52,7 +52,7 @@ export async function startStudy(user: SessionUser, req: CreateStudyRequest, her
 async function saveStudy(tx: Tx, id: number, r: StudyResult) {
   await tx
     .update(studies)
-    .set({ result: r as unknown as Record<string, unknown>, engineVersion: r.engineVersion })
+    .set({ result: r, engineVersion: r.engineVersion })
     .where(eq(studies.id, id));
 }
 
@@ -75,7 +75,7 @@ async function personName(id: string | null): Promise<string | null> {
 /** The decision record of a study for people: the candidate's label, who decided and when. */
 async function decisionView(study: Study): Promise<DecisionView | null> {
   if (!study.decision) return null;
-  const inputs = study.inputs as unknown as StudyInputs;
+  const inputs = study.inputs;
   const c = inputs.candidates.find((x) => x.key === study.decision!.candidateKey);
   return {
     candidateKey: study.decision.candidateKey,
@@ -89,7 +89,7 @@ async function decisionView(study: Study): Promise<DecisionView | null> {
 /** GET /api/v1/studies/:id: inputs (without pulses), status and progress, result and decision. */
 export async function getStudy(id: number) {
   const { study, job } = await studyRow(db, id);
-  const inputs = study.inputs as unknown as StudyInputs;
+  const inputs = study.inputs;
   return {
     id: study.id,
     name: study.name,
@@ -97,7 +97,7 @@ export async function getStudy(id: number) {
     budget: { id: inputs.budget.id, name: inputs.budget.name },
     channels: withoutPulses(inputs.channels),
     candidates: inputs.candidates,
-    result: (study.result as unknown as StudyResult | null) ?? null,
+    result: study.result ?? null,
     engineVersion: study.engineVersion,
     decision: await decisionView(study),
     createdBy: await personName(study.createdBy),
@@ -122,8 +122,8 @@ export async function listStudies(limit: number, cursor?: number) {
     .orderBy(desc(studies.id))
     .limit(limit + 1);
   const items = rows.slice(0, limit).map(({ study, job, by }) => {
-    const inputs = study.inputs as unknown as StudyInputs;
-    const result = study.result as unknown as StudyResult | null;
+    const inputs = study.inputs;
+    const result = study.result;
     const chosen = study.decision ? inputs.candidates.find((c) => c.key === study.decision!.candidateKey) : undefined;
     return {
       id: study.id,
@@ -148,8 +148,8 @@ export async function decideStudy(user: SessionUser, id: number, req: DecisionRe
     const [row] = await tx.select().from(studies).where(eq(studies.id, id)).for("update");
     if (!row) throw notFound(`Study ${id}`);
     const [job] = await tx.select().from(jobs).where(eq(jobs.id, row.jobId));
-    if (job.status !== "done") throw conflict("The study has not finished; record the decision once its results are in.");
-    const result = row.result as unknown as StudyResult;
+    const result = row.result;
+    if (job.status !== "done" || !result) throw conflict("The study has not finished; record the decision once its results are in.");
     if (!result.candidates.some((c) => c.key === req.candidateKey)) {
       throw unprocessable(`“${req.candidateKey}” is not one of this study's candidates.`, "candidateKey");
     }
@@ -196,7 +196,7 @@ export async function decidedStudies() {
   return rows
     .filter((r) => r.study.decision)
     .map(({ study }) => {
-      const inputs = study.inputs as unknown as StudyInputs;
+      const inputs = study.inputs;
       const chosen = inputs.candidates.find((c) => c.key === study.decision!.candidateKey)!;
       return {
         id: study.id,

@@ -2,7 +2,7 @@
 // presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
 import type { BudgetInput } from "@lib/contract/budget";
-import type { StoredPulse } from "@/db/schema/channels";
+import type { StoredPulse } from "@/features/channels/channels";
 import { architectureSchema, type Architecture } from "./architecture";
 
 /** Largest number of channels one study evaluates. */
@@ -44,6 +44,12 @@ export const listQuery = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),
   cursor: z.coerce.number().int().positive().optional(),
 });
+
+/** The architecture a study's designer chose, and why. */
+export interface StudyDecision {
+  candidateKey: string;
+  rationale: string;
+}
 
 /** What a study was computed from (copies taken at its start). */
 export interface StudyInputs {

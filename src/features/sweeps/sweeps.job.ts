@@ -9,7 +9,7 @@ import { optimize } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
 import { ENGINE_VERSION } from "@lib/run";
 import type { Pulse } from "@lib/types";
-import type { ChannelKind, StoredPulse } from "@/db/schema/channels";
+import type { ChannelKind, StoredPulse } from "@/features/channels/channels";
 import type { SweepSummary } from "@/db/schema/sweeps";
 import { storedPulse } from "@/features/channels/derive";
 import { worstPerChannel, type PairResult, type SweepInputs } from "./sweeps";

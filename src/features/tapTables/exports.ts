@@ -2,10 +2,9 @@
 // README): CSV (one row per class, register codes), JSON (everything, codes and physical values)
 // and a C header (the register map as macros and one array of default settings per class).
 import { codeRange } from "@lib/tapTables";
-import type { VersionState } from "@/db/schema/tapTables";
 import type { Architecture } from "@/features/studies/architecture";
 import type { RegisterField } from "./registerMap";
-import type { ClassResult, ExportFormat } from "./tapTables";
+import type { ClassResult, ExportFormat, VersionState } from "./tapTables";
 
 /** Everything an export holds. */
 export interface ExportModel {

@@ -5,11 +5,12 @@ import { api } from "@/components/api";
 import { describeArchitecture, type Architecture } from "@/features/studies/architecture";
 import type { BudgetForMap, RegisterField } from "./registerMap";
 import type { Grouping } from "./tapTables";
+import type { Modulation } from "@lib/types";
 
 export interface TapTableBudgetChoice {
   id: number;
   name: string;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
   bitRate_bps: number | null;
   params: BudgetForMap;
 }
@@ -18,7 +19,7 @@ export interface TapTableChannelChoice {
   id: number;
   name: string;
   bitRate_bps: number;
-  modulation: "nrz" | "pam4";
+  modulation: Modulation;
   lossAtNyquist_dB: number | null;
 }
 

@@ -2,7 +2,7 @@
 // architecture, each with a name, bit width, signedness, LSB in physical units and a range.
 // The default map follows the architecture and the budget; people edit it per field.
 import { z } from "zod";
-import { PARAMETER_PATTERN } from "@lib/tapTables/registerMap";
+import { codeRange, PARAMETER_PATTERN } from "@lib/tapTables/registerMap";
 import type { Architecture } from "@/features/studies/architecture";
 
 /** Physical unit of a field (the engine's register map): taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */
@@ -110,6 +110,33 @@ export function defaultRegisterMap(a: Architecture, budget: BudgetForMap): Regis
 /** The parameters an architecture needs a field for (in register-map order). */
 export function requiredParameters(a: Architecture, budget: BudgetForMap): string[] {
   return defaultRegisterMap(a, budget).map((f) => f.parameter);
+}
+
+/**
+ * What keeps a register map from encoding an architecture: a missing or stray field, or a field
+ * with no code inside its range at its width and LSB; null when the map fits. `path` names the
+ * request field at fault.
+ */
+export function registerMapProblem(map: readonly RegisterField[], architecture: Architecture, budget: BudgetForMap): { message: string; path: string } | null {
+  const needed = requiredParameters(architecture, budget);
+  const have = new Set(map.map((f) => f.parameter));
+  const missing = needed.filter((p) => !have.has(p));
+  if (missing.length > 0) {
+    return { message: `The register map has no field for ${missing.join(", ")} (the architecture “${architecture.label}” needs one).`, path: "registerMap" };
+  }
+  const stray = map.findIndex((f) => !needed.includes(f.parameter));
+  if (stray !== -1) {
+    return { message: `The field “${map[stray].name}” holds ${map[stray].parameter}, which “${architecture.label}” does not have.`, path: `registerMap.${stray}.parameter` };
+  }
+  for (const [i, f] of map.entries()) {
+    try {
+      codeRange(f);
+    } catch (e) {
+      if (e instanceof RangeError) return { message: `${e.message}; widen the field or change its LSB or range.`, path: `registerMap.${i}` };
+      throw e;
+    }
+  }
+  return null;
 }
 
 /** A field's value for people, in its unit (DFE taps in mV). */

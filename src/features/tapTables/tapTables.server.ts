@@ -14,8 +14,7 @@ import type { Architecture } from "@/features/studies/architecture";
 import type { StudyInputs } from "@/features/studies/studies";
 import { budgetCopy, channelCopies, checkBudgetFits, checkOneRate, findChannels, parseBudget, type BudgetCopy, type ChannelCopy } from "@/server/sources.server";
 import { classesOf, groupingChannelIds, GroupingError } from "./grouping";
-import { defaultRegisterMap, type RegisterField } from "./registerMap";
-import { checkRegisterMap } from "./registerCheck";
+import { defaultRegisterMap, registerMapProblem, type BudgetForMap, type RegisterField } from "./registerMap";
 import { budgetForArchitecture, tapTableArchitectureProblem } from "./architectureBudget";
 import { finishHere, type RunHere } from "@/server/jobs/inlineJob.server";
 import { diffVersions } from "./diff";
@@ -42,7 +41,7 @@ async function resolveArchitecture(tx: DbOrTx, studyId: number | undefined, give
   const [s] = await tx.select().from(studies).where(eq(studies.id, studyId));
   if (!s) throw notFound(`Study ${studyId}`);
   if (!s.decision) throw unprocessable(`The study “${s.name}” has no recorded decision yet; record the chosen architecture first.`, "studyId");
-  const inputs = s.inputs as unknown as StudyInputs;
+  const inputs = s.inputs;
   const chosen = inputs.candidates.find((c) => c.key === s.decision!.candidateKey);
   if (!chosen) throw unprocessable(`The study's decision names an unknown candidate.`, "studyId");
   if (given && given.key !== chosen.key) {
@@ -62,6 +61,12 @@ async function resolveArchitecture(tx: DbOrTx, studyId: number | undefined, give
       },
     },
   };
+}
+
+/** 422 naming the field when a register map cannot encode the architecture. */
+function checkRegisterMap(map: readonly RegisterField[], architecture: Architecture, budget: BudgetForMap): void {
+  const problem = registerMapProblem(map, architecture, budget);
+  if (problem) throw unprocessable(problem.message, problem.path);
 }
 
 /** Builds a version's inputs; 422 with the field's path for what cannot be grouped or mapped. */
@@ -104,7 +109,7 @@ async function insertVersion(tx: DbOrTx, user: SessionUser, tableId: number, ver
       version,
       jobId,
       budgetId: inputs.budget.id,
-      inputs: inputs as unknown as Record<string, unknown>,
+      inputs,
       note: note ?? null,
       createdBy: user.id,
     })
@@ -168,7 +173,7 @@ export async function createVersion(user: SessionUser, tableId: number, req: Cre
       .where(eq(tapTableVersions.tableId, tableId))
       .orderBy(desc(tapTableVersions.version))
       .limit(1);
-    const prev = latest.inputs as unknown as VersionInputs;
+    const prev = latest.inputs;
     const budget = req.budgetId !== undefined ? await budgetCopy(tx, req.budgetId) : await budgetCopy(tx, prev.budget.id).catch((e) => {
       if (e instanceof ApiError && e.status === 404) return { ...prev.budget, budget: parseBudget(prev.budget.params, prev.budget.name) };
       throw e;
@@ -231,7 +236,7 @@ function inputsView(inputs: VersionInputs) {
 /** GET /api/v1/tap-tables/:id/versions/:v: inputs, status, result, the diff against the previous computed version, sign-offs. */
 export async function getVersion(tableId: number, v: number) {
   const { version, job, table } = await versionRow(tableId, v);
-  const result = version.result as unknown as VersionResult | null;
+  const result = version.result;
   let diff = null;
   if (result && v > 1) {
     const [prev] = await db
@@ -240,7 +245,7 @@ export async function getVersion(tableId: number, v: number) {
       .where(and(eq(tapTableVersions.tableId, tableId), lt(tapTableVersions.version, v)))
       .orderBy(desc(tapTableVersions.version))
       .limit(1);
-    const prevResult = prev?.result as unknown as VersionResult | null;
+    const prevResult = prev?.result;
     if (prev && prevResult) diff = diffVersions(prev.version, prevResult.classes, result.classes);
   }
   const reviews = await db
@@ -260,7 +265,7 @@ export async function getVersion(tableId: number, v: number) {
     createdBy: creator?.name ?? null,
     createdAt: version.createdAt,
     job: jobStatus(job),
-    inputs: inputsView(version.inputs as unknown as VersionInputs),
+    inputs: inputsView(version.inputs),
     result,
     engineVersion: version.engineVersion,
     diff,
@@ -380,13 +385,13 @@ export async function updateVersion(user: SessionUser, tableId: number, v: numbe
       .for("update");
     if (!row) throw notFound(`Version ${v} of tap table ${tableId}`);
     assertEditable(row);
-    const inputs = row.inputs as unknown as VersionInputs;
+    const inputs = row.inputs;
     const changes: Partial<typeof tapTableVersions.$inferInsert> = {};
     if (req.note !== undefined) changes.note = req.note;
     const mapChanged = req.registerMap !== undefined && JSON.stringify(req.registerMap) !== JSON.stringify(inputs.registerMap);
     if (mapChanged) {
       checkRegisterMap(req.registerMap!, inputs.architecture, parseBudget(inputs.budget.params, inputs.budget.name));
-      changes.inputs = { ...inputs, registerMap: req.registerMap! } as unknown as Record<string, unknown>;
+      changes.inputs = { ...inputs, registerMap: req.registerMap! };
       changes.state = "computing";
       changes.result = null;
       changes.jobId = await enqueueJob(tx, "table-version", row.id);
@@ -410,7 +415,7 @@ export async function exportVersion(user: SessionUser, via: "session" | "token" 
   if (!version.result) {
     throw conflict(version.state === "failed" ? `v${v} failed to compute; there is nothing to export.` : `v${v} is still computing; export it when it is done.`);
   }
-  const model = await exportModel(table, version);
+  const model = await exportModel(table, version, version.result);
   const body = renderExport(model, format);
   await recordAudit(db, user, "table.export", "tap-table", tableId, { version: v, format, state: version.state, via });
   return { filename: exportFilename(model, format), contentType: exportMediaType(format), body, cacheControl: "no-store" };
@@ -427,9 +432,8 @@ async function approvalOf(versionId: number) {
   return row && row.at ? { by: row.by, at: row.at } : null;
 }
 
-async function exportModel(table: typeof tapTables.$inferSelect, version: TapTableVersion): Promise<ExportModel> {
-  const inputs = version.inputs as unknown as VersionInputs;
-  const result = version.result as unknown as VersionResult;
+async function exportModel(table: typeof tapTables.$inferSelect, version: TapTableVersion, result: VersionResult): Promise<ExportModel> {
+  const inputs = version.inputs;
   const b = parseBudget(inputs.budget.params, inputs.budget.name);
   return {
     table: { id: table.id, name: table.name },
@@ -455,7 +459,7 @@ async function exportModel(table: typeof tapTables.$inferSelect, version: TapTab
 export async function reportOf(tableId: number, v: number) {
   const view = await getVersion(tableId, v);
   const { version } = await versionRow(tableId, v);
-  const inputs = version.inputs as unknown as VersionInputs;
+  const inputs = version.inputs;
   return {
     ...view,
     budgetParams: parseBudget(inputs.budget.params, inputs.budget.name),
@@ -467,7 +471,7 @@ export async function reportOf(tableId: number, v: number) {
 async function saveVersion(tx: Tx, versionId: number, r: VersionResult) {
   await tx
     .update(tapTableVersions)
-    .set({ result: r as unknown as Record<string, unknown>, engineVersion: r.engineVersion, state: "ready" })
+    .set({ result: r, engineVersion: r.engineVersion, state: "ready" })
     .where(eq(tapTableVersions.id, versionId));
   await tx.delete(tapTableRows).where(eq(tapTableRows.versionId, versionId));
   if (r.classes.length > 0) {

@@ -2,13 +2,16 @@
 // and small presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
 import type { BudgetInput } from "@lib/contract/budget";
-import type { VersionState } from "@/db/schema/tapTables";
-import type { StoredPulse } from "@/db/schema/channels";
+import type { StoredPulse } from "@/features/channels/channels";
 import type { EyeFigure } from "@lib/run";
 import { architectureSchema, type Architecture } from "@/features/studies/architecture";
 import { registerMapSchema, type RegisterField } from "./registerMap";
 
 export { architectureSchema, type Architecture };
+
+/** computing → ready → in-review → approved (frozen) | changes-requested; failed when the job failed (the schema's enum). */
+export const versionStates = ["computing", "failed", "ready", "in-review", "approved", "changes-requested"] as const;
+export type VersionState = (typeof versionStates)[number];
 
 const name = z.string({ error: "Give the tap table a name." }).trim().min(1, "Give the tap table a name.").max(200, "Keep the name under 200 characters.");
 const note = z.string().trim().max(2000, "Keep the note under 2000 characters.");

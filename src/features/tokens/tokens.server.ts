@@ -2,7 +2,8 @@
 import { createHash, randomBytes } from "node:crypto";
 import { and, desc, eq, gt, isNull, or, sql } from "drizzle-orm";
 import { db } from "@/server/db.server";
-import { apiTokens, users, type Role } from "@/db/schema";
+import { apiTokens, users } from "@/db/schema";
+import type { Role } from "@/features/people/people";
 import { ApiError, notFound } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";

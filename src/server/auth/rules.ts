@@ -1,6 +1,6 @@
 // Who may do what: the one table of access rules for pages and API routes (api.md's role matrix).
 // The middleware applies the first rule whose method and path match; nothing else checks roles.
-import type { Role } from "@/db/schema/auth";
+import type { Role } from "@/features/people/people";
 
 export type Access = "public" | "signed-in" | readonly Role[];
 

@@ -1,5 +1,5 @@
 // The signed-in person as pages, endpoints and services see them.
-import type { Role } from "@/db/schema/auth";
+import type { Role } from "@/features/people/people";
 
 export interface SessionUser {
   id: string;

@@ -5,7 +5,8 @@
 import { randomUUID } from "node:crypto";
 import { and, asc, eq, inArray, lt, ne, or, sql } from "drizzle-orm";
 import { db, type Tx } from "../db.server";
-import { jobs, type Job, type JobKind } from "@/db/schema";
+import { jobs, type Job } from "@/db/schema";
+import type { JobKind } from "@/features/jobs/jobs";
 import { config } from "../config.server";
 import { handlerFor } from "./kinds.server";
 

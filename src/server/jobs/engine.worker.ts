@@ -1,7 +1,7 @@
 // The engine worker (bundled to dist/engine-worker.mjs, run by piscina off the event loop): one
 // function per kind of job, each taking the job's input and posting progress 0…1 on `port`.
 import type { MessagePort } from "node:worker_threads";
-import type { JobKind } from "@/db/schema/jobs";
+import type { JobKind } from "@/features/jobs/jobs";
 import { computeStudy } from "@/features/studies/studies.job";
 import type { StudyInputs } from "@/features/studies/studies";
 import { computeTapTableVersion } from "@/features/tapTables/tapTables.job";

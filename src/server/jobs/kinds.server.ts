@@ -2,7 +2,8 @@
 // how to store its result. Features register their kinds once (their server module is imported by
 // the web server's background work and by the standalone worker process).
 import type { Tx } from "../db.server";
-import type { Job, JobKind } from "@/db/schema";
+import type { Job } from "@/db/schema";
+import type { JobKind } from "@/features/jobs/jobs";
 
 export interface JobHandler {
   /** The worker's input, read from the job's target row (`job.targetId`, and `job.part` for a share of it). */

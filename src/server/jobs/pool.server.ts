@@ -5,7 +5,7 @@ import { availableParallelism } from "node:os";
 import { dirname, join, resolve } from "node:path";
 import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
-import type { JobKind } from "@/db/schema";
+import type { JobKind } from "@/features/jobs/jobs";
 import { config } from "@/server/config.server";
 
 function workerFile(): string {

@@ -4,7 +4,8 @@
 // go to BullMQ on Redis for standalone workers. The rows in MariaDB carry status and progress either way.
 import { count, eq, inArray } from "drizzle-orm";
 import { db, type DbOrTx } from "../db.server";
-import { jobs, type ApiJobStatus, type Job, type JobKind, type JobStatus } from "@/db/schema";
+import { jobs, type Job } from "@/db/schema";
+import type { ApiJobStatus, JobKind, JobStatus } from "@/features/jobs/jobs";
 import { config } from "../config.server";
 import { embeddedWorker, pumpEmbedded, startEmbeddedDispatcher } from "./embedded.server";
 
