@@ -13,3 +13,4 @@ export * from "./corner.ts";
 export * from "./eye.ts";
 export * from "./optimize.ts";
 export * from "./population.ts";
+export * from "./registerField.ts";

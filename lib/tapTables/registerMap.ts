@@ -1,8 +1,11 @@
 // The register map firmware writes equalizer settings through: per field a bit width, signedness, an
 // LSB in physical units and a range; values become codes and codes become values.
 
-/** Physical unit of a field: FIR/FFE taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */
-export type FieldUnit = "fraction" | "dB" | "V";
+/** Physical units of a field: FIR/FFE taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */
+export const fieldUnits = ["fraction", "dB", "V"] as const;
+
+/** Physical unit of a field (one of {@link fieldUnits}). */
+export type FieldUnit = (typeof fieldUnits)[number];
 
 /**
  * One register field. `parameter` names the equalizer quantity it holds: `tx[k]` (transmit FIR tap at

@@ -2,28 +2,25 @@
 // architecture, each with a name, bit width, signedness, LSB in physical units and a range.
 // The default map follows the architecture and the budget; people edit it per field.
 import { z } from "zod";
-import { codeRange, PARAMETER_PATTERN } from "@lib/tapTables/registerMap";
+import { MAX_REGISTER_FIELDS, registerFieldObject } from "@lib/contract/registerField";
+import { codeRange, type FieldUnit } from "@lib/tapTables/registerMap";
 import type { Architecture } from "@/features/studies/architecture";
 
-/** Physical unit of a field (the engine's register map): taps as a fraction of the peak swing, CTLE gains in dB, DFE taps in volts. */
-export const fieldUnits = ["fraction", "dB", "V"] as const;
-export type FieldUnit = (typeof fieldUnits)[number];
-
+/** How the unit of a field reads in tables. */
 export const unitLabels: Record<FieldUnit, string> = { fraction: "× peak swing", dB: "dB", V: "V" };
 
-export const registerFieldSchema = z
-  .object({
+/**
+ * The engine's register field with the app's stricter rules: a lowercase name of at most 32
+ * characters (the C header's macros are built from it), at most 16 bits (the firmware's
+ * registers), and signed whenever the range goes below 0.
+ */
+export const registerFieldSchema = registerFieldObject
+  .extend({
     name: z
       .string()
       .trim()
       .regex(/^[a-z][a-z0-9_]{0,31}$/, "A field name is a C identifier in lowercase: a letter, then letters, digits or _ (at most 32)."),
-    parameter: z.string().regex(PARAMETER_PATTERN, "parameter must be tx[k], ctle.gDc_dB, ctle.gDc2_dB, dfe[n] or ffe[k]."),
-    bits: z.int({ error: "bits is a whole number." }).min(1, "A field has at least 1 bit.").max(16, "A field has at most 16 bits."),
-    signed: z.boolean({ error: "signed is true or false." }),
-    lsb: z.number({ error: "lsb is a number in the field's unit." }).positive("The LSB must be > 0."),
-    unit: z.enum(fieldUnits, { error: 'unit must be "fraction", "dB" or "V".' }),
-    min: z.number({ error: "min is a number in the field's unit." }),
-    max: z.number({ error: "max is a number in the field's unit." }),
+    bits: registerFieldObject.shape.bits.max(16, "A field has at most 16 bits."),
   })
   .superRefine((f, ctx) => {
     if (f.min > f.max) ctx.addIssue({ code: "custom", path: ["min"], message: `${f.name}: min (${f.min}) must not exceed max (${f.max}).` });
@@ -36,7 +33,7 @@ export type RegisterField = z.infer<typeof registerFieldSchema>;
 export const registerMapSchema = z
   .array(registerFieldSchema, { error: "The register map is a list of fields." })
   .min(1, "The register map needs at least one field.")
-  .max(64, "At most 64 fields.")
+  .max(MAX_REGISTER_FIELDS, `At most ${MAX_REGISTER_FIELDS} fields.`)
   .refine((fs) => new Set(fs.map((f) => f.name)).size === fs.length, "Two fields have the same name; names must be unique.")
   .refine((fs) => new Set(fs.map((f) => f.parameter)).size === fs.length, "Two fields hold the same parameter.");
 
