@@ -2,7 +2,7 @@
 // worker pool computes a version (src/features/tapTables/tapTables.job.ts), in-process.
 import { bench, describe } from "vitest";
 import { deriveSynthetic } from "@/features/channels/derive";
-import { budgetPresets } from "@/features/budgets/budgets";
+import { budgetPresets } from "@/features/budgets/budgetPresets";
 import { defaultRegisterMap } from "@/features/tapTables/registerMap";
 import { computeTapTableVersion } from "@/features/tapTables/tapTables.job";
 import type { VersionClass, VersionInputs } from "@/features/tapTables/tapTables";

@@ -3,7 +3,8 @@
 import { useState } from "react";
 import { useStore } from "zustand";
 import { createBudgetFormStore } from "./budgetFormStore";
-import { budgetForm, budgetPresets, type FieldSpec } from "./budgets";
+import { budgetForm, type FieldSpec } from "./budgetForm";
+import { budgetPresets } from "./budgetPresets";
 import type { BudgetInput } from "@lib/contract/budget";
 
 interface Props {

@@ -2,7 +2,9 @@
 // and saving. Validation uses the engine's own schema, exactly as the server does.
 import { createStore } from "zustand/vanilla";
 import { api, ApiCallError } from "@/components/api";
-import { budgetFromDraft, budgetRequest, draftFromBudget, fieldForPath, type BudgetPreset, type Draft } from "./budgets";
+import { budgetRequest } from "./budgets";
+import { budgetFromDraft, draftFromBudget, fieldForPath, type Draft } from "./budgetForm";
+import type { BudgetPreset } from "./budgetPresets";
 import type { BudgetInput } from "@lib/contract/budget";
 
 export interface BudgetFormState {

@@ -1,7 +1,7 @@
 // The demo scenario (invented): Quillfeather Systems' QL-48 line card, whose lanes cross the
 // Brackenridge backplane to the switch card, plus the module cage's PAM4 lanes. Channels from
 // short to very long reach, two budgets, and the tuning runs that the seed computes.
-import { budgetPresets } from "@/features/budgets/budgets";
+import { budgetPresets } from "@/features/budgets/budgetPresets";
 import type { Modulation } from "@lib/types";
 
 export const DEMO_PROGRAM = {
