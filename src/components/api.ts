@@ -23,10 +23,3 @@ export async function api<T>(url: string, init: RequestInit & { json?: unknown }
   }
   return body as T;
 }
-
-/** A date as people read it here: 2026-12-01 14:05. */
-export function formatWhen(value: string | Date): string {
-  const d = new Date(value);
-  const pad = (n: number) => String(n).padStart(2, "0");
-  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())} ${pad(d.getHours())}:${pad(d.getMinutes())}`;
-}

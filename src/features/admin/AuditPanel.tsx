@@ -1,6 +1,7 @@
 // Admin: the audit trail with filters (action prefix, person, kind of thing, date range) and paging.
 import { useEffect, useState } from "react";
-import { api, formatWhen } from "@/components/api";
+import { api } from "@/components/api";
+import { formatWhen } from "@/components/format";
 
 interface Event {
   id: number;

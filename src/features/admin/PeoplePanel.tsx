@@ -1,7 +1,8 @@
 // Admin: everyone's role (changeable), offboarding (deactivate, end sessions), invitations by
 // e-mail, and the open invitations (revocable).
 import { useState } from "react";
-import { api, formatWhen } from "@/components/api";
+import { api } from "@/components/api";
+import { formatWhen } from "@/components/format";
 import { roles, type Role } from "@/features/people/people";
 
 interface Person { id: string; name: string; email: string; role: Role; deactivatedAt: string | Date | null; createdAt: string | Date }

@@ -1,9 +1,9 @@
 // The channel list: filter by name, kind and program; sort by any column; load more pages.
 import { useState } from "react";
 import { useStore } from "zustand";
-import { formatWhen } from "@/components/api";
+import { formatMillivolts, formatWhen } from "@/components/format";
 import { createChannelListStore } from "./channelListStore";
-import { formatBitRate, formatDb, formatMv, kindLabels, type ChannelListItem, type SortKey } from "./channels";
+import { formatBitRate, formatDb, kindLabels, type ChannelListItem, type SortKey } from "./channels";
 
 interface Props {
   items: ChannelListItem[];
@@ -90,7 +90,7 @@ export default function ChannelsTable(props: Props) {
                   {formatBitRate(c.bitRate_bps)} <span className="text-xs text-muted">{c.modulation.toUpperCase()}</span>
                 </td>
                 <td className="num text-right">{formatDb(c.lossAtNyquist_dB)}</td>
-                <td className="num text-right">{formatMv(c.mainCursor_V)}</td>
+                <td className="num text-right">{formatMillivolts(c.mainCursor_V)}</td>
                 <td>{c.createdBy ?? "—"}</td>
                 <td className="num whitespace-nowrap">{formatWhen(c.createdAt)}</td>
               </tr>

@@ -4,7 +4,8 @@
 import { useRef, useState } from "react";
 import { useStore } from "zustand";
 import { createUploadStore, type CsvKind } from "./uploadStore";
-import { commonPairings, formatBytes, formatDb, formatMv, type PortPairs } from "./channels";
+import { formatMillivolts } from "@/components/format";
+import { commonPairings, formatBytes, formatDb, type PortPairs } from "./channels";
 import ChannelCharts from "./ChannelCharts";
 import AggressorCharts from "./AggressorCharts";
 import AggressorRows from "./AggressorRows";
@@ -204,7 +205,7 @@ export default function UploadForm() {
         <section className="rounded-lg border border-line p-4" aria-label="Preview" data-testid="upload-preview">
           <p className="mb-3 text-sm text-ink-soft">
             Preview (not saved): loss at Nyquist <span className="num">{formatDb(s.preview.lossAtNyquist_dB)}</span>, main cursor{" "}
-            <span className="num">{formatMv(s.preview.mainCursor_V)}</span>.
+            <span className="num">{formatMillivolts(s.preview.mainCursor_V)}</span>.
           </p>
           <ChannelCharts
             pulse={s.preview.pulse}
@@ -217,7 +218,7 @@ export default function UploadForm() {
             <div className="mt-4" data-testid="preview-aggressors">
               <p className="mb-2 text-sm text-ink-soft">
                 {s.preview.aggressors.length} aggressor{s.preview.aggressors.length === 1 ? "" : "s"}; ICN for 1 Vppd:{" "}
-                {s.preview.aggressors.map((a) => `${a.name} ${formatMv(a.icnRms_V)}`).join(", ")}.
+                {s.preview.aggressors.map((a) => `${a.name} ${formatMillivolts(a.icnRms_V)}`).join(", ")}.
               </p>
               <AggressorCharts aggressors={s.preview.aggressors} insertionLoss={s.preview.insertionLoss} transfer={String(s.preview.derivation.transfer ?? "S21")} height={220} />
             </div>

@@ -211,11 +211,6 @@ export function formatDb(value: number | null | undefined): string {
   return value === null || value === undefined ? "—" : `${value.toFixed(1)} dB`;
 }
 
-/** Volts as mV with one decimal. */
-export function formatMv(value_V: number): string {
-  return `${(value_V * 1e3).toFixed(1)} mV`;
-}
-
 /** A byte count for people. */
 export function formatBytes(n: number): string {
   if (n < 1024) return `${n} B`;

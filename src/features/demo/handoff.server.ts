@@ -17,11 +17,12 @@ import { defaultCandidates } from "@/features/studies/architecture";
 import { computeStudy } from "@/features/studies/studies.job";
 import { decideStudy, getStudy, startStudy } from "@/features/studies/studies.server";
 import { computeTapTableVersion } from "@/features/tapTables/tapTables.job";
-import { createTapTable, createVersion } from "@/features/tapTables/tapTables.server";
-import { addComment, decide, requestSignOff } from "@/features/signoff/signoff.server";
+import { createTapTable, createVersion } from "@/features/tapTables/tapTableVersions.server";
+import { addComment, decideSignOff, requestSignOff } from "@/features/signoff/signoff.server";
 import type { CandidateResult, StudyInputs } from "@/features/studies/studies";
 import type { VersionInputs } from "@/features/tapTables/tapTables";
 import type { RunHere } from "@/server/jobs/inlineJob.server";
+import { formatMillivolts } from "@/components/format";
 import { DEMO_BUDGETS, DEMO_CHANNELS } from "./demo";
 
 const STUDY = "QL-48 backplane lanes: how much equalization";
@@ -77,8 +78,6 @@ async function person(email: string): Promise<SessionUser> {
   return u;
 }
 
-const mv = (v: number) => `${(v * 1e3).toFixed(1)} mV`;
-
 /** The candidate with the fewest taps that meets the required headroom on every lane (else the best worst case). */
 function choose(cs: readonly CandidateResult[], required_V: number): CandidateResult {
   const passing = cs.filter((c) => c.worstHeadroom_V >= required_V).sort((a, b) => a.complexity - b.complexity);
@@ -89,10 +88,10 @@ function rationale(chosen: CandidateResult, cs: readonly CandidateResult[], requ
   const richer = cs.filter((c) => c.complexity > chosen.complexity).sort((a, b) => b.worstHeadroom_V - a.worstHeadroom_V)[0];
   const leaner = cs.filter((c) => c.complexity < chosen.complexity && c.worstHeadroom_V < required_V);
   const lines = [
-    `${chosen.label} keeps ${mv(chosen.worstHeadroom_V)} on the worst lane (${chosen.worstChannel.name}) against the ${mv(required_V)} the budget requires.`,
+    `${chosen.label} keeps ${formatMillivolts(chosen.worstHeadroom_V)} on the worst lane (${chosen.worstChannel.name}) against the ${formatMillivolts(required_V)} the budget requires.`,
   ];
   if (leaner.length > 0) lines.push(`${leaner.map((c) => c.label).join(", ")} leave${leaner.length === 1 ? "s" : ""} that lane short.`);
-  if (richer) lines.push(`${richer.label} would add only ${mv(richer.worstHeadroom_V - chosen.worstHeadroom_V)} for ${richer.complexity - chosen.complexity} more taps of power and area.`);
+  if (richer) lines.push(`${richer.label} would add only ${formatMillivolts(richer.worstHeadroom_V - chosen.worstHeadroom_V)} for ${richer.complexity - chosen.complexity} more taps of power and area.`);
   if (retimed.length > 0) lines.push(`${retimed.map((n) => `“${n}”`).join(" and ")} ${retimed.length === 1 ? "gets" : "get"} a retimer and ${retimed.length === 1 ? "is" : "are"} left out of the study.`);
   return lines.join(" ");
 }
@@ -147,7 +146,7 @@ export async function seedHandoff(): Promise<{ study: boolean; table: boolean }>
     body: "A compromise by construction: the default maximizes the worst lane of the class, and that lane is this one — no setting does better for it without costing the other more.",
     parentId: question.id,
   });
-  await decide(reviewer, first, { decision: "approve", comment: "Approved for the bring-up firmware: every lane clears the required headroom at the target BER." }, "later");
+  await decideSignOff(reviewer, first, { decision: "approve", comment: "Approved for the bring-up firmware: every lane clears the required headroom at the target BER." }, "later");
 
   await createVersion(designer, tableId, { edges_dB: [10, 20], note: "Three classes: the short lane gets its own default and the headroom the shared one cost it." }, here);
   await requestSignOff(designer, tableId, 2, { reviewerId: reviewer.id, message: "v2 splits the short lanes; the long class is unchanged from v1." }, "later");

@@ -1,7 +1,7 @@
 // The threaded comments of a sign-off: every role may comment, reply, and tie a comment to a channel.
 import { useState } from "react";
 import { useStore } from "zustand";
-import { formatWhen } from "@/components/api";
+import { formatWhen } from "@/components/format";
 import { commentTree, type CommentNode, type CommentView } from "./signoff";
 import { createThreadStore, type ThreadState } from "./threadStore";
 

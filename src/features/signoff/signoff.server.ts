@@ -34,7 +34,7 @@ function sendMailSoon() {
 }
 
 /** People who may decide a sign-off (reviewers and admins). */
-export async function reviewers(): Promise<(Person & { role: string })[]> {
+export async function listReviewers(): Promise<(Person & { role: string })[]> {
   return db
     .select({ id: users.id, name: users.name, email: users.email, role: users.role })
     .from(users)
@@ -85,7 +85,7 @@ export async function requestSignOff(user: SessionUser, tableId: number, v: numb
 }
 
 /** POST /api/v1/sign-offs/:id/decision: approve (freezes the version) or send back with a reason. */
-export async function decide(user: SessionUser, id: number, req: DecisionRequest, delivery: Delivery = "now") {
+export async function decideSignOff(user: SessionUser, id: number, req: DecisionRequest, delivery: Delivery = "now") {
   await db.transaction(async (tx) => {
     const [row] = await tx
       .select({ s: signOffs, version: tapTableVersions, table: tapTables })
@@ -133,7 +133,7 @@ export async function decide(user: SessionUser, id: number, req: DecisionRequest
     });
   });
   if (delivery === "now") sendMailSoon();
-  return detail(id);
+  return getSignOff(id);
 }
 
 /** POST /api/v1/sign-offs/:id/comments: a comment, or a reply in a thread, optionally about one channel. */
@@ -247,7 +247,7 @@ export async function pendingFor(user: SessionUser): Promise<SignOffListItem[]> 
 }
 
 /** GET /api/v1/sign-offs/:id: the version's headroom per channel, the decision record, the thread. */
-export async function detail(id: number): Promise<SignOffDetail> {
+export async function getSignOff(id: number): Promise<SignOffDetail> {
   const [row] = await listBase().where(eq(signOffs.id, id));
   if (!row) throw notFound(`Sign-off ${id}`);
   const [v] = await db.select({ inputs: tapTableVersions.inputs, result: tapTableVersions.result }).from(tapTableVersions).where(eq(tapTableVersions.id, row.s.versionId));

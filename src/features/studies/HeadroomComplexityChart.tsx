@@ -32,8 +32,8 @@ export default function HeadroomComplexityChart(props: Props) {
   const innerW = Math.max(10, width - margin.left - margin.right);
   const innerH = Math.max(10, height - margin.top - margin.bottom);
   const cs = props.candidates;
-  const mv = (v: number) => v * 1e3;
-  const ys = [...cs.flatMap((c) => [mv(c.worstHeadroom_V), mv(c.medianHeadroom_V)]), mv(props.requiredHeadroom_V), 0];
+  const millivolts = (v: number) => v * 1e3;
+  const ys = [...cs.flatMap((c) => [millivolts(c.worstHeadroom_V), millivolts(c.medianHeadroom_V)]), millivolts(props.requiredHeadroom_V), 0];
   const yLo = Math.min(...ys);
   const yHi = Math.max(...ys);
   const pad = (yHi - yLo || 1) * 0.08;
@@ -56,13 +56,13 @@ export default function HeadroomComplexityChart(props: Props) {
           <GridRows scale={yScale} width={innerW} stroke={axisStyle.gridStroke} numTicks={6} />
           <GridColumns scale={xScale} height={innerH} stroke={axisStyle.gridStroke} numTicks={Math.min(xMax + 1, 12)} />
           {yScale.domain()[0] < 0 && yScale.domain()[1] > 0 && <line x1={0} x2={innerW} y1={yScale(0)} y2={yScale(0)} stroke={chartColors.lineStrong} />}
-          <line x1={0} x2={innerW} y1={yScale(mv(props.requiredHeadroom_V))} y2={yScale(mv(props.requiredHeadroom_V))} stroke={chartColors.bad} strokeDasharray="5 4" />
-          <text x={4} y={yScale(mv(props.requiredHeadroom_V)) - 4} textAnchor="start" fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>
-            required {formatTick(mv(props.requiredHeadroom_V))} mV
+          <line x1={0} x2={innerW} y1={yScale(millivolts(props.requiredHeadroom_V))} y2={yScale(millivolts(props.requiredHeadroom_V))} stroke={chartColors.bad} strokeDasharray="5 4" />
+          <text x={4} y={yScale(millivolts(props.requiredHeadroom_V)) - 4} textAnchor="start" fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>
+            required {formatTick(millivolts(props.requiredHeadroom_V))} mV
           </text>
           {frontierPts.length > 1 && (
             <polyline
-              points={frontierPts.map((c) => `${xOf(c)},${yScale(mv(c.worstHeadroom_V))}`).join(" ")}
+              points={frontierPts.map((c) => `${xOf(c)},${yScale(millivolts(c.worstHeadroom_V))}`).join(" ")}
               fill="none"
               stroke={chartColors.muted}
               strokeDasharray="3 3"
@@ -75,10 +75,10 @@ export default function HeadroomComplexityChart(props: Props) {
             const x = xOf(c);
             return (
               <g key={c.key} data-candidate={c.key}>
-                <line x1={x} x2={x} y1={yScale(mv(c.worstHeadroom_V))} y2={yScale(mv(c.medianHeadroom_V))} stroke={color} strokeWidth={2} opacity={0.5} />
-                <circle cx={x} cy={yScale(mv(c.medianHeadroom_V))} r={4} fill={chartColors.surface} stroke={color} strokeWidth={1.5} />
-                <circle cx={x} cy={yScale(mv(c.worstHeadroom_V))} r={chosen ? 6 : 4.5} fill={color} />
-                <text x={x + 9} y={yScale(mv(c.worstHeadroom_V))} fontSize={10.5} fontFamily={axisStyle.font.sans} fill={color} dominantBaseline="middle" fontWeight={chosen ? 600 : 400}>
+                <line x1={x} x2={x} y1={yScale(millivolts(c.worstHeadroom_V))} y2={yScale(millivolts(c.medianHeadroom_V))} stroke={color} strokeWidth={2} opacity={0.5} />
+                <circle cx={x} cy={yScale(millivolts(c.medianHeadroom_V))} r={4} fill={chartColors.surface} stroke={color} strokeWidth={1.5} />
+                <circle cx={x} cy={yScale(millivolts(c.worstHeadroom_V))} r={chosen ? 6 : 4.5} fill={color} />
+                <text x={x + 9} y={yScale(millivolts(c.worstHeadroom_V))} fontSize={10.5} fontFamily={axisStyle.font.sans} fill={color} dominantBaseline="middle" fontWeight={chosen ? 600 : 400}>
                   {c.label}
                 </text>
               </g>

@@ -223,13 +223,8 @@ export function isEditable(state: VersionState): boolean {
 }
 
 /** Whether a channel's headroom with its class default meets the budget's required headroom. */
-export function passes(headroom_V: number, required_V: number): boolean {
+export function meetsRequiredHeadroom(headroom_V: number, required_V: number): boolean {
   return headroom_V >= required_V;
-}
-
-/** Volts as mV with one decimal and a sign when negative. */
-export function mv(value_V: number, digits = 1): string {
-  return `${(value_V * 1e3).toFixed(digits)} mV`;
 }
 
 /** A loss range for people: "12–20 dB", "< 12 dB", "≥ 28 dB", "by hand". */

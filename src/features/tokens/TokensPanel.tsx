@@ -1,7 +1,8 @@
 // API tokens: a person's own (create one — the secret is shown once —, see when each was used,
 // revoke), or for admins with `all`, everyone's, to revoke.
 import { useState } from "react";
-import { api, formatWhen } from "@/components/api";
+import { api } from "@/components/api";
+import { formatWhen } from "@/components/format";
 
 interface Token {
   id: number;

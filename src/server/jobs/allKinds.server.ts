@@ -2,5 +2,5 @@
 // background work and the standalone worker process both import this one list.
 import "@/features/runs/runs.server";
 import "@/features/studies/studies.server";
-import "@/features/tapTables/tapTables.server";
+import "@/features/tapTables/tapTableVersions.server";
 import "@/features/sweeps/sweeps.server";

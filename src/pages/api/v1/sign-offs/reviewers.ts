@@ -1,5 +1,5 @@
 // The people a sign-off may be asked of (reviewers and admins).
 import { endpoint } from "@/server/http/handler";
-import { reviewers } from "@/features/signoff/signoff.server";
+import { listReviewers } from "@/features/signoff/signoff.server";
 
-export const GET = endpoint(async () => ({ items: await reviewers(), nextCursor: null }));
+export const GET = endpoint(async () => ({ items: await listReviewers(), nextCursor: null }));

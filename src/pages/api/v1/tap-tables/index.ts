@@ -2,7 +2,8 @@
 import { currentUser, endpoint, readJson, readParams } from "@/server/http/handler";
 import { json } from "@/server/http/errors";
 import { createTapTableRequest, listQuery } from "@/features/tapTables/tapTables";
-import { createTapTable, listTapTables } from "@/features/tapTables/tapTables.server";
+import { listTapTables } from "@/features/tapTables/tapTables.server";
+import { createTapTable } from "@/features/tapTables/tapTableVersions.server";
 
 export const GET = endpoint(async (ctx) => {
   const q = readParams(Object.fromEntries(ctx.url.searchParams), listQuery);

@@ -2,10 +2,10 @@
 import { currentUser, endpoint, readJson, readParams } from "@/server/http/handler";
 import { json } from "@/server/http/errors";
 import { commentRequest, signOffParams } from "@/features/signoff/signoff";
-import { addComment, detail } from "@/features/signoff/signoff.server";
+import { addComment, getSignOff } from "@/features/signoff/signoff.server";
 
 export const GET = endpoint(async (ctx) => {
-  const { comments } = await detail(readParams(ctx.params, signOffParams).id);
+  const { comments } = await getSignOff(readParams(ctx.params, signOffParams).id);
   return { items: comments, nextCursor: null };
 });
 

@@ -2,6 +2,6 @@
 // decision record, the comment thread, the state.
 import { endpoint, readParams } from "@/server/http/handler";
 import { signOffParams } from "@/features/signoff/signoff";
-import { detail } from "@/features/signoff/signoff.server";
+import { getSignOff } from "@/features/signoff/signoff.server";
 
-export const GET = endpoint(async (ctx) => detail(readParams(ctx.params, signOffParams).id));
+export const GET = endpoint(async (ctx) => getSignOff(readParams(ctx.params, signOffParams).id));

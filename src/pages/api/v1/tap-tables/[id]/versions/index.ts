@@ -2,7 +2,8 @@
 import { currentUser, endpoint, readJson, readParams } from "@/server/http/handler";
 import { json } from "@/server/http/errors";
 import { createVersionRequest, tapTableParams } from "@/features/tapTables/tapTables";
-import { createVersion, getTapTable } from "@/features/tapTables/tapTables.server";
+import { getTapTable } from "@/features/tapTables/tapTables.server";
+import { createVersion } from "@/features/tapTables/tapTableVersions.server";
 
 export const GET = endpoint(async (ctx) => {
   const table = await getTapTable(readParams(ctx.params, tapTableParams).id);

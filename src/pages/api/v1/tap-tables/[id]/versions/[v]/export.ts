@@ -2,7 +2,7 @@
 import { currentUser, endpoint, readParams } from "@/server/http/handler";
 import { downloadResponse } from "@/server/http/download";
 import { exportQuery, versionParams } from "@/features/tapTables/tapTables";
-import { exportVersion } from "@/features/tapTables/tapTables.server";
+import { exportVersion } from "@/features/tapTables/tapTableExports.server";
 
 export const GET = endpoint(async (ctx) => {
   const { id, v } = readParams(ctx.params, versionParams);

@@ -2,7 +2,8 @@
 // previous version, its sign-offs; PUT edits what is not frozen (409 otherwise).
 import { currentUser, endpoint, readJson, readParams } from "@/server/http/handler";
 import { updateVersionRequest, versionParams } from "@/features/tapTables/tapTables";
-import { getVersion, updateVersion } from "@/features/tapTables/tapTables.server";
+import { getVersion } from "@/features/tapTables/tapTables.server";
+import { updateVersion } from "@/features/tapTables/tapTableVersions.server";
 
 export const GET = endpoint(async (ctx) => {
   const { id, v } = readParams(ctx.params, versionParams);
