@@ -1,20 +1,17 @@
 // Deleting a budget asks first; tuning runs that used it keep their own copy.
 import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 
 export default function DeleteBudget(props: { id: number; name: string; runCount: number }) {
   const [asking, setAsking] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const { error, submit } = useSubmit();
 
-  async function remove() {
-    setError(null);
-    try {
+  const remove = () =>
+    submit(async () => {
       await api(`/api/v1/budgets/${props.id}`, { method: "DELETE" });
       location.href = "/budgets";
-    } catch (e) {
-      setError((e as Error).message);
-    }
-  }
+    });
 
   if (!asking) {
     return <button type="button" className="btn btn-danger" onClick={() => setAsking(true)}>Delete budget</button>;

@@ -1,23 +1,17 @@
 // Deleting a channel asks first; when tuning runs used it, it says that they keep their copy.
 import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 
 export default function DeleteChannel(props: { id: number; name: string; runCount: number }) {
   const [asking, setAsking] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { busy, error, submit } = useSubmit();
 
-  async function remove() {
-    setBusy(true);
-    setError(null);
-    try {
+  const remove = () =>
+    submit(async () => {
       await api(`/api/v1/channels/${props.id}?confirm=true`, { method: "DELETE" });
       location.href = "/channels";
-    } catch (e) {
-      setError((e as Error).message);
-      setBusy(false);
-    }
-  }
+    });
 
   if (!asking) {
     return (

@@ -2,18 +2,16 @@
 // causal phase) and an optional delay.
 import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 
 export default function SyntheticForm() {
   const [f, setF] = useState({ name: "", bitRate_Gbps: "28", modulation: "nrz", loss_dB: "20", delay_ns: "", skin: "" });
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { busy, error, submit } = useSubmit();
   const set = (k: keyof typeof f) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement>) => setF({ ...f, [k]: e.target.value });
 
-  async function submit(e: React.FormEvent) {
+  function create(e: React.FormEvent) {
     e.preventDefault();
-    setError(null);
-    setBusy(true);
-    try {
+    void submit(async () => {
       const r = await api<{ id: number }>("/api/v1/channels", {
         method: "POST",
         json: {
@@ -28,14 +26,11 @@ export default function SyntheticForm() {
         },
       });
       location.href = `/channels/${r.id}`;
-    } catch (err) {
-      setError((err as Error).message);
-      setBusy(false);
-    }
+    });
   }
 
   return (
-    <form className="flex flex-col gap-4" onSubmit={submit} aria-label="Synthetic channel">
+    <form className="flex flex-col gap-4" onSubmit={create} aria-label="Synthetic channel">
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
         <div className="field">
           <label htmlFor="syn-name" className="font-medium text-ink-soft">Name</label>

@@ -1,21 +1,14 @@
 // "Run again": a new run from this run's own copy of its inputs, which must reproduce it.
-import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 
 export default function RerunButton(props: { id: number }) {
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  async function again() {
-    setBusy(true);
-    setError(null);
-    try {
+  const { busy, error, submit } = useSubmit();
+  const again = () =>
+    submit(async () => {
       const r = await api<{ id: number }>(`/api/v1/runs/${props.id}/rerun`, { method: "POST" });
       location.href = `/runs/${r.id}`;
-    } catch (e) {
-      setError((e as Error).message);
-      setBusy(false);
-    }
-  }
+    });
   return (
     <div className="flex flex-col items-end gap-1">
       <button type="button" className="btn" onClick={again} disabled={busy} title="Starts a new run from this run's own copy of the channel's pulse and the budget">

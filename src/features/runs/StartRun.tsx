@@ -1,6 +1,7 @@
 // Start a tuning run: pick a channel and a budget (one may be fixed by the page), then go to the run.
 import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 import type { Modulation } from "@lib/types";
 
 interface ChannelChoice {
@@ -29,8 +30,7 @@ const symbolRate = (bitRate: number, modulation: string) => bitRate / (modulatio
 export default function StartRun(props: Props) {
   const [channelId, setChannelId] = useState(props.channels[0]?.id ?? 0);
   const [budgetId, setBudgetId] = useState(props.budgets[0]?.id ?? 0);
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { busy, error, submit } = useSubmit();
   const channel = props.channels.find((c) => c.id === channelId);
   const budget = props.budgets.find((b) => b.id === budgetId);
   const mismatch =
@@ -38,17 +38,12 @@ export default function StartRun(props: Props) {
       ? Math.abs(symbolRate(channel.bitRate_bps, channel.modulation) / symbolRate(budget.bitRate_bps, budget.modulation) - 1) > 0.01
       : false;
 
-  async function start(e: React.FormEvent) {
+  function start(e: React.FormEvent) {
     e.preventDefault();
-    setBusy(true);
-    setError(null);
-    try {
+    void submit(async () => {
       const r = await api<{ id: number }>("/api/v1/runs", { method: "POST", json: { channelId, budgetId } });
       location.href = `/runs/${r.id}`;
-    } catch (err) {
-      setError((err as Error).message);
-      setBusy(false);
-    }
+    });
   }
 
   if (props.channels.length === 0 || props.budgets.length === 0) {

@@ -1,6 +1,7 @@
 // The reviewer's decision: approve (the version is frozen) or send back with the reason.
 import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 
 interface Props {
   signOffId: number;
@@ -10,20 +11,13 @@ interface Props {
 
 export default function DecisionPanel(props: Props) {
   const [comment, setComment] = useState("");
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const { busy, error, submit } = useSubmit();
 
-  async function decide(decision: "approve" | "reject") {
-    setBusy(true);
-    setError(null);
-    try {
+  const decide = (decision: "approve" | "reject") =>
+    submit(async () => {
       await api(`/api/v1/sign-offs/${props.signOffId}/decision`, { method: "POST", json: { decision, comment } });
       location.reload();
-    } catch (e) {
-      setError((e as Error).message);
-      setBusy(false);
-    }
-  }
+    });
 
   return (
     <form className="flex flex-col gap-3" aria-label="Decision" onSubmit={(e) => e.preventDefault()}>

@@ -1,6 +1,7 @@
 // Ask a reviewer to sign off a tap table version (designers and admins); the reviewer is e-mailed.
 import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 
 interface Props {
   tableId: number;
@@ -13,28 +14,22 @@ export default function RequestSignOff(props: Props) {
   const choices = props.reviewers.filter((r) => r.id !== props.selfId);
   const [reviewerId, setReviewer] = useState(choices.find((r) => r.role === "reviewer")?.id ?? choices[0]?.id ?? "");
   const [message, setMessage] = useState("");
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const { busy, error, submit } = useSubmit();
 
-  async function submit(e: React.SubmitEvent<HTMLFormElement>) {
+  function request(e: React.SubmitEvent<HTMLFormElement>) {
     e.preventDefault();
-    setBusy(true);
-    setError(null);
-    try {
+    void submit(async () => {
       const r = await api<{ id: number }>(`/api/v1/tap-tables/${props.tableId}/versions/${props.version}/sign-off`, {
         method: "POST",
         json: { reviewerId, ...(message.trim() ? { message: message.trim() } : {}) },
       });
       location.href = `/sign-off/${r.id}`;
-    } catch (err) {
-      setError((err as Error).message);
-      setBusy(false);
-    }
+    });
   }
 
   if (choices.length === 0) return <p className="text-sm text-muted">Nobody else can decide sign-offs yet; an admin can give someone the reviewer role.</p>;
   return (
-    <form onSubmit={submit} aria-label="Request sign-off" className="flex flex-col gap-3">
+    <form onSubmit={request} aria-label="Request sign-off" className="flex flex-col gap-3">
       <label className="field max-w-md">
         <span>Reviewer</span>
         <select className="input" value={reviewerId} onChange={(e) => setReviewer(e.target.value)}>

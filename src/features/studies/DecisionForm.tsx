@@ -1,6 +1,7 @@
 // Record (or revise) the architecture a study chose and why; the page reloads to show the record.
 import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 
 interface Props {
   studyId: number;
@@ -11,24 +12,18 @@ interface Props {
 export default function DecisionForm(props: Props) {
   const [candidateKey, setKey] = useState(props.current?.candidateKey ?? props.candidates[0]?.key ?? "");
   const [rationale, setRationale] = useState(props.current?.rationale ?? "");
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const { busy, error, submit } = useSubmit();
 
-  async function submit(e: React.SubmitEvent<HTMLFormElement>) {
+  function record(e: React.SubmitEvent<HTMLFormElement>) {
     e.preventDefault();
-    setBusy(true);
-    setError(null);
-    try {
+    void submit(async () => {
       await api(`/api/v1/studies/${props.studyId}/decision`, { method: "PUT", json: { candidateKey, rationale } });
       location.reload();
-    } catch (err) {
-      setError((err as Error).message);
-      setBusy(false);
-    }
+    });
   }
 
   return (
-    <form onSubmit={submit} aria-label="Record the decision" className="flex flex-col gap-3">
+    <form onSubmit={record} aria-label="Record the decision" className="flex flex-col gap-3">
       <label className="field">
         <span>Chosen architecture</span>
         <select className="input max-w-md" value={candidateKey} onChange={(e) => setKey(e.target.value)}>

@@ -2,6 +2,7 @@
 // here (another budget, other loss-bin edges), with a note on what changed.
 import { useState } from "react";
 import { api } from "@/components/api";
+import { useSubmit } from "@/components/useSubmit";
 import { parseEdges } from "./newTapTableStore";
 
 interface Props {
@@ -17,10 +18,9 @@ export default function NewVersion(props: Props) {
   const [budgetId, setBudget] = useState(props.budgetId);
   const [edges, setEdges] = useState(props.edges_dB?.join(", ") ?? "");
   const [note, setNote] = useState("");
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const { busy, error, setError, submit } = useSubmit();
 
-  async function submit(e: React.SubmitEvent<HTMLFormElement>) {
+  function compute(e: React.SubmitEvent<HTMLFormElement>) {
     e.preventDefault();
     const body: Record<string, unknown> = { ...(note.trim() ? { note: note.trim() } : {}) };
     if (budgetId !== props.budgetId) body.budgetId = budgetId;
@@ -29,19 +29,14 @@ export default function NewVersion(props: Props) {
       if (!parsed) return setError("Give the bin edges as numbers of dB, e.g. 12, 20, 28.");
       if (parsed.join() !== props.edges_dB.join()) body.edges_dB = parsed;
     }
-    setBusy(true);
-    setError(null);
-    try {
+    void submit(async () => {
       const r = await api<{ version: number }>(`/api/v1/tap-tables/${props.tableId}/versions`, { method: "POST", json: body });
       location.href = `/tables/${props.tableId}?v=${r.version}`;
-    } catch (err) {
-      setError((err as Error).message);
-      setBusy(false);
-    }
+    });
   }
 
   return (
-    <form onSubmit={submit} aria-label="New version" className="flex flex-col gap-3">
+    <form onSubmit={compute} aria-label="New version" className="flex flex-col gap-3">
       <div className="flex flex-wrap items-end gap-3">
         <label className="field">
           <span>Budget</span>
