@@ -1,7 +1,7 @@
 // A budget at a corner: each factor scales its own fields and nothing else.
 import { describe, expect, it } from "vitest";
-import { cornerSchema, type BudgetInput } from "../../../lib/contract/index.ts";
-import { cornerBudget } from "../../../lib/corners/index.ts";
+import { cornerSchema, type BudgetInput } from "@lib/contract";
+import { cornerBudget } from "@lib/corners";
 
 const nominal: BudgetInput = {
   modulation: "nrz",

@@ -6,10 +6,10 @@
 // point, not of the loss.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { pulseFromLossModel } from "../../../lib/channel/index.ts";
-import type { BudgetInput } from "../../../lib/contract/index.ts";
-import { cornerPulses, type CornerSource } from "../../../lib/corners/index.ts";
-import { optimize } from "../../../lib/optimize/index.ts";
+import { pulseFromLossModel } from "@lib/channel";
+import type { BudgetInput } from "@lib/contract";
+import { cornerPulses, type CornerSource } from "@lib/corners";
+import { optimize } from "@lib/optimize";
 
 const grid = { ui_s: 1 / 28e9, samplesPerUi: 8 };
 /** A small 28 Gb/s NRZ budget with jitter, so each joint search is cheap (≈ 0.1 s). */

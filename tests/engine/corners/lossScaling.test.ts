@@ -3,11 +3,11 @@
 // loss read off the pulse's spectrum) — each checked against the others.
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { channelTransfer, formatTouchstone, lossModelS21, parseTouchstone, pulseFromLossModel, pulseFromS21 } from "../../../lib/channel/index.ts";
-import { cornerPulses, lossScaledPulse, lossScaledS21, PULSE_LOSS_BAND_BAUD } from "../../../lib/corners/index.ts";
-import { cursorsAt, pulseArea } from "../../../lib/pulse/index.ts";
-import { createFftPlan, nextPowerOfTwo } from "../../../lib/signal/index.ts";
-import type { Pulse } from "../../../lib/types.ts";
+import { channelTransfer, formatTouchstone, lossModelS21, parseTouchstone, pulseFromLossModel, pulseFromS21 } from "@lib/channel";
+import { cornerPulses, lossScaledPulse, lossScaledS21, PULSE_LOSS_BAND_BAUD } from "@lib/corners";
+import { cursorsAt, pulseArea } from "@lib/pulse";
+import { createFftPlan, nextPowerOfTwo } from "@lib/signal";
+import type { Pulse } from "@lib/types";
 
 const baud = 28e9;
 const ui = 1 / baud;

@@ -1,7 +1,7 @@
 // Minimum phase from the magnitude (folded real cepstrum): analytic one-pole filter, a random
 // minimum-phase FIR as oracle, causality and magnitude identities, edges.
 import { describe, expect, it } from "vitest";
-import { createFftPlan, minimumPhaseSpectrum, seededRandom } from "../../../lib/signal/index.ts";
+import { createFftPlan, minimumPhaseSpectrum, seededRandom } from "@lib/signal";
 
 const N = 1024;
 const half = N / 2 + 1;
