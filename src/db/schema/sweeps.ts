@@ -1,30 +1,12 @@
 // Corner sweeps: a sweep (its budget and corners), the channels it covers (copies of their pulses
 // and of how each was made), and one result row per channel × corner pair.
 import { boolean, double, index, int, json, mysqlEnum, mysqlTable, primaryKey, timestamp, unique, varchar } from "drizzle-orm/mysql-core";
-import type { BudgetInput } from "@lib/contract/budget";
-import type { Corner } from "@lib/contract/corner";
-import { channelKinds, type StoredPulse } from "@/features/channels/channels";
+import { channelKinds, type ChannelDerivation, type StoredPulse } from "@/features/channels/channels";
+import type { PairSetting, SweepInputs, SweepSummary } from "@/features/sweeps/sweeps";
 import { timestamps } from "./columns";
 import { users } from "./auth";
 import { budgets } from "./budgets";
 import { jobs } from "./jobs";
-
-/** What a sweep was started with: copies, so later edits of the budget or channels do not change it. */
-export interface SweepInputs {
-  budget: { id: number; name: string; params: BudgetInput };
-  corners: Corner[];
-  /** The channels in the order asked (their pulses are in `sweep_channels`, one row each). */
-  channels: { id: number; name: string; lossAtNyquist_dB: number | null }[];
-}
-
-/** What the sweep's last job gathers once every pair is done: each channel's binding corner. */
-export interface SweepSummary {
-  worst: { channelId: number; corner: string; cornerIndex: number; limiterHeadroom_V: number }[];
-  /** Pairs the engine refused (a corner taking the budget out of range, …). */
-  refused: number;
-  linearReachExhausted: number;
-  compute_ms: number;
-}
 
 export const sweeps = mysqlTable("sweeps", {
   id: int("id").autoincrement().primaryKey(),
@@ -41,9 +23,6 @@ export const sweeps = mysqlTable("sweeps", {
   createdBy: varchar("created_by", { length: 36 }).references(() => users.id, { onDelete: "set null" }),
   ...timestamps,
 });
-
-/** How a channel was made, as far as its loss corners need it (the `derivation` of `channels`). */
-export type ChannelDerivation = Record<string, unknown>;
 
 /** A sweep's copy of one channel: the pulse the nominal corner uses and what rebuilds it at other losses. */
 export const sweepChannels = mysqlTable(
@@ -62,13 +41,6 @@ export const sweepChannels = mysqlTable(
   },
   (t) => [primaryKey({ columns: [t.sweepId, t.position] })],
 );
-
-/** The equalizer setting a pair's joint search found. */
-export interface PairSetting {
-  tx: number[];
-  ctle: { gDc_dB: number; gDc2_dB: number };
-  dfe: number[];
-}
 
 /** One channel × corner pair's result; the unique key makes a pair's result a single row. */
 export const sweepResults = mysqlTable(

@@ -4,6 +4,7 @@ import { useEffect, useState } from "react";
 import { api } from "@/components/api";
 import { isJobFinished, type JobStatus } from "./jobs";
 
+/** What a job's address answers at least; a kind of job may tell more (a sweep: pairs done, time left). */
 export interface JobProgressState {
   status: JobStatus;
   progress: number;
@@ -16,11 +17,11 @@ export interface PollTiming {
 }
 
 /**
- * The job's latest status and progress (from `url`, answering `{ status, progress }` or
- * `{ job: { status, progress } }`), and the last error reading it (null once a read succeeds).
+ * The job's latest state (from `url`, answering the state itself or `{ job: state }`), and the
+ * last error reading it (null once a read succeeds).
  */
-export function useJobPolling(url: string, initial: JobProgressState, timing: PollTiming): { state: JobProgressState; error: string | null } {
-  const [state, setState] = useState<JobProgressState>(initial);
+export function useJobPolling<S extends { status: JobStatus }>(url: string, initial: S, timing: PollTiming): { state: S; error: string | null } {
+  const [state, setState] = useState<S>(initial);
   const [error, setError] = useState<string | null>(null);
   const { first_ms, every_ms } = timing;
 
@@ -29,10 +30,10 @@ export function useJobPolling(url: string, initial: JobProgressState, timing: Po
     let timer: ReturnType<typeof setTimeout>;
     async function poll() {
       try {
-        const r = await api<JobProgressState & { job?: JobProgressState }>(url);
+        const r = await api<S & { job?: S }>(url);
         const s = r.job ?? r;
         if (stop) return;
-        setState({ status: s.status, progress: s.progress });
+        setState(s);
         setError(null);
         if (isJobFinished(s.status)) {
           location.reload();

@@ -19,9 +19,9 @@ export default function HeadroomHistogram(props: Props) {
   const margin = { ...defaultMargin, left: 48 };
   const innerW = Math.max(10, width - margin.left - margin.right);
   const innerH = height - margin.top - margin.bottom;
-  const mv = (v: number) => v * 1e3;
-  const lo = Math.min(mv(props.required_V), ...props.bins.map((b) => mv(b.from_V)));
-  const hi = Math.max(mv(props.required_V), ...props.bins.map((b) => mv(b.to_V)));
+  const millivolts = (v: number) => v * 1e3;
+  const lo = Math.min(millivolts(props.required_V), ...props.bins.map((b) => millivolts(b.from_V)));
+  const hi = Math.max(millivolts(props.required_V), ...props.bins.map((b) => millivolts(b.to_V)));
   const pad = (hi - lo || 1) * 0.03;
   const x = scaleLinear<number>({ domain: [lo - pad, hi + pad], range: [0, innerW] });
   const y = scaleLinear<number>({ domain: [0, Math.max(1, ...props.bins.map((b) => b.count))], range: [innerH, 0], nice: true });
@@ -30,16 +30,16 @@ export default function HeadroomHistogram(props: Props) {
       <svg width={width} height={height} role="img" aria-label="Histogram of limiter headroom over all pairs" className="block">
         <Group left={margin.left} top={margin.top}>
           {props.bins.map((b, i) => {
-            const x0 = x(mv(b.from_V));
-            const w = Math.max(2, x(mv(b.to_V)) - x0 - 1);
+            const x0 = x(millivolts(b.from_V));
+            const w = Math.max(2, x(millivolts(b.to_V)) - x0 - 1);
             return (
               <rect key={i} x={x0} y={y(b.count)} width={w} height={innerH - y(b.count)} fill={b.to_V <= props.required_V ? chartColors.bad : chartColors.good} opacity={0.8} data-count={b.count}>
-                <title>{`${mv(b.from_V).toFixed(1)}–${mv(b.to_V).toFixed(1)} mV: ${b.count} pair${b.count === 1 ? "" : "s"}`}</title>
+                <title>{`${millivolts(b.from_V).toFixed(1)}–${millivolts(b.to_V).toFixed(1)} mV: ${b.count} pair${b.count === 1 ? "" : "s"}`}</title>
               </rect>
             );
           })}
-          <line x1={x(mv(props.required_V))} x2={x(mv(props.required_V))} y1={0} y2={innerH} stroke={chartColors.bad} strokeDasharray="5 4" />
-          <text x={x(mv(props.required_V)) + 4} y={10} fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>required</text>
+          <line x1={x(millivolts(props.required_V))} x2={x(millivolts(props.required_V))} y1={0} y2={innerH} stroke={chartColors.bad} strokeDasharray="5 4" />
+          <text x={x(millivolts(props.required_V)) + 4} y={10} fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>required</text>
           <ChartAxisLeft scale={y} label="Pairs" numTicks={4} />
           <ChartAxisBottom top={innerH} scale={x} label="Limiter headroom at the target BER (mV)" numTicks={Math.max(2, Math.floor(innerW / 80))} />
         </Group>

@@ -1,44 +1,19 @@
 // A sweep that is computing: pairs done of all and the time left at the pace so far, kept current by
-// polling its status; the page reloads to show the results once the sweep ends.
-import { useEffect, useState } from "react";
-import { api } from "@/components/api";
+// the job polling hook; the page reloads to show the results once the sweep ends.
+import { useJobPolling } from "@/features/jobs/useJobPolling";
+import type { ApiJobStatus } from "@/features/jobs/jobs";
 import { formatDuration } from "./sweeps";
 
 interface Status {
-  status: "queued" | "running" | "done" | "failed";
+  status: ApiJobStatus;
   done: number;
   total: number;
   timeLeft_s: number | null;
 }
 
 export default function SweepProgress(props: { id: number } & Status) {
-  const [s, setS] = useState<Status>({ status: props.status, done: props.done, total: props.total, timeLeft_s: props.timeLeft_s });
-  const [error, setError] = useState<string | null>(null);
-
-  useEffect(() => {
-    let stop = false;
-    let timer: ReturnType<typeof setTimeout>;
-    async function poll() {
-      try {
-        const r = await api<Status>(`/api/v1/sweeps/${props.id}?fields=status`);
-        if (stop) return;
-        setS(r);
-        setError(null);
-        if (r.status === "done" || r.status === "failed") {
-          location.reload();
-          return;
-        }
-      } catch (e) {
-        setError((e as Error).message);
-      }
-      timer = setTimeout(poll, 1000);
-    }
-    timer = setTimeout(poll, 500);
-    return () => {
-      stop = true;
-      clearTimeout(timer);
-    };
-  }, [props.id]);
+  const initial = { status: props.status, done: props.done, total: props.total, timeLeft_s: props.timeLeft_s };
+  const { state: s, error } = useJobPolling<Status>(`/api/v1/sweeps/${props.id}?fields=status`, initial, { first_ms: 500, every_ms: 1000 });
 
   const pct = s.total > 0 ? Math.round((100 * s.done) / s.total) : 0;
   return (

@@ -10,9 +10,8 @@ import { pulseFromJson } from "@lib/pulse";
 import { ENGINE_VERSION } from "@lib/run";
 import type { Pulse } from "@lib/types";
 import type { ChannelKind, StoredPulse } from "@/features/channels/channels";
-import type { SweepSummary } from "@/db/schema/sweeps";
 import { storedPulse } from "@/features/channels/derive";
-import { worstPerChannel, type PairResult, type SweepInputs } from "./sweeps";
+import { worstPerChannel, type PairResult, type SweepInputs, type SweepSummary } from "./sweeps";
 
 /** One batch's input: the channel (with its Touchstone text when it came from one), the budget, its corners. */
 export interface SweepBatchInput {

@@ -22,8 +22,8 @@ import {
   type CreateSweepRequest,
   type PairResult,
   type SweepInputs,
+  type SweepSummary,
 } from "./sweeps";
-import type { SweepSummary } from "@/db/schema/sweeps";
 
 /** The channels a request names, in its order (a program's: by name); 404 for a missing one. */
 async function requestedChannels(tx: Tx, req: CreateSweepRequest) {

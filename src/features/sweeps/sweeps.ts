@@ -2,10 +2,34 @@
 // stores and the API answers, and the figures its page shows (worst corner per channel, histogram,
 // time left, CSV). No server code here: islands import this file.
 import { z } from "zod";
+import type { BudgetInput } from "@lib/contract/budget";
 import { cornerSchema, type Corner } from "@lib/contract/corner";
-import type { PairSetting, SweepInputs } from "@/db/schema/sweeps";
 
-export { cornerSchema, type Corner, type PairSetting, type SweepInputs };
+export { cornerSchema, type Corner };
+
+/** What a sweep was started with: copies, so later edits of the budget or channels do not change it. */
+export interface SweepInputs {
+  budget: { id: number; name: string; params: BudgetInput };
+  corners: Corner[];
+  /** The channels in the order asked (their pulses are in `sweep_channels`, one row each). */
+  channels: { id: number; name: string; lossAtNyquist_dB: number | null }[];
+}
+
+/** What the sweep's last job gathers once every pair is done: each channel's binding corner. */
+export interface SweepSummary {
+  worst: { channelId: number; corner: string; cornerIndex: number; limiterHeadroom_V: number }[];
+  /** Pairs the engine refused (a corner taking the budget out of range, …). */
+  refused: number;
+  linearReachExhausted: number;
+  compute_ms: number;
+}
+
+/** The equalizer setting a pair's joint search found. */
+export interface PairSetting {
+  tx: number[];
+  ctle: { gDc_dB: number; gDc2_dB: number };
+  dfe: number[];
+}
 
 /** Largest number of channels in one sweep. */
 export const MAX_SWEEP_CHANNELS = 500;
