@@ -1,5 +1,6 @@
 // One multi-port S-parameter file → the victim's pulse response and each aggressor's crosstalk pulse.
 import { parseTouchstone } from "../channel/parseTouchstone.ts";
+import { inputQuality, type InputQuality } from "../channel/inputQuality.ts";
 import { type FrequencyPulse, pulseFromS21, type S21PulseOptions } from "../channel/pulseFromS21.ts";
 import { renormalizeNetwork } from "../channel/renormalizeNetwork.ts";
 import type { PortPairs } from "../channel/sdd21.ts";
@@ -16,6 +17,8 @@ export interface AggressorPulse extends FrequencyPulse {
 export interface LinkPulses {
   readonly victim: FrequencyPulse;
   readonly aggressors: AggressorPulse[];
+  /** The judgement of the file, for the victim's transfer (see {@link inputQuality}). */
+  readonly quality: InputQuality;
 }
 
 /**
@@ -35,8 +38,10 @@ export function linkFromTouchstone(
 ): LinkPulses {
   const net = renormalizeNetwork(parseTouchstone(text, { ports: options.ports }));
   const t = crosstalkTransfers(net, options.victim, options.aggressors);
+  const victim = pulseFromS21(t.freqs_Hz, t.victim, options);
   return {
-    victim: pulseFromS21(t.freqs_Hz, t.victim, options),
+    victim,
+    quality: inputQuality(net, t.victim, victim, { ui_s: options.ui_s, samplesPerUi: options.samplesPerUi, pairs: options.victim }),
     aggressors: t.aggressors.map((a) => ({ name: a.name, kind: a.kind, ...pulseFromS21(t.freqs_Hz, a.transfer, options) })),
   };
 }

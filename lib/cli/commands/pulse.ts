@@ -11,7 +11,8 @@ import { defineCommand } from "../defineCommand.ts";
 
 /**
  * `pulse`: → `{ ui_s, samplesPerUi, values_V, mainIndex, start_s }` plus `insertionLoss` for
- * Touchstone and loss-model sources; `start_s` is the time of the first sample.
+ * Touchstone and loss-model sources, and `quality` (the file's judgement, see `inputQuality`) for
+ * Touchstone sources; `start_s` is the time of the first sample.
  */
 export const pulseCommand = defineCommand({
   name: "pulse",
@@ -45,6 +46,7 @@ export const pulseCommand = defineCommand({
       mainIndex: pulse.mainIndex,
       start_s,
       ...("insertionLoss" in built ? { insertionLoss: built.insertionLoss } : {}),
+      ...("quality" in built ? { quality: built.quality } : {}),
     };
   },
 });

@@ -60,6 +60,30 @@ describe("pulse", () => {
     expect(areaOf(swapped)).toBeCloseTo(-areaOf(r4), 15);
   });
 
+  it("touchstone: quality as in engine-cli.md — a clean 2-port passes with no warnings; the 4-port fixture stops at 10 GHz and is told so", () => {
+    const n = 4000;
+    const f = Float64Array.from({ length: n }, (_, i) => 10e6 * (i + 1));
+    const two: NetworkData = { ports: 2, freqs_Hz: f, s: new Float64Array(n * 8), referenceOhms: Float64Array.of(50, 50) };
+    for (let k = 0; k < n; k++) {
+      for (const at of [2, 4]) {
+        two.s[k * 8 + at] = 0.5 * Math.cos(-2 * Math.PI * f[k] * 1e-9);
+        two.s[k * 8 + at + 1] = 0.5 * Math.sin(-2 * Math.PI * f[k] * 1e-9);
+      }
+    }
+    const q = ok("pulse", { source: { kind: "touchstone", text: formatTouchstone(two), format: "s2p" }, ui_s: UI, samplesPerUi: 16 }).quality;
+    expect(q).toMatchObject({ passive: true, reciprocal: true, causal: true, warnings: [] });
+    expect(q.maxSingularValue).toBeCloseTo(0.5, 9);
+    expect(q.maxReciprocityError).toBe(0);
+    expect(q.bandCoverage).toEqual({ fmax_Hz: 40e9, baudRatio: 40e9 * UI });
+    expect(q.frequencyStep.df_Hz).toBeCloseTo(10e6, 3);
+    expect(q.frequencyStep.maxDelay_s).toBeCloseTo(1e-7, 15);
+    const q4 = ok("pulse", { source: { kind: "touchstone", text: fixture("four-port-v2.s4p"), format: "s4p" }, ui_s: UI, samplesPerUi: 8 }).quality;
+    expect(q4.bandCoverage.baudRatio).toBeCloseTo(10e9 * UI, 12);
+    expect(q4.warnings.map((w: { code: string }) => w.code)).toContain("band-below-baud");
+    const loss = ok("pulse", { source: { kind: "loss-model", lossAtNyquist_dB: 10 }, ui_s: UI, samplesPerUi: 8 });
+    expect(loss.quality).toBeUndefined();
+  });
+
   it("loss-model: the insertion loss reaches the asked loss at Nyquist; area UI within 1 %", () => {
     const r = ok("pulse", { source: { kind: "loss-model", lossAtNyquist_dB: 18, delay_s: 0.5e-9, skinFraction: 0.4 }, ui_s: UI, samplesPerUi: 16, riseTime_s: 8e-12 });
     expect(Math.abs(areaOf(r) / UI - 1)).toBeLessThan(0.01);
