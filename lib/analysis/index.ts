@@ -15,3 +15,8 @@ export * from "./statisticalEye.ts";
 export * from "./symbolStream.ts";
 export * from "./eyeAnalysis.ts";
 export * from "./noiseCorrelation.ts";
+export * from "./isiParts.ts";
+export * from "./lawStep.ts";
+export * from "./phaseLaws.ts";
+export * from "./quantileBound.ts";
+export * from "./tailTilt.ts";

@@ -3,29 +3,16 @@
 import { assertPulse } from "../pulse/assertPulse.ts";
 import { cursorsAt } from "../pulse/cursorsAt.ts";
 import type { Modulation, Pulse } from "../types.ts";
-import { assertJitter, type Jitter, type JitterKernel, jitterKernel } from "./jitterKernel.ts";
+import { PAM4_INNER_LEVEL } from "./isiParts.ts";
+import { assertJitter, type Jitter } from "./jitterKernel.ts";
+import { JitterMixture } from "./jitterMixture.ts";
 import { nearestLevelsInto } from "./nearestLevelsInto.ts";
-import { quantileBound } from "./quantileBound.ts";
-import { DEFAULT_HALF_BINS, type SampleDistribution, sampleDistribution } from "./sampleDistribution.ts";
-
-/** Symbol-spaced cursors at one integer sampling phase; `h[main]` is the main cursor (volts). */
-export interface PhaseCursors {
-  readonly h: Float64Array;
-  readonly main: number;
-}
-
-/**
- * Where the statistical eye reads its cursors: for every integer phase offset `p` (in samples,
- * relative to the nominal main-cursor sample) the symbol-spaced cursors sampled there.
- */
-export interface CursorSource {
-  readonly samplesPerUi: number;
-  cursorsAt(p: number): PhaseCursors;
-}
+import { type CursorSource, type PhaseCursors, PhaseLaws } from "./phaseLaws.ts";
+import type { SampleDistribution } from "./sampleDistribution.ts";
 
 /** Options of the statistical eye. */
 export interface StatisticalEyeOptions {
-  /** "nrz" (levels ±1) or "pam4" (levels ±1, ±1/3). */
+  /** "nrz" (levels ±1) or "pam4" (levels ±1, ±x; x = ⅓ unless `pam4InnerLevel` says otherwise). */
   readonly modulation: Modulation;
   /** Gaussian noise rms at the sampler, in volts (≥ 0). */
   readonly noiseRms_V: number;
@@ -36,8 +23,25 @@ export interface StatisticalEyeOptions {
    * assuming correct past decisions, so post-cursor `k` leaves the residual `h_k − dfeTaps[k−1]`.
    */
   readonly dfeTaps?: ArrayLike<number>;
-  /** Grid resolution of the ISI law (see {@link sampleDistribution}). */
-  readonly halfBins?: number;
+  /**
+   * PAM4 inner level relative to the outer one (0 < x < 1, default ⅓): a transmitter with level
+   * mismatch. With symmetric levels `±1, ±x`, `RLM = min(3x, 2 − 3x)` (IEEE 802.3 Clause 120D level
+   * separation mismatch ratio, [memory: recalled, not re-read]).
+   */
+  readonly pam4InnerLevel?: number;
+  /**
+   * Independent symmetric two-point parts (volts) added to the law of every phase and never cancelled
+   * by the DFE — e.g. an asynchronous aggressor's crosstalk cursors through `isiParts`.
+   */
+  readonly extraParts_V?: Float64Array;
+  /** Divides every law's grid step (≥ 1, default 1; see `lawStep`): 2 halves it, for convergence checks. */
+  readonly refine?: number;
+  /**
+   * The error ratio the eye is asked at most (default 1e-12): every law is made exact to second order
+   * at the edge tail it implies (see `sampleDistribution`'s `designTail`). Other ratios (bathtub,
+   * contours) are computed from the same laws, with the grid errors measured in the README.
+   */
+  readonly targetBer?: number;
   /**
    * Jitter weights below this are dropped at the ends of the mixing law (default 1e-38). An eye
    * evaluated at one error ratio `b` may use e.g. `b·1e-6`: the mixed probabilities then change by
@@ -77,7 +81,7 @@ export interface StatisticalEye {
   distribution(p: number): SampleDistribution;
   /**
    * An upper bound on `distribution(p).quantile(prob)` (volts) that does not build the law when it
-   * is not built yet (see {@link quantileBound}; `Infinity` when that gives nothing); the quantile
+   * is not built yet (see `quantileBound`; `Infinity` when that gives nothing); the quantile
    * itself when the law is known.
    */
   quantileBound(p: number, prob: number): number;
@@ -100,30 +104,21 @@ export interface StatisticalEye {
   ber(t: number, v_V: number): number;
 }
 
-/**
- * The ISI cursors the law of one phase is built from: the pre-cursors, then the post-cursors less
- * the DFE taps (`h[main + k] − dfeTaps[k − 1]`; a tap beyond the cursors leaves `−dfeTaps[k − 1]`).
- *
- * @param h - symbol-spaced cursors, volts; `h[main]` is the main cursor (excluded).
- * @param main - index of the main cursor.
- * @param dfeTaps - DFE tap weights, volts.
- * @returns `main + max(h.length − 1 − main, dfeTaps.length)` values, volts.
- */
-export function residualIsi(h: Float64Array, main: number, dfeTaps: ArrayLike<number>): Float64Array {
-  const post = Math.max(h.length - 1 - main, dfeTaps.length);
-  const isi = new Float64Array(main + post);
-  for (let k = 0; k < main; k++) isi[k] = h[k];
-  for (let k = 1; k <= post; k++) {
-    const v = main + k < h.length ? h[main + k] : 0;
-    isi[main + k - 1] = k <= dfeTaps.length ? v - dfeTaps[k - 1] : v;
-  }
-  return isi;
-}
+/** The error ratio a statistical eye's laws are tuned for unless told otherwise. */
+export const DEFAULT_TARGET_BER = 1e-12;
 
-/** Symbol levels of a modulation, increasing. */
-export function symbolLevels(modulation: Modulation): Float64Array {
+/**
+ * Symbol levels of a modulation, increasing.
+ *
+ * @param modulation - "nrz" (±1) or "pam4" (±1, ±innerLevel).
+ * @param innerLevel - PAM4 inner level, 0 < x < 1 (default ⅓).
+ */
+export function symbolLevels(modulation: Modulation, innerLevel = PAM4_INNER_LEVEL): Float64Array {
   if (modulation === "nrz") return Float64Array.of(-1, 1);
-  if (modulation === "pam4") return Float64Array.of(-1, -1 / 3, 1 / 3, 1);
+  if (modulation === "pam4") {
+    if (!(innerLevel > 0 && innerLevel < 1)) throw new RangeError(`pam4InnerLevel must be a number in (0, 1), got ${String(innerLevel)}`);
+    return Float64Array.of(-1, -innerLevel, innerLevel, 1);
+  }
   throw new RangeError(`modulation must be "nrz" or "pam4", got ${String(modulation)}`);
 }
 
@@ -151,13 +146,8 @@ export function statisticalEye(pulse: Pulse, options: StatisticalEyeOptions): St
   return statisticalEyeOfCursors(pulseCursorSource(pulse), options);
 }
 
-/**
- * Statistical eye of any per-phase cursor source (the optimizer passes equalized cursors).
- *
- * @see B. Casper et al., "An accurate and efficient analysis method for multi-Gb/s chip-to-chip
- *   signaling schemes", Symposium on VLSI Circuits, 2002 [memory: recalled, not re-read].
- */
-export function statisticalEyeOfCursors(source: CursorSource, options: StatisticalEyeOptions): StatisticalEye {
+/** Validated options with their defaults. */
+function resolveOptions(source: CursorSource, options: StatisticalEyeOptions) {
   if (source === null || typeof source !== "object" || typeof source.cursorsAt !== "function") {
     throw new TypeError("source must provide cursorsAt(p)");
   }
@@ -165,114 +155,75 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
   if (!Number.isInteger(spu) || spu < 1) throw new RangeError(`samplesPerUi must be an integer ≥ 1, got ${spu}`);
   if (options === null || typeof options !== "object") throw new TypeError("options must be an object");
   const { modulation, noiseRms_V, jitter } = options;
-  const levels = symbolLevels(modulation);
+  const innerLevel = options.pam4InnerLevel ?? PAM4_INNER_LEVEL;
+  const levels = symbolLevels(modulation, innerLevel);
   if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0)) {
     throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${String(noiseRms_V)}`);
   }
   if (jitter !== undefined) assertJitter(jitter);
-  const dfe = Float64Array.from(options.dfeTaps ?? []);
-  for (let k = 0; k < dfe.length; k++) {
-    if (!Number.isFinite(dfe[k])) throw new RangeError(`dfeTaps[${k}] is not finite (${dfe[k]})`);
+  const dfeTaps = Float64Array.from(options.dfeTaps ?? []);
+  for (let k = 0; k < dfeTaps.length; k++) {
+    if (!Number.isFinite(dfeTaps[k])) throw new RangeError(`dfeTaps[${k}] is not finite (${dfeTaps[k]})`);
   }
-  const halfBins = options.halfBins ?? DEFAULT_HALF_BINS;
+  const extraParts_V = options.extraParts_V ?? new Float64Array(0);
+  if (!(extraParts_V instanceof Float64Array)) throw new TypeError("extraParts_V must be a Float64Array of magnitudes in volts");
+  for (let i = 0; i < extraParts_V.length; i++) {
+    if (!(Number.isFinite(extraParts_V[i]) && extraParts_V[i] >= 0)) {
+      throw new RangeError(`extraParts_V[${i}] must be a finite number ≥ 0, got ${extraParts_V[i]}`);
+    }
+  }
+  const refine = options.refine ?? 1;
+  if (!(Number.isFinite(refine) && refine >= 1)) throw new RangeError(`refine must be a finite number ≥ 1, got ${String(refine)}`);
   const kernelFloor = options.kernelFloor ?? 1e-38;
+  const targetBer = options.targetBer ?? DEFAULT_TARGET_BER;
+  if (!(Number.isFinite(targetBer) && targetBer > 0 && targetBer < 0.5)) {
+    throw new RangeError(`targetBer must be a number strictly between 0 and 0.5, got ${String(targetBer)}`);
+  }
+  const law = { refine, designTail: targetBer };
+  return { spu, modulation, noiseRms_V, jitter, innerLevel, levels, dfeTaps, extraParts_V, law, kernelFloor };
+}
 
-  const mains = new Map<number, number>();
-  const laws = new Map<number, SampleDistribution>();
-  const kernels = new Map<number, JitterKernel>();
-
-  const load = (p: number): SampleDistribution => {
-    let law = laws.get(p);
-    if (law !== undefined) return law;
-    const { h, main } = source.cursorsAt(p);
-    law = sampleDistribution(residualIsi(h, main, dfe), modulation, noiseRms_V, halfBins);
-    laws.set(p, law);
-    mains.set(p, h[main]);
-    return law;
-  };
-  const mainAt = (p: number): number => {
-    let m = mains.get(p);
-    if (m === undefined) {
-      const { h, main } = source.cursorsAt(p);
-      m = h[main];
-      mains.set(p, m);
-    }
-    return m;
-  };
-  const kernelAt = (t: number): { base: number; kernel: JitterKernel } => {
-    if (!Number.isFinite(t)) throw new RangeError(`phase must be a finite number, got ${t}`);
-    const base = Math.floor(t);
-    const frac = t - base;
-    let kernel = kernels.get(frac);
-    if (kernel === undefined) {
-      kernel = jitterKernel(jitter, spu, frac, kernelFloor);
-      kernels.set(frac, kernel);
-    }
-    return { base, kernel };
-  };
+/**
+ * Statistical eye of any per-phase cursor source (the optimizer passes equalized cursors).
+ *
+ * @see B. Casper et al., "An accurate and efficient analysis method for multi-Gb/s chip-to-chip
+ *   signaling schemes", Symposium on VLSI Circuits, 2002 [memory: recalled, not re-read].
+ */
+export function statisticalEyeOfCursors(source: CursorSource, options: StatisticalEyeOptions): StatisticalEye {
+  const o = resolveOptions(source, options);
+  const { levels, spu } = o;
+  const laws = new PhaseLaws(source, o);
+  const mixture = new JitterMixture(laws, levels, o.jitter, spu, o.kernelFloor);
   const checkLevel = (level: number) => {
     if (!Number.isInteger(level) || level < 0 || level >= levels.length) {
       throw new RangeError(`level must be an integer 0…${levels.length - 1}, got ${String(level)}`);
     }
   };
-
-  /** Scratch for the levels around a threshold (`ber`). */
-  const bounds = new Int32Array(2);
-  /** The jitter-weighted mixture of the laws around phase `t`, on one side of `v`. */
-  const tailProb = (side: "probBelow" | "probAbove", level: number, t: number, v: number): number => {
-    checkLevel(level);
-    const { base, kernel } = kernelAt(t);
-    let s = 0;
-    for (let i = 0; i < kernel.weights.length; i++) {
-      const p = base + kernel.first + i;
-      s += kernel.weights[i] * load(p)[side](v - levels[level] * mainAt(p));
-    }
-    return s;
+  const checkPhase = (p: number) => {
+    if (!Number.isInteger(p)) throw new RangeError(`p must be an integer phase, got ${p}`);
   };
-  const probBelow = (level: number, t: number, v: number): number => tailProb("probBelow", level, t, v);
-  const probAbove = (level: number, t: number, v: number): number => tailProb("probAbove", level, t, v);
-
   const main = (t: number): number => {
     const base = Math.floor(t);
     const f = t - base;
-    const a = mainAt(base);
-    return f === 0 ? a : a + f * (mainAt(base + 1) - a);
+    const a = laws.main(base);
+    return f === 0 ? a : a + f * (laws.main(base + 1) - a);
   };
-
-  // Edge of a level's band at error ratio ber: where P(wrong side) = ber, found by bisection on a
-  // bracket given by the per-phase quantiles (the mixture's quantile lies between them).
-  const edge = (level: number, t: number, ber: number, upperEdge: boolean): number => {
-    const { base, kernel } = kernelAt(t);
-    let lo = Infinity;
-    let hi = -Infinity;
-    for (let i = 0; i < kernel.weights.length; i++) {
-      const p = base + kernel.first + i;
-      const q = load(p).quantile(ber);
-      const x = levels[level] * mainAt(p) + (upperEdge ? q : -q);
-      if (x < lo) lo = x;
-      if (x > hi) hi = x;
-    }
-    if (kernel.weights.length === 1 || hi - lo <= 0) return lo;
-    const f = upperEdge
-      ? (v: number) => probBelow(level, t, v) - ber // increasing in v
-      : (v: number) => ber - probAbove(level, t, v); // increasing in v
-    const tol = 1e-12 * Math.max(Math.abs(lo), Math.abs(hi), 1e-9);
-    for (let it = 0; it < 200 && hi - lo > tol; it++) {
-      const m = 0.5 * (lo + hi);
-      if (f(m) < 0) lo = m;
-      else hi = m;
-    }
-    return 0.5 * (lo + hi);
+  const probBelow = (level: number, t: number, v: number): number => {
+    checkLevel(level);
+    return mixture.tail(true, level, t, v);
   };
-
+  const probAbove = (level: number, t: number, v: number): number => {
+    checkLevel(level);
+    return mixture.tail(false, level, t, v);
+  };
   const eyeEdges = (t: number, ber: number): Float64Array => {
     if (!(Number.isFinite(ber) && ber > 0 && ber < 0.5)) {
       throw new RangeError(`ber must be a number strictly between 0 and 0.5, got ${String(ber)}`);
     }
     const out = new Float64Array(2 * (levels.length - 1));
     for (let i = 0; i + 1 < levels.length; i++) {
-      out[2 * i] = edge(i, t, ber, false);
-      out[2 * i + 1] = edge(i + 1, t, ber, true);
+      out[2 * i] = mixture.edge(i, t, ber, false);
+      out[2 * i + 1] = mixture.edge(i + 1, t, ber, true);
     }
     return out;
   };
@@ -282,27 +233,25 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     for (let i = 0; i < out.length; i++) out[i] = Math.max(0, e[2 * i + 1] - e[2 * i]);
     return out;
   };
+  /** Scratch for the levels around a threshold (`ber`). */
+  const bounds = new Int32Array(2);
 
   return {
-    modulation,
+    modulation: o.modulation,
     samplesPerUi: spu,
-    noiseRms_V,
-    jitter,
-    kernelFloor,
-    dfeTaps: dfe,
+    noiseRms_V: o.noiseRms_V,
+    jitter: o.jitter,
+    kernelFloor: o.kernelFloor,
+    dfeTaps: o.dfeTaps,
     levels,
     main,
     distribution: (p: number) => {
-      if (!Number.isInteger(p)) throw new RangeError(`p must be an integer phase, got ${p}`);
-      return load(p);
+      checkPhase(p);
+      return laws.law(p);
     },
     quantileBound: (p: number, prob: number) => {
-      if (!Number.isInteger(p)) throw new RangeError(`p must be an integer phase, got ${p}`);
-      const law = laws.get(p);
-      if (law !== undefined) return law.quantile(prob);
-      const { h, main } = source.cursorsAt(p);
-      if (!mains.has(p)) mains.set(p, h[main]);
-      return quantileBound(residualIsi(h, main, dfe), modulation, noiseRms_V, prob, halfBins);
+      checkPhase(p);
+      return laws.quantileBound(p, prob);
     },
     probBelow,
     probAbove,
@@ -315,8 +264,7 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
       return m;
     },
     ber: (t, v) => {
-      const m = main(t);
-      nearestLevelsInto(levels, m, v, bounds);
+      nearestLevelsInto(levels, main(t), v, bounds);
       let s = 0;
       if (bounds[0] >= 0) s += probBelow(bounds[0], t, v);
       if (bounds[1] >= 0) s += probAbove(bounds[1], t, v);

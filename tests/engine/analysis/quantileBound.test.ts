@@ -3,9 +3,12 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { qFromBer } from "@lib/analysis/ber";
+import { isiParts } from "@lib/analysis/isiParts";
+import { lawStep } from "@lib/analysis/lawStep";
+import { residualIsi } from "@lib/analysis/phaseLaws";
 import { quantileBound } from "@lib/analysis/quantileBound";
-import { DEFAULT_HALF_BINS, NOISE_TAIL_SIGMAS, sampleDistribution } from "@lib/analysis/sampleDistribution";
-import { residualIsi, statisticalEye } from "@lib/analysis/statisticalEye";
+import { sampleDistribution } from "@lib/analysis/sampleDistribution";
+import { statisticalEye } from "@lib/analysis/statisticalEye";
 import { seededRandom } from "@lib/signal/seededRandom";
 import { cursorPulse } from "./helpers.ts";
 
@@ -21,9 +24,9 @@ function residual(seed: number, big: number, tail: number, length = 100): Float6
 describe("quantileBound", () => {
   it("analytic: noise alone gives −Q(p)·σ rounded up to the grid [computed, BER = ½·erfc(Q/√2)], tol one step", () => {
     const sigma = 0.002;
-    const step = (NOISE_TAIL_SIGMAS * sigma) / DEFAULT_HALF_BINS;
+    const step = lawStep(new Float64Array(3), sigma);
     for (const p of [1e-3, 1e-6, 1e-12, 1e-20]) {
-      const b = quantileBound(new Float64Array(3), "nrz", sigma, p);
+      const b = quantileBound(new Float64Array(3), sigma, p);
       const q = -qFromBer(p) * sigma;
       expect(b).toBeGreaterThanOrEqual(q - 1e-6 * sigma);
       expect(b - q).toBeLessThanOrEqual(step + 1e-6 * sigma);
@@ -40,11 +43,12 @@ describe("quantileBound", () => {
         fc.constantFrom(0.0002, 0.001, 0.004),
         fc.constantFrom("nrz" as const, "pam4" as const),
         fc.double({ min: 2, max: 30, noNaN: true }),
-        (seed, length, big, tail, sigma, mod, exp10) => {
-          const isi = residual(seed, big, tail, length);
+        fc.constantFrom(undefined, 1e-12, 1e-4),
+        (seed, length, big, tail, sigma, mod, exp10, designTail) => {
+          const parts = isiParts(residual(seed, big, tail, length), mod);
           const p = 10 ** -exp10;
-          const q = sampleDistribution(isi, mod, sigma).quantile(p);
-          return quantileBound(isi, mod, sigma, p) >= q;
+          const q = sampleDistribution(parts, sigma, { designTail }).quantile(p);
+          return quantileBound(parts, sigma, p, { designTail }) >= q;
         },
       ),
       { seed: 2024, numRuns: 300 },
@@ -57,11 +61,11 @@ describe("quantileBound", () => {
       [2, 0],
       [3, 0.012],
     ] as const) {
-      const isi = residual(seed, big, 0.004);
       for (const mod of ["nrz", "pam4"] as const) {
+        const parts = isiParts(residual(seed, big, 0.004), mod);
         for (const p of [1e-12, 3e-9, 1e-6]) {
-          const q = sampleDistribution(isi, mod, 0.002).quantile(p);
-          const b = quantileBound(isi, mod, 0.002, p);
+          const q = sampleDistribution(parts, 0.002, { designTail: p }).quantile(p);
+          const b = quantileBound(parts, 0.002, p, { designTail: p });
           expect(b).toBeGreaterThanOrEqual(q);
           expect(b - q).toBeLessThan(0.5 * 0.002);
         }
@@ -72,7 +76,7 @@ describe("quantileBound", () => {
   it("identities: the signs of the cursors do not matter; the statistical eye's bound is the quantile once the law exists", () => {
     const isi = residual(5, 0.02, 0.003);
     const flipped = isi.map((v, i) => (i % 3 === 0 ? -v : v));
-    expect(quantileBound(flipped, "nrz", 0.002, 1e-12)).toBe(quantileBound(isi, "nrz", 0.002, 1e-12));
+    expect(quantileBound(isiParts(flipped, "nrz"), 0.002, 1e-12)).toBe(quantileBound(isiParts(isi, "nrz"), 0.002, 1e-12));
 
     const pulse = cursorPulse([0, 0.03, 0.4, 0.08, 0.02, 0.01, 0], 2, 8);
     const eye = statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0.003, dfeTaps: [0.05] });
@@ -87,13 +91,12 @@ describe("quantileBound", () => {
     expect(Array.from(isi).map((v) => Math.round(v * 1e12) / 1e12)).toEqual([0.1, 0.05, 0.1, -0.05]);
   });
 
-  it("edges: no noise gives Infinity; bad p, modulation, noise or cursors are refused by name", () => {
-    expect(quantileBound(Float64Array.of(0.01), "nrz", 0, 1e-12)).toBe(Number.POSITIVE_INFINITY);
-    expect(() => quantileBound(Float64Array.of(0.01), "nrz", 0.001, 0.5)).toThrow(/p must/);
-    expect(() => quantileBound(Float64Array.of(0.01), "nrz", 0.001, 0)).toThrow(/p must/);
-    expect(() => quantileBound(Float64Array.of(0.01), "pam8" as "nrz", 0.001, 1e-6)).toThrow(/modulation/);
-    expect(() => quantileBound(Float64Array.of(0.01), "nrz", -1, 1e-6)).toThrow(/noiseRms_V/);
-    expect(() => quantileBound(Float64Array.of(Number.NaN), "nrz", 0.001, 1e-6)).toThrow(/isi/);
-    expect(() => quantileBound([0.01] as unknown as Float64Array, "nrz", 0.001, 1e-6)).toThrow(TypeError);
+  it("edges: no noise and nothing lumped gives Infinity; bad p, noise or parts are refused by name", () => {
+    expect(quantileBound(Float64Array.of(0.01), 0, 1e-12)).toBe(Number.POSITIVE_INFINITY);
+    expect(() => quantileBound(Float64Array.of(0.01), 0.001, 0.5)).toThrow(/p must/);
+    expect(() => quantileBound(Float64Array.of(0.01), 0.001, 0)).toThrow(/p must/);
+    expect(() => quantileBound(Float64Array.of(0.01), -1, 1e-6)).toThrow(/noiseRms_V/);
+    expect(() => quantileBound(Float64Array.of(Number.NaN), 0.001, 1e-6)).toThrow(/parts\[0\]/);
+    expect(() => quantileBound([0.01] as unknown as Float64Array, 0.001, 1e-6)).toThrow(TypeError);
   });
 });
