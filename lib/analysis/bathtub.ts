@@ -1,5 +1,6 @@
 // Bathtub curves and eye width: the error ratio of fixed decision thresholds as the sampling
 // phase sweeps across the eye.
+import { berPerLevelTail } from "./berConvention.ts";
 import type { StatisticalEye } from "./statisticalEye.ts";
 
 /** log10 of an error ratio is reported no lower than this (an open eye without noise has BER 0). */
@@ -30,8 +31,9 @@ export function decisionThresholds(eye: StatisticalEye, t: number): Float64Array
 }
 
 /**
- * Error ratio at phase `t` with the given thresholds: for every eye `i`, `P(level i+1 < θ_i) +
- * P(level i > θ_i)`; the worst eye counts (PAM4: the largest of the three).
+ * Bit error ratio at phase `t` with the given thresholds (see `berPerLevelTail`): for every eye `i`,
+ * `f·(P(level i+1 < θ_i) + P(level i > θ_i))`; the worst eye counts (PAM4: the largest of the three,
+ * as the eye height is the smallest; the receiver's total is at most three times it).
  */
 export function thresholdBer(eye: StatisticalEye, t: number, thresholds: Float64Array): number {
   let worst = 0;
@@ -39,6 +41,7 @@ export function thresholdBer(eye: StatisticalEye, t: number, thresholds: Float64
     const b = eye.probBelow(i + 1, t, thresholds[i]) + eye.probAbove(i, t, thresholds[i]);
     if (b > worst) worst = b;
   }
+  worst *= berPerLevelTail(eye.modulation);
   return worst > 1 ? 1 : worst;
 }
 

@@ -1,6 +1,7 @@
 // The statistical eye drawn as an image: log10 of the error ratio of a decision threshold at every
 // (sampling phase, threshold voltage) pair of a grid, ready for contouring.
 import { log10Ber } from "./bathtub.ts";
+import { berPerLevelTail } from "./berConvention.ts";
 import { type JitterKernel, jitterKernel } from "./jitterKernel.ts";
 import type { StatisticalEye } from "./statisticalEye.ts";
 import { nearestLevelsInto } from "./nearestLevelsInto.ts";
@@ -57,6 +58,7 @@ export function berMap(eye: StatisticalEye, phases: Float64Array, voltage_V: Flo
   };
   const kernels = new Map<number, JitterKernel>();
   const bounds = new Int32Array(2);
+  const perTail = berPerLevelTail(eye.modulation);
   for (let col = 0; col < W; col++) {
     const t = phases[col];
     const base = Math.floor(t);
@@ -79,6 +81,7 @@ export function berMap(eye: StatisticalEye, phases: Float64Array, voltage_V: Flo
         if (above >= 0) s += w * c[(r * L + above) * 2];
         if (below >= 0) s += w * c[(r * L + below) * 2 + 1];
       }
+      s *= perTail;
       values[r * W + col] = log10Ber(s > 1 ? 1 : s);
     }
   }

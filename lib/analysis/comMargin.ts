@@ -14,7 +14,8 @@ export interface ComMargin {
 /**
  * COM-style margin at sampling phase `t`: `COM = 20·log10(As/Ani)`, where `As` is the distance of
  * a level from its decision threshold and `Ani` the amount of ISI, noise and jitter that closes an
- * eye from that level with probability `der0` (the worst eye of PAM4):
+ * eye from that level with probability `der0` — a level's conditional tail, as the standard's
+ * detector error ratio is, not a bit error ratio (the worst eye of PAM4):
  * `Ani = max_i (As − (top_i − bottom_i)/2)` from the eye edges at `der0`.
  * Tapwright's statistical eye supplies the distributions; the channel and package models of the
  * standard are not reproduced, so this is a margin in the COM form, not a compliance number.
@@ -25,7 +26,7 @@ export interface ComMargin {
  * @see IEEE Std 802.3, Annex 93A (COM = 20·log10(As/Ani)) [memory: recalled, not re-read].
  */
 export function comMargin(eye: StatisticalEye, t: number, der0: number): ComMargin {
-  const edges = eye.eyeEdges(t, der0);
+  const edges = eye.levelEdges(t, der0);
   const spacing = eye.levels[1] - eye.levels[0];
   const as = 0.5 * spacing * eye.main(t);
   if (!(as > 0)) throw new RangeError(`the main cursor at phase ${t} is not positive (${eye.main(t)} V)`);

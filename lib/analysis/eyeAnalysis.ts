@@ -1,6 +1,6 @@
 // The figures of one statistical eye that the `eye` command reports: where it is sampled, how tall
 // and wide it is at the target BER, and its bathtub.
-import { samplingPhase, type SamplingPolicy } from "../clocking/samplingPhase.ts";
+import { DEFAULT_SAMPLING_POLICY, samplingPhase, type SamplingPolicy } from "../clocking/samplingPhase.ts";
 import type { Pulse } from "../types.ts";
 import { bathtub, eyeWidth } from "./bathtub.ts";
 import { type StatisticalEyeOptions, statisticalEye } from "./statisticalEye.ts";
@@ -25,16 +25,17 @@ export interface EyeAnalysis {
  * bathtub at the decision thresholds of that phase, and the bathtub itself (1 UI).
  *
  * @param pulse - the pulse response in volts.
- * @param options - eye options plus the target BER and the policy (default "max-height").
+ * @param options - eye options plus the target bit error ratio and the policy (default "centre", as
+ *   a budget's).
  */
 export function eyeAnalysis(
   pulse: Pulse,
   options: StatisticalEyeOptions & { readonly targetBer: number; readonly policy?: SamplingPolicy },
 ): EyeAnalysis {
   const ber = options.targetBer;
-  if (!(Number.isFinite(ber) && ber > 0 && ber < 0.5)) throw new RangeError(`targetBer must be a number in (0, 0.5), got ${String(ber)}`);
+  if (!(Number.isFinite(ber) && ber > 0 && ber < 0.25)) throw new RangeError(`targetBer must be a number in (0, 0.25), got ${String(ber)}`);
   const eye = statisticalEye(pulse, options);
-  const policy = options.policy ?? "max-height";
+  const policy = options.policy ?? DEFAULT_SAMPLING_POLICY;
   const t = samplingPhase(eye, policy, ber);
   const tub = bathtub(eye, t, 1);
   const spu = pulse.samplesPerUi;

@@ -20,3 +20,4 @@ export * from "./lawStep.ts";
 export * from "./phaseLaws.ts";
 export * from "./quantileBound.ts";
 export * from "./tailTilt.ts";
+export * from "./berConvention.ts";

@@ -123,6 +123,6 @@ export function isiDistribution(parts: Float64Array, step_V: number, tilt_perV =
     lo = nlo;
     hi = nhi;
   }
-  const pmf = cur.slice(margin, margin + 2 * halfBins + 1);
+  const pmf = cur.subarray(margin, margin + 2 * halfBins + 1);
   return { step_V, halfBins, pmf, lo, hi, lumpedVariance_V2: lumped, gridParts: count };
 }

@@ -129,22 +129,18 @@ export function sampleDistribution(parts: Float64Array, noiseRms_V: number, opti
   // Φ(−m·step/s) for m = 0 … K; beyond K the Gaussian CDF is 0 (left) or 1 (right) to < 10⁻³⁸.
   const K = Math.ceil((NOISE_TAIL_SIGMAS * sigma) / step);
   const kNeg = new Float64Array(K + 1);
-  const kPos = new Float64Array(K + 1);
   const scale = step / (sigma * Math.SQRT2);
-  for (let m = 0; m <= K; m++) {
-    kNeg[m] = 0.5 * erfc(m * scale);
-    kPos[m] = 1 - kNeg[m];
-  }
+  for (let m = 0; m <= K; m++) kNeg[m] = 0.5 * erfc(m * scale);
 
   // Nodes reach K beyond the ISI's support on each side; outside them the probabilities are 0 and 1.
   const reach = hi + K;
-  const cache = new Float64Array(2 * reach + 1);
-  const known = new Uint8Array(2 * reach + 1);
+  const cache = new Float64Array(2 * reach + 1).fill(Number.NaN); // NaN: not computed yet
   const node = (j: number): number => {
     if (j < -reach) return 0;
     if (j > reach) return 1;
     const idx = reach + j;
-    if (known[idx] === 1) return cache[idx];
+    const known = cache[idx];
+    if (known === known) return known;
     let s = 0;
     const full = Math.min(hi, j - K - 1);
     if (full >= lo) s += cum[c + full];
@@ -152,10 +148,9 @@ export function sampleDistribution(parts: Float64Array, noiseRms_V: number, opti
     const a = Math.max(lo, j - K);
     const b = Math.min(hi, j + K);
     const mid = Math.min(b, j);
-    for (let i = a; i <= mid; i++) s += pmf[c + i] * kPos[j - i];
+    for (let i = a; i <= mid; i++) s += pmf[c + i] * (1 - kNeg[j - i]);
     for (let i = Math.max(a, j + 1); i <= b; i++) s += pmf[c + i] * kNeg[i - j];
     cache[idx] = s;
-    known[idx] = 1;
     return s;
   };
 

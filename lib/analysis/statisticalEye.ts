@@ -3,6 +3,7 @@
 import { assertPulse } from "../pulse/assertPulse.ts";
 import { cursorsAt } from "../pulse/cursorsAt.ts";
 import type { Modulation, Pulse } from "../types.ts";
+import { berPerLevelTail, edgeTail } from "./berConvention.ts";
 import { PAM4_INNER_LEVEL } from "./isiParts.ts";
 import { assertJitter, type Jitter } from "./jitterKernel.ts";
 import { JitterMixture } from "./jitterMixture.ts";
@@ -37,9 +38,9 @@ export interface StatisticalEyeOptions {
   /** Divides every law's grid step (≥ 1, default 1; see `lawStep`): 2 halves it, for convergence checks. */
   readonly refine?: number;
   /**
-   * The error ratio the eye is asked at most (default 1e-12): every law is made exact to second order
-   * at the edge tail it implies (see `sampleDistribution`'s `designTail`). Other ratios (bathtub,
-   * contours) are computed from the same laws, with the grid errors measured in the README.
+   * The bit error ratio the eye is asked at most (default 1e-12): every law is made exact to second
+   * order at the edge tail it implies (`edgeTail`; see `sampleDistribution`'s `designTail`). Other
+   * ratios (bathtub, contours) come from the same laws, with the grid errors measured in the README.
    */
   readonly targetBer?: number;
   /**
@@ -58,10 +59,14 @@ export interface StatisticalEyeOptions {
  * Conventions (used by every eye measure of Tapwright):
  * - symbols are independent and equiprobable (random data, so the transition density is ½ for NRZ
  *   and ¾ for PAM4);
- * - BER per symbol is conditional on the transmitted level: the error probability of a level
- *   against a threshold is `P(level sample falls on the wrong side)`, not averaged over levels;
- * - the error ratio of a decision threshold `v` ({@link StatisticalEye.ber}) is the sum of those
- *   conditional probabilities of the two levels it separates (nearest above and nearest below);
+ * - `probBelow` / `probAbove` are conditional on the transmitted level: `P(the level's sample falls
+ *   on that side of v | level)`;
+ * - every error ratio is a bit error ratio (see `berPerLevelTail`): a decision threshold `v` between
+ *   two levels causes `BER = f·(P(upper level below v) + P(lower level above v))`, `f = ½` for NRZ
+ *   and `⅛` for Gray-coded PAM4 ({@link StatisticalEye.ber}); an eye's edges at a target BER are where
+ *   one level's conditional tail reaches `BER/f` (`edgeTail`: 2·BER NRZ, 8·BER PAM4), so the eye
+ *   height at BER is the vertical extent of the BER contour at that phase wherever only one level
+ *   errs at each edge;
  * - jitter moves the sampling instant: `τ = ±DJ/2` (½ each) plus Gaussian RJ, the same for all
  *   cursors of one decision.
  */
@@ -90,17 +95,19 @@ export interface StatisticalEye {
   /** `P(sample > v | level)` at phase `t`, jitter included. */
   probAbove(level: number, t: number, v_V: number): number;
   /**
-   * Edges of every eye at phase `t` and error ratio `ber` (NRZ 1 eye, PAM4 3, bottom first), as
-   * `[bottom₀, top₀, bottom₁, top₁, …]` in volts: for the eye between levels `i` and `i+1`, the top
-   * edge is the `ber`-quantile of level `i+1` and the bottom edge the `(1 − ber)`-quantile of
-   * level `i`. A closed eye has `top < bottom`.
+   * Edges of every eye at phase `t` where each level's conditional tail is `tail` (NRZ 1 eye, PAM4
+   * 3, bottom first), as `[bottom₀, top₀, bottom₁, top₁, …]` in volts: for the eye between levels
+   * `i` and `i+1`, the top edge is the `tail`-quantile of level `i+1` and the bottom edge the
+   * `(1 − tail)`-quantile of level `i`. A closed eye has `top < bottom`.
    */
+  levelEdges(t: number, tail: number): Float64Array;
+  /** {@link StatisticalEye.levelEdges} at the bit error ratio `ber` (tail `edgeTail(ber)`). */
   eyeEdges(t: number, ber: number): Float64Array;
   /** Vertical openings `max(0, top − bottom)` of {@link StatisticalEye.eyeEdges}, one per eye. */
   eyeHeights(t: number, ber: number): Float64Array;
   /** Smallest of {@link StatisticalEye.eyeHeights}. */
   eyeHeight(t: number, ber: number): number;
-  /** Error ratio of a decision threshold `v` at phase `t` (sum convention above), at most 1. */
+  /** Bit error ratio of a decision threshold `v` at phase `t` (convention above), at most 1. */
   ber(t: number, v_V: number): number;
 }
 
@@ -176,10 +183,10 @@ function resolveOptions(source: CursorSource, options: StatisticalEyeOptions) {
   if (!(Number.isFinite(refine) && refine >= 1)) throw new RangeError(`refine must be a finite number ≥ 1, got ${String(refine)}`);
   const kernelFloor = options.kernelFloor ?? 1e-38;
   const targetBer = options.targetBer ?? DEFAULT_TARGET_BER;
-  if (!(Number.isFinite(targetBer) && targetBer > 0 && targetBer < 0.5)) {
-    throw new RangeError(`targetBer must be a number strictly between 0 and 0.5, got ${String(targetBer)}`);
+  if (!(Number.isFinite(targetBer) && targetBer > 0 && targetBer / berPerLevelTail(modulation) < 0.5)) {
+    throw new RangeError(`targetBer must be a bit error ratio in (0, ${0.5 * berPerLevelTail(modulation)}), got ${String(targetBer)}`);
   }
-  const law = { refine, designTail: targetBer };
+  const law = { refine, designTail: edgeTail(modulation, targetBer) };
   return { spu, modulation, noiseRms_V, jitter, innerLevel, levels, dfeTaps, extraParts_V, law, kernelFloor };
 }
 
@@ -216,16 +223,23 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     checkLevel(level);
     return mixture.tail(false, level, t, v);
   };
-  const eyeEdges = (t: number, ber: number): Float64Array => {
-    if (!(Number.isFinite(ber) && ber > 0 && ber < 0.5)) {
-      throw new RangeError(`ber must be a number strictly between 0 and 0.5, got ${String(ber)}`);
+  const perTail = berPerLevelTail(o.modulation);
+  const levelEdges = (t: number, tail: number): Float64Array => {
+    if (!(Number.isFinite(tail) && tail > 0 && tail < 0.5)) {
+      throw new RangeError(`tail must be a number strictly between 0 and 0.5, got ${String(tail)}`);
     }
     const out = new Float64Array(2 * (levels.length - 1));
     for (let i = 0; i + 1 < levels.length; i++) {
-      out[2 * i] = mixture.edge(i, t, ber, false);
-      out[2 * i + 1] = mixture.edge(i + 1, t, ber, true);
+      out[2 * i] = mixture.edge(i, t, tail, false);
+      out[2 * i + 1] = mixture.edge(i + 1, t, tail, true);
     }
     return out;
+  };
+  const eyeEdges = (t: number, ber: number): Float64Array => {
+    if (!(Number.isFinite(ber) && ber > 0 && ber / perTail < 0.5)) {
+      throw new RangeError(`ber must be a bit error ratio in (0, ${0.5 * perTail}) for ${o.modulation}, got ${String(ber)}`);
+    }
+    return levelEdges(t, ber / perTail);
   };
   const eyeHeights = (t: number, ber: number): Float64Array => {
     const e = eyeEdges(t, ber);
@@ -255,6 +269,7 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
     },
     probBelow,
     probAbove,
+    levelEdges,
     eyeEdges,
     eyeHeights,
     eyeHeight: (t, ber) => {
@@ -268,6 +283,7 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
       let s = 0;
       if (bounds[0] >= 0) s += probBelow(bounds[0], t, v);
       if (bounds[1] >= 0) s += probAbove(bounds[1], t, v);
+      s *= perTail;
       return s > 1 ? 1 : s;
     },
   };

@@ -8,6 +8,12 @@ export type SamplingPolicy = "centre" | "max-height" | "mueller-muller";
 /** The sampling-phase policies, for validation and forms. */
 export const SAMPLING_POLICIES: readonly SamplingPolicy[] = ["centre", "max-height", "mueller-muller"];
 
+/**
+ * The one default policy of Tapwright (the `eye` command and budgets alike): the eye centre a
+ * bang-bang CDR locks to, so an eye and a budget's run sample at the same place unless told otherwise.
+ */
+export const DEFAULT_SAMPLING_POLICY: SamplingPolicy = "centre";
+
 /** An integer window of sampling phases in samples, relative to the nominal main-cursor sample. */
 export interface PhaseWindow {
   readonly lo: number;

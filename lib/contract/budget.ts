@@ -1,7 +1,8 @@
 // The link budget: what a tuning run is asked to achieve and with which equalizers. The command
 // line's `optimize` request, the web API and the budget form all use this one schema.
 import { z } from "zod";
-import { finiteNumber, modulationSchema, nonNegativeInt, nonNegativeNumber, positiveNumber } from "./common.ts";
+import { DEFAULT_SAMPLING_POLICY } from "../clocking/samplingPhase.ts";
+import { finiteNumber, modulationSchema, nonNegativeInt, nonNegativeNumber, positiveNumber, samplingPolicySchema } from "./common.ts";
 
 /** Largest number of settings one CTLE grid axis may hold. */
 export const MAX_GRID_POINTS = 512;
@@ -113,9 +114,7 @@ export const clockingSchema = z.object({
   bandwidth_Hz: positiveNumber
     .optional()
     .describe("tracking bandwidth; default baud/1667 (recovered) or baud/10 (forwarded)"),
-  policy: z
-    .enum(["centre", "max-height", "mueller-muller"], { error: 'expected "centre", "max-height" or "mueller-muller"' })
-    .default("centre"),
+  policy: samplingPolicySchema,
 });
 
 /**
@@ -151,7 +150,7 @@ export const budgetSchema = z.object({
   tx: txSchema.default({ pre: 1, post: 1 }),
   ctle: ctleSchema,
   dfe: dfeSchema.default({ taps: 0 }),
-  clocking: clockingSchema.default({ scheme: "recovered", policy: "centre" }),
+  clocking: clockingSchema.default({ scheme: "recovered", policy: DEFAULT_SAMPLING_POLICY }),
 });
 
 /** A budget as written by a person or a script (defaults not yet applied). */

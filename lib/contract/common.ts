@@ -1,5 +1,6 @@
 // Building blocks of the engine's request schemas (zod), shared by every command and by the web API.
 import { z } from "zod";
+import { DEFAULT_SAMPLING_POLICY } from "../clocking/samplingPhase.ts";
 import { pulseFromJson } from "../pulse/pulseJson.ts";
 import type { Modulation } from "../types.ts";
 
@@ -94,3 +95,8 @@ export function checkMainInCursors(r: { cursors: number[]; main: number }, ctx: 
 export function formatPath(path: readonly PropertyKey[]): string {
   return path.map((p) => String(p)).join(".");
 }
+
+/** A sampling-phase policy, defaulting to Tapwright's one default (the eye centre). */
+export const samplingPolicySchema = z
+  .enum(["centre", "max-height", "mueller-muller"], { error: 'expected "centre", "max-height" or "mueller-muller"' })
+  .default(DEFAULT_SAMPLING_POLICY);

@@ -1,6 +1,6 @@
 // Request of the `eye` command: the statistical eye of an (already equalized) pulse.
 import { z } from "zod";
-import { finiteNumber, modulationSchema, nonNegativeNumber, pulseSchema } from "./common.ts";
+import { finiteNumber, modulationSchema, nonNegativeNumber, pulseSchema, samplingPolicySchema } from "./common.ts";
 
 /** Target BER accepted by the engine. */
 export const targetBerSchema = finiteNumber
@@ -15,7 +15,7 @@ export const eyeJitterSchema = z.object({
 
 /**
  * `{ pulse, modulation, noiseRms_V, targetBer, jitter?, dfe?: { taps } }`; extensions: `policy`
- * (sampling-phase policy, default "max-height").
+ * (sampling-phase policy, default "centre" — the same default as a budget's clocking).
  */
 export const eyeRequestSchema = z.object({
   pulse: pulseSchema,
@@ -31,9 +31,7 @@ export const eyeRequestSchema = z.object({
     })
     .optional()
     .describe("tap k cancels post-cursor k at every phase (decisions assumed correct)"),
-  policy: z
-    .enum(["centre", "max-height", "mueller-muller"], { error: 'expected "centre", "max-height" or "mueller-muller"' })
-    .default("max-height"),
+  policy: samplingPolicySchema,
 });
 
 /** A validated request (defaults applied). */

@@ -7,14 +7,14 @@ import { type CtleChannel, equalizedCursors } from "./ctleChannel.ts";
 import type { SearchSpace } from "./searchSpace.ts";
 
 /**
- * Jitter weights below `targetBer × KERNEL_FLOOR_FACTOR` are left out of every eye the optimizer
- * evaluates: they move the error ratio at the target by less than a millionth of it.
+ * Jitter weights below `edgeTail × KERNEL_FLOOR_FACTOR` are left out of every eye the optimizer
+ * evaluates: they move a level's tail at the target by less than a millionth of it.
  */
 export const KERNEL_FLOOR_FACTOR = 1e-6;
 
 /** The jitter-kernel floor of a search space's eyes. */
 export function kernelFloorOf(space: SearchSpace): number {
-  return Math.min(1e-3, space.budget.targetBer * KERNEL_FLOOR_FACTOR);
+  return Math.min(1e-3, space.edgeTail * KERNEL_FLOOR_FACTOR);
 }
 
 /** A setting's statistical eye at one sampling phase, built lazily (laws computed on demand). */
@@ -63,6 +63,7 @@ export function prepareEye(
       jitter: jittered ? space.jitter : undefined,
       dfeTaps: dfe.taps,
       kernelFloor: kernelFloorOf(space),
+      targetBer: space.budget.targetBer,
     },
   );
   return { phase, dfeTaps: dfe.taps, dfeClipped: dfe.clipped, eye };
@@ -81,7 +82,7 @@ export function finishEye(space: SearchSpace, prepared: PreparedEye): PhaseEye {
  * jitter (`shift` 0, `weight` 1) the bound is the headroom itself.
  */
 export function heavyPhaseBound(space: SearchSpace, prepared: PreparedEye, shift: number, weight: number): number {
-  const b = space.budget.targetBer / weight;
+  const b = space.edgeTail / weight;
   if (!(b < 0.5)) return Number.POSITIVE_INFINITY;
   const p = prepared.phase + shift;
   const q = prepared.eye.distribution(p).quantile(b);
@@ -95,7 +96,7 @@ export function heavyPhaseBound(space: SearchSpace, prepared: PreparedEye, shift
  * fraction of the noise rms of it.
  */
 export function lightPhaseBound(space: SearchSpace, prepared: PreparedEye, shift: number, weight: number): number {
-  const b = space.budget.targetBer / weight;
+  const b = space.edgeTail / weight;
   if (!(b < 0.5)) return Number.POSITIVE_INFINITY;
   const p = prepared.phase + shift;
   const q = prepared.eye.quantileBound(p, b);

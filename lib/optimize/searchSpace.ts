@@ -1,5 +1,6 @@
 // A budget resolved against a pulse: the grids to search, the scale of the signal at the limiter,
 // the jitter left at the sampler, and every check that needs both.
+import { edgeTail } from "../analysis/berConvention.ts";
 import type { Jitter } from "../analysis/jitterKernel.ts";
 import { type SamplerJitter, samplerJitter } from "../clocking/jitterTransfer.ts";
 import type { SamplingPolicy } from "../clocking/samplingPhase.ts";
@@ -45,6 +46,8 @@ export interface SearchSpace {
   /** Jitter at the sampler after the clocking scheme's tracking. */
   readonly jitter: SamplerJitter;
   readonly policy: SamplingPolicy;
+  /** The conditional tail each eye edge carries at the budget's target bit error ratio (`edgeTail`). */
+  readonly edgeTail: number;
 }
 
 /**
@@ -119,5 +122,6 @@ export function searchSpace(pulse: Pulse, budget: BudgetInput | Budget): SearchS
     dfeLimits_V,
     jitter: samplerJitter(linkJitter, b.clocking.scheme, b.clocking.bandwidth_Hz, baud_Hz),
     policy: b.clocking.policy,
+    edgeTail: edgeTail(b.modulation, b.targetBer),
   };
 }

@@ -18,7 +18,8 @@ const mV = (v: number) => `${(v * 1000).toFixed(1)} mV`;
 
 /**
  * Where the eye of a setting went: the main cursor at the limiter, the part noise takes at the
- * target BER (`2·Q·σ`), and the part ISI and jitter take (the rest of the ideal `gap·g₀`).
+ * target BER (`2·Q(edgeTail)·σ`, the same tail the eye height's edges carry), and the part ISI and
+ * jitter take (the rest of the ideal `gap·g₀`).
  */
 export interface EyeBudget {
   readonly mainCursor_V: number;
@@ -30,7 +31,7 @@ export interface EyeBudget {
 
 /** The closure breakdown of a candidate (see {@link EyeBudget}). */
 export function eyeBudget(space: SearchSpace, candidate: Candidate, mainCursor_V: number, noiseRms_V: number): EyeBudget {
-  const q = qFromBer(space.budget.targetBer);
+  const q = qFromBer(space.edgeTail);
   const ideal = space.levelGap * mainCursor_V;
   const noiseClosure_V = 2 * q * noiseRms_V;
   const isiClosure_V = Math.max(0, ideal - noiseClosure_V - candidate.eyeHeight_V);

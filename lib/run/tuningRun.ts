@@ -166,7 +166,13 @@ export function tuningRun(pulse: Pulse, budget: BudgetInput, onProgress?: (fract
   // Before: the channel alone at the transmit swing.
   const rawAtLimiter = scalePulse(pulse, s);
   const noiseBefore = limiterNoise(b.noiseRms_V, b.inputNoiseRms_V, 1);
-  const beforeEye = statisticalEye(rawAtLimiter, { modulation: space.modulation, noiseRms_V: noiseBefore, jitter, kernelFloor: kernelFloorOf(space) });
+  const beforeEye = statisticalEye(rawAtLimiter, {
+    modulation: space.modulation,
+    noiseRms_V: noiseBefore,
+    jitter,
+    kernelFloor: kernelFloorOf(space),
+    targetBer: ber,
+  });
   const beforePhase = samplingPhase(beforeEye, space.policy, ber);
   const before = eyeFigure(rawAtLimiter, beforeEye, beforePhase, space, ber);
   report(0.86);

@@ -10,16 +10,21 @@ import type { SearchSpace } from "../searchSpace.ts";
  * Per CTLE channel: which equalized cursors the bound looks at, and the constants of the bound.
  *
  * The bound rests on three facts about the eye's upper edge `top = L·g₀ + q` (`q` the lower
- * `b`-quantile of ISI plus noise `X + n`, `X` symmetric and independent of `n`):
+ * `b`-quantile of ISI plus noise `X + n`, `X` symmetric and independent of `n`, `b` the edge's
+ * conditional tail at the target BER, `space.edgeTail`):
  * 1. `P(Y + n < x) ≥ min(Φ(x/σ), ¼)` for any symmetric `Y` (Φ is convex below its ¼-quantile);
  * 2. for any `k` residual cursors `S`, all of them at their adverse extreme has probability `m^−k`
  *    (m = 2 for NRZ, 4 for PAM4), so with fact 1 for the rest: `q ≤ −Σ_S|r| − σ·Q(b·m^k)` whenever
  *    `b·m^k ≤ ¼` (k = 0 is fact 1 alone: `q ≤ −σ·Q(b)`);
  * 3. under jitter the tail is a mixture over phases `t + j` with weights `w_j`, so the edge at phase t
  *    is no higher than the bound at any single phase `t + j` with `b/w_j`; the least of them counts.
- * The computed eye bins the ISI (a two-point part moves less than one grid step Δ; a PAM4 cursor is
- * two parts) and interpolates between nodes (less than Δ), so the bound of `k` cursors adds
- * `2(k + 1)·Δ` (NRZ) or `(4k + 2)·Δ` (PAM4), with Δ bounded from above.
+ * The computed eye puts the ISI on a grid of step Δ: a two-point part of at least one step sits on
+ * the nodes `±s` and `±(s + 1)` with `P(part ≤ −s) = ½` and `s·Δ > |m| − Δ`, a smaller one joins
+ * the Gaussian (holding it adverse is holding that Gaussian at or below 0, probability ½, which
+ * gives away less than Δ), and the Gaussian's rms is at least σ, so facts 1 and 2 hold for the
+ * computed law with each held part costing at most Δ (a PAM4 cursor is two parts); the quantile is
+ * interpolated between nodes (less than Δ). So the bound of `k` cursors adds `2(k + 1)·Δ` (NRZ) or
+ * `(4k + 2)·Δ` (PAM4), with Δ bounded from above (`binStepBound`).
  */
 export interface BoundSetup {
   /** Number of FIR taps. */
@@ -58,7 +63,7 @@ export function boundSetup(space: SearchSpace, channel: CtleChannel, maxDfe: num
   for (let k = 1; k <= WATCHED_BEYOND; k++) offsets.push(-k);
   for (let k = 1; k <= maxDfe + WATCHED_BEYOND; k++) offsets.push(k);
   const watchedCount = offsets.length;
-  const ber = space.budget.targetBer;
+  const ber = space.edgeTail; // the conditional tail of one eye edge at the target BER
   const kernel = jitterKernel(space.jitter, channel.pulse.samplesPerUi, 0, kernelFloorOf(space));
   // Phases whose weight gives a bound, outermost first: their worse eyes usually bound lowest.
   const usable = Array.from(kernel.weights, (w, i) => ({ shift: kernel.first + i, w })).filter((x) => ber / x.w <= 0.25);

@@ -1,14 +1,15 @@
 // The bound of facts 1–3 (see BoundSetup) from a main cursor and residual magnitudes: the piece the
 // leaf bound and the box bound share.
-import { DEFAULT_HALF_BINS, NOISE_TAIL_SIGMAS } from "../../analysis/sampleDistribution.ts";
+import { lawStepForSpan } from "../../analysis/lawStep.ts";
 import type { BoundSetup } from "./boundSetup.ts";
 
 /**
- * Upper bound on the statistical eye's ISI grid step Δ, volts: the eye spans the residuals' total
- * `residualSum_V`, the unwatched tail and the noise's tails over `DEFAULT_HALF_BINS` bins.
+ * Upper bound on the statistical eye's ISI grid step Δ, volts: the law's step at an upper bound of
+ * its parts' total (the residuals' total `residualSum_V` plus the unwatched tail); the step grows
+ * with the total.
  */
 export function binStepBound(setup: BoundSetup, residualSum_V: number, tail_V: number): number {
-  return (residualSum_V + tail_V + NOISE_TAIL_SIGMAS * setup.noiseRms_V) / DEFAULT_HALF_BINS;
+  return lawStepForSpan(residualSum_V + tail_V, setup.noiseRms_V);
 }
 
 /** Limiter headroom of an eye opening (a negative opening is a closed eye, 0). */

@@ -34,7 +34,7 @@ describe("berMap", () => {
 });
 
 describe("berContours", () => {
-  it("analytic: the 1e-12 contour of a clean eye crosses the centre column at ±(A − Q(BER)·σ) [computed]", () => {
+  it("analytic: the 1e-12 contour of a clean eye crosses the centre column at ±(A − Q(2·BER)·σ), as the eye height's edges [computed]", () => {
     const A = 0.4;
     const sigma = 0.01;
     const eye = statisticalEye(cursorPulse([0, A, 0], 1, 16), { modulation: "nrz", noiseRms_V: sigma });
@@ -43,7 +43,7 @@ describe("berContours", () => {
     const map = berMap(eye, phases, volts);
     const [c12] = berContours(map, [-12], 1 / 16);
     expect(c12.log10Ber).toBe(-12);
-    const edge = A - qFromBer(1e-12) * sigma;
+    const edge = A - qFromBer(2e-12) * sigma;
     // Points of the contour on the centre column (phase 0 UI).
     const onCentre = c12.paths.flat().filter(([t]) => Math.abs(t) < 1e-9).map(([, v]) => v);
     expect(onCentre.length).toBeGreaterThanOrEqual(2);

@@ -1,6 +1,6 @@
-// COM-style margin and the limiter: the COM identity, closed forms, edges.
+// COM-style margin and the limiter: closed forms, an enumerated Ani, edges.
 import { describe, expect, it } from "vitest";
-import { qFromBer } from "@lib/analysis/ber";
+import { berFromQ, qFromBer } from "@lib/analysis/ber";
 import { comMargin } from "@lib/analysis/comMargin";
 import { limiterHeadroom } from "@lib/analysis/limiterHeadroom";
 import { limiterNoise } from "@lib/analysis/limiterNoise";
@@ -8,13 +8,31 @@ import { statisticalEye } from "@lib/analysis/statisticalEye";
 import { cursorPulse } from "./helpers.ts";
 
 describe("comMargin", () => {
-  it("COM identity 20·log10(As/Ani) (IEEE 802.3 Annex 93A [memory]); clean NRZ pulse: Ani = Q(DER0)·σ [computed]", () => {
+  it("analytic: a clean NRZ pulse has As = A and Ani = Q(DER0)·σ, so COM = 20·log10(A/(Q(DER0)·σ)) (IEEE 802.3 Annex 93A form [memory]) [computed]", () => {
     const sigma = 0.01;
     const eye = statisticalEye(cursorPulse([0, 0.4, 0], 1), { modulation: "nrz", noiseRms_V: sigma });
     const c = comMargin(eye, 0, 1e-5);
-    expect(c.com_dB).toBeCloseTo(20 * Math.log10(c.as_V / c.ani_V), 12);
+    // Q(1e-5) = 4.26489 (the Gaussian tail, BER = ½·erfc(Q/√2)) [computed].
+    expect(Math.abs(c.com_dB - 20 * Math.log10(0.4 / (4.26489 * sigma)))).toBeLessThan(1e-3);
     expect(c.as_V).toBeCloseTo(0.4, 15);
     expect(Math.abs(c.ani_V - qFromBer(1e-5) * sigma)).toBeLessThan(1e-3 * sigma);
+  });
+
+  it("oracle: with one post-cursor r, Ani is where ½Q((Ani − r)/σ) + ½Q((Ani + r)/σ) = DER0 (a level's tail, not a bit error ratio), by bisection [computed]", () => {
+    const sigma = 0.006;
+    const r = 0.0517;
+    const eye = statisticalEye(cursorPulse([0, 0.4, r, 0], 1), { modulation: "nrz", noiseRms_V: sigma });
+    const tail = (a: number) => 0.5 * berFromQ((a - r) / sigma) + 0.5 * berFromQ((a + r) / sigma);
+    let lo = 0;
+    let hi = 1;
+    for (let i = 0; i < 100; i++) {
+      const m = (lo + hi) / 2;
+      if (tail(m) > 1e-5) lo = m;
+      else hi = m;
+    }
+    const c = comMargin(eye, 0, 1e-5);
+    expect(Math.abs(c.ani_V - lo)).toBeLessThan(5e-6);
+    expect(Math.abs(c.com_dB - 20 * Math.log10(0.4 / lo))).toBeLessThan(1e-3);
   });
 
   it("PAM4: As is a third of the main cursor; ISI adds to Ani", () => {

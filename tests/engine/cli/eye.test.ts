@@ -29,11 +29,14 @@ function pulse(cursors: number[], main: number) {
 }
 
 describe("eye command", () => {
-  it("a single cursor of height A with no ISI: eyeHeight = 2A − 2·Q(targetBer)·noiseRms_V (shared/engine-cli.md) [computed]", () => {
+  // shared/engine-cli.md states 2A − 2·Q(targetBer)·σ, a level's conditional tail of targetBer at each
+  // edge. With targetBer a bit error ratio averaged over the two equiprobable levels (Tapwright's one
+  // convention, README), each edge carries a tail of 2·targetBer: 2A − 2·Q(2·targetBer)·σ [computed].
+  it("a single cursor of height A with no ISI: eyeHeight = 2A − 2·Q(2·targetBer)·noiseRms_V; default policy centre, as budgets [computed]", () => {
     const r = ok({ pulse: pulse([0, 0.3, 0], 1), modulation: "nrz", noiseRms_V: 0.005, targetBer: 1e-12 });
-    expect(Math.abs(r.eyeHeight_V - (0.6 - 2 * qFromBer(1e-12) * 0.005))).toBeLessThan(5e-6);
+    expect(Math.abs(r.eyeHeight_V - (0.6 - 2 * qFromBer(2e-12) * 0.005))).toBeLessThan(5e-6);
     expect(r.samplingPhase_UI).toBe(0);
-    expect(r.policy).toBe("max-height");
+    expect(r.policy).toBe("centre");
     expect(r.bathtub.phase_UI.length).toBe(r.bathtub.log10Ber.length);
   });
 
@@ -46,13 +49,13 @@ describe("eye command", () => {
 
   it("DFE taps cancel the first post-cursors; jitter narrows the eye; more noise lowers it", () => {
     const p = pulse([0, 0.3, 0.1, 0.04, 0], 1);
-    const plain = ok({ pulse: p, noiseRms_V: 0.004, targetBer: 1e-12 });
-    const dfe = ok({ pulse: p, noiseRms_V: 0.004, targetBer: 1e-12, dfe: { taps: [0.1, 0.04] } });
-    expect(Math.abs(dfe.eyeHeight_V - (0.6 - 2 * qFromBer(1e-12) * 0.004))).toBeLessThan(5e-6);
+    const plain = ok({ pulse: p, noiseRms_V: 0.004, targetBer: 1e-12, policy: "max-height" });
+    const dfe = ok({ pulse: p, noiseRms_V: 0.004, targetBer: 1e-12, dfe: { taps: [0.1, 0.04] }, policy: "max-height" });
+    expect(Math.abs(dfe.eyeHeight_V - (0.6 - 2 * qFromBer(2e-12) * 0.004))).toBeLessThan(5e-6);
     expect(dfe.eyeHeight_V).toBeGreaterThan(plain.eyeHeight_V);
-    const jit = ok({ pulse: p, noiseRms_V: 0.004, targetBer: 1e-12, dfe: { taps: [0.1, 0.04] }, jitter: { rjRms_UI: 0.02, djPp_UI: 0.1 } });
+    const jit = ok({ pulse: p, noiseRms_V: 0.004, targetBer: 1e-12, dfe: { taps: [0.1, 0.04] }, jitter: { rjRms_UI: 0.02, djPp_UI: 0.1 }, policy: "max-height" });
     expect(jit.eyeWidth_UI).toBeLessThan(dfe.eyeWidth_UI);
-    const noisy = ok({ pulse: p, noiseRms_V: 0.01, targetBer: 1e-12 });
+    const noisy = ok({ pulse: p, noiseRms_V: 0.01, targetBer: 1e-12, policy: "max-height" });
     expect(noisy.eyeHeight_V).toBeLessThan(plain.eyeHeight_V);
   });
 

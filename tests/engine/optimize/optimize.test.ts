@@ -24,7 +24,7 @@ describe("first-order RC channel (cursors (1 − a)·a^k) [computed from the RC 
     for (let k = 1; k < 10; k++) expect(Math.abs(g.h[g.main + k])).toBeLessThan(1e-4);
   });
 
-  it.each([0.3, 0.5, 0.7])("a = %s: the optimizer (continuous taps, no DFE) finds that FIR and the eye 2·s·(1 − a)/(1 + a) − 2Qσ", (a) => {
+  it.each([0.3, 0.5, 0.7])("a = %s: the optimizer (continuous taps, no DFE) finds that FIR and the eye 2·s·(1 − a)/(1 + a) − 2·Q(2·BER)·σ", (a) => {
     const sigma = 1e-4;
     const r = optimize(rcPulse(a), {
       txSwing_Vppd: 1,
@@ -36,7 +36,7 @@ describe("first-order RC channel (cursors (1 − a)·a^k) [computed from the RC 
     });
     expect(Math.abs(r.tx.taps[0] - 1 / (1 + a))).toBeLessThan(1e-3);
     expect(Math.abs(r.tx.taps[1] + a / (1 + a))).toBeLessThan(1e-3);
-    expect(Math.abs(r.eye.eyeHeight_V - (2 * 0.5 * (1 - a)) / (1 + a) + 2 * qFromBer(BER) * sigma)).toBeLessThan(2e-4);
+    expect(Math.abs(r.eye.eyeHeight_V - (2 * 0.5 * (1 - a)) / (1 + a) + 2 * qFromBer(2 * BER) * sigma)).toBeLessThan(2e-4);
     expect(r.refinement).not.toBeNull();
   });
 });
@@ -59,8 +59,8 @@ describe("the noise-enhancement example (channel 1 + a·z⁻¹; Barry, Lee & Mes
     expect(r.verdict.fewestDfeTaps).toBe(1);
     expect(r.verdict.reasons.join(" ")).toMatch(/Noise floor/);
     expect(r.verdict.reasons.join(" ")).toMatch(/one tap reaches/);
-    // The ideal DFE pays no enhancement: the eye is the clean one, 2·s·1 − 2Qσ.
-    expect(Math.abs(r.eye.eyeHeight_V - (1 - 2 * qFromBer(BER) * 0.01))).toBeLessThan(1e-4);
+    // The ideal DFE pays no enhancement: the eye is the clean one, 2·s·1 − 2·Q(2·BER)·σ (edge tail of an NRZ bit error ratio).
+    expect(Math.abs(r.eye.eyeHeight_V - (1 - 2 * qFromBer(2 * BER) * 0.01))).toBeLessThan(1e-4);
   });
 
   it("a = 0.5 (1.249 dB of enhancement for a linear equalizer): linear equalization suffices", () => {
