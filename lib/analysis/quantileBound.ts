@@ -73,7 +73,45 @@ export function quantileBound(parts: Float64Array, noiseRms_V: number, p: number
   const sn = sigma / step;
   const sn2 = sn * sn;
 
-  // The largest parts (on the grid), largest first, and each one's rank.
+  const { top, tops, rank } = largestParts(mags);
+  // Second moment of the parts not held adverse (for the first tilt).
+  let rest = 0;
+  for (let i = 0; i < n; i++) {
+    if (rank[i] >= 0 || mags[i] === 0) continue;
+    const s = Math.floor(mags[i]);
+    rest += (1 - weights[i]) * s * s + weights[i] * (s + 1) * (s + 1);
+  }
+  const ctx: TiltContext = {
+    mags,
+    weights,
+    rank,
+    top,
+    tops,
+    sn,
+    sn2,
+    logTarget: Math.log(p * (1 + REL_SLACK) + ABS_SLACK),
+    tLogM: new Float64Array(MAX_ADVERSE),
+    tMu: new Float64Array(MAX_ADVERSE),
+    tVar: new Float64Array(MAX_ADVERSE),
+    bestJ: Number.POSITIVE_INFINITY,
+    bestZ: Number.NaN,
+  };
+
+  const spread2 = sn2 + rest;
+  evaluateTilt(ctx, qFromBer(Math.min(0.25, 2 * p)) / Math.sqrt(spread2));
+  for (let it = 0; it < 2 && Number.isFinite(ctx.bestZ); it++) {
+    const z = ctx.bestZ;
+    const lambda = Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI) / (0.5 * erfc(-z / Math.SQRT2));
+    evaluateTilt(ctx, lambda / sn);
+  }
+  const bestJ = ctx.bestJ;
+  if (!Number.isFinite(bestJ)) return Number.POSITIVE_INFINITY;
+  return (bestJ < -H ? -H : bestJ > H ? H : bestJ) * step;
+}
+
+/** The largest grid parts (magnitudes in steps, at least one), largest first, and each part's rank (−1: not among them). */
+function largestParts(mags: Float64Array): { top: Int32Array; tops: number; rank: Int8Array } {
+  const n = mags.length;
   const top = new Int32Array(MAX_ADVERSE).fill(-1);
   let tops = 0;
   for (let i = 0; i < n; i++) {
@@ -89,104 +127,100 @@ export function quantileBound(parts: Float64Array, noiseRms_V: number, p: number
   }
   const rank = new Int8Array(n).fill(-1);
   for (let t = 0; t < tops; t++) rank[top[t]] = t;
-  // Second moment of the parts not held adverse (for the first tilt).
-  let rest = 0;
+  return { top, tops, rank };
+}
+
+/** The split grid parts, the Gaussian in steps, the target, scratch per held part, and the best node so far. */
+interface TiltContext {
+  readonly mags: Float64Array;
+  readonly weights: Float64Array;
+  readonly rank: Int8Array;
+  readonly top: Int32Array;
+  readonly tops: number;
+  readonly sn: number;
+  readonly sn2: number;
+  readonly logTarget: number;
+  readonly tLogM: Float64Array;
+  readonly tMu: Float64Array;
+  readonly tVar: Float64Array;
+  bestJ: number;
+  bestZ: number;
+}
+
+/** The bound for the tilt θ = −a (a > 0), for every number k of adverse parts; improves `ctx.bestJ`. */
+function evaluateTilt(ctx: TiltContext, a: number): void {
+  const { mags, weights, rank, top, tops, sn, sn2, logTarget, tLogM, tMu, tVar } = ctx;
+  const n = mags.length;
+  const e1 = Math.exp(-a);
+  const e2 = e1 * e1;
+  let logM = 0;
+  let prod = 1;
+  let mu = 0;
+  let vSum = 0;
   for (let i = 0; i < n; i++) {
-    if (rank[i] >= 0 || mags[i] === 0) continue;
-    const s = Math.floor(mags[i]);
-    rest += (1 - weights[i]) * s * s + weights[i] * (s + 1) * (s + 1);
-  }
-
-  const logTarget = Math.log(p * (1 + REL_SLACK) + ABS_SLACK);
-  const tLogM = new Float64Array(MAX_ADVERSE);
-  const tMu = new Float64Array(MAX_ADVERSE);
-  const tVar = new Float64Array(MAX_ADVERSE);
-  let bestJ = Number.POSITIVE_INFINITY;
-  let bestZ = Number.NaN;
-
-  // The bound for the tilt θ = −a (a > 0), for every number k of adverse parts.
-  const evaluate = (a: number): void => {
-    const e1 = Math.exp(-a);
-    const e2 = e1 * e1;
-    let logM = 0;
-    let prod = 1;
-    let mu = 0;
-    let vSum = 0;
-    for (let i = 0; i < n; i++) {
-      const m = mags[i];
-      if (m === 0) continue;
-      const s = Math.floor(m);
-      const w = weights[i];
-      // M_i(θ) = (1 − w)·cosh(a·s) + w·cosh(a·(s + 1)) = e^{lead}·inner; μ_i and E_Q[B²] likewise.
-      let lead: number;
-      let inner: number;
-      let mi: number;
-      let ex2: number;
-      if (w === 0) {
-        const es = Math.exp(-2 * a * s);
-        lead = a * s;
-        inner = 0.5 * (1 + es);
-        mi = -(s * 0.5 * (1 - es)) / inner;
-        ex2 = s * s;
-      } else {
-        const es = Math.exp(-2 * a * s);
-        const es1 = es * e2;
-        const w0 = (1 - w) * e1;
-        const c0 = 0.5 * (1 + es);
-        const cc = 0.5 * (1 + es1);
-        const s1 = s + 1;
-        lead = a * s1;
-        inner = w0 * c0 + w * cc;
-        mi = -(w0 * s * 0.5 * (1 - es) + w * s1 * 0.5 * (1 - es1)) / inner;
-        ex2 = (w0 * s * s * c0 + w * s1 * s1 * cc) / inner;
-      }
-      const vi = ex2 - mi * mi > 0 ? ex2 - mi * mi : 0;
-      const r = rank[i];
-      if (r >= 0) {
-        tLogM[r] = lead + Math.log(inner);
-        tMu[r] = mi;
-        tVar[r] = vi;
-      }
-      prod *= inner;
-      if (prod < 1e-200) {
-        logM += Math.log(prod);
-        prod = 1;
-      }
-      logM += lead;
-      mu += mi;
-      vSum += vi;
+    const m = mags[i];
+    if (m === 0) continue;
+    const s = Math.floor(m);
+    const w = weights[i];
+    // M_i(θ) = (1 − w)·cosh(a·s) + w·cosh(a·(s + 1)) = e^{lead}·inner; μ_i and E_Q[B²] likewise.
+    let lead: number;
+    let inner: number;
+    let mi: number;
+    let ex2: number;
+    if (w === 0) {
+      const es = Math.exp(-2 * a * s);
+      lead = a * s;
+      inner = 0.5 * (1 + es);
+      mi = -(s * 0.5 * (1 - es)) / inner;
+      ex2 = s * s;
+    } else {
+      const es = Math.exp(-2 * a * s);
+      const es1 = es * e2;
+      const w0 = (1 - w) * e1;
+      const c0 = 0.5 * (1 + es);
+      const cc = 0.5 * (1 + es1);
+      const s1 = s + 1;
+      lead = a * s1;
+      inner = w0 * c0 + w * cc;
+      mi = -(w0 * s * 0.5 * (1 - es) + w * s1 * 0.5 * (1 - es1)) / inner;
+      ex2 = (w0 * s * s * c0 + w * s1 * s1 * cc) / inner;
     }
-    logM += Math.log(prod);
-    let logPs = 0;
-    let shift = 0;
-    for (let k = 0; k <= tops; k++) {
-      if (k > 0) {
-        logM -= tLogM[k - 1];
-        mu -= tMu[k - 1];
-        vSum -= tVar[k - 1];
-        logPs -= Math.LN2;
-        shift += Math.floor(mags[top[k - 1]]);
-      }
-      // log P(R + g < y) ≥ log M − θ·μ − V/(2s²) + log Φ((y − μ)/s), θ = −a.
-      const need = logTarget - logPs - (logM + a * mu - (vSum > 0 ? vSum : 0) / (2 * sn2));
-      if (!(need < 0)) continue;
-      const x = Math.exp(need);
-      const z = x < 0.5 ? -qFromBer(x) : qFromBer(1 - x);
-      const J = Math.ceil(mu + sn * z - shift);
-      if (J < bestJ) {
-        bestJ = J;
-        bestZ = z;
-      }
+    const vi = ex2 - mi * mi > 0 ? ex2 - mi * mi : 0;
+    const r = rank[i];
+    if (r >= 0) {
+      tLogM[r] = lead + Math.log(inner);
+      tMu[r] = mi;
+      tVar[r] = vi;
     }
-  };
-
-  const spread2 = sn2 + rest;
-  evaluate(qFromBer(Math.min(0.25, 2 * p)) / Math.sqrt(spread2));
-  for (let it = 0; it < 2 && Number.isFinite(bestZ); it++) {
-    const z = bestZ;
-    const lambda = Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI) / (0.5 * erfc(-z / Math.SQRT2));
-    evaluate(lambda / sn);
+    prod *= inner;
+    if (prod < 1e-200) {
+      logM += Math.log(prod);
+      prod = 1;
+    }
+    logM += lead;
+    mu += mi;
+    vSum += vi;
   }
-  if (!Number.isFinite(bestJ)) return Number.POSITIVE_INFINITY;
-  return (bestJ < -H ? -H : bestJ > H ? H : bestJ) * step;
+  logM += Math.log(prod);
+  let logPs = 0;
+  let shift = 0;
+  for (let k = 0; k <= tops; k++) {
+    if (k > 0) {
+      logM -= tLogM[k - 1];
+      mu -= tMu[k - 1];
+      vSum -= tVar[k - 1];
+      logPs -= Math.LN2;
+      shift += Math.floor(mags[top[k - 1]]);
+    }
+    // log P(R + g < y) ≥ log M − θ·μ − V/(2s²) + log Φ((y − μ)/s), θ = −a.
+    const need = logTarget - logPs - (logM + a * mu - (vSum > 0 ? vSum : 0) / (2 * sn2));
+    if (!(need < 0)) continue;
+    const x = Math.exp(need);
+    const z = x < 0.5 ? -qFromBer(x) : qFromBer(1 - x);
+    const J = Math.ceil(mu + sn * z - shift);
+    if (J < ctx.bestJ) {
+      ctx.bestJ = J;
+      ctx.bestZ = z;
+    }
+  }
 }

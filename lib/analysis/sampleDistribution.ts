@@ -72,20 +72,7 @@ export function sampleDistribution(parts: Float64Array, noiseRms_V: number, opti
   if (!(parts instanceof Float64Array)) throw new TypeError("parts must be a Float64Array of two-point magnitudes in volts");
   const step = lawStep(parts, noiseRms_V, options.refine ?? 1);
 
-  if (step === 0) {
-    // No ISI and no noise: a point mass at 0.
-    return {
-      noiseRms_V: 0,
-      gaussianRms_V: 0,
-      isi: { step_V: 1, halfBins: 0, pmf: Float64Array.of(1), lo: 0, hi: 0, lumpedVariance_V2: 0, gridParts: 0 },
-      probBelow: (u) => (u > 0 ? 1 : 0),
-      probAbove: (u) => (u < 0 ? 1 : 0),
-      quantile: (p) => {
-        checkP(p);
-        return 0;
-      },
-    };
-  }
+  if (step === 0) return pointMass();
 
   const law = isiDistribution(parts, step, lawTilt(parts, noiseRms_V, options));
   const { pmf, lo, hi, halfBins: H } = law;
@@ -99,32 +86,7 @@ export function sampleDistribution(parts: Float64Array, noiseRms_V: number, opti
   }
   for (let i = c + hi + 1; i < cum.length; i++) cum[i] = acc;
 
-  if (sigma === 0) {
-    const below = (u: number): number => {
-      const k = Math.ceil(u / step) - 1; // largest node strictly below u
-      if (k < lo) return 0;
-      if (k >= hi) return 1;
-      return cum[c + k];
-    };
-    return {
-      noiseRms_V: 0,
-      gaussianRms_V: 0,
-      isi: law,
-      probBelow: below,
-      probAbove: (u) => below(-u),
-      quantile: (p) => {
-        checkP(p);
-        let a = lo;
-        let b = hi; // cum at hi is 1 ≥ p
-        while (a < b) {
-          const m = (a + b) >> 1;
-          if (cum[c + m] >= p) b = m;
-          else a = m + 1;
-        }
-        return a * step;
-      },
-    };
-  }
+  if (sigma === 0) return latticeLaw(law, cum);
 
   // Φ(−m·step/s) for m = 0 … K; beyond K the Gaussian CDF is 0 (left) or 1 (right) to < 10⁻³⁸.
   const K = Math.ceil((NOISE_TAIL_SIGMAS * sigma) / step);
@@ -188,6 +150,50 @@ export function sampleDistribution(parts: Float64Array, noiseRms_V: number, opti
       const b1 = node(b);
       const f = b0 > 0 ? (Math.log(p) - Math.log(b0)) / (Math.log(b1) - Math.log(b0)) : p / b1;
       return (a + f) * step;
+    },
+  };
+}
+
+/** No ISI and no noise: a point mass at 0. */
+function pointMass(): SampleDistribution {
+  return {
+    noiseRms_V: 0,
+    gaussianRms_V: 0,
+    isi: { step_V: 1, halfBins: 0, pmf: Float64Array.of(1), lo: 0, hi: 0, lumpedVariance_V2: 0, gridParts: 0 },
+    probBelow: (u) => (u > 0 ? 1 : 0),
+    probAbove: (u) => (u < 0 ? 1 : 0),
+    quantile: (p) => {
+      checkP(p);
+      return 0;
+    },
+  };
+}
+
+/** ISI alone (no Gaussian part): the law on its grid nodes, `cum` its cumulative sums by index. */
+function latticeLaw(law: IsiDistribution, cum: Float64Array): SampleDistribution {
+  const { lo, hi, halfBins: c, step_V: step } = law;
+  const below = (u: number): number => {
+    const k = Math.ceil(u / step) - 1; // largest node strictly below u
+    if (k < lo) return 0;
+    if (k >= hi) return 1;
+    return cum[c + k];
+  };
+  return {
+    noiseRms_V: 0,
+    gaussianRms_V: 0,
+    isi: law,
+    probBelow: below,
+    probAbove: (u) => below(-u),
+    quantile: (p) => {
+      checkP(p);
+      let a = lo;
+      let b = hi; // cum at hi is 1 ≥ p
+      while (a < b) {
+        const m = (a + b) >> 1;
+        if (cum[c + m] >= p) b = m;
+        else a = m + 1;
+      }
+      return a * step;
     },
   };
 }
