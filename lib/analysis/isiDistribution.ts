@@ -41,7 +41,9 @@ export function splitWeight(m: number, s: number, x: number): number {
   if (m === s) return 0;
   if (x === 0) return (m * m - s * s) / (2 * s + 1);
   // cosh a − cosh b = 2·sinh((a + b)/2)·sinh((a − b)/2), in logs against overflow.
-  return Math.exp(logSinh((x * (m + s)) / 2) + logSinh((x * (m - s)) / 2) - logSinh((x * (2 * s + 1)) / 2) - logSinh(x / 2));
+  const w = Math.exp(logSinh((x * (m + s)) / 2) + logSinh((x * (m - s)) / 2) - logSinh((x * (2 * s + 1)) / 2) - logSinh(x / 2));
+  // A weight, whatever rounding does at large tilts (NaN counts as none).
+  return w >= 0 ? (w <= 1 ? w : 1) : 0;
 }
 
 /**

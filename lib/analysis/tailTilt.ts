@@ -15,12 +15,16 @@ export function logSinh(y: number): number {
   return y + Math.log(-Math.expm1(-2 * y)) - Math.LN2;
 }
 
+/** The largest `λ·(Σm + σ)` a tilt may reach (see {@link tailTilt}). */
+export const MAX_TILT_SPAN = 1e6;
+
 /**
  * The saddle-point tilt `λ` (1/V) of `Y = Σ ±m_i + n`, `n ~ N(0, σ²)`, at which the tail `P(Y < y)`
  * equals `p`: with the cumulant generating function `K(λ) = Σ log cosh(λm_i) + σ²λ²/2`, the
  * Lugannani–Rice leading term `P ≈ exp(K(λ) − λK'(λ)) / (λ·√(2π·K''(λ)))` set equal to `p`, solved by
  * Newton's method on `log λ` from the Gaussian estimate `Q(p)/√(Σm² + σ²)`, with bisection whenever
- * a step would leave the bracket.
+ * a step would leave the bracket. The tilt is capped at `λ·(Σm + σ) = 10⁶` (a tail below the law's
+ * smallest atom has no saddle point).
  *
  * @param parts - two-point magnitudes in volts (finite, ≥ 0).
  * @param noiseRms_V - Gaussian noise rms in volts (≥ 0).
@@ -36,8 +40,15 @@ export function tailTilt(parts: Float64Array, noiseRms_V: number, p: number): nu
   }
   const s2 = noiseRms_V * noiseRms_V;
   let v = s2;
-  for (let i = 0; i < parts.length; i++) v += parts[i] * parts[i];
+  let span = noiseRms_V;
+  for (let i = 0; i < parts.length; i++) {
+    v += parts[i] * parts[i];
+    span += parts[i];
+  }
   if (!(v > 0)) return 0;
+  // A tail below the law's smallest atom (no noise, p < 2^−n) has no saddle point: λ runs off. Beyond
+  // λ·(Σm + σ) = 10⁶ every part is already matched at its extreme, and larger tilts only lose digits.
+  const cap = MAX_TILT_SPAN / span;
   const logP = Math.log(p);
   // h(λ) = K − λK' − log(λ√(2πK'')) − log p, decreasing in λ; h'(λ) ≈ −λK'' − 1/λ.
   const h = (lambda: number): { value: number; slope: number } => {
@@ -58,14 +69,18 @@ export function tailTilt(parts: Float64Array, noiseRms_V: number, p: number): nu
   };
   // Gaussian start: λ = z/√v with z from the tail's rough size √(−2 log p).
   let lambda = Math.sqrt(-2 * logP) / Math.sqrt(v);
+  if (lambda > cap) lambda = cap;
   let lo = 0;
   let hi = Number.POSITIVE_INFINITY;
   for (let it = 0; it < 60; it++) {
     const { value, slope } = h(lambda);
-    if (value > 0) lo = lambda;
-    else hi = lambda;
+    if (value > 0) {
+      if (lambda >= cap) return cap;
+      lo = lambda;
+    } else hi = lambda;
     let next = lambda - value / slope;
     if (!(next > lo && next < hi)) next = Number.isFinite(hi) ? 0.5 * (lo + hi) : 2 * lambda;
+    if (next > cap) next = cap;
     if (Math.abs(next - lambda) <= 1e-10 * lambda) return next;
     lambda = next;
   }

@@ -5,6 +5,7 @@ import { berFromQ, qFromBer } from "@lib/analysis/ber";
 import { isiParts } from "@lib/analysis/isiParts";
 import { lawStep } from "@lib/analysis/lawStep";
 import { sampleDistribution } from "@lib/analysis/sampleDistribution";
+import { tailTilt } from "@lib/analysis/tailTilt";
 import { seededRandom } from "@lib/signal/seededRandom";
 import { enumerateIsi, normalCdfOracle } from "./helpers.ts";
 import { referenceQuantile } from "./tailReference.ts";
@@ -108,5 +109,14 @@ describe("sampleDistribution", () => {
     expect(() => sampleDistribution(Float64Array.of(0.1), 0.1, { designTail: 0.7 })).toThrow(/designTail/);
     expect(() => point.quantile(0)).toThrow(/p must/);
     expect(() => sampleDistribution(Float64Array.of(Number.POSITIVE_INFINITY), 0.1)).toThrow(/not finite/);
+  });
+});
+
+describe("sampleDistribution — a design tail below the smallest atom", () => {
+  it("no noise, two parts a hair apart, tail 2e-12 below the atom ¼: the tilt is capped and the lowest node is the quantile (−Σm), not NaN", () => {
+    const d = sampleDistribution(Float64Array.of(0.05000000000000002, 0.05), 0, { designTail: 2e-12 });
+    expect(d.quantile(2e-12)).toBeCloseTo(-0.1, 9);
+    expect(d.isi.pmf.every((x) => Number.isFinite(x))).toBe(true);
+    expect(Number.isFinite(tailTilt(Float64Array.of(0.05, 0.05), 0, 2e-12))).toBe(true);
   });
 });

@@ -270,3 +270,13 @@ describe("statisticalEye — edges", () => {
     expect(() => statisticalEye({ ...pulse, mainIndex: 99 }, { modulation: "nrz", noiseRms_V: 0 })).toThrow(/mainIndex/);
   });
 });
+
+describe("statisticalEye — noise-free laws whose design tail lies below the smallest atom", () => {
+  it("a triangular victim (peak 0.2) with one extra part 0.05 and no noise: the eye is 2·(main − |neighbour| − 0.05) — 0.3 at the peak, 0.1 two samples off it [computed: worst case of three two-point parts]", () => {
+    const victim = cursorPulse([0, 0.2, 0], 1, 8, 1e-10);
+    const e = statisticalEye(victim, { modulation: "nrz", noiseRms_V: 0, extraParts_V: Float64Array.of(0.05) });
+    expect(e.eyeHeight(0, 1e-12)).toBeCloseTo(0.3, 9);
+    // Two samples off the peak the main cursor is 0.15 and a neighbour 0.05: 2·(0.15 − 0.05 − 0.05).
+    for (const t of [-2, 2]) expect(e.eyeHeight(t, 1e-12)).toBeCloseTo(0.1, 9);
+  });
+});
