@@ -1,7 +1,8 @@
 #!/usr/bin/env node
-// `npm test`: the same set-up as `npm start` on a separate test database (and ports), then every
-// suite — unit, integration against MariaDB and the running server, browser tests in Chromium —
-// ending with the line `N passed, N failed[, N skipped]`. Extra arguments go to vitest as filters.
+// `npm test`: lint (`npm run lint`, whole runs only), then the same set-up as `npm start` on a
+// separate test database (and ports), then every suite — unit, integration against MariaDB and
+// the running server, browser tests in Chromium — ending with the line `N passed, N failed[, N
+// skipped]`. Extra arguments go to vitest as filters (and skip the lint and the type check).
 import { spawn, spawnSync } from "node:child_process";
 import { mkdirSync, readFileSync, existsSync, rmSync } from "node:fs";
 import { join } from "node:path";
@@ -26,8 +27,16 @@ function summarize() {
 
 let cleanup = async () => {};
 let code = 1;
+const wholeSuite = process.argv.length <= 2;
 try {
   ensureNpmPackages();
+  // Lint first (ESLint: typescript-eslint, the import boundaries, React's hooks rules); it counts
+  // as one more test of the whole suite, like the type check at the end.
+  let lintPassed = null;
+  if (wholeSuite && process.env.TAPWRIGHT_SKIP_LINT !== "1") {
+    log("Linting (npm run lint)…");
+    lintPassed = spawnSync("npm", ["run", "--silent", "lint"], { cwd: root, stdio: "inherit" }).status === 0;
+  }
   await ensureChromium();
   process.env.TAPWRIGHT_DB_FAST ??= "1";
   const cfg = settings("test");
@@ -85,8 +94,12 @@ try {
   );
   await new Promise((resolve) => vitest.once("exit", resolve));
   const s = summarize();
+  if (lintPassed !== null) {
+    if (lintPassed) s.passed += 1;
+    else s.failed += 1;
+  }
   // The type check counts as one more test: pages, islands, lib and tests must all type-check.
-  if (process.argv.length <= 2 && process.env.TAPWRIGHT_SKIP_TYPECHECK !== "1") {
+  if (wholeSuite && process.env.TAPWRIGHT_SKIP_TYPECHECK !== "1") {
     log("Type-checking (astro check)…");
     const check = spawnSync(join(root, "node_modules", ".bin", "astro"), ["check", "--minimumSeverity", "error"], {
       cwd: root,

@@ -32,6 +32,8 @@ export default function AuditPanel() {
       setError((e as Error).message);
     }
   }
+  // The first page loads once, with the empty filter; later loads follow the Filter button and "Older events".
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- on mount only, by design
   useEffect(() => void load(null), []);
 
   const set = (k: keyof typeof filter) => (e: React.ChangeEvent<HTMLInputElement>) => setFilter({ ...filter, [k]: e.target.value });

@@ -11,7 +11,6 @@ import { recordAudit } from "@/server/audit/audit.server";
 import { deliverQueuedMail, enqueueMail } from "@/server/mail/mail.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { parseBudget } from "@/server/sources.server";
-import type { VersionInputs, VersionResult } from "@/features/tapTables/tapTables";
 import type { CommentRequest, CommentView, DecisionRequest, Person, SignOffDetail, SignOffListItem, SignOffRequest, SignOffState } from "./signoff";
 import { logError } from "@/server/http/logError";
 

@@ -34,7 +34,7 @@ const extensions: Record<ExportFormat, string> = { csv: "csv", json: "json", c: 
 function slug(name: string, max = 40): string {
   const s = name
     .normalize("NFKD")
-    .replace(/[^\x00-\x7f]/g, "")
+    .replace(/\P{ASCII}/gu, "")
     .toLowerCase()
     .replace(/[^a-z0-9]+/g, "_")
     .replace(/^_+|_+$/g, "")

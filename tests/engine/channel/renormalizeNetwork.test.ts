@@ -5,7 +5,6 @@ import { renormalizeNetwork, sParameter, type NetworkData } from "@lib/channel";
 import { seededRandom } from "@lib/signal";
 
 type C = [number, number];
-const mul = (a: C, b: C): C => [a[0] * b[0] - a[1] * b[1], a[0] * b[1] + a[1] * b[0]];
 const div = (a: C, b: C): C => { const d = b[0] * b[0] + b[1] * b[1]; return [(a[0] * b[0] + a[1] * b[1]) / d, (a[1] * b[0] - a[0] * b[1]) / d]; };
 const gammaOf = (z: C, r: number): C => div([z[0] - r, z[1]], [z[0] + r, z[1]]);
 
