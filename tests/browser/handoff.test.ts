@@ -1,26 +1,27 @@
 // The hand-off in Chromium: the designer builds a tap table and asks for sign-off; the reviewer
 // comments and approves; the version shows as signed off; firmware downloads the C header; the
-// printable report shows the decision. Screenshots go to tests/output/ for people to look at.
+// printable report shows the decision. Each step starts from a table of its own, made through the
+// API up to where the step begins, so the steps pass in any order or alone. Screenshots go to
+// tests/output/ for people to look at.
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launch, screenshotDir, signedInPage } from "../support/browser";
-import { baseUrl, signIn } from "../support/http";
-import { population, unique, type Population } from "../integration/handoff.fixture";
+import { baseUrl, signIn, type Client } from "../support/http";
+import { computedTable, decideSignOff, population, requestSignOff, unique, type Population } from "../integration/handoff.fixture";
 
 let browser: Browser;
 
 /** Waits until every island of the page has hydrated (inputs filled before that would be reset). */
 const hydrated = (page: Page) => page.waitForFunction(() => document.querySelector("astro-island[ssr]") === null);
 let pop: Population;
-const tableName = unique("Quillfeather lanes");
-let tableUrl = "";
-let signOffUrl = "";
+let designer: Client;
+let reviewer: Client;
 
 beforeAll(async () => {
   browser = await launch();
-  const designer = await signIn("designer");
+  [designer, reviewer] = await Promise.all([signIn("designer"), signIn("reviewer")]);
   pop = await population(designer, [7, 13, 19, 25]);
 });
 afterAll(async () => {
@@ -29,6 +30,7 @@ afterAll(async () => {
 
 describe("the hand-off from designer to reviewer to firmware", () => {
   it("the designer builds a tap table and requests a sign-off", async () => {
+    const tableName = unique("Quillfeather lanes");
     const page = await signedInPage(browser, "designer");
     await page.goto(`${baseUrl}/tables/new`);
     const form = page.getByRole("form", { name: "Build a tap table" });
@@ -46,7 +48,6 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     await page.screenshot({ path: join(screenshotDir, "table-builder.png"), fullPage: true });
     await form.getByRole("button", { name: "Compute v1" }).click();
     await page.waitForURL(/\/tables\/\d+$/);
-    tableUrl = page.url();
     await page.getByTestId("version-state").filter({ hasText: "Ready for sign-off" }).waitFor({ timeout: 90_000 });
     await hydrated(page);
     expect(await page.getByTestId("class-table").locator("tbody tr").count()).toBe(2);
@@ -57,16 +58,17 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     await ask.getByLabel("Message (optional)").fill("Two classes split at 16 dB; please check the 25 dB lane.");
     await ask.getByRole("button", { name: "Request sign-off of v1" }).click();
     await page.waitForURL(/\/sign-off\/\d+$/);
-    signOffUrl = page.url();
     expect(await page.getByTestId("signoff-state").textContent()).toBe("Awaiting decision");
     await page.context().close();
   });
 
   it("the reviewer sees headroom against the requirement, comments, and approves", async () => {
+    const table = await computedTable(designer, pop, unique("Quillfeather review"));
+    const signOffId = await requestSignOff(designer, reviewer, table.id, "Two classes split at 16 dB; please check the 25 dB lane.");
     const page = await signedInPage(browser, "reviewer");
     await page.goto(`${baseUrl}/sign-off`);
-    await page.getByTestId("waiting-for-me").getByRole("link", { name: `${tableName} v1` }).click();
-    await page.waitForURL(signOffUrl);
+    await page.getByTestId("waiting-for-me").getByRole("link", { name: `${table.name} v1` }).click();
+    await page.waitForURL(`${baseUrl}/sign-off/${signOffId}`);
     await hydrated(page);
     expect(await page.getByTestId("caution").textContent()).toMatch(/lab confirmation on real hardware/);
     expect(await page.getByTestId("review-table").locator("tbody tr").count()).toBe(4);
@@ -82,6 +84,9 @@ describe("the hand-off from designer to reviewer to firmware", () => {
   });
 
   it("the version shows as signed off, and firmware downloads the C header", async () => {
+    const table = await computedTable(designer, pop, unique("Quillfeather signed"));
+    await decideSignOff(reviewer, await requestSignOff(designer, reviewer, table.id), "approve", "Checked every lane against the required headroom.");
+    const tableUrl = `${baseUrl}/tables/${table.id}`;
     const page = await signedInPage(browser, "firmware");
     await page.goto(tableUrl);
     await hydrated(page);

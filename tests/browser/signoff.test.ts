@@ -1,11 +1,13 @@
-// Sign-off and studies in Chromium, on the demo hand-off the seed creates: the reviewer finds the
-// pending v2 on the overview, cannot send it back without a reason, answers in the thread and
-// sends it back; the designer sees why on the table; the study shows its decision record.
+// Sign-off and studies in Chromium: on the demo hand-off the seed creates, the study shows its
+// decision record and the reviewer finds the pending v2 on the overview, cannot send it back
+// without a reason, answers in the thread and sends it back; on a table of its own sent back
+// through the API, the designer sees why. The tests pass in any order or alone.
 import { join } from "node:path";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launch, screenshotDir, signedInPage } from "../support/browser";
-import { baseUrl } from "../support/http";
+import { baseUrl, signIn } from "../support/http";
+import { computedTable, decideSignOff, population, requestSignOff, unique } from "../integration/handoff.fixture";
 
 let browser: Browser;
 const hydrated = (page: Page) => page.waitForFunction(() => document.querySelector("astro-island[ssr]") === null);
@@ -62,13 +64,24 @@ describe("sign-off in the browser (demo hand-off)", () => {
   });
 
   it("the designer sees the version sent back with the reason", async () => {
+    const [designer, reviewer] = await Promise.all([signIn("designer"), signIn("reviewer")]);
+    const table = await computedTable(designer, await population(designer, [8, 20]), unique("Sent-back lanes"));
+    await decideSignOff(reviewer, await requestSignOff(designer, reviewer, table.id), "reject", "Keep two classes until the lab has the short lane's eye scan.");
     const page = await signedInPage(browser, "designer");
     await page.goto(`${baseUrl}/tables`);
-    await page.getByRole("link", { name: "QL-48 backplane lane defaults" }).click();
+    await page.getByRole("link", { name: table.name }).click();
     await hydrated(page);
     expect(await page.getByTestId("version-state").textContent()).toBe("Changes requested");
     expect(await page.getByTestId("version-header").getByText("Keep two classes until the lab has the short lane's eye scan.").count()).toBe(1);
     expect(await page.getByRole("form", { name: "Request sign-off" }).count()).toBe(1);
+    await page.context().close();
+  });
+
+  it("the demo's v1 shows as signed off", async () => {
+    const page = await signedInPage(browser, "designer");
+    await page.goto(`${baseUrl}/tables`);
+    await page.getByRole("link", { name: "QL-48 backplane lane defaults" }).click();
+    await page.waitForURL(/\/tables\/\d+$/);
     await page.goto(`${page.url()}?v=1`);
     expect(await page.getByTestId("version-state").textContent()).toBe("Signed off");
     await page.context().close();

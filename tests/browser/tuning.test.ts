@@ -6,8 +6,10 @@ import type { Browser, Page } from "playwright-core";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launch, screenshotDir, signedInPage } from "../support/browser";
-import { baseUrl } from "../support/http";
+import { baseUrl, signIn } from "../support/http";
 import { badFiles, files } from "../fixtures/channelFiles";
+import { upload } from "../fixtures/workspace";
+import { budgetPresets } from "@/features/budgets/budgetPresets";
 
 let browser: Browser;
 let page: Page;
@@ -21,7 +23,6 @@ afterAll(async () => {
 
 const stamp = Date.now().toString(36);
 const file = (name: string, text: string | Uint8Array) => ({ name, mimeType: "application/octet-stream", buffer: Buffer.from(text) });
-const state: { channelUrl?: string; budgetUrl?: string } = {};
 
 /** Opens a page and waits until every island on it has hydrated. */
 async function open(path: string) {
@@ -43,7 +44,6 @@ describe("channels in the browser", () => {
     await page.getByLabel("Name", { exact: true }).fill(`Browser lane ${stamp}`);
     await page.getByRole("button", { name: "Upload and derive the pulse" }).click();
     await page.waitForURL(/\/channels\/\d+$/);
-    state.channelUrl = page.url();
     await expect(page.getByTestId("channel-name").textContent()).resolves.toBe(`Browser lane ${stamp}`);
     await expect(page.getByTestId("sha256").textContent()).resolves.toMatch(/^[0-9a-f]{64}$/);
     await page.getByRole("img", { name: "Pulse response" }).waitFor();
@@ -80,7 +80,6 @@ describe("budgets in the browser", () => {
     await page.getByLabel("Transmit swing (mVppd)").fill("800");
     await page.getByRole("button", { name: "Create budget" }).click();
     await page.waitForURL(/\/budgets\/\d+\?saved=1$/);
-    state.budgetUrl = page.url();
     await expect(page.getByTestId("budget-name").textContent()).resolves.toBe(`Browser budget ${stamp}`);
   });
 });
@@ -99,9 +98,16 @@ function paintedPixels(testId: string): Promise<number> {
 
 describe("a tuning run in the browser", () => {
   it("starts from the budget page, shows progress, and ends on the result: both eyes drawn, the verdict, the metrics", async () => {
-    expect(state.budgetUrl, "the budget test ran first").toBeDefined();
-    await open(new URL(state.budgetUrl!).pathname);
-    const option = await page.locator("option", { hasText: `Browser lane ${stamp}` }).getAttribute("value");
+    // Its own channel (the 20 dB four-port file) and budget (the NRZ backplane starting point), made through the API.
+    const designer = await signIn("designer");
+    const laneName = `Run lane ${stamp}`;
+    const channel = await upload(designer, "/api/v1/channels", `run-lane-${stamp}.s4p`, files.s4p(20), { name: laneName, bitRate_bps: "28e9", pairs: "1,2,3,4" });
+    expect(channel.status, await channel.clone().text()).toBe(201);
+    const backplane = budgetPresets.find((p) => p.key === "nrz28-backplane")!;
+    const made = await designer.send("POST", "/api/v1/budgets", { name: `Run budget ${stamp}`, ...backplane.budget });
+    expect(made.status, await made.clone().text()).toBe(201);
+    await open(`/budgets/${(await made.json()).id}`);
+    const option = await page.locator("option", { hasText: laneName }).getAttribute("value");
     await page.getByLabel("Channel", { exact: true }).selectOption(option!);
     await page.getByRole("button", { name: "Start tuning run" }).click();
     await page.waitForURL(/\/runs\/\d+$/);

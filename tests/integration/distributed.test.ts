@@ -9,7 +9,7 @@ import { eventually, signIn, type Client } from "../support/http";
 import { freePort, startServer, type TestServer } from "../support/server";
 import { restartRedis, startWorker, type TestWorker } from "../support/workers";
 import { closeDb, unique } from "../fixtures/workspace";
-import { population, quickBudget, type Population } from "./handoff.fixture";
+import { population, type Population } from "./handoff.fixture";
 
 /** 13 channels × 4 corners = 52 pairs; a transmit FIR with a pre-cursor tap makes each pair ≈ 0.1–0.4 s. */
 const LOSSES = [6, 8, 10, 12, 14, 16, 18, 20, 22, 24, 26, 28, 30];
@@ -19,7 +19,6 @@ const CORNERS = [
   { name: "loss +10 %", lossScale: 1.1 },
   { name: "slow", lossScale: 1.1, txSwingScale: 0.9, noiseScale: 1.2, jitterScale: 1.2, sensitivityScale: 1.2 },
 ];
-const budget = { ...quickBudget, tx: { pre: 1, post: 1, step: 0.05 } };
 
 let server: TestServer;
 let workers: TestWorker[] = [];
@@ -62,7 +61,7 @@ beforeAll(async () => {
   server = await startServer(port, { TAPWRIGHT_QUEUE: "bullmq", REDIS_URL: process.env.REDIS_URL!, TAPWRIGHT_JOB_LOCK_S: "3" });
   workers = await Promise.all([startWorker("worker-a"), startWorker("worker-b")]);
   [bullDesigner, embeddedDesigner] = await Promise.all([signIn("designer", undefined, server.base), signIn("designer")]);
-  pop = await population(bullDesigner, LOSSES, budget);
+  pop = await population(bullDesigner, LOSSES, { tx: { pre: 1, post: 1, step: 0.05 } });
 }, 120_000);
 
 afterAll(async () => {

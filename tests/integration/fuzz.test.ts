@@ -9,7 +9,7 @@ import mysql from "mysql2/promise";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { signIn, type Client } from "../support/http";
 import { files } from "../fixtures/channelFiles";
-import { quickBudget } from "./handoff.fixture";
+import { budget } from "../support/budget";
 
 const TABLES = ["channels", "channel_sources", "programs", "budgets", "runs", "jobs", "tap_tables", "tap_table_versions", "architecture_studies"];
 /** Rows whose parent is gone: each query counts them for one kind of link. */
@@ -172,7 +172,7 @@ beforeAll(async () => {
   designer = await signIn("designer");
   const channels = (await (await designer.get("/api/v1/channels?limit=100")).json()).items as { id: number; bitRate_bps: number }[];
   channelId = channels.find((c) => c.bitRate_bps === 28e9)!.id;
-  const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: `Fuzz budget ${Date.now()}` });
+  const b = await designer.send("POST", "/api/v1/budgets", { ...budget(), name: `Fuzz budget ${Date.now()}` });
   budgetId = (await b.json()).id;
   created.budgets.push(budgetId);
 });
@@ -232,7 +232,7 @@ describe("fuzz: 2000+ generated requests", () => {
   }, 300_000);
 
   it("mutated budgets (create and replace), synthetic channels, runs and tap tables: 1100 JSON bodies", async () => {
-    const budgetTemplate = { ...quickBudget, name: "fuzz budget" };
+    const budgetTemplate = { ...budget(), name: "fuzz budget" };
     const syntheticTemplate = { name: "fuzz synthetic", bitRate_bps: 28e9, modulation: "nrz", lossModel: { lossAtNyquist_dB: 12, delay_s: 1e-9 } };
     const runTemplate = { channelId, budgetId };
     // One fixed name: at most one mutated table request can be valid and new; the rest conflict.

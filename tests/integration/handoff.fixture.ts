@@ -1,25 +1,11 @@
 // Shared set-up of the study, tap-table, sign-off and export tests: a small population of
-// synthetic channels at one bit rate, a quick budget, waiting for jobs, and the dev mailbox.
+// synthetic channels at one bit rate with the test budget, waiting for jobs, a computed table and
+// its sign-off made through the API, and the dev mailbox.
 import { eventually, type Client } from "../support/http";
 import { unique } from "../fixtures/workspace";
+import { budgetBody, type BudgetChanges } from "../support/budget";
 
 export { unique };
-
-/** A budget small enough that a table of a few channels computes in seconds. */
-export const quickBudget = {
-  modulation: "nrz",
-  bitRate_bps: 28e9,
-  txSwing_Vppd: 0.8,
-  noiseRms_V: 0.0015,
-  limiterSensitivity_V: 0.015,
-  targetBer: 1e-12,
-  requiredHeadroom_V: 0.005,
-  jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 },
-  tx: { pre: 0, post: 1, step: 0.05 },
-  ctle: { gDc_dB: [-9, 0, 3], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 },
-  dfe: { taps: 2, limits_V: 0.1 },
-  clocking: { scheme: "recovered", policy: "centre" },
-} as const;
 
 export interface Population {
   budgetId: number;
@@ -31,11 +17,11 @@ export interface Population {
   budgetName: string;
 }
 
-/** Synthetic 28 Gb/s channels with these losses at Nyquist, and the quick budget, all uniquely named. */
-export async function population(designer: Client, losses: readonly number[], budget: Record<string, unknown> = quickBudget): Promise<Population> {
+/** Synthetic 28 Gb/s channels with these losses at Nyquist, and the test budget (with `changes`), all uniquely named. */
+export async function population(designer: Client, losses: readonly number[], changes: BudgetChanges = {}): Promise<Population> {
   const tag = unique("Hand-off");
   const budgetName = `${tag} budget`;
-  const b = await designer.send("POST", "/api/v1/budgets", { name: budgetName, ...budget });
+  const b = await designer.send("POST", "/api/v1/budgets", budgetBody(budgetName, changes));
   if (b.status !== 201) throw new Error(`budget: ${b.status} ${await b.text()}`);
   const budgetId = (await b.json()).id as number;
   const byLoss = new Map<number, number>();
@@ -79,6 +65,38 @@ export function versionComputed(client: Client, tableId: number, v: number, time
     timeout_ms,
     `tap table ${tableId} v${v} to compute`,
   );
+}
+
+/** TX FIR + CTLE + one DFE tap, given by hand (no study). */
+export const txCtleDfe1 = { key: "tx-ctle-dfe1", label: "TX FIR + CTLE + DFE 1", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 1, ffe: null } as const;
+
+/** A new tap table over the population, split into loss bins at 16 dB, with v1 computed. */
+export async function computedTable(designer: Client, pop: Population, name: string): Promise<{ id: number; name: string }> {
+  const res = await designer.send("POST", "/api/v1/tap-tables", {
+    name,
+    budgetId: pop.budgetId,
+    architecture: txCtleDfe1,
+    grouping: { mode: "loss-bins", channelIds: pop.channelIds, edges_dB: [16] },
+  });
+  if (res.status !== 202) throw new Error(`tap table: ${res.status} ${await res.text()}`);
+  const { id } = await res.json();
+  const v = await versionComputed(designer, id, 1);
+  if (v.job.status !== "done") throw new Error(`tap table ${id} v1: ${v.job.error?.message}`);
+  return { id, name };
+}
+
+/** The designer asks the demo reviewer to sign off v1 of a table; the sign-off's id. */
+export async function requestSignOff(designer: Client, reviewer: Client, tableId: number, message?: string): Promise<number> {
+  const reviewerId = (await (await reviewer.get("/api/v1/me")).json()).id;
+  const res = await designer.send("POST", `/api/v1/tap-tables/${tableId}/versions/1/sign-off`, { reviewerId, message });
+  if (res.status !== 201) throw new Error(`sign-off request: ${res.status} ${await res.text()}`);
+  return (await res.json()).id;
+}
+
+/** The reviewer decides a sign-off. */
+export async function decideSignOff(reviewer: Client, signOffId: number, decision: "approve" | "reject", comment: string): Promise<void> {
+  const res = await reviewer.send("POST", `/api/v1/sign-offs/${signOffId}/decision`, { decision, comment });
+  if (res.status !== 200) throw new Error(`decision: ${res.status} ${await res.text()}`);
 }
 
 export interface Mail {

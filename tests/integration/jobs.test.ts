@@ -11,7 +11,8 @@ import { baseUrl, eventually, signIn, type Client } from "../support/http";
 import { freePort, startServer } from "../support/server";
 import { finished, unique } from "../fixtures/workspace";
 import { files } from "../fixtures/channelFiles";
-import { population, quickBudget, versionComputed, type Population } from "./handoff.fixture";
+import { population, versionComputed, type Population } from "./handoff.fixture";
+import { budgetBody } from "../support/budget";
 
 let db: mysql.Pool;
 let designer: Client;
@@ -37,7 +38,7 @@ beforeAll(async () => {
   [designer, reviewer] = await Promise.all([signIn("designer"), signIn("reviewer")]);
   pop = await population(designer, [10, 30]);
   // A budget whose search takes a few seconds (fine FIR steps, jitter): long enough to act on mid-run.
-  const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Slow"), tx: { pre: 1, post: 2, step: 0.025 }, dfe: { taps: 4, limits_V: 0.1 } });
+  const b = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Slow"), { tx: { pre: 1, post: 2, step: 0.025 }, dfe: { taps: 4, limits_V: 0.1 } }));
   slowBudget = (await b.json()).id;
 });
 afterAll(async () => {

@@ -5,6 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { anonymous, baseUrl, signIn, type Client, type DemoRole } from "../support/http";
 import { closeDb, finished, rowCounts, unique } from "../fixtures/workspace";
+import { budgetBody, type BudgetChanges } from "../support/budget";
 
 afterAll(closeDb);
 
@@ -14,18 +15,9 @@ let longLane: number; // the demo's 28 dB lane
 let nrzBudget: number;
 let firstRun: { id: number; result: Record<string, unknown> };
 
-const nrzBudgetBody = (name: string, extra: Record<string, unknown> = {}) => ({
-  name,
-  modulation: "nrz",
-  txSwing_Vppd: 0.8,
-  noiseRms_V: 0.0015,
-  limiterSensitivity_V: 0.015,
-  requiredHeadroom_V: 0.005,
-  tx: { pre: 1, post: 1, step: 0.05 },
-  ctle: { gDc_dB: [-8, 0, 2], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 },
-  dfe: { taps: 2, limits_V: 0.1 },
-  ...extra,
-});
+/** The test budget without a bit rate or jitter, one transmit pre-cursor tap and a finer CTLE grid. */
+const nrzBudgetBody = (name: string, changes: BudgetChanges = {}) =>
+  budgetBody(name, { bitRate_bps: undefined, jitter: undefined, tx: { pre: 1 }, ctle: { gDc_dB: [-8, 0, 2] }, ...changes });
 
 async function channelNamed(prefix: string): Promise<number> {
   const r = await (await designer.get(`/api/v1/channels?q=${encodeURIComponent(prefix)}`)).json();

@@ -5,7 +5,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { anonymous, eventually, signIn, type Client } from "../support/http";
 import { closeDb, finished, unique } from "../fixtures/workspace";
-import { population, quickBudget, type Population } from "./handoff.fixture";
+import { population, type Population } from "./handoff.fixture";
+import { budgetBody } from "../support/budget";
 import mysql from "mysql2/promise";
 
 let designer: Client;
@@ -87,7 +88,7 @@ describe("corner sweeps", () => {
   });
 
   it("a corner that takes the budget out of range is refused with 422 naming the corner", async () => {
-    const narrow = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Narrow"), jitter: { rjRms_UI: 0.2, djPp_UI: 0.05 } });
+    const narrow = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Narrow"), { jitter: { rjRms_UI: 0.2, djPp_UI: 0.05 } }));
     const budgetId = (await narrow.json()).id;
     const r = await designer.send("POST", "/api/v1/sweeps", { name: unique("Too shaky"), channelIds: pop.channelIds, budgetId, corners: [{ name: "nominal" }, { name: "shaky", jitterScale: 3 }] });
     expect(r.status).toBe(422);

@@ -8,7 +8,8 @@ import { codeRange, decodeField, encodeField, type RegisterField } from "@lib/ta
 import { budgetForArchitecture } from "@/features/tapTables/architectureBudget";
 import { anonymous, signIn, type Client } from "../support/http";
 import { closeDb, rowCounts } from "../fixtures/workspace";
-import { auditEvents, population, quickBudget, unique, versionComputed, type Population } from "./handoff.fixture";
+import { auditEvents, population, unique, versionComputed, type Population } from "./handoff.fixture";
+import { budgetBody } from "../support/budget";
 
 let designer: Client;
 let admin: Client;
@@ -81,7 +82,7 @@ describe("tap tables: refusals change nothing", () => {
   }
 
   it("a budget whose bit rate does not fit the channels is refused before anything is queued (422)", async () => {
-    const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Ten gig"), bitRate_bps: 10.3125e9 });
+    const b = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Ten gig"), { bitRate_bps: 10.3125e9 }));
     expect(b.status).toBe(201);
     const budgetId = (await b.json()).id;
     const before = await rowCounts();

@@ -227,6 +227,24 @@ export function meetsRequiredHeadroom(headroom_V: number, required_V: number): b
   return headroom_V >= required_V;
 }
 
+/** A channel's row on the table and sign-off pages: its figures with its class default, its class, and whether it meets the requirement. */
+export interface HeadroomRow extends ChannelHeadroom {
+  className: string;
+  meetsRequired: boolean;
+}
+
+/**
+ * Every channel of a computed version with its class, classes in their order and the lowest loss
+ * first within each (an unknown loss counts as 0), checked against the required headroom.
+ */
+export function headroomRows(classes: readonly ClassResult[], required_V: number): HeadroomRow[] {
+  return classes.flatMap((c) =>
+    [...c.channels]
+      .sort((a, b) => (a.lossAtNyquist_dB ?? 0) - (b.lossAtNyquist_dB ?? 0))
+      .map((ch) => ({ ...ch, className: c.name, meetsRequired: meetsRequiredHeadroom(ch.defaultHeadroom_V, required_V) })),
+  );
+}
+
 /** A loss range for people: "12–20 dB", "< 12 dB", "≥ 28 dB", "by hand". */
 export function formatLossRange(range: [number | null, number | null] | null): string {
   if (!range) return "by hand";
