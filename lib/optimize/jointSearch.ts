@@ -11,7 +11,7 @@ import type { SearchStats } from "./search/searchResults.ts";
 import { createSearchState } from "./search/searchState.ts";
 import { startsFor } from "./search/startingPoints.ts";
 import { warmStart } from "./search/warmStart.ts";
-import type { CtleSetting, SearchSpace } from "./searchSpace.ts";
+import { type CtleSetting, type SearchSpace, sharedGridMismatch } from "./searchSpace.ts";
 
 /** One evaluated setting. */
 export interface Candidate {
@@ -93,10 +93,12 @@ export interface JointSearchResult {
  * underestimates, so `best` and `top` are what exhaustive evaluation of the grid gives (exact ties
  * may resolve to an equally good setting), and every CTLE setting reports its optimum or a bound.
  *
- * Given several channels (a population: one {@link PreparedChannels} per member, same budget and
- * UI), the figure of a setting is the worst member's headroom (each member samples at its own
- * policy phase and sets its own DFE): every bound is the least of the members' bounds, and the
- * search is exact for this minimax objective too.
+ * Given several channels (a population: one {@link PreparedChannels} per member, same UI), the
+ * figure of a setting is the worst member's headroom (each member samples at its own policy phase
+ * and sets its own DFE): every bound is the least of the members' bounds, and the search is exact
+ * for this minimax objective too. A member prepared under its own budget (a corner: other swing,
+ * noise, jitter or sensitivity; the same grids, see {@link sharedGridMismatch}) is evaluated and
+ * bounded under it.
  *
  * @param pulse - channel pulse for a 1 V symbol (used when `prepared` is not given; else only its
  *   samplesPerUi).
@@ -124,8 +126,10 @@ export function jointSearch(
   if (target_V !== undefined && !Number.isFinite(target_V)) throw new RangeError(`target_V must be finite, got ${target_V}`);
   const members: readonly PreparedChannels[] = Array.isArray(prepared) ? prepared : [prepared as PreparedChannels];
   if (members.length === 0) throw new RangeError("prepared must hold at least one channel");
-  for (const m of members) {
+  for (const [i, m] of members.entries()) {
     if (m.channels.length !== space.ctleSettings.length) throw new RangeError("prepared channels do not match the CTLE grid");
+    const differs = m.space === undefined ? null : sharedGridMismatch(space, m.space);
+    if (differs !== null) throw new RangeError(`prepared[${i}] was prepared under a budget whose ${differs} differs from the search's; members share the grids`);
     if (m.channels.some((c) => c.pulse.samplesPerUi !== pulse.samplesPerUi)) {
       throw new RangeError("every member must have the same samplesPerUi");
     }

@@ -125,3 +125,20 @@ export function searchSpace(pulse: Pulse, budget: BudgetInput | Budget): SearchS
     edgeTail: edgeTail(b.modulation, b.targetBer),
   };
 }
+
+/**
+ * What two resolved budgets searched together (members of one population, e.g. corners) must share:
+ * modulation, sampling policy, the CTLE grid and corners, the transmit FIR grid, and the DFE's taps
+ * and limits. Returns the first field that differs, or null. Swing, noise, jitter, sensitivity and
+ * the BER target may differ.
+ */
+export function sharedGridMismatch(a: SearchSpace, b: SearchSpace): string | null {
+  if (a.modulation !== b.modulation) return "modulation";
+  if (a.policy !== b.policy) return "clocking.policy";
+  if (a.baud_Hz !== b.baud_Hz) return "bitRate_bps";
+  const settings = (s: SearchSpace) => s.ctleSettings.map((c) => `${c.gDc_dB}/${c.gDc2_dB}`).join(",");
+  if (settings(a) !== settings(b) || JSON.stringify(a.ctleCorners) !== JSON.stringify(b.ctleCorners)) return "ctle";
+  if (JSON.stringify(a.firSpec) !== JSON.stringify(b.firSpec)) return "tx";
+  if (a.dfeCount !== b.dfeCount || a.dfeLimits_V.some((l, k) => l !== b.dfeLimits_V[k])) return "dfe";
+  return null;
+}

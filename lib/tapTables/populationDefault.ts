@@ -5,9 +5,10 @@ import type { BudgetInput } from "../contract/budget.ts";
 import { channelFor } from "../optimize/ctleChannel.ts";
 import { evaluateSetting, type PhaseEye } from "../optimize/evaluateSetting.ts";
 import { type Candidate, jointSearch } from "../optimize/jointSearch.ts";
+import { ownOptimum, type OwnOptimum } from "./ownOptimum.ts";
 import { tidyTap } from "../optimize/optimize.ts";
 import { type PreparedChannels, prepareChannels } from "../optimize/prepareChannels.ts";
-import { searchSpace } from "../optimize/searchSpace.ts";
+import { searchSpace, sharedGridMismatch } from "../optimize/searchSpace.ts";
 import { assertPulse } from "../pulse/assertPulse.ts";
 import { resampleLinear } from "../signal/resampleLinear.ts";
 import type { Pulse } from "../types.ts";
@@ -55,6 +56,14 @@ export interface PopulationOptions {
   readonly registerMap?: readonly RegisterField[];
   /** Progress 0 … 1. */
   readonly onProgress?: (fraction: number) => void;
+  /**
+   * One budget per member, when members are channels at corners (other swing, noise, jitter or
+   * sensitivity): each member is searched and evaluated under its own. They must share `budget`'s
+   * grids (CTLE, transmit FIR, DFE); `budget` for every member when left out.
+   */
+  readonly memberBudgets?: readonly BudgetInput[];
+  /** Each member's own optimum when already known (computed by another job): those searches are skipped. */
+  readonly own?: readonly OwnOptimum[];
 }
 
 /**
@@ -92,10 +101,12 @@ interface Evaluated {
  * channels at once. With a register map the default is rounded to codes; each channel's own optimum
  * (rounded the same way) is then also tried, so the default is never worse for the worst channel than
  * any single channel's optimum applied to the whole class. Without a map that holds by exactness.
+ * Members may be channels at corners, each with its own budget (`memberBudgets`): the default then
+ * maximizes the worst headroom over channels and corners.
  *
- * @param pulses - the class's channels (same UI; pulses for a 1 V symbol).
- * @param budget - the budget (validated against the first pulse).
- * @param options - register map, progress.
+ * @param pulses - the class's members (same UI; pulses for a 1 V symbol).
+ * @param budget - the budget (validated against the first pulse); its grids are every member's.
+ * @param options - register map, progress, the members' budgets, their own optima when known.
  */
 export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput, options: PopulationOptions = {}): PopulationResult {
   const members = commonGrid(pulses);
@@ -103,18 +114,31 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
   const report = options.onProgress ?? (() => {});
   const dfeCount = space.dfeCount;
   const memberCount = members.length;
-  const prepared: PreparedChannels[] = members.map((p) => prepareChannels(p, space));
-  report(0.05);
-  const own: Candidate[] = members.map((p, i) => {
-    const r = jointSearch(p, space, { dfeCounts: [dfeCount], topCount: 1 }, prepared[i]);
-    report(0.05 + (0.45 * (i + 1)) / memberCount);
-    if (r.best[0] === null) throw new RangeError("budget.tx: no transmit FIR setting satisfies the tap ranges, the step and Σ|c| ≤ 1");
-    return r.best[0];
+  if (options.memberBudgets !== undefined && options.memberBudgets.length !== memberCount) {
+    throw new RangeError(`memberBudgets must hold one budget per pulse (${memberCount}), got ${options.memberBudgets.length}`);
+  }
+  if (options.own !== undefined && options.own.length !== memberCount) throw new RangeError(`own must hold one optimum per pulse (${memberCount}), got ${options.own.length}`);
+  const spaces = members.map((p, i) => {
+    const given = options.memberBudgets?.[i];
+    if (given === undefined) return space;
+    const s = searchSpace(p, given);
+    const differs = sharedGridMismatch(space, s);
+    if (differs !== null) throw new RangeError(`memberBudgets[${i}].${differs} differs from budget's; a class's members share the grids`);
+    return s;
   });
+  const prepared: PreparedChannels[] = members.map((p, i) => prepareChannels(p, spaces[i]));
+  report(0.05);
+  const own: readonly OwnOptimum[] =
+    options.own ??
+    members.map((p, i) => {
+      const o = ownOptimum(p, spaces[i].budget, prepared[i]);
+      report(0.05 + (0.45 * (i + 1)) / memberCount);
+      return o;
+    });
   const pop = jointSearch(members[0], space, { dfeCounts: [dfeCount], topCount: 1, onProgress: (f) => report(0.5 + 0.4 * f) }, prepared);
   const best = pop.best[0] as Candidate;
 
-  const asSetting = (c: Candidate): EqualizerSetting => ({
+  const asSetting = (c: { taps: ArrayLike<number>; ctle: { gDc_dB: number; gDc2_dB: number } }): EqualizerSetting => ({
     tx: Array.from(c.taps),
     txPre: space.firSpec.pre,
     ctle: { gDc_dB: c.ctle.gDc_dB, gDc2_dB: c.ctle.gDc2_dB },
@@ -124,8 +148,8 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
   const evaluate = (s: EqualizerSetting): Evaluated => {
     const eyes = members.map((p, i) => {
       const onGrid = space.ctleSettings.findIndex((x) => x.gDc_dB === s.ctle.gDc_dB && x.gDc2_dB === s.ctle.gDc2_dB);
-      const ch = onGrid >= 0 ? prepared[i].channels[onGrid] : channelFor(p, space, s.ctle);
-      return evaluateSetting(ch, space, s.tx, dfeCount);
+      const ch = onGrid >= 0 ? prepared[i].channels[onGrid] : channelFor(p, spaces[i], s.ctle);
+      return evaluateSetting(ch, spaces[i], s.tx, dfeCount);
     });
     let worstIndex = 0;
     eyes.forEach((e, i) => {

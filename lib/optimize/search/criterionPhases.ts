@@ -36,7 +36,7 @@ function criterionCoefficients(state: SearchState, member: MemberContext, t: num
       const h = member.channel.cursors(p);
       for (let j = 0; j < grid.tapCount; j++) {
         const i = member.channel.pre + grid.mainIndex - j;
-        if (i >= 0 && i < h.length) out[j] += w * space.scale_V * h[i];
+        if (i >= 0 && i < h.length) out[j] += w * member.space.scale_V * h[i];
       }
     }
     return out;
@@ -68,7 +68,7 @@ export function boxPhases(state: SearchState, member: MemberContext, parent: rea
   const { space, window } = state;
   if (space.policy === "max-height") return state.allPhases;
   // A small tolerance keeps rounding differences from hiding a phase the leaf would choose.
-  const eps = 1e-12 * space.scale_V;
+  const eps = 1e-12 * member.space.scale_V;
   const table = state.criterion;
   const ranges = table.ranges;
   table.serial++;

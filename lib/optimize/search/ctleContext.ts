@@ -5,13 +5,15 @@ import { type BoundSetup, boundSetup } from "../bound/boundSetup.ts";
 import { BoxRanges } from "../bound/boxRanges.ts";
 import { cachedCoefficients, type CoefficientSource } from "../bound/phaseCoefficients.ts";
 import type { CtleChannel } from "../ctleChannel.ts";
-import type { CtleSetting } from "../searchSpace.ts";
+import type { CtleSetting, SearchSpace } from "../searchSpace.ts";
 import type { SearchState } from "./searchState.ts";
 
 /** One member channel at one CTLE setting. */
 export interface MemberContext {
   /** Index of the member in the population. */
   readonly index: number;
+  /** The member's own budget (its corner), or the search's. */
+  readonly space: SearchSpace;
   readonly channel: CtleChannel;
   readonly setup: BoundSetup;
   readonly coefficients: CoefficientSource;
@@ -55,13 +57,15 @@ export function ctleContext(state: SearchState, ctleIndex: number): CtleContext 
 }
 
 function memberContext(state: SearchState, index: number, channel: CtleChannel): MemberContext {
-  const setup = boundSetup(state.space, channel, state.maxDfeCount);
-  const coefficients = cachedCoefficients(setup, state.space, channel);
+  const space = state.members[index].space ?? state.space;
+  const setup = boundSetup(space, channel, state.maxDfeCount);
+  const coefficients = cachedCoefficients(setup, space, channel);
   // The box table spans the window widened by the farthest jitter phase.
   let reach = 0;
   for (const shift of setup.shifts) reach = Math.max(reach, Math.abs(shift));
   return {
     index,
+    space,
     channel,
     setup,
     coefficients,

@@ -23,9 +23,9 @@ export function ctleOrder(state: SearchState): number[] {
     for (const s of starts.all.slice(0, starts.ranking)) {
       let key = Number.POSITIVE_INFINITY;
       for (const member of ctx.members) {
-        const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(member.channel, space, s);
+        const phase = space.policy === "max-height" ? 0 : criterionPhaseOf(member.channel, member.space, s);
         const leaf = leafBound(member.setup, member.coefficients, phase, s, dfeCount, member.scratch);
-        key = Math.min(key, lightEstimate(space, member, s, dfeCount, phase, leaf));
+        key = Math.min(key, lightEstimate(member.space, member, s, dfeCount, phase, leaf));
       }
       if (key > best) best = key;
     }

@@ -21,7 +21,7 @@ function memberFigure(state: SearchState, member: MemberContext, taps: Float64Ar
   const { space, results } = state;
   const dfeCount = state.dfeCounts[o];
   if (member.leafSerial !== state.leafSerial) {
-    member.leafPhases = space.policy === "max-height" ? state.allPhases : [criterionPhaseOf(member.channel, space, taps)];
+    member.leafPhases = space.policy === "max-height" ? state.allPhases : [criterionPhaseOf(member.channel, member.space, taps)];
     member.leafSerial = state.leafSerial;
   }
   const setup = member.setup;
@@ -35,23 +35,23 @@ function memberFigure(state: SearchState, member: MemberContext, taps: Float64Ar
       worstPruned = Math.max(worstPruned, leafBound_V);
       continue;
     }
-    const prepared = prepareEye(member.channel, space, taps, dfeCount, t);
+    const prepared = prepareEye(member.channel, member.space, taps, dfeCount, t);
     const jittered = setup.shifts.length !== 0;
     const shift = jittered ? setup.shifts[leaf.shiftIndex] : 0;
     const weight = jittered ? setup.weights[leaf.shiftIndex] : 1;
-    const lightBound_V = lightPhaseBound(space, prepared, shift, weight);
+    const lightBound_V = lightPhaseBound(member.space, prepared, shift, weight);
     if (!results.canEnter(o, lightBound_V) || !(lightBound_V > floor)) {
       worstPruned = Math.max(worstPruned, lightBound_V);
       continue;
     }
     results.stats.heavy++;
-    const heavyBound_V = jittered ? heavyPhaseBound(space, prepared, shift, weight) : Number.POSITIVE_INFINITY;
+    const heavyBound_V = jittered ? heavyPhaseBound(member.space, prepared, shift, weight) : Number.POSITIVE_INFINITY;
     if (!results.canEnter(o, heavyBound_V) || !(heavyBound_V > floor)) {
       worstPruned = Math.max(worstPruned, heavyBound_V);
       continue;
     }
     results.stats.exact++;
-    const e = finishEye(space, prepared);
+    const e = finishEye(member.space, prepared);
     if (bestEye === null || e.limiterHeadroom_V > bestEye.limiterHeadroom_V) bestEye = e;
   }
   if (bestEye !== null && bestEye.limiterHeadroom_V >= worstPruned) return { eye: bestEye, bound_V: bestEye.limiterHeadroom_V };

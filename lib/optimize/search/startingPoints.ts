@@ -74,7 +74,7 @@ export function startsFor(state: SearchState, ctleIndex: number): CtleStarts {
   const known = state.starts[ctleIndex];
   if (known !== undefined) return known;
   const seeds = state.seeds?.[ctleIndex] ?? [];
-  const own = state.members.map((m) => startingPoints(m.channels[ctleIndex], state.space, state.grid));
+  const own = state.members.map((m) => startingPoints(m.channels[ctleIndex], m.space ?? state.space, state.grid));
   const starts: CtleStarts = { all: [...seeds, ...own.flat()], ranking: seeds.length + own[0].length };
   state.starts[ctleIndex] = starts;
   return starts;

@@ -23,12 +23,12 @@ function estimate(state: SearchState, ctx: CtleContext, taps: Float64Array, o: n
   const dfeCount = state.dfeCounts[o];
   let least = Number.POSITIVE_INFINITY;
   for (const member of ctx.members) {
-    const phases = space.policy === "max-height" ? state.allPhases : [criterionPhaseOf(member.channel, space, taps)];
+    const phases = space.policy === "max-height" ? state.allPhases : [criterionPhaseOf(member.channel, member.space, taps)];
     let best = Number.NEGATIVE_INFINITY;
     for (const t of phases) {
       const leaf = leafBound(member.setup, member.coefficients, t, taps, dfeCount, member.scratch);
       if (!(leaf.bound_V > best)) continue;
-      const v = lightEstimate(space, member, taps, dfeCount, t, leaf);
+      const v = lightEstimate(member.space, member, taps, dfeCount, t, leaf);
       if (v > best) best = v;
     }
     if (best < least) least = best;
