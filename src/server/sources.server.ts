@@ -4,8 +4,8 @@ import { inArray, eq } from "drizzle-orm";
 import { budgetSchema, type Budget, type BudgetInput } from "@lib/contract/budget";
 import { searchSpace } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
-import { budgets, channels } from "@/db/schema";
-import type { StoredPulse } from "@/features/channels/channels";
+import { budgets, channelSources, channels } from "@/db/schema";
+import type { ChannelKind, StoredPulse } from "@/features/channels/channels";
 import type { DbOrTx } from "@/server/db.server";
 import { notFound, unprocessable } from "@/server/http/errors";
 
@@ -22,6 +22,9 @@ export interface ChannelCopy {
   name: string;
   lossAtNyquist_dB: number | null;
   pulse: StoredPulse;
+  /** What the channel was made of (its loss corners are rebuilt from it); absent in older copies. */
+  kind?: ChannelKind;
+  derivation?: Record<string, unknown>;
 }
 
 /** A budget with its validated params; 404 when missing, 422 when its params no longer validate. */
@@ -45,7 +48,7 @@ export function parseBudget(params: unknown, name: string): Budget {
 export async function findChannels(tx: DbOrTx, ids: readonly number[]): Promise<ChannelCopy[]> {
   if (ids.length === 0) return [];
   return tx
-    .select({ id: channels.id, name: channels.name, lossAtNyquist_dB: channels.lossAtNyquist_dB, pulse: channels.pulse })
+    .select({ id: channels.id, name: channels.name, lossAtNyquist_dB: channels.lossAtNyquist_dB, pulse: channels.pulse, kind: channels.kind, derivation: channels.derivation })
     .from(channels)
     .where(inArray(channels.id, [...ids]));
 }
@@ -89,4 +92,10 @@ export function checkBudgetFits(budget: BudgetInput, name: string, list: readonl
 /** The channels without their pulses (for API answers: pulses are large). */
 export function withoutPulses<T extends { pulse: StoredPulse }>(list: readonly T[]): Omit<T, "pulse">[] {
   return list.map(({ pulse: _pulse, ...rest }) => rest);
+}
+
+/** The text of a channel's uploaded file (its Touchstone file), or null when it has none any more. */
+export async function channelSourceText(tx: DbOrTx, channelId: number): Promise<string | null> {
+  const [src] = await tx.select({ bytes: channelSources.bytes }).from(channelSources).where(eq(channelSources.channelId, channelId));
+  return src ? new TextDecoder("utf-8").decode(src.bytes) : null;
 }

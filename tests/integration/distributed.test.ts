@@ -120,6 +120,31 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
     expect(b.worst).toEqual(a.worst);
   });
 
+  it("a tap table version fans out over the workers (a job per channel, per class, and the version) and equals the embedded one", async () => {
+    const request = (name: string) => ({
+      name: unique(name),
+      budgetId: pop.budgetId,
+      architecture: { key: "tx1-1-ctle-dfe2", label: "TX FIR 1/1 · CTLE · DFE 2", tx: { pre: 1, post: 1 }, ctle: true, dfeTaps: 2, ffe: null },
+      grouping: { mode: "loss-bins", channelIds: pop.channelIds.slice(0, 6), edges_dB: [12] },
+    });
+    const computed = async (client: Client, name: string) => {
+      const { id } = await (await client.send("POST", "/api/v1/tap-tables", request(name))).json();
+      return eventually(
+        async () => {
+          const v = await (await client.get(`/api/v1/tap-tables/${id}/versions/1`)).json();
+          return v.job.status === "done" || v.job.status === "failed" ? v : undefined;
+        },
+        240_000,
+        `tap table ${id}`,
+      );
+    };
+    const [a, b] = await Promise.all([computed(bullDesigner, "Distributed table"), computed(embeddedDesigner, "Embedded table")]);
+    expect(a.job.status, a.job.error?.message).toBe("done");
+    expect(a.result.classes).toEqual(b.result.classes);
+    const [parts] = await db.query("SELECT kind, COUNT(*) AS n, SUM(status = 'done') AS ok FROM jobs WHERE parent_id = (SELECT job_id FROM tap_table_versions WHERE id = ?) OR parent_id IN (SELECT id FROM jobs WHERE parent_id = (SELECT job_id FROM tap_table_versions WHERE id = ?)) GROUP BY kind", [a.id, a.id]);
+    expect(Object.fromEntries((parts as { kind: string; n: number }[]).map((p) => [p.kind, Number(p.n)]))).toEqual({ "table-class": 2, "table-member": 6 });
+  });
+
   it("the admin page shows the distributed backend, its workers and the queue's depth", async () => {
     const admin = await signIn("admin", undefined, server.base);
     const overview = await (await admin.get("/api/v1/queue")).json();

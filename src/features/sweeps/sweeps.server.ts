@@ -4,12 +4,13 @@
 import { and, asc, count, desc, eq, inArray, lt, min } from "drizzle-orm";
 import { cornerBudget } from "@lib/corners";
 import { db, type Tx } from "@/server/db.server";
-import { channelSources, channels, jobs, programs, sweepChannels, sweepResults, sweeps, users, type Job, type SweepResult } from "@/db/schema";
+import { channels, jobs, programs, sweepChannels, sweepResults, sweeps, users, type Job, type SweepResult } from "@/db/schema";
 import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import { apiStatus, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
-import { budgetCopy, checkBudgetFits, checkOneRate } from "@/server/sources.server";
+import { budgetCopy, channelSourceText, checkBudgetFits, checkOneRate } from "@/server/sources.server";
+import { needsTouchstone } from "@/features/channels/lossCorners";
 import { config } from "@/server/config.server";
 import type { SweepBatchInput, SweepBatchResult } from "./sweeps.job";
 import {
@@ -19,6 +20,7 @@ import {
   sweepCsv,
   timeLeft_s,
   worstPerChannel,
+  type Corner,
   type CreateSweepRequest,
   type PairResult,
   type SweepInputs,
@@ -240,6 +242,19 @@ export async function countSweeps(): Promise<number> {
   return n;
 }
 
+/** A sweep's corners, for a tap table version that must hold at them. */
+export interface SweepCorners {
+  corners: Corner[];
+  sweep: { id: number; name: string };
+}
+
+/** The corners of sweep `id` (404 when there is none). */
+export async function sweepCorners(tx: Tx, id: number): Promise<SweepCorners> {
+  const [row] = await tx.select({ name: sweeps.name, inputs: sweeps.inputs }).from(sweeps).where(eq(sweeps.id, id));
+  if (!row) throw notFound(`Sweep ${id}`);
+  return { corners: row.inputs.corners, sweep: { id, name: row.name } };
+}
+
 /** Sweeps whose every pair is done, for the tap-table form (a version can take a sweep's corners). */
 export async function finishedSweeps() {
   const rows = await db
@@ -261,11 +276,11 @@ registerJobKind("sweep-batch", {
       .select()
       .from(sweepChannels)
       .where(and(eq(sweepChannels.sweepId, job.targetId), eq(sweepChannels.position, batch.channelIndex)));
+    const corners = batch.cornerIndices.map((index) => sweep.inputs.corners[index]);
     let touchstone: string | null = null;
-    if (ch.kind === "touchstone" && batch.cornerIndices.some((k) => (sweep.inputs.corners[k].lossScale ?? 1) !== 1)) {
-      const [src] = await db.select({ bytes: channelSources.bytes }).from(channelSources).where(eq(channelSources.channelId, ch.channelId));
-      if (!src) throw new Error(`The Touchstone file of “${sweep.inputs.channels[batch.channelIndex].name}” was deleted; its loss corners cannot be rebuilt.`);
-      touchstone = new TextDecoder("utf-8").decode(src.bytes);
+    if (needsTouchstone(ch.kind, corners)) {
+      touchstone = await channelSourceText(db, ch.channelId);
+      if (touchstone === null) throw new Error(`The Touchstone file of “${sweep.inputs.channels[batch.channelIndex].name}” was deleted; its loss corners cannot be rebuilt.`);
     }
     return {
       budget: sweep.inputs.budget.params,

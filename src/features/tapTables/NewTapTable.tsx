@@ -1,5 +1,6 @@
 // The tap-table builder: the architecture (a study's decision or by hand), the budget, the
 // channels grouped into classes (loss bins with a live preview, or by hand), the register map.
+import CornerSweepSelect, { type SweepChoice } from "./CornerSweepSelect";
 import { useMemo, useState } from "react";
 import { useStore } from "zustand";
 import { describeArchitecture } from "@/features/studies/architecture";
@@ -20,6 +21,7 @@ interface Props {
   budgets: TapTableBudgetChoice[];
   channels: TapTableChannelChoice[];
   studies: DecidedStudy[];
+  sweeps: SweepChoice[];
 }
 
 const symbolRate = (bitRate: number, modulation: string) => bitRate / (modulation === "pam4" ? 2 : 1);
@@ -191,6 +193,9 @@ export default function NewTapTable(props: Props) {
             <input type="radio" name="mode" checked={s.mode === "manual"} onChange={() => s.set({ mode: "manual" })} />
             By hand (type a class name beside each channel above)
           </label>
+        </div>
+        <div className="mt-4">
+          <CornerSweepSelect sweeps={props.sweeps} value={s.sweepId} onChange={s.setSweep} />
         </div>
         {typeof preview === "string" ? (
           <p className="notice notice-warn mt-3">{preview}</p>

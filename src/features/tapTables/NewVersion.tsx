@@ -4,6 +4,7 @@ import { useState } from "react";
 import { api } from "@/components/api";
 import { useSubmit } from "@/components/useSubmit";
 import { parseEdges } from "./newTapTableStore";
+import CornerSweepSelect, { type SweepChoice } from "./CornerSweepSelect";
 
 interface Props {
   tableId: number;
@@ -12,18 +13,23 @@ interface Props {
   budgetId: number;
   /** The latest version's bin edges, when it grouped by loss bins. */
   edges_dB: number[] | null;
+  sweeps: SweepChoice[];
+  /** The sweep whose corners the latest version holds at, or null. */
+  sweepId: number | null;
 }
 
 export default function NewVersion(props: Props) {
   const [budgetId, setBudget] = useState(props.budgetId);
   const [edges, setEdges] = useState(props.edges_dB?.join(", ") ?? "");
   const [note, setNote] = useState("");
+  const [sweepId, setSweep] = useState(props.sweepId);
   const { busy, error, setError, submit } = useSubmit();
 
   function compute(e: React.SubmitEvent<HTMLFormElement>) {
     e.preventDefault();
     const body: Record<string, unknown> = { ...(note.trim() ? { note: note.trim() } : {}) };
     if (budgetId !== props.budgetId) body.budgetId = budgetId;
+    if (sweepId !== props.sweepId) body.sweepId = sweepId;
     if (props.edges_dB) {
       const parsed = parseEdges(edges);
       if (!parsed) return setError("Give the bin edges as numbers of dB, e.g. 12, 20, 28.");
@@ -57,6 +63,7 @@ export default function NewVersion(props: Props) {
           <input className="input" maxLength={2000} value={note} onChange={(e) => setNote(e.target.value)} placeholder="e.g. budget re-run with the revised noise figure" />
         </label>
       </div>
+      <CornerSweepSelect sweeps={props.sweeps} value={sweepId} onChange={setSweep} />
       {error && <p className="notice notice-bad" role="alert">{error}</p>}
       <div>
         <button className="btn btn-primary" type="submit" disabled={busy}>{busy ? "Starting…" : `Compute v${props.next}`}</button>

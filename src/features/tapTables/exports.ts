@@ -1,6 +1,7 @@
 // The three export formats of a tap table version, in Tapwright's own layout (documented in the
 // README): CSV (one row per class, register codes), JSON (everything, codes and physical values)
 // and a C header (the register map as macros and one array of default settings per class).
+import type { Corner } from "@lib/contract/corner";
 import { codeRange } from "@lib/tapTables";
 import type { Architecture } from "@/features/studies/architecture";
 import type { RegisterField } from "./registerMap";
@@ -16,6 +17,8 @@ export interface ExportModel {
   architecture: Architecture;
   registerMap: RegisterField[];
   classes: ClassResult[];
+  /** The corners the defaults hold at (a sweep's), or null. */
+  corners: Corner[] | null;
   engineVersion: string;
   generatedAt: Date;
 }
@@ -95,6 +98,7 @@ function toJson(m: ExportModel): string {
         engineVersion: m.engineVersion,
         budget: m.budget,
         architecture: m.architecture,
+        corners: m.corners,
         registerMap: m.registerMap,
         classes: m.classes.map((c) => ({
           index: c.index,
@@ -105,6 +109,7 @@ function toJson(m: ExportModel): string {
             lossAtNyquist_dB: ch.lossAtNyquist_dB,
             defaultHeadroom_V: ch.defaultHeadroom_V,
             ownHeadroom_V: ch.ownHeadroom_V,
+            ...(ch.worstCorner !== undefined ? { worstCorner: ch.worstCorner } : {}),
           })),
           worstHeadroom_V: c.worstHeadroom_V,
           codes: c.codes,

@@ -54,6 +54,8 @@ export interface NewTapTableState {
   /** The register map as edited; null while it follows the architecture's default. */
   customMap: RegisterField[] | null;
   mapKey: number;
+  /** The sweep whose corners the defaults must hold at, or null. */
+  sweepId: number | null;
   busy: boolean;
   error: string | null;
   set(patch: Partial<Pick<NewTapTableState, "name" | "description" | "note" | "edgesText" | "mode">>): void;
@@ -65,6 +67,7 @@ export interface NewTapTableState {
   assign(id: number, className: string): void;
   editMap(fields: RegisterField[]): void;
   resetMap(): void;
+  setSweep(id: number | null): void;
   submit(): Promise<number | null>;
 }
 
@@ -108,6 +111,7 @@ export function createNewTapTableStore(init: { budgets: TapTableBudgetChoice[]; 
     assignment: {},
     customMap: null,
     mapKey: 0,
+    sweepId: null,
     busy: false,
     error: null,
     set: (patch) => set(patch),
@@ -128,6 +132,7 @@ export function createNewTapTableStore(init: { budgets: TapTableBudgetChoice[]; 
     assign: (id, className) => set((s) => ({ assignment: { ...s.assignment, [id]: className } })),
     editMap: (fields) => set({ customMap: fields }),
     resetMap: () => set((s) => ({ customMap: null, mapKey: s.mapKey + 1 })),
+    setSweep: (sweepId) => set({ sweepId }),
     async submit() {
       const s = get();
       const grouping = groupingOf(s);
@@ -147,6 +152,7 @@ export function createNewTapTableStore(init: { budgets: TapTableBudgetChoice[]; 
             budgetId: s.budgetId,
             ...(s.source === "study" && s.studyId ? { studyId: s.studyId } : { architecture: arch }),
             ...(s.customMap ? { registerMap: s.customMap } : {}),
+            ...(s.sweepId !== null ? { sweepId: s.sweepId } : {}),
             grouping,
           },
         });

@@ -53,6 +53,7 @@ async function exportModel(table: typeof tapTables.$inferSelect, version: TapTab
     architecture: inputs.architecture,
     registerMap: inputs.registerMap,
     classes: result.classes,
+    corners: inputs.corners ?? null,
     engineVersion: result.engineVersion,
     generatedAt: new Date(),
   };

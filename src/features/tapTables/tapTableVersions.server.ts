@@ -1,7 +1,7 @@
 // Tap-table writes: creating a table and its versions (each computed as a job, or in this process
 // for the demo seed), editing what is not frozen, and storing a computed version (a late job's
 // result is dropped). Every write is one transaction with its audit event.
-import { and, desc, eq } from "drizzle-orm";
+import { and, asc, desc, eq } from "drizzle-orm";
 import { db, type DbOrTx, type Tx } from "@/server/db.server";
 import { jobs, studies, tapTableRows, tapTables, tapTableVersions, users, type TapTableVersion } from "@/db/schema";
 import { ApiError, badRequest, conflict, notFound, unprocessable } from "@/server/http/errors";
@@ -9,7 +9,12 @@ import { recordAudit } from "@/server/audit/audit.server";
 import { enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import { finishHere, type RunHere } from "@/server/jobs/inlineJob.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
-import { budgetCopy, channelCopies, checkBudgetFits, checkOneRate, findChannels, parseBudget, type BudgetCopy, type ChannelCopy } from "@/server/sources.server";
+import { budgetCopy, channelCopies, channelSourceText, checkBudgetFits, checkOneRate, findChannels, parseBudget, type BudgetCopy, type ChannelCopy } from "@/server/sources.server";
+import { config } from "@/server/config.server";
+import { cornerBudget } from "@lib/corners";
+import { needsTouchstone } from "@/features/channels/lossCorners";
+import { sweepCorners, type SweepCorners } from "@/features/sweeps/sweeps.server";
+import { tableBasis, worstOf, type TableChannel, type TableClassInput, type TableClassResult, type TableMemberInput, type TableMemberResult, type TableVersionJob } from "./tapTables.job";
 import type { Architecture } from "@/features/studies/architecture";
 import { classesOf, groupingChannelIds, GroupingError } from "./grouping";
 import { defaultRegisterMap, registerMapProblem, type BudgetForMap, type RegisterField } from "./registerMap";
@@ -21,6 +26,7 @@ import {
   type CreateVersionRequest,
   type Grouping,
   type UpdateVersionRequest,
+  type VersionChannel,
   type VersionInputs,
   type VersionResult,
 } from "./tapTables";
@@ -71,12 +77,22 @@ function versionInputs(
   registerMap: RegisterField[] | undefined,
   grouping: Grouping,
   chans: ReadonlyMap<number, ChannelCopy>,
+  corners: SweepCorners | null,
 ): VersionInputs {
   const problem = tapTableArchitectureProblem(arch.architecture);
   if (problem) throw unprocessable(problem, arch.study ? "studyId" : "architecture");
   const map = registerMap ?? defaultRegisterMap(arch.architecture, budget.budget);
   checkRegisterMap(map, arch.architecture, budget.budget);
-  checkBudgetFits(budgetForArchitecture(budget.budget, arch.architecture), budget.name, [...chans.values()]);
+  const derived = budgetForArchitecture(budget.budget, arch.architecture);
+  checkBudgetFits(derived, budget.name, [...chans.values()]);
+  for (const c of corners?.corners ?? []) {
+    try {
+      cornerBudget(derived, c);
+    } catch (e) {
+      if (e instanceof RangeError) throw unprocessable(`The sweep “${corners!.sweep.name}”: ${e.message}`, "sweepId");
+      throw e;
+    }
+  }
   let classes;
   try {
     classes = classesOf(grouping, chans);
@@ -91,12 +107,26 @@ function versionInputs(
     registerMap: map,
     grouping: grouping.mode === "loss-bins" ? { mode: "loss-bins", edges_dB: grouping.edges_dB } : { mode: "manual" },
     classes,
+    corners: corners?.corners ?? null,
+    sweep: corners?.sweep ?? null,
   };
 }
 
+/**
+ * The parts of a version's job (`versionJob`, enqueued waiting for its children): one job per class,
+ * each waiting for one job per channel (its own optimum at every corner), so the work spreads over
+ * every worker.
+ */
+async function enqueueVersionParts(tx: DbOrTx, versionJob: number, versionId: number, inputs: VersionInputs): Promise<void> {
+  for (const [index, cls] of inputs.classes.entries()) {
+    const classJob = await enqueueJob(tx, "table-class", versionId, { parentId: versionJob, part: index, waitForChildren: true });
+    await tx.insert(jobs).values(cls.channels.map((_, part) => ({ kind: "table-member" as const, targetId: versionId, queue: config.queue.backend, parentId: classJob, part, status: "queued" as const })));
+  }
+}
+
 /** Inserts a version and its job (computing), with the audit event. */
-async function insertVersion(tx: DbOrTx, user: SessionUser, tableId: number, version: number, inputs: VersionInputs, note: string | undefined) {
-  const jobId = await enqueueJob(tx, "table-version", 0);
+async function insertVersion(tx: DbOrTx, user: SessionUser, tableId: number, version: number, inputs: VersionInputs, note: string | undefined, parts: boolean) {
+  const jobId = await enqueueJob(tx, "table-version", 0, { waitForChildren: true });
   const [{ id }] = await tx
     .insert(tapTableVersions)
     .values({
@@ -110,6 +140,8 @@ async function insertVersion(tx: DbOrTx, user: SessionUser, tableId: number, ver
     })
     .$returningId();
   await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
+  // Computed here (the demo seed) the version needs no parts.
+  if (parts) await enqueueVersionParts(tx, jobId, id, inputs);
   await recordAudit(tx, user, "table.version", "tap-table", tableId, {
     version,
     architecture: inputs.architecture.key,
@@ -133,13 +165,14 @@ export async function createTapTable(user: SessionUser, req: CreateTapTableReque
     const budget = await budgetCopy(tx, req.budgetId);
     const arch = await resolveArchitecture(tx, req.studyId, req.architecture);
     const chans = await channelCopies(tx, groupingChannelIds(req.grouping), "grouping");
-    const inputs = versionInputs(budget, arch, req.registerMap, req.grouping, new Map(chans.map((c) => [c.id, c])));
+    const corners = req.sweepId === undefined ? null : await sweepCorners(tx, req.sweepId);
+    const inputs = versionInputs(budget, arch, req.registerMap, req.grouping, new Map(chans.map((c) => [c.id, c])), corners);
     const [{ id }] = await tx
       .insert(tapTables)
       .values({ name: req.name, description: req.description ?? null, studyId: arch.study?.id ?? null, createdBy: user.id })
       .$returningId();
     await recordAudit(tx, user, "table.create", "tap-table", id, { name: req.name });
-    return { tableId: id, queued: await insertVersion(tx, user, id, 1, inputs, req.note) };
+    return { tableId: id, queued: await insertVersion(tx, user, id, 1, inputs, req.note, here === undefined) };
   });
   await computeVersion(queued, here);
   return { id: tableId, version: 1, status: here ? ("done" as const) : ("queued" as const) };
@@ -191,9 +224,17 @@ export async function createVersion(user: SessionUser, tableId: number, req: Cre
     checkOneRate(ids.map((id) => known.get(id)!), "grouping");
     const sameArchitecture = arch.architecture.key === prev.architecture.key && budget.id === prev.budget.id;
     const registerMap = req.registerMap ?? (sameArchitecture ? prev.registerMap : undefined);
-    const inputs = versionInputs(budget, arch, registerMap, grouping, known);
+    const corners: SweepCorners | null =
+      req.sweepId === undefined
+        ? prev.corners && prev.sweep
+          ? { corners: prev.corners, sweep: prev.sweep }
+          : null
+        : req.sweepId === null
+          ? null
+          : await sweepCorners(tx, req.sweepId);
+    const inputs = versionInputs(budget, arch, registerMap, grouping, known, corners);
     const next = latest.version + 1;
-    const queued = await insertVersion(tx, user, tableId, next, inputs, req.note);
+    const queued = await insertVersion(tx, user, tableId, next, inputs, req.note, here === undefined);
     if (arch.study && arch.study.id !== table.studyId) await tx.update(tapTables).set({ studyId: arch.study.id }).where(eq(tapTables.id, tableId));
     return { version: next, queued };
   });
@@ -228,7 +269,8 @@ export async function updateVersion(user: SessionUser, tableId: number, v: numbe
       changes.inputs = { ...inputs, registerMap: req.registerMap! };
       changes.state = "computing";
       changes.result = null;
-      changes.jobId = await enqueueJob(tx, "table-version", row.id);
+      changes.jobId = await enqueueJob(tx, "table-version", row.id, { waitForChildren: true });
+      await enqueueVersionParts(tx, changes.jobId, row.id, changes.inputs);
       await tx.delete(tapTableRows).where(eq(tapTableRows.versionId, row.id));
     }
     await tx.update(tapTableVersions).set(changes).where(eq(tapTableVersions.id, row.id));
@@ -275,11 +317,62 @@ async function stillComputes(tx: Tx, versionId: number, jobId: number): Promise<
   return v !== undefined && v.jobId === jobId && v.state === "computing";
 }
 
+/** A version's inputs, for its jobs. */
+async function inputsOf(versionId: number): Promise<VersionInputs> {
+  const [row] = await db.select({ inputs: tapTableVersions.inputs }).from(tapTableVersions).where(eq(tapTableVersions.id, versionId));
+  if (!row) throw new Error(`Tap table version ${versionId} no longer exists.`);
+  return row.inputs;
+}
+
+/** A channel of a version for its jobs, with its Touchstone text when the version's corners need it. */
+async function tableChannel(inputs: VersionInputs, ch: VersionChannel): Promise<TableChannel> {
+  if (!needsTouchstone(ch.kind, inputs.corners ?? [])) return { ...ch, touchstone: null };
+  const touchstone = await channelSourceText(db, ch.id);
+  if (touchstone === null) throw new Error(`The Touchstone file of “${ch.name}” was deleted; its loss corners cannot be rebuilt.`);
+  return { ...ch, touchstone };
+}
+
+/** The stored results of a job's children, in their order (`part`). */
+async function childResults<T>(jobId: number): Promise<T[]> {
+  const rows = await db.select({ result: jobs.result }).from(jobs).where(eq(jobs.parentId, jobId)).orderBy(asc(jobs.part));
+  return rows.map((r) => r.result as T);
+}
+
+/** A part's result, kept on its own job row for its parent to read. */
+async function keepOnJob(tx: Tx, jobId: number, result: unknown): Promise<void> {
+  await tx.update(jobs).set({ result }).where(eq(jobs.id, jobId));
+}
+
+registerJobKind("table-member", {
+  async input(job): Promise<TableMemberInput> {
+    const inputs = await inputsOf(job.targetId);
+    const [classJob] = await db.select({ part: jobs.part }).from(jobs).where(eq(jobs.id, job.parentId ?? -1));
+    const ch = inputs.classes[classJob?.part ?? -1]?.channels[job.part ?? -1];
+    if (!ch) throw new Error(`Tap table version ${job.targetId} has no channel for job ${job.id}.`);
+    return { ...tableBasis(inputs), channel: await tableChannel(inputs, ch) };
+  },
+  save: (tx, job, result) => keepOnJob(tx, job.id, result),
+});
+
+registerJobKind("table-class", {
+  async input(job): Promise<TableClassInput> {
+    const inputs = await inputsOf(job.targetId);
+    const cls = inputs.classes[job.part ?? -1];
+    if (!cls) throw new Error(`Tap table version ${job.targetId} has no class ${job.part}.`);
+    const channels = await Promise.all(cls.channels.map((ch) => tableChannel(inputs, ch)));
+    return { ...tableBasis(inputs), registerMap: inputs.registerMap, index: job.part as number, cls: { ...cls, channels }, own: await childResults<TableMemberResult>(job.id) };
+  },
+  save: (tx, job, result) => keepOnJob(tx, job.id, result),
+});
+
 registerJobKind("table-version", {
-  async input(job) {
-    const [row] = await db.select({ inputs: tapTableVersions.inputs }).from(tapTableVersions).where(eq(tapTableVersions.id, job.targetId));
-    if (!row) throw new Error(`Tap table version ${job.targetId} no longer exists.`);
-    return row.inputs;
+  async input(job): Promise<TableVersionJob> {
+    const inputs = await inputsOf(job.targetId);
+    const classes = await childResults<TableClassResult>(job.id);
+    // A version queued before its work was split in parts is computed in one go.
+    if (classes.length === 0) return { whole: inputs };
+    const w = worstOf(classes);
+    return { ...tableBasis(inputs), classes, worstChannel: await tableChannel(inputs, inputs.classes[w.classIndex].channels[w.channelIndex]) };
   },
   async save(tx, job, result) {
     if (await stillComputes(tx, job.targetId, job.id)) await saveVersion(tx, job.targetId, result as VersionResult);

@@ -34,6 +34,8 @@ function inputsView(inputs: VersionInputs) {
       lossRange_dB: c.lossRange_dB,
       channels: c.channels.map((ch) => ({ id: ch.id, name: ch.name, lossAtNyquist_dB: ch.lossAtNyquist_dB })),
     })),
+    corners: inputs.corners ?? null,
+    sweep: inputs.sweep ?? null,
   };
 }
 

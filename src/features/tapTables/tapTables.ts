@@ -2,7 +2,8 @@
 // and small presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
 import type { BudgetInput } from "@lib/contract/budget";
-import type { StoredPulse } from "@/features/channels/channels";
+import type { ChannelKind, StoredPulse } from "@/features/channels/channels";
+import type { Corner } from "@lib/contract/corner";
 import type { EyeFigure } from "@lib/run";
 import { architectureSchema, type Architecture } from "@/features/studies/architecture";
 import { registerMapSchema, type RegisterField } from "./registerMap";
@@ -75,6 +76,8 @@ export const createTapTableRequest = z.object({
   architecture: architectureSchema.optional(),
   registerMap: registerMapSchema.optional(),
   grouping: groupingSchema,
+  /** A finished sweep whose corners every class default must hold at (the worst over channels and corners). */
+  sweepId: z.int({ error: "The sweep id is a whole number." }).positive().optional(),
   note: note.optional(),
 });
 export type CreateTapTableRequest = z.infer<typeof createTapTableRequest>;
@@ -89,6 +92,8 @@ export const createVersionRequest = z
     grouping: groupingSchema.optional(),
     /** New loss-bin edges for the same channels (instead of a whole grouping). */
     edges_dB: edgesSchema.optional(),
+    /** The corners of this sweep (null: none); left out, the latest version's corners are kept. */
+    sweepId: z.int({ error: "The sweep id is a whole number, or null for no corners." }).positive().nullable().optional(),
     note: note.optional(),
   })
   .refine((r) => !(r.grouping && r.edges_dB), { message: "Give either grouping or edges_dB, not both.", path: ["edges_dB"] });
@@ -121,6 +126,9 @@ export interface VersionChannel {
   name: string;
   lossAtNyquist_dB: number | null;
   pulse: StoredPulse;
+  /** What the channel was made of, to rebuild it at the corners' losses (absent in older versions). */
+  kind?: ChannelKind;
+  derivation?: Record<string, unknown>;
 }
 
 /** One class as a version keeps it. */
@@ -140,6 +148,9 @@ export interface VersionInputs {
   registerMap: RegisterField[];
   grouping: { mode: Grouping["mode"]; edges_dB?: number[] };
   classes: VersionClass[];
+  /** The corners every default must hold at (taken from a sweep), or null (absent in older versions). */
+  corners?: Corner[] | null;
+  sweep?: { id: number; name: string } | null;
 }
 
 /** A channel's figures in a computed version. */
@@ -155,6 +166,12 @@ export interface ChannelHeadroom {
   defaultEyeHeight_V: number;
   /** The channel's own optimum setting (transmit FIR taps and CTLE gains). */
   own: { tx: number[]; ctle: { gDc_dB: number; gDc2_dB: number } };
+  /**
+   * With corners: the corner that binds the channel under its class default (its figures above are
+   * at that corner), and the figures at every corner.
+   */
+  worstCorner?: string;
+  corners?: { name: string; defaultHeadroom_V: number; ownHeadroom_V: number }[];
 }
 
 /** One class's result: its default in codes and physical values, and its channels. */
@@ -177,6 +194,8 @@ export interface WorstEye {
   channelId: number;
   channelName: string;
   className: string;
+  /** The corner it is worst at, with corners. */
+  corner?: string;
   headroom_V: number;
   eyeHeight_V: number;
   before: EyeFigure;

@@ -42,7 +42,6 @@ async function takeRow(tx: Tx, job: Job, owner: string): Promise<Claim | null> {
       lockedUntil: lockExpiry(),
       startedAt: job.startedAt ?? sql`NOW(3)`,
       attempts: job.attempts + 1,
-      progress: 0,
       error: null,
     })
     .where(eq(jobs.id, job.id));
@@ -107,7 +106,9 @@ export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcom
         const now = Date.now();
         if (now - lastWrite < 250) return;
         lastWrite = now;
-        void db.update(jobs).set({ progress: Math.min(0.99, Math.max(0, progress)) }).where(mine).catch(() => {});
+        // Progress never goes back (a retried attempt, a parent whose children brought it far).
+        const p = Math.min(0.99, Math.max(0, progress));
+        void db.update(jobs).set({ progress: sql`GREATEST(${jobs.progress}, ${p})` }).where(mine).catch(() => {});
       });
     } catch (e) {
       return await failAttempt(claim, reason(e));
@@ -134,8 +135,28 @@ async function closeAttempt(claim: Claim, close: (tx: Tx) => Promise<void>): Pro
     const [row] = await tx.select({ status: jobs.status, lockToken: jobs.lockToken }).from(jobs).where(eq(jobs.id, job.id)).for("update");
     if (!row || row.status !== "running" || row.lockToken !== token) return { kind: "fenced" } as const;
     await close(tx);
-    return { kind: "done", parentQueued: job.parentId === null ? null : await queueParentIfReady(tx, job.parentId) } as const;
+    if (job.parentId === null) return { kind: "done", parentQueued: null } as const;
+    await rollUpProgress(tx, job.parentId);
+    return { kind: "done", parentQueued: await queueParentIfReady(tx, job.parentId) } as const;
   });
+}
+
+/**
+ * A waiting parent's progress is its children's mean (a done child counts 1), and so on up the tree:
+ * a tap table version moves as its members' own optima come in.
+ */
+async function rollUpProgress(tx: Tx, parentId: number): Promise<void> {
+  let id: number | null = parentId;
+  while (id !== null) {
+    const [row] = await tx.select({ parentId: jobs.parentId, status: jobs.status }).from(jobs).where(eq(jobs.id, id));
+    if (!row || row.status !== "waiting") return;
+    const [mean] = await tx
+      .select({ p: sql<number>`AVG(CASE WHEN ${jobs.status} = 'done' THEN 1 ELSE ${jobs.progress} END)` })
+      .from(jobs)
+      .where(eq(jobs.parentId, id));
+    await tx.update(jobs).set({ progress: Math.min(0.99, Number(mean.p) || 0) }).where(eq(jobs.id, id));
+    id = row.parentId;
+  }
 }
 
 /** Queues a waiting parent whose children are all done; its id, or null. */

@@ -30,6 +30,7 @@ function model(classNames: string[], fields: RegisterField[]): ExportModel {
       codes: Object.fromEntries(fields.map((f) => [f.name, -3])),
       values: Object.fromEntries(fields.map((f) => [f.name, -3])),
     })) as unknown as ExportModel["classes"],
+    corners: null,
     engineVersion: "test",
     generatedAt: new Date(0),
   };

@@ -1,0 +1,1 @@
+ALTER TABLE `jobs` MODIFY COLUMN `kind` enum('run','study','table-version','table-class','table-member','sweep','sweep-batch') NOT NULL;
