@@ -60,6 +60,9 @@ describe("worst corner per channel and the CSV", () => {
     expect(lines[1]).toBe('7,"Lane ""7"", rear",10,nominal,1,1,1,1,1,-1,-1,-1,false,0,');
     expect(lines[2]).toBe('7,"Lane ""7"", rear",10,hot,1.1,1,1,1,1,12.346,12.346,12.346,false,0,');
     expect(lines[3]).toBe('7,"Lane ""7"", rear",10,slow,1,0.9,1,1,1,,,,,,');
+    // A name a spreadsheet would run as a formula is shown as text.
+    const evil = sweepCsv({ ...inputs, channels: [{ id: 8, name: "=HYPERLINK(1)", lossAtNyquist_dB: null }] }, []).split("\r\n");
+    expect(evil[1].startsWith("8,'=HYPERLINK(1),,nominal")).toBe(true);
   });
 });
 

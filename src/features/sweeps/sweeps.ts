@@ -4,6 +4,7 @@
 import { z } from "zod";
 import type { BudgetInput } from "@lib/contract/budget";
 import { cornerSchema, type Corner } from "@lib/contract/corner";
+import { csvCell } from "@/features/tapTables/exports";
 
 export { cornerSchema, type Corner };
 
@@ -175,14 +176,10 @@ export function formatDuration(s: number): string {
   return `${h} h ${Math.round((s - h * 3600) / 60)} min`;
 }
 
-const csvField = (v: string | number | boolean | null): string => {
-  if (v === null) return "";
-  const s = String(v);
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-};
 
 /**
- * The sweep as CSV (RFC 4180, a header row, CRLF): one row per channel × corner pair with the
+ * The sweep as CSV (RFC 4180, a header row, CRLF; text that a spreadsheet would run as a formula is
+ * neutralised like the tap table exports): one row per channel × corner pair with the
  * corner's factors, the headroom and eye height in mV, the linear-only headroom, the verdict, the
  * fewest DFE taps, and the engine's message for a refused pair.
  */
@@ -202,7 +199,7 @@ export function sweepCsv(inputs: SweepInputs, results: readonly PairResult[]): s
           ch.id, ch.name, ch.lossAtNyquist_dB, c.name, c.lossScale ?? 1, c.txSwingScale ?? 1, c.noiseScale ?? 1, c.jitterScale ?? 1, c.sensitivityScale ?? 1,
           mV(r?.limiterHeadroom_V ?? null), mV(r?.eyeHeight_V ?? null), mV(r?.linearHeadroom_V ?? null),
           r?.linearReachExhausted ?? null, r?.fewestDfeTaps ?? null, r?.error ?? null,
-        ].map(csvField).join(","),
+        ].map((v) => csvCell(typeof v === "boolean" ? String(v) : v)).join(","),
       );
     });
   }

@@ -17,8 +17,8 @@ export interface ExportModel {
   architecture: Architecture;
   registerMap: RegisterField[];
   classes: ClassResult[];
-  /** The corners the defaults hold at (a sweep's), or null. */
-  corners: Corner[] | null;
+  /** The corners the defaults hold at (a sweep's); none when absent or null. */
+  corners?: Corner[] | null;
   engineVersion: string;
   generatedAt: Date;
 }
@@ -60,7 +60,7 @@ export function exportMediaType(format: ExportFormat): string {
  * gets a leading ' so that a spreadsheet shows it instead of running it as a formula (OWASP's CSV
  * injection guidance); numbers are written as numbers.
  */
-function csvCell(value: string | number | null): string {
+export function csvCell(value: string | number | null): string {
   if (value === null) return "";
   const s = typeof value === "number" ? String(value) : /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
@@ -98,7 +98,7 @@ function toJson(m: ExportModel): string {
         engineVersion: m.engineVersion,
         budget: m.budget,
         architecture: m.architecture,
-        corners: m.corners,
+        corners: m.corners ?? null,
         registerMap: m.registerMap,
         classes: m.classes.map((c) => ({
           index: c.index,
