@@ -22,7 +22,7 @@ export default function CornerSweepSelect(props: Props) {
       <label className="field">
         <span>Corners</span>
         <select className="input max-w-96" value={props.value ?? ""} onChange={(e) => props.onChange(e.target.value === "" ? null : Number(e.target.value))}>
-          <option value="">None: the budget's nominal values only</option>
+          <option value="">None: nominal values only</option>
           {props.sweeps.map((s) => (
             <option key={s.id} value={s.id}>The corners of “{s.name}” ({s.corners.length})</option>
           ))}
