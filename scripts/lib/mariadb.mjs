@@ -176,7 +176,7 @@ async function waitUntilReady(db, timeout_ms) {
 }
 
 /** uid and gid of a local account (from /etc/passwd), or null when it does not exist. */
-function account(name) {
+export function account(name) {
   try {
     const line = readFileSync("/etc/passwd", "utf8")
       .split("\n")
@@ -217,37 +217,38 @@ export function blockingAncestor(dir, who) {
 }
 
 /**
- * Makes the server's folder usable by the account it runs as. The checkout's `.data/` gets the
+ * Makes a server's folder usable by the account it runs as. The checkout's `.data/` gets the
  * search bit for others (its secrets are 0600 files). When a folder above the checkout is closed
  * to that account (a checkout under /root, say), the server's files move to
- * /var/lib/tapwright/<id>, and `.data/mariadb` becomes a link to it, so every path stays the same.
+ * /var/lib/tapwright/<id>, and `.data/mariadb` (or `.data/redis`) becomes a link to it, so every
+ * path stays the same. Shared with the private Redis, which runs as `redis` the same way.
  */
-function placeFolder(db, who) {
-  const parent = dirname(resolve(db.dir));
+export function placeFolder(dir, who, label = "MariaDB") {
+  const parent = dirname(resolve(dir));
   mkdirSync(parent, { recursive: true });
   const st = statSync(parent);
   if ((st.mode & 0o001) === 0) chmodSync(parent, (st.mode & 0o7777) | 0o001);
-  const linked = existsSync(db.dir) && lstatSync(db.dir).isSymbolicLink();
-  const blocked = linked ? null : blockingAncestor(db.dir, who);
+  const linked = existsSync(dir) && lstatSync(dir).isSymbolicLink();
+  const blocked = linked ? null : blockingAncestor(dir, who);
   if (blocked) {
-    const target = join("/var/lib/tapwright", `mariadb-${createHash("sha256").update(resolve(db.dir)).digest("hex").slice(0, 12)}`);
-    log(`MariaDB: ${blocked} is closed to the ${who.name} account, so the server's files live in ${target} (linked from ${db.dir}).`);
+    const target = join("/var/lib/tapwright", `${label.toLowerCase()}-${createHash("sha256").update(resolve(dir)).digest("hex").slice(0, 12)}`);
+    log(`${label}: ${blocked} is closed to the ${who.name} account, so the server's files live in ${target} (linked from ${dir}).`);
     mkdirSync(dirname(target), { recursive: true, mode: 0o755 });
-    if (existsSync(db.dir)) {
+    if (existsSync(dir)) {
       rmSync(target, { recursive: true, force: true });
       try {
-        renameSync(db.dir, target);
+        renameSync(dir, target);
       } catch (e) {
         if (e.code !== "EXDEV") throw e;
-        cpSync(db.dir, target, { recursive: true, preserveTimestamps: true });
-        rmSync(db.dir, { recursive: true, force: true });
+        cpSync(dir, target, { recursive: true, preserveTimestamps: true });
+        rmSync(dir, { recursive: true, force: true });
       }
     } else {
       mkdirSync(target, { recursive: true });
     }
-    symlinkSync(target, db.dir);
+    symlinkSync(target, dir);
   }
-  mkdirSync(db.dir, { recursive: true });
+  mkdirSync(dir, { recursive: true });
 }
 
 /** Gives the server's folder to the account it runs as (older checkouts' files belong to root). */
@@ -282,7 +283,7 @@ async function withLock(db, fn) {
 }
 
 /** The uid a process runs as (Linux's /proc), or null when it cannot be read. */
-function processUid(pid) {
+export function processUid(pid) {
   try {
     const line = readFileSync(`/proc/${pid}/status`, "utf8").match(/^Uid:\s+(\d+)/m);
     return line ? Number(line[1]) : null;
@@ -295,7 +296,7 @@ function processUid(pid) {
 export async function startMariadb(db) {
   ensureMariadbInstalled();
   const who = serverAccount();
-  if (who) placeFolder(db, who);
+  if (who) placeFolder(db.dir, who);
   else mkdirSync(db.dir, { recursive: true });
   const p = paths(db);
   return withLock(db, async () => {

@@ -3,19 +3,41 @@
 // checkout's password (.data/redis-password, 0600), its data in a git-ignored folder with
 // append-only persistence. Idempotent like the MariaDB one: a running server is reused,
 // a stale pid file is cleaned, and a kill -9 leaves an append-only file that the next start replays.
-import { spawn } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+// When this script runs as root, the server runs as Debian's unprivileged `redis` account (as
+// mariadbd runs as `mysql`), its folder owned by that account.
+import { execFileSync, spawn } from "node:child_process";
+import { existsSync, mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { connect } from "node:net";
 import { join } from "node:path";
 import { setTimeout as sleep } from "node:timers/promises";
 import { log } from "./log.mjs";
-import { aptInstall } from "./mariadb.mjs";
-import { alive, which, withLockFile } from "./processes.mjs";
+import { account, aptInstall, placeFolder, processUid } from "./mariadb.mjs";
+import { alive, isRoot, which, withLockFile } from "./processes.mjs";
 
 export function ensureRedisInstalled() {
   if (which("redis-server")) return;
   aptInstall(["redis-server"], "Redis is not installed (the distributed job queue needs it)");
   if (!which("redis-server")) throw new Error("redis-server is still missing after apt-get install.");
+}
+
+/**
+ * Who the server runs as: the current user when this script is not root (it cannot switch), else
+ * the `redis` account that Debian's redis-server package creates.
+ */
+function serverAccount() {
+  if (!isRoot) return null;
+  const redis = account("redis");
+  if (!redis) log("Redis: there is no `redis` account on this machine; the server runs as root.");
+  return redis;
+}
+
+/** Gives the server's folder to the account it runs as (older checkouts' files belong to root). */
+function ownFolder(redis, who) {
+  const p = paths(redis);
+  mkdirSync(p.data, { recursive: true });
+  const owned = (f) => !existsSync(f) || statSync(f).uid === who.uid;
+  if ([redis.dir, p.data, p.log, join(p.data, "appendonlydir")].every(owned)) return;
+  execFileSync("chown", ["-R", `${who.uid}:${who.gid}`, redis.dir]);
 }
 
 function paths(redis) {
@@ -104,14 +126,19 @@ async function waitUntilReady(redis, timeout_ms) {
 /** Starts the private Redis (or reuses the running one); `fresh` empties it (the test queue). */
 export async function startRedis(redis, { fresh = false } = {}) {
   ensureRedisInstalled();
-  mkdirSync(redis.dir, { recursive: true });
+  const who = serverAccount();
+  if (who) placeFolder(redis.dir, who, "Redis");
+  else mkdirSync(redis.dir, { recursive: true });
   const p = paths(redis);
   const result = await withLockFile(p.lock, "Redis", async () => {
     const pid = runningRedisPid(redis);
     if (pid) {
       const port = existsSync(p.portFile) ? Number(readFileSync(p.portFile, "utf8")) : redis.port;
+      const uid = processUid(pid);
       let restart = `the running server listens on ${port}, not ${redis.port}`;
-      if (port === redis.port) {
+      if (port === redis.port && who && uid !== null && uid !== who.uid) {
+        restart = `the running server runs as uid ${uid}, not as ${who.name}`;
+      } else if (port === redis.port) {
         try {
           await waitUntilReady(redis, 10_000);
           log(`Redis: reusing the running server (pid ${pid}, 127.0.0.1:${redis.port}).`);
@@ -124,7 +151,8 @@ export async function startRedis(redis, { fresh = false } = {}) {
       log(`Redis: ${restart}; restarting it.`);
       await stopRedis(redis);
     }
-    mkdirSync(p.data, { recursive: true });
+    if (who) ownFolder(redis, who);
+    else mkdirSync(p.data, { recursive: true });
     const child = spawn(
       which("redis-server"),
       [
@@ -143,7 +171,7 @@ export async function startRedis(redis, { fresh = false } = {}) {
         "--pidfile", p.pid,
         "--logfile", p.log,
       ],
-      { detached: true, stdio: "ignore" },
+      { detached: true, stdio: "ignore", ...(who ? { uid: who.uid, gid: who.gid } : {}) },
     );
     child.unref();
     writeFileSync(p.portFile, String(redis.port));
@@ -155,7 +183,7 @@ export async function startRedis(redis, { fresh = false } = {}) {
     }
     // redis-server writes its pid file itself; write it too so a fast stop after start finds it.
     writeFileSync(p.pid, String(child.pid));
-    log(`Redis: started (pid ${child.pid}) on 127.0.0.1:${redis.port}, data in ${p.data}.`);
+    log(`Redis: started (pid ${child.pid}${who ? `, as ${who.name}` : ""}) on 127.0.0.1:${redis.port}, data in ${p.data}.`);
     return { pid: child.pid, reused: false };
   });
   if (fresh) {
