@@ -1,8 +1,11 @@
 // The distributed backend against the test run's real private Redis and MariaDB: a web server with
 // TAPWRIGHT_QUEUE=bullmq and two standalone worker processes (one engine thread each). A sweep of
 // 52 channel × corner pairs completes with each pair stored once even when a worker is killed with
-// SIGKILL mid-sweep (BullMQ hands its job to the other) or Redis restarts mid-sweep; the numbers
+// SIGKILL mid-sweep (BullMQ hands its job to the other) or Redis restarts mid-sweep; a worker frozen
+// past its lock (SIGSTOP) loses its batch to the other and its late result is refused; the numbers
 // equal the same sweep on the embedded queue; the admin page lists the workers and the queue.
+import { readFileSync, statSync } from "node:fs";
+import { join } from "node:path";
 import mysql from "mysql2/promise";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eventually, signIn, type Client } from "../support/http";
@@ -105,6 +108,51 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
     const counts = await rowsPerPair(id);
     expect(counts).toHaveLength(52);
     expect(counts.every((n) => n === 1)).toBe(true);
+  });
+
+  it("a worker frozen past its lock (SIGSTOP): the other takes its batch over, and the frozen one's result is refused when it wakes", async () => {
+    const r = await bullDesigner.send("POST", "/api/v1/sweeps", { name: unique("Frozen worker"), channelIds: pop.channelIds.slice(0, 4), budgetId: pop.budgetId, corners: CORNERS });
+    expect(r.status).toBe(202);
+    const id = (await r.json()).id as number;
+    const victim = workers[1];
+    const runningOn = async (who: string) => {
+      const [rows] = await db.query("SELECT j.id, j.attempts FROM jobs j JOIN sweeps s ON j.parent_id = s.job_id WHERE s.id = ? AND j.status = 'running' AND j.locked_by = ?", [id, who]);
+      return (rows as { id: number; attempts: number }[])[0];
+    };
+    // Freeze the victim while it holds a batch (if it finished that batch in the instant before, wake it and wait for its next).
+    let held: { id: number; attempts: number } | undefined;
+    while (held === undefined) {
+      const candidate = await eventually(() => runningOn(victim.name), 60_000, `${victim.name} to take a batch`);
+      process.kill(victim.pid, "SIGSTOP");
+      if ((await runningOn(victim.name))?.id === candidate.id) held = candidate;
+      else process.kill(victim.pid, "SIGCONT");
+    }
+    try {
+      await eventually(
+        async () => {
+          const [rows] = await db.query("SELECT attempts FROM jobs WHERE id = ?", [held.id]);
+          return Number((rows as { attempts: number }[])[0].attempts) > held.attempts ? true : undefined;
+        },
+        60_000,
+        "the other worker to take the frozen one's batch over",
+      );
+    } finally {
+      process.kill(victim.pid, "SIGCONT");
+    }
+    await eventually(async () => (victim.output().includes(`job ${held.id} was taken over by a newer attempt`) ? true : undefined), 60_000, "the woken worker to drop its result");
+    const s = await sweepDone(bullDesigner, id);
+    expect(s.status).toBe("done");
+    const counts = await rowsPerPair(id);
+    expect(counts).toHaveLength(16);
+    expect(counts.every((n) => n === 1)).toBe(true);
+  });
+
+  it.runIf(process.getuid?.() === 0)("run as root, the private Redis runs as the unprivileged redis account, which owns its data (after the restart too)", () => {
+    const pid = Number(readFileSync(join(process.env.TAPWRIGHT_REDIS_DIR!, "redis.pid"), "utf8").trim());
+    const uid = Number(/^Uid:\s+(\d+)/m.exec(readFileSync(`/proc/${pid}/status`, "utf8"))![1]);
+    const redisUid = Number(readFileSync("/etc/passwd", "utf8").split("\n").find((l) => l.startsWith("redis:"))!.split(":")[2]);
+    expect(uid).toBe(redisUid);
+    expect(statSync(join(process.env.TAPWRIGHT_REDIS_DIR!, "data")).uid).toBe(redisUid);
   });
 
   it("the same sweep on the embedded queue gives the same numbers", async () => {

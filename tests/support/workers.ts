@@ -10,6 +10,8 @@ const root = join(import.meta.dirname, "..", "..");
 export interface TestWorker {
   name: string;
   pid: number;
+  /** What the process has printed so far. */
+  output(): string;
   /** Ends the process with a signal (SIGKILL: as a crash would). */
   kill(signal: NodeJS.Signals): Promise<void>;
 }
@@ -24,8 +26,8 @@ export async function startWorker(name: string, env: Record<string, string> = {}
     env: { ...process.env, TAPWRIGHT_QUEUE: "bullmq", TAPWRIGHT_WORKERS: "1", TAPWRIGHT_JOB_LOCK_S: "3", TAPWRIGHT_WORKER_NAME: name, ...env },
     stdio: ["ignore", "pipe", "inherit"],
   });
+  let out = "";
   await new Promise<void>((resolve, reject) => {
-    let out = "";
     const timer = setTimeout(() => reject(new Error(`worker ${name} did not start: ${out}`)), 30_000);
     child.stdout!.on("data", (chunk: Buffer) => {
       out += chunk.toString();
@@ -39,10 +41,11 @@ export async function startWorker(name: string, env: Record<string, string> = {}
       reject(new Error(`worker ${name} exited (${code}): ${out}`));
     });
   });
-  child.stdout!.resume();
+  // The listener above keeps collecting what the worker prints (and keeps its pipe flowing).
   return {
     name,
     pid: child.pid!,
+    output: () => out,
     kill: (signal) =>
       new Promise<void>((resolve) => {
         if (child.exitCode !== null || child.signalCode !== null) return resolve();

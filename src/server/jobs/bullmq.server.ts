@@ -107,6 +107,8 @@ async function processJob(bullJob: BullJob<Payload>, owner: string): Promise<str
   const outcome = await runClaimed(claim, runInPool);
   // The engine refused: retrying gives the same answer, and the parent cannot be whole.
   if (outcome.kind === "failed") throw new UnrecoverableError(outcome.message);
+  // Said in the worker's log: a worker that was paused or cut off learns why its work was dropped.
+  if (outcome.kind === "fenced") console.log(`[tapwright] worker ${owner}: job ${id} was taken over by a newer attempt; this attempt's result was dropped.`);
   return outcome.kind;
 }
 
