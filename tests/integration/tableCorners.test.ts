@@ -5,7 +5,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eventually, signIn, type Client } from "../support/http";
 import { closeDb, unique } from "../fixtures/workspace";
-import { population, quickBudget, versionComputed, type Population } from "./handoff.fixture";
+import { population, versionComputed, type Population } from "./handoff.fixture";
+import { budget } from "../support/budget";
 
 let designer: Client;
 let pop: Population;
@@ -98,7 +99,7 @@ describe("tap tables at a sweep's corners", () => {
   it("refuses a sweep that does not exist, and corners that take this budget out of range", async () => {
     const base = { name: unique("Refused"), budgetId: pop.budgetId, architecture, grouping: { mode: "loss-bins", channelIds: pop.channelIds, edges_dB: [15] } };
     expect((await designer.send("POST", "/api/v1/tap-tables", { ...base, sweepId: 999999 })).status).toBe(404);
-    const shaky = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Shaky"), jitter: { rjRms_UI: 0.2, djPp_UI: 0.05 } });
+    const shaky = await designer.send("POST", "/api/v1/budgets", { ...budget(), name: unique("Shaky"), jitter: { rjRms_UI: 0.2, djPp_UI: 0.05 } });
     const wild = await designer.send("POST", "/api/v1/sweeps", { name: unique("Wild"), channelIds: pop.channelIds, budgetId: pop.budgetId, corners: [{ name: "nominal" }, { name: "jittery", jitterScale: 3 }] });
     const wildId = (await wild.json()).id;
     const r = await designer.send("POST", "/api/v1/tap-tables", { ...base, name: unique("Too shaky"), budgetId: (await shaky.json()).id, sweepId: wildId });

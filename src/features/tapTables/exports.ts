@@ -98,7 +98,8 @@ function toJson(m: ExportModel): string {
         engineVersion: m.engineVersion,
         budget: m.budget,
         architecture: m.architecture,
-        corners: m.corners ?? null,
+        // Only a version held at a sweep's corners names them; a nominal export stays as it was.
+        ...(m.corners ? { corners: m.corners } : {}),
         registerMap: m.registerMap,
         classes: m.classes.map((c) => ({
           index: c.index,
