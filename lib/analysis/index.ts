@@ -21,3 +21,5 @@ export * from "./phaseLaws.ts";
 export * from "./quantileBound.ts";
 export * from "./tailTilt.ts";
 export * from "./berConvention.ts";
+export * from "./dfeErrorPropagation.ts";
+export * from "./noisyDensityEye.ts";

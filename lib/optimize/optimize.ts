@@ -1,6 +1,7 @@
 // The joint optimizer's entry point: the best setting for a pulse under a budget, with the proof
 // (eye, headroom), the linear-only comparison, the verdict, the headroom surface and the top settings.
 import { eyeWidth } from "../analysis/bathtub.ts";
+import { type DfeErrorPropagation, dfeErrorPropagation } from "../analysis/dfeErrorPropagation.ts";
 import type { BudgetInput } from "../contract/budget.ts";
 import type { Pulse } from "../types.ts";
 import type { CtleChannel } from "./ctleChannel.ts";
@@ -42,6 +43,11 @@ export interface OptimizeResult extends SettingResult {
   /** The best setting without DFE (transmit FIR + CTLE only). */
   readonly linearOnly: SettingResult;
   readonly verdict: Verdict;
+  /**
+   * DFE error propagation at the chosen setting (its own decisions fed back; `dfeErrorPropagation`),
+   * or null when the setting has no DFE taps.
+   */
+  readonly errorPropagation: DfeErrorPropagation | null;
   /** Clocking used: scheme, tracking bandwidth, sampling policy and the jitter left at the sampler. */
   readonly clocking: {
     readonly scheme: string;
@@ -154,10 +160,11 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
 
   const fullCandidate: Candidate = { ...fullC, taps: full.taps, limiterHeadroom_V: full.eye.limiterHeadroom_V, eyeHeight_V: full.eye.eyeHeight_V };
   const linCandidate: Candidate = { ...linC, taps: linear.taps, limiterHeadroom_V: linear.eye.limiterHeadroom_V, eyeHeight_V: linear.eye.eyeHeight_V };
+  const propagation = full.eye.dfeTaps.length > 0 ? dfeErrorPropagation(full.eye.eye, full.eye.phase) : null;
   const v = verdict(
     space,
     { candidate: linCandidate, mainCursor_V: linear.eye.eye.main(linear.eye.phase), noiseRms_V: linear.channel.noiseRms_V },
-    { candidate: fullCandidate },
+    { candidate: fullCandidate, errorPropagation: propagation },
     fewest.taps,
   );
 
@@ -168,6 +175,7 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
     ...settingResult(space, full),
     linearOnly: settingResult(space, linear),
     verdict: v,
+    errorPropagation: propagation,
     clocking: {
       scheme: space.jitter.scheme,
       policy: space.policy,

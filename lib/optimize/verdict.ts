@@ -1,6 +1,7 @@
 // The verdict of a tuning run: is linear equalization (transmit FIR + CTLE) enough, and if not, why,
 // and how few DFE taps close the link.
 import { qFromBer } from "../analysis/ber.ts";
+import type { DfeErrorPropagation } from "../analysis/dfeErrorPropagation.ts";
 import type { Candidate } from "./jointSearch.ts";
 import type { SearchSpace } from "./searchSpace.ts";
 
@@ -47,7 +48,8 @@ export function eyeBudget(space: SearchSpace, candidate: Candidate, mainCursor_V
  * `requiredHeadroom_V` while the best with the budget's DFE reaches it. The reasons name, with
  * numbers: the shortfall; the noise floor (de-emphasis and the CTLE's DC attenuation bring the main
  * cursor down toward what the noise takes at the target BER); the residual ISI; the swing spent on
- * side taps; and what the DFE recovers.
+ * side taps; what the DFE recovers; and how much its error propagation raises the BER at the chosen
+ * setting (or that it is not modelled).
  *
  * @param space - the resolved budget.
  * @param linear - best setting without DFE (with its main cursor and noise at the limiter).
@@ -57,7 +59,7 @@ export function eyeBudget(space: SearchSpace, candidate: Candidate, mainCursor_V
 export function verdict(
   space: SearchSpace,
   linear: { candidate: Candidate; mainCursor_V: number; noiseRms_V: number },
-  full: { candidate: Candidate },
+  full: { candidate: Candidate; errorPropagation?: DfeErrorPropagation | null },
   fewestDfeTaps: number | null,
 ): Verdict {
   const required = space.budget.requiredHeadroom_V;
@@ -103,5 +105,23 @@ export function verdict(
       reasons.push(`Even with ${space.dfeCount} DFE taps the headroom is ${mV(dfe)}, short of the required ${mV(required)}: the link does not close with this budget.`);
     }
   }
+  const propagation = full.errorPropagation;
+  if (propagation) reasons.push(errorPropagationReason(propagation));
   return { linearReachExhausted: exhausted, reasons, fewestDfeTaps };
+}
+
+/** A bit error ratio as people write it: "3.2e-15". */
+const berText = (x: number) => x.toExponential(1).replace("e+", "e");
+
+/** The verdict's sentence on DFE error propagation (see `dfeErrorPropagation`). */
+export function errorPropagationReason(p: DfeErrorPropagation): string {
+  if (!p.modelled) return `DFE error propagation: ${p.reason}; the figures above assume correct decisions fed back.`;
+  if (p.factor === null) {
+    return "DFE error propagation: the BER at the chosen setting is below what double precision resolves, so its rise is not measured; the figures above assume correct decisions fed back.";
+  }
+  return (
+    `With error propagation the BER at the chosen setting rises ×${p.factor < 10 ? p.factor.toFixed(2) : p.factor.toPrecision(3)} ` +
+    `(from ${berText(p.berWithout)} to ${berText(p.berWith)} at the eye-centre threshold; the DFE's own decisions fed back, a Markov chain of its ${p.states} error states); ` +
+    "eye height and headroom assume correct decisions."
+  );
 }

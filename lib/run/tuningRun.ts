@@ -5,6 +5,8 @@ import { bathtub } from "../analysis/bathtub.ts";
 import { berContours } from "../analysis/berContours.ts";
 import { berMap } from "../analysis/berMap.ts";
 import { densityEye } from "../analysis/densityEye.ts";
+import { type DfeErrorPropagation, dfeErrorPropagation } from "../analysis/dfeErrorPropagation.ts";
+import { noisyDensityEye } from "../analysis/noisyDensityEye.ts";
 import { limiterNoise } from "../analysis/limiterNoise.ts";
 import { type StatisticalEye, statisticalEye } from "../analysis/statisticalEye.ts";
 import { symbolStream } from "../analysis/symbolStream.ts";
@@ -39,6 +41,8 @@ export interface EyeFigure {
   readonly samplingPhase_UI: number;
   /** Symbols folded into the image and where they came from. */
   readonly symbols: { readonly count: number; readonly source: string };
+  /** The noise and jitter folded into the image: the statistical eye's own (0 for none). */
+  readonly spread: { readonly noiseRms_V: number; readonly rjRms_UI: number; readonly djPp_UI: number };
 }
 
 /** Everything a tuning run's result page shows. */
@@ -100,7 +104,11 @@ function eyeFigure(pulse: Pulse, eye: StatisticalEye, phase: number, space: Sear
   const mod = space.modulation;
   const order = mod === "pam4" ? 13 : 9;
   const symbols = symbolStream(mod, { kind: "prbs", order });
-  const img = densityEye(pulse, symbols, { ...IMAGE, phase });
+  // The noise-free image first, for its peak; then the image again with room for 4 σ of noise, and
+  // the statistical eye's noise and jitter folded in, so the picture closes where the contours do.
+  const bare = densityEye(pulse, symbols, { ...IMAGE, phase });
+  const top = bare.voltage_V[0] + 0.5 * Math.abs(bare.voltage_V[0] - bare.voltage_V[1]) + 4 * eye.noiseRms_V;
+  const img = noisyDensityEye(densityEye(pulse, symbols, { ...IMAGE, phase, voltageRange_V: [-top, top] }), eye.noiseRms_V, eye.jitter);
   const spu = pulse.samplesPerUi;
   const phases = Float64Array.from(img.time_UI, (t) => phase + t * spu);
   const map = berMap(eye, phases, img.voltage_V);
@@ -113,7 +121,8 @@ function eyeFigure(pulse: Pulse, eye: StatisticalEye, phase: number, space: Sear
     image: {
       width: img.width,
       height: img.height,
-      counts: Array.from(img.counts),
+      // Expected hits to 1/100 (a cell below 0.005 hits is drawn empty).
+      counts: Array.from(img.counts, (c) => Math.round(c * 100) / 100),
       time_UI: Array.from(img.time_UI),
       voltage_V: Array.from(img.voltage_V),
     },
@@ -121,6 +130,7 @@ function eyeFigure(pulse: Pulse, eye: StatisticalEye, phase: number, space: Sear
     eyeHeight_V: eye.eyeHeight(phase, ber),
     samplingPhase_UI: phase / spu,
     symbols: { count: symbols.length, source: `PRBS${order}${mod === "pam4" ? " (Gray-coded PAM4)" : ""}` },
+    spread: { noiseRms_V: eye.noiseRms_V, rjRms_UI: eye.jitter?.rjRms_UI ?? 0, djPp_UI: eye.jitter?.djPp_UI ?? 0 },
   };
 }
 
@@ -145,7 +155,8 @@ function sampleAt(pulse: Pulse, time_UI: readonly number[]): number[] {
  * - Eye after: the equalized pulse (CTLE and transmit FIR) with the DFE's feedback drawn as one UI
  *   of `−d_k` per post-cursor around its sampling instant, so the time-domain image opens exactly
  *   where the statistical eye (DFE included) does.
- * - Density images fold a PRBS (PRBS9 NRZ, PRBS13 Gray-coded PAM4) over 2 UI, 128 × 96 cells; the
+ * - Density images fold a PRBS (PRBS9 NRZ, PRBS13 Gray-coded PAM4) over 2 UI, 128 × 96 cells, with
+ *   the statistical eye's noise (in voltage) and jitter (in time) folded in (`noisyDensityEye`); the
  *   contours are the statistical eye's BER at 1e-3, 1e-6, 1e-9, 1e-12, 1e-15 and the target.
  * - Adaptation: LMS of the DFE taps on the equalized cursors toward their closed form, and
  *   back-channel transmit training with the chosen CTLE.

@@ -13,6 +13,15 @@ interface Props {
 
 const mV = (v: number) => v * 1e3;
 
+/** The noise and jitter an image carries, in words ("1.50 mV rms noise, RJ 0.010 UI rms, DJ 0.050 UI"). */
+function spreadText(s: PackedEye["spread"]): string {
+  if (!s) return "noise and jitter not recorded by this engine version";
+  const parts = [`${mV(s.noiseRms_V).toFixed(2)} mV rms noise`];
+  if (s.rjRms_UI > 0 || s.djPp_UI > 0) parts.push(`RJ ${s.rjRms_UI.toFixed(3)} UI rms, DJ ${s.djPp_UI.toFixed(3)} UI`);
+  else parts.push("no jitter");
+  return parts.join(", ");
+}
+
 function span(a: readonly number[], b: readonly number[]): [number, number] {
   const step = Math.abs(a[1] - a[0]);
   const all = [...a, ...b];
@@ -31,8 +40,8 @@ export default function RunEyes(props: Props) {
     <section className="card" aria-label="Eyes">
       <h2>Eyes at the limiter</h2>
       <p className="help mt-1">
-        Density of a {after.symbols.source} stream ({after.symbols.count} symbols) folded over two UI; the lines are the statistical eye's BER
-        contours (noise and jitter included).
+        Density of a {after.symbols.source} stream ({after.symbols.count} symbols) folded over two UI, with the statistical eye's noise and jitter
+        folded in ({spreadText(after.spread)}); the lines are the statistical eye's BER contours from the same noise and jitter.
       </p>
       <label className="mt-2 flex items-center gap-2 text-sm text-ink-soft">
         <input type="checkbox" checked={sameScale} onChange={(e) => setSameScale(e.target.checked)} />

@@ -110,6 +110,32 @@ export function trainingSnr_dB(objective: number): number {
   return -10 * Math.log10(objective);
 }
 
+/** The sampling-phase policies with their names and what each one means (the run page's tooltips). */
+export const SAMPLING_POLICY_HELP: Record<"centre" | "max-height" | "mueller-muller", { label: string; help: string }> = {
+  centre: {
+    label: "Eye centre",
+    help: "Where the pulse is equal half a UI before and after the sample, p(t − ½UI) = p(t + ½UI): the point a bang-bang (Alexander) CDR locks to. The default for budgets and the eye command.",
+  },
+  "max-height": {
+    label: "Maximum height",
+    help: "The phase within ±½ UI with the tallest eye at the target BER: the best any clock could do, not a point a CDR locks to by itself.",
+  },
+  "mueller-muller": {
+    label: "Mueller–Müller",
+    help: "Where the first pre-cursor equals the first post-cursor, h(−1) = h(+1): the lock point of a baud-rate (Mueller–Müller) CDR.",
+  },
+};
+
+/** The DFE error-propagation row of the run page: the rise of the BER, or why it is not given. */
+export function errorPropagationText(p: TuningRunResult["optimize"]["errorPropagation"] | undefined): string {
+  if (p === undefined) return "not computed by this engine version";
+  if (p === null) return "no DFE taps";
+  if (!p.modelled) return `not modelled: ${p.reason}`;
+  if (p.factor === null) return "BER below double precision at the chosen setting; not measured";
+  const ber = (x: number) => x.toExponential(1).replace("e+", "e");
+  return `BER ×${p.factor < 10 ? p.factor.toFixed(2) : p.factor.toPrecision(3)} (${ber(p.berWithout)} → ${ber(p.berWith)} at the eye centre)`;
+}
+
 /** The eye's target BER as people write it: "1e-12". */
 export function formatBer(ber: number): string {
   return ber.toExponential(0).replace("e+", "e");
@@ -137,6 +163,8 @@ export interface PackedEye {
   contours: { log10Ber: number; paths: string[] }[];
   eyeHeight_V: number;
   symbols: { count: number; source: string };
+  /** The noise and jitter folded into the image (absent in results of engines before it was). */
+  spread?: { noiseRms_V: number; rjRms_UI: number; djPp_UI: number };
 }
 
 interface EyeLike {
@@ -144,14 +172,15 @@ interface EyeLike {
   contours: readonly { log10Ber: number; paths: readonly (readonly (readonly [number, number])[])[] }[];
   eyeHeight_V: number;
   symbols: { count: number; source: string };
+  spread?: { noiseRms_V: number; rjRms_UI: number; djPp_UI: number };
 }
 
-/** Packs an eye: counts as integers, times to 1/1000 UI, voltages to 10 µV. */
+/** Packs an eye: counts to 1/100 hit (noise spreads them over cells), times to 1/1000 UI, voltages to 10 µV. */
 export function packEye(e: EyeLike): PackedEye {
   return {
     width: e.image.width,
     height: e.image.height,
-    counts: packNumbers(e.image.counts, 0),
+    counts: packNumbers(e.image.counts, 2),
     time_UI: packNumbers(e.image.time_UI, 4),
     voltage_V: packNumbers(e.image.voltage_V, 6),
     contours: e.contours.map((c) => ({
@@ -160,6 +189,7 @@ export function packEye(e: EyeLike): PackedEye {
     })),
     eyeHeight_V: e.eyeHeight_V,
     symbols: e.symbols,
+    spread: e.spread,
   };
 }
 
@@ -178,6 +208,7 @@ export function unpackEye(p: PackedEye) {
     })),
     eyeHeight_V: p.eyeHeight_V,
     symbols: p.symbols,
+    spread: p.spread,
   };
 }
 
