@@ -121,6 +121,16 @@ describe("a tuning run in the browser", () => {
     const metrics = await page.getByTestId("metrics").textContent();
     for (const words of ["Eye height", "Eye width", "Limiter headroom", "Residual ISI", "CTLE noise gain", "Transmit FIR"]) expect(metrics).toContain(words);
     expect(await page.getByTestId("dfe-taps").locator("tbody tr").count()).toBe(5);
+    // Each sampling policy explains itself in a tooltip, the one used is marked; DFE error propagation
+    // has its row and its sentence in the verdict; the eyes say which noise and jitter they carry.
+    const policyRow = page.getByTestId("sampling-policy");
+    for (const key of ["centre", "max-height", "mueller-muller"]) {
+      await expect(policyRow.locator(`[data-policy="${key}"]`).getAttribute("title")).resolves.toMatch(/^.{60,}$/);
+    }
+    expect(await policyRow.locator('[aria-current="true"]').count()).toBe(1);
+    await expect(page.getByTestId("error-propagation").textContent()).resolves.toMatch(/BER ×\d|not modelled|not measured/);
+    await expect(page.getByTestId("verdict").textContent()).resolves.toMatch(/error propagation/i);
+    await expect(page.getByRole("region", { name: "Eyes" }).textContent()).resolves.toMatch(/mV rms noise/);
     await page.getByRole("img", { name: "Bathtub" }).waitFor();
     await page.getByRole("img", { name: "DFE tap trajectories" }).waitFor();
     await page.getByRole("img", { name: "Transmit tap trajectories" }).waitFor();

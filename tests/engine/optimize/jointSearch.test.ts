@@ -1,4 +1,5 @@
-// The branch-and-bound joint search against exhaustive evaluation of the grid (the oracle), its
+// The branch-and-bound joint search against exhaustive evaluation of the grid (the oracle, on a short
+// analytic channel and on a realistic lane whose 250+ cursors are mostly below the eye's grid step), its
 // bounds against exact eyes (fast-check), starting points and edges.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
@@ -16,6 +17,8 @@ import { jointSearch } from "@lib/optimize/jointSearch";
 import { prepareChannels } from "@lib/optimize/prepareChannels";
 import { startingPoints } from "@lib/optimize/search/startingPoints";
 import { searchSpace } from "@lib/optimize/searchSpace";
+import { pulseFromLossModel } from "@lib/channel/lossModel";
+import { trimPulse } from "@lib/pulse/trimPulse";
 import { cursorPulse } from "../analysis/helpers.ts";
 
 const ui = 1e-10;
@@ -93,6 +96,46 @@ describe("jointSearch — oracle: exhaustive evaluation of the grid", () => {
     const no = jointSearch(channel, space, { dfeCounts: [2], target_V: best + 1e-6 });
     expect(no.best[0]).toBeNull();
   });
+});
+
+describe("jointSearch — oracle on a realistic lane (250+ cursors, most of them below the law's step)", () => {
+  // The demo's 27 in lane at 28 Gb/s (synthetic loss model, invented data), kept as the app stores it.
+  const ui = 1 / 28e9;
+  const raw = pulseFromLossModel({ lossAtNyquist_dB: 28, delay_s: 3.8e-9 }, { ui_s: ui, samplesPerUi: 32 }).pulse;
+  const lane = trimPulse(raw, Math.min(16, Math.floor(raw.mainIndex / 32)), Math.min(240, Math.floor((raw.values_V.length - 1 - raw.mainIndex) / 32)));
+  const laneBudget = (jitter: boolean) => ({
+    modulation: "nrz" as const,
+    txSwing_Vppd: 0.8,
+    noiseRms_V: 0.0015,
+    limiterSensitivity_V: 0.015,
+    targetBer: 1e-12,
+    jitter: jitter ? { rjRms_UI: 0.01, djPp_UI: 0.05 } : undefined,
+    tx: { pre: 1, post: 1, step: 0.1 },
+    ctle: { gDc_dB: [-6, 0, 3] as [number, number, number], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 },
+    dfe: { taps: 5, limits_V: [0.1, 0.05, 0.05, 0.02, 0.02] },
+  });
+
+  it.each([false, true])("jitter %s: the best setting, every CTLE's optimum and the top 5 are those of exhaustive evaluation", (jit) => {
+    const space = searchSpace(lane, laneBudget(jit));
+    const prepared = prepareChannels(lane, space);
+    const r = jointSearch(lane, space, { dfeCounts: [5], topCount: 5 }, prepared);
+    const firs = [...enumerateTxFirs(space.firSpec)];
+    const all: number[] = [];
+    prepared.channels.forEach((ch, ci) => {
+      let local = Number.NEGATIVE_INFINITY;
+      for (const f of firs) {
+        const v = evaluateSetting(ch, space, f, 5).limiterHeadroom_V;
+        all.push(v);
+        local = Math.max(local, v);
+      }
+      const out = r.perCtle[0][ci];
+      if (out.exact) expect(out.best?.limiterHeadroom_V).toBe(local);
+      expect(local).toBeLessThanOrEqual(out.upperBound_V);
+    });
+    all.sort((a, b) => b - a);
+    expect(r.best[0]?.limiterHeadroom_V).toBe(all[0]);
+    expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 5));
+  }, 120_000); // the exhaustive oracle takes seconds on a busy machine: not a speed check
 });
 
 describe("headroom bounds", () => {
