@@ -5,7 +5,6 @@ import { bathtub } from "../analysis/bathtub.ts";
 import { berContours } from "../analysis/berContours.ts";
 import { berMap } from "../analysis/berMap.ts";
 import { densityEye } from "../analysis/densityEye.ts";
-import { type DfeErrorPropagation, dfeErrorPropagation } from "../analysis/dfeErrorPropagation.ts";
 import { noisyDensityEye } from "../analysis/noisyDensityEye.ts";
 import { limiterNoise } from "../analysis/limiterNoise.ts";
 import { type StatisticalEye, statisticalEye } from "../analysis/statisticalEye.ts";
