@@ -245,3 +245,28 @@ describe("roles on the channel routes", () => {
     expect(write.status).toBe(401);
   });
 });
+
+describe("input checks of Touchstone files", () => {
+  it("the preview and the stored channel judge a file that gains 8 % and stops at 20 GHz; a clean file passes; a CSV is not judged", async () => {
+    const designer = await signIn("designer");
+    const preview = await upload(designer, "/api/v1/channels/preview", "hot.s2p", files.hotShortS2p(), { bitRate_bps: String(BIT_RATE) });
+    expect(preview.status, await preview.clone().text()).toBe(200);
+    const q = (await preview.json()).quality;
+    expect(q).toMatchObject({ passive: false, reciprocal: true, causal: true, dcPoint: "extrapolated" });
+    expect(q.maxSingularValue).toBeCloseTo(1.08, 9);
+    expect(q.bandCoverage.baudRatio).toBeCloseTo(20e9 / BIT_RATE, 12);
+    expect(q.warnings.map((w: { code: string }) => w.code)).toEqual(["not-passive", "band-below-baud"]);
+    expect(q.warnings[1].message).toMatch(/0\.71× the baud rate: the pulse is band-limited by the file, not the channel/);
+
+    const res = await upload(designer, "/api/v1/channels", "hot.s2p", files.hotShortS2p(), { name: unique("Hot lane"), bitRate_bps: String(BIT_RATE) });
+    const { id } = await res.json();
+    const detail = await (await designer.get(`/api/v1/channels/${id}`)).json();
+    expect(detail.quality).toEqual(q);
+
+    const clean = await (await upload(designer, "/api/v1/channels/preview", "lane.s4p", files.s4p(18), { bitRate_bps: String(BIT_RATE), pairs: "1,2,3,4" })).json();
+    expect(clean.quality).toMatchObject({ passive: true, reciprocal: true, causal: true, warnings: [] });
+    expect(clean.quality.maxSingularValue).toBeLessThanOrEqual(1 + 1e-6);
+    const csv = await (await upload(designer, "/api/v1/channels/preview", "lane.csv", files.pulseCsv(), { bitRate_bps: String(BIT_RATE), kind: "pulse-csv" })).json();
+    expect(csv.quality).toBeNull();
+  });
+});

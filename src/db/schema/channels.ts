@@ -1,6 +1,7 @@
 // Programs (the product or board channels belong to), channels with their derived pulse response,
 // and the original upload kept byte for byte.
 import { customType, double, index, int, json, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
+import type { InputQuality } from "@lib/channel";
 import { channelKinds, type ChannelDerivation, type StoredCurve, type StoredPulse } from "@/features/channels/channels";
 import { timestamps } from "./columns";
 import { users } from "./auth";
@@ -34,6 +35,8 @@ export const channels = mysqlTable(
     mainCursor_V: double("main_cursor_v").notNull(),
     /** How the pulse was derived: the loss model, the port pairing, the response kind… */
     derivation: json("derivation").$type<ChannelDerivation>().notNull(),
+    /** The engine's judgement of an uploaded Touchstone file (passivity, causality, band…); null for other sources. */
+    quality: json("quality").$type<InputQuality | null>(),
     createdBy: varchar("created_by", { length: 36 }).references(() => users.id, { onDelete: "set null" }),
     ...timestamps,
   },

@@ -9,6 +9,7 @@ import { commonPairings, formatBytes, formatDb, type PortPairs } from "./channel
 import ChannelCharts from "./ChannelCharts";
 import AggressorCharts from "./AggressorCharts";
 import AggressorRows from "./AggressorRows";
+import QualityNotes from "./QualityNotes";
 import type { Modulation } from "@lib/types";
 
 const csvKinds: { value: CsvKind; label: string }[] = [
@@ -214,6 +215,9 @@ export default function UploadForm() {
             transfer={String(s.preview.derivation.transfer ?? "S21")}
             height={240}
           />
+          <div className="mt-3">
+            <QualityNotes quality={s.preview.quality} />
+          </div>
           {s.preview.aggressors.length > 0 && (
             <div className="mt-4" data-testid="preview-aggressors">
               <p className="mb-2 text-sm text-ink-soft">

@@ -10,6 +10,7 @@ import type { UploadedFile } from "@/server/http/body";
 import type { Download } from "@/server/http/download";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
+import type { InputQuality } from "@lib/channel";
 import type { Modulation } from "@lib/types";
 import type { ChannelDerivation, ChannelDetail, ChannelListItem, DerivedChannel, ListQuery } from "./channels";
 import type { AggressorView } from "./aggressors";
@@ -95,6 +96,7 @@ export async function saveChannel(
         lossAtNyquist_dB: derived.lossAtNyquist_dB,
         mainCursor_V: derived.mainCursor_V,
         derivation: derived.derivation,
+        quality: derived.quality,
         createdBy: user?.id ?? null,
       })
       .$returningId();
@@ -259,7 +261,7 @@ export async function channelChoices() {
 /** GET /api/v1/channels/:id. */
 export async function getChannel(id: number): Promise<ChannelDetail> {
   const [row] = await db
-    .select({ ...listColumns, pulse: channels.pulse, insertionLoss: channels.insertionLoss })
+    .select({ ...listColumns, pulse: channels.pulse, insertionLoss: channels.insertionLoss, quality: channels.quality })
     .from(channels)
     .innerJoin(programs, eq(programs.id, channels.programId))
     .leftJoin(users, eq(users.id, channels.createdBy))
@@ -279,7 +281,14 @@ export async function getChannel(id: number): Promise<ChannelDetail> {
     source: source ?? null,
     runCount: n,
     aggressors: await channelAggressorViews(id),
+    quality: row.quality ?? null,
   };
+}
+
+/** The judgement of a channel's uploaded file (null when none was judged or the channel is gone). */
+export async function channelQuality(id: number): Promise<InputQuality | null> {
+  const [row] = await db.select({ quality: channels.quality }).from(channels).where(eq(channels.id, id));
+  return row?.quality ?? null;
 }
 
 /** A channel's aggressors in upload order (without their files' bytes). */

@@ -2,6 +2,7 @@
 // and small presentation helpers. No server code here: islands import this file.
 import { z } from "zod";
 import { modulationSchema } from "@lib/contract/common";
+import type { InputQuality } from "@lib/channel";
 import type { Modulation } from "@lib/types";
 import { aggressorsField, aggressorSpecs, type AggressorView, type DerivedAggressor } from "./aggressors";
 
@@ -187,6 +188,8 @@ export interface ChannelDetail extends ChannelListItem {
   source: ChannelSourceInfo | null;
   runCount: number;
   aggressors: AggressorView[];
+  /** The judgement of the uploaded Touchstone file; null for other sources and older channels. */
+  quality: InputQuality | null;
 }
 
 /** What the engine derived from a file or a loss model (the preview, and what a channel stores). */
@@ -197,6 +200,8 @@ export interface DerivedChannel {
   lossAtNyquist_dB: number | null;
   mainCursor_V: number;
   derivation: ChannelDerivation;
+  /** The judgement of a Touchstone file (see lib/channel inputQuality); null for other sources. */
+  quality: InputQuality | null;
   /** The victim's aggressors (none for a lane alone). */
   aggressors: DerivedAggressor[];
 }

@@ -10,6 +10,7 @@ import {
   pulseFromTouchstone,
   readCsvResponse,
   type FrequencyPulse,
+  type InputQuality,
 } from "@lib/channel";
 import { integratedCrosstalkNoiseOfPulses, linkFromTouchstone, pulseFromCoupling, type CouplingModel } from "@lib/crosstalk";
 import { pulseFromJson, pulseToJson, trimPulse } from "@lib/pulse";
@@ -146,7 +147,7 @@ export function storedPulse(pulse: Pulse) {
   return { pulse: json, mainCursor_V: json.values_V[json.mainIndex] };
 }
 
-function fromFrequency(kind: ChannelKind, fp: FrequencyPulse, ui_s: number, derivation: ChannelDerivation): DerivedChannel {
+function fromFrequency(kind: ChannelKind, fp: FrequencyPulse, ui_s: number, derivation: ChannelDerivation, quality: InputQuality | null = null): DerivedChannel {
   const { pulse, mainCursor_V } = storedPulse(fp.pulse);
   return {
     kind,
@@ -155,6 +156,7 @@ function fromFrequency(kind: ChannelKind, fp: FrequencyPulse, ui_s: number, deri
     lossAtNyquist_dB: lossAt(fp.insertionLoss, 1 / (2 * ui_s)),
     mainCursor_V,
     derivation,
+    quality,
     aggressors: [],
   };
 }
@@ -192,6 +194,7 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
       if (bad) throw unusable(`pairs.${bad[0]} is port ${bad[1]}, but ${o.filename} has ${ports} ports.`, "pairs");
     }
     let fp: FrequencyPulse;
+    let quality: InputQuality;
     try {
       if (ports >= 8) {
         const link = linkFromTouchstone(text, {
@@ -201,11 +204,15 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
           aggressors: fromPorts.map(({ a, i }) => ({ kind: a.kind, p: (a as { p: number }).p, n: (a as { n: number }).n, name: aggressorName(a, i) })),
         });
         fp = link.victim;
+        quality = link.quality;
         link.aggressors.forEach((x, j) => {
           const { a } = fromPorts[j];
           multiPort.push(storedAggressor(x.name, x.kind, "ports", x.pulse, x.insertionLoss, { ports: { p: (a as { p: number }).p, n: (a as { n: number }).n } }));
         });
-      } else fp = pulseFromTouchstone(text, { ...grid, ports, pairs });
+      } else {
+        const tp = pulseFromTouchstone(text, { ...grid, ports, pairs });
+        [fp, quality] = [tp, tp.quality];
+      }
     } catch (e) {
       readerError(o.filename, e);
     }
@@ -214,7 +221,7 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
       source: "touchstone",
       ports,
       ...(pairs ? { pairs, transfer: "SDD21" } : { transfer: "S21" }),
-    });
+    }, quality);
   } else {
     const kind = o.kind ?? "pulse-csv";
     const response = kind === "step-csv" ? "step" : kind === "impulse-csv" ? "impulse" : "pulse";
@@ -228,7 +235,7 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
       readerError(o.filename, e);
     }
     const s = storedPulse(pulse);
-    derived = { kind, pulse: s.pulse, insertionLoss: null, lossAtNyquist_dB: null, mainCursor_V: s.mainCursor_V, derivation: { ...common, source: kind, response, rows }, aggressors: [] };
+    derived = { kind, pulse: s.pulse, insertionLoss: null, lossAtNyquist_dB: null, mainCursor_V: s.mainCursor_V, derivation: { ...common, source: kind, response, rows }, quality: null, aggressors: [] };
   }
   // The aggressors in the order given: pairs of this file, files of their own, coupling models.
   let nextPort = 0;

@@ -21,8 +21,10 @@ export interface BackplaneFileOptions {
 }
 
 /**
- * Touchstone text for the lane. 4-port: S31 = S42 = H, S32 = S41 = coupling·H, Sii = reflection,
- * reciprocal (S13 = S31, …), so SDD21 with pairs (1,2) → (3,4) is (1 − coupling)·H.
+ * Touchstone text for the lane. 4-port: S31 = S42 = H, S32 = S41 = k·H, Sii = r, reciprocal
+ * (S13 = S31, …), so SDD21 with pairs (1,2) → (3,4) is (1 − k)·H; k is `coupling` and r is
+ * `reflection` wherever the line's loss leaves room for them in a passive file (each column's
+ * magnitudes summing to at most 1), less at the lowest frequencies.
  */
 export function backplaneTouchstone(o: BackplaneFileOptions): string {
   const count = Math.floor(o.stop_Hz / o.step_Hz + 1e-9);
@@ -39,7 +41,12 @@ export function backplaneTouchstone(o: BackplaneFileOptions): string {
   };
   for (let f = 0; f < count; f++) {
     const [re, im] = [h.re[f], h.im[f]];
-    for (let p = 1; p <= n; p++) put(f, p, p, refl, 0);
+    // Passive by construction: every column's magnitudes sum to at most 1 (so no singular value of
+    // the symmetric S exceeds 1); where the line is nearly lossless, coupling and reflection shrink.
+    const mag = Math.hypot(re, im);
+    const kc = n === 2 ? 0 : Math.min(coupling, Math.max(0, (1 - mag) / mag));
+    const r = Math.min(refl, Math.max(0, 1 - mag * (1 + kc)));
+    for (let p = 1; p <= n; p++) put(f, p, p, r, 0);
     if (n === 2) {
       put(f, 2, 1, re, im);
       put(f, 1, 2, re, im);
@@ -48,8 +55,8 @@ export function backplaneTouchstone(o: BackplaneFileOptions): string {
     for (const [a, b, k] of [
       [3, 1, 1],
       [4, 2, 1],
-      [3, 2, coupling],
-      [4, 1, coupling],
+      [3, 2, kc],
+      [4, 1, kc],
     ] as const) {
       put(f, a, b, k * re, k * im);
       put(f, b, a, k * re, k * im);
