@@ -25,7 +25,7 @@ describe("input warnings in the browser", () => {
     await page.goto(`${baseUrl}/channels`);
     await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
     await page.getByLabel("Channel file", { exact: true }).setInputFiles({ name: `hot-${stamp}.s2p`, mimeType: "application/octet-stream", buffer: Buffer.from(files.hotShortS2p()) });
-    await page.getByRole("button", { name: "Preview first" }).click();
+    // A Touchstone file is previewed as soon as it is chosen.
     const warnings = page.getByTestId("upload-preview").getByTestId("input-warnings");
     await warnings.waitFor();
     await expect(warnings.textContent()).resolves.toMatch(/not passive: the largest singular value of S reaches 1\.0800/);

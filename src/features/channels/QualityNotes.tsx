@@ -9,7 +9,7 @@ const mhz = (f_Hz: number) => `${Number((f_Hz / 1e6).toPrecision(3))} MHz`;
 export function qualitySummary(q: InputQuality): string[] {
   return [
     `${q.passive ? "passive" : "not passive"} (largest singular value ${q.maxSingularValue.toFixed(4)})`,
-    `${q.reciprocal ? "reciprocal" : "not reciprocal"} (|S − Sᵀ| ≤ ${q.maxReciprocityError.toPrecision(2)})`,
+    `${q.reciprocal ? "reciprocal" : "not reciprocal"} (|S − Sᵀ| ≤ ${q.maxReciprocityError === 0 ? "0" : q.maxReciprocityError.toPrecision(2)})`,
     `${q.causal ? "causal" : "not causal"} (${(100 * q.preOnsetEnergy).toPrecision(2)} % of the energy before the onset)`,
     `data to ${ghz(q.bandCoverage.fmax_Hz)} (${q.bandCoverage.baudRatio.toFixed(2)}× the baud rate)`,
     `step ${mhz(q.frequencyStep.df_Hz)} (holds ${Number((q.frequencyStep.maxDelay_s * 1e9).toPrecision(3))} ns)`,
