@@ -1,6 +1,7 @@
 // The figures of one statistical eye that the `eye` command reports: where it is sampled, how tall
 // and wide it is at the target BER, and its bathtub.
 import { DEFAULT_SAMPLING_POLICY, samplingPhase, type SamplingPolicy } from "../clocking/samplingPhase.ts";
+import { type CrosstalkParts, crosstalkParts, type SampledAggressor } from "../crosstalk/crosstalkParts.ts";
 import type { Pulse } from "../types.ts";
 import { bathtub, eyeWidth } from "./bathtub.ts";
 import { type StatisticalEyeOptions, statisticalEye } from "./statisticalEye.ts";
@@ -17,23 +18,45 @@ export interface EyeAnalysis {
   readonly policy: SamplingPolicy;
   /** Error ratio over one UI around the sampling phase (phase in UI relative to `mainIndex`). */
   readonly bathtub: { readonly phase_UI: number[]; readonly log10Ber: number[] };
+  /** With aggressors: the crosstalk's rms (all and per aggressor, with its worst phase). */
+  readonly crosstalk?: { readonly rms_V: number; readonly perAggressor: CrosstalkParts["perAggressor"] };
+  /** With aggressors: the eye height of the same pulse without them (at its own sampling phase). */
+  readonly eyeHeightWithoutCrosstalk_V?: number;
 }
 
 /**
  * Statistical eye of a pulse (volts at the sampler, already equalized) at `targetBer`: sampling
  * phase by the policy within ±½ UI of `mainIndex`, vertical openings there, eye width from the
- * bathtub at the decision thresholds of that phase, and the bathtub itself (1 UI).
+ * bathtub at the decision thresholds of that phase, and the bathtub itself (1 UI). Aggressors (their
+ * crosstalk pulses at the same sampler, for a 1 V aggressor symbol) add their worst-phase parts to
+ * every law ({@link crosstalkParts}); the figures then include crosstalk, and the eye height without
+ * it is reported beside them.
  *
  * @param pulse - the pulse response in volts.
- * @param options - eye options plus the target bit error ratio and the policy (default "centre", as
- *   a budget's).
+ * @param options - eye options plus the target bit error ratio, the policy (default "centre", as
+ *   a budget's) and aggressors.
  */
 export function eyeAnalysis(
   pulse: Pulse,
-  options: StatisticalEyeOptions & { readonly targetBer: number; readonly policy?: SamplingPolicy },
+  options: StatisticalEyeOptions & { readonly targetBer: number; readonly policy?: SamplingPolicy; readonly aggressors?: readonly SampledAggressor[] },
 ): EyeAnalysis {
   const ber = options.targetBer;
   if (!(Number.isFinite(ber) && ber > 0 && ber < 0.25)) throw new RangeError(`targetBer must be a number in (0, 0.25), got ${String(ber)}`);
+  const aggressors = options.aggressors ?? [];
+  aggressors.forEach((a, i) => {
+    if (a.pulse.ui_s !== pulse.ui_s || a.pulse.samplesPerUi !== pulse.samplesPerUi) {
+      throw new RangeError(`aggressors[${i}].pulse must share the pulse's ui_s and samplesPerUi`);
+    }
+  });
+  if (aggressors.length > 0) {
+    const xt = crosstalkParts(aggressors, options.modulation);
+    const own = eyeAnalysis(pulse, { ...options, aggressors: [] });
+    return {
+      ...eyeAnalysis(pulse, { ...options, aggressors: [], extraParts_V: xt.parts_V }),
+      crosstalk: { rms_V: xt.rms_V, perAggressor: xt.perAggressor },
+      eyeHeightWithoutCrosstalk_V: own.eyeHeight_V,
+    };
+  }
   const eye = statisticalEye(pulse, options);
   const policy = options.policy ?? DEFAULT_SAMPLING_POLICY;
   const t = samplingPhase(eye, policy, ber);

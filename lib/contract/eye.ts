@@ -1,5 +1,6 @@
 // Request of the `eye` command: the statistical eye of an (already equalized) pulse.
 import { z } from "zod";
+import { eyeAggressorsSchema } from "./aggressor.ts";
 import { finiteNumber, modulationSchema, nonNegativeNumber, pulseSchema, samplingPolicySchema } from "./common.ts";
 
 /** Target BER accepted by the engine. */
@@ -14,8 +15,8 @@ export const eyeJitterSchema = z.object({
 });
 
 /**
- * `{ pulse, modulation, noiseRms_V, targetBer, jitter?, dfe?: { taps } }`; extensions: `policy`
- * (sampling-phase policy, default "centre" — the same default as a budget's clocking).
+ * `{ pulse, modulation, noiseRms_V, targetBer, jitter?, dfe?: { taps }, aggressors?: [{ pulse, name? }] }`;
+ * extensions: `policy` (sampling-phase policy, default "centre" — the same default as a budget's clocking).
  */
 export const eyeRequestSchema = z.object({
   pulse: pulseSchema,
@@ -32,6 +33,9 @@ export const eyeRequestSchema = z.object({
     .optional()
     .describe("tap k cancels post-cursor k at every phase (decisions assumed correct)"),
   policy: samplingPolicySchema,
+  aggressors: eyeAggressorsSchema
+    .optional()
+    .describe("crosstalk pulses at the same sampler (through the same receiver) for a 1 V aggressor symbol; each sampled at its worst phase"),
 });
 
 /** A validated request (defaults applied). */

@@ -14,3 +14,4 @@ export * from "./eye.ts";
 export * from "./optimize.ts";
 export * from "./population.ts";
 export * from "./registerField.ts";
+export * from "./aggressor.ts";

@@ -4,3 +4,4 @@ export * from "./couplingModel.ts";
 export * from "./crosstalkTransfers.ts";
 export * from "./integratedCrosstalkNoise.ts";
 export * from "./linkFromTouchstone.ts";
+export * from "./crosstalkParts.ts";

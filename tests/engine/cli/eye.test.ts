@@ -59,6 +59,20 @@ describe("eye command", () => {
     expect(noisy.eyeHeight_V).toBeLessThan(plain.eyeHeight_V);
   });
 
+  it("aggressors (shared/engine-cli.md, Crosstalk): the eye closes by their worst-phase parts; crosstalk and the eye without it are reported", () => {
+    const victim = pulse([0, 0.3, 0], 1);
+    const xt = { ...pulse([0, 0.02, 0.01, 0], 1), mainIndex: 16 };
+    const r = ok({ pulse: victim, noiseRms_V: 0, targetBer: 1e-12, aggressors: [{ pulse: xt, name: "lane 3 NEXT" }, { pulse: xt }] });
+    expect(r.eyeHeightWithoutCrosstalk_V).toBeCloseTo(0.6, 9);
+    expect(r.eyeHeight_V).toBeCloseTo(0.6 - 2 * 2 * 0.03, 3);
+    expect(r.crosstalk.perAggressor.map((a: { name: string }) => a.name)).toEqual(["lane 3 NEXT", "aggressor 2"]);
+    expect(r.crosstalk.rms_V).toBeCloseTo(Math.sqrt(2 * (0.02 ** 2 + 0.01 ** 2)), 12);
+    const none = ok({ pulse: victim, noiseRms_V: 0, targetBer: 1e-12 });
+    expect(none.crosstalk).toBeUndefined();
+    expect(bad({ pulse: victim, noiseRms_V: 0.001, aggressors: [{ pulse: { ...xt, samplesPerUi: 8 } }] }).path).toBe("aggressors.0");
+    expect(bad({ pulse: victim, noiseRms_V: 0.001, aggressors: [{}] }).path).toBe("aggressors.0.pulse");
+  });
+
   it("bad input exits 2 with a message naming the field", () => {
     expect(bad({ pulse: pulse([0, 0.3, 0], 1), noiseRms_V: -1 }).path).toBe("noiseRms_V");
     expect(bad({ pulse: pulse([0, 0.3, 0], 1), noiseRms_V: 0.01, targetBer: 0.5 }).path).toBe("targetBer");

@@ -1,0 +1,52 @@
+// Asynchronous aggressors as what the statistical eye convolves in: each one's crosstalk cursors at
+// its worst phase, as independent two-point parts, with the rms each adds.
+import { isiParts, PAM4_INNER_LEVEL } from "../analysis/isiParts.ts";
+import type { Modulation, Pulse } from "../types.ts";
+import { crosstalkRms, worstPhaseSampling } from "./aggressorSampling.ts";
+
+/** An aggressor at the victim's sampler: its crosstalk pulse for a 1 V aggressor symbol, and its name. */
+export interface SampledAggressor {
+  readonly name: string;
+  readonly pulse: Pulse;
+}
+
+/** The crosstalk of a set of aggressors at the victim's sampler. */
+export interface CrosstalkParts {
+  /** Two-point magnitudes (volts) of every aggressor's cursors, for the eye's `extraParts_V`. */
+  readonly parts_V: Float64Array;
+  /** Rms of all the crosstalk (powers add: the aggressors are independent), volts. */
+  readonly rms_V: number;
+  /** Per aggressor: its rms and its worst phase (UI from its crosstalk pulse's peak, in [−½, ½)). */
+  readonly perAggressor: { readonly name: string; readonly rms_V: number; readonly phase_UI: number }[];
+}
+
+/**
+ * Each aggressor sampled once per UI at its own worst phase ({@link worstPhaseSampling}) and turned
+ * into independent two-point parts (`isiParts`: one per cursor for NRZ, two for PAM4 of ideal levels):
+ * the aggressors' symbols are independent of the victim's and of each other and equiprobable, and
+ * their clocks are not the victim's, so no DFE cancels them and the victim's jitter does not move
+ * them. With no aggressors the parts are empty and the eye is unchanged.
+ *
+ * @param aggressors - crosstalk pulses at the sampler (same UI and samples per UI as the victim).
+ * @param modulation - the link's modulation (the aggressors use the same).
+ */
+export function crosstalkParts(aggressors: readonly SampledAggressor[], modulation: Modulation): CrosstalkParts {
+  if (!Array.isArray(aggressors)) throw new TypeError("aggressors must be an array");
+  const pieces: Float64Array[] = [];
+  let power = 0;
+  const perAggressor = aggressors.map((a, i) => {
+    if (a === null || typeof a !== "object") throw new TypeError(`aggressors[${i}] must be an object`);
+    const s = worstPhaseSampling(a.pulse);
+    pieces.push(isiParts(s.cursors, modulation, PAM4_INNER_LEVEL));
+    const rms_V = crosstalkRms(s.cursors, modulation);
+    power += rms_V * rms_V;
+    return { name: a.name, rms_V, phase_UI: s.phase_UI };
+  });
+  const parts_V = new Float64Array(pieces.reduce((n, p) => n + p.length, 0));
+  let at = 0;
+  for (const p of pieces) {
+    parts_V.set(p, at);
+    at += p.length;
+  }
+  return { parts_V, rms_V: Math.sqrt(power), perAggressor };
+}
