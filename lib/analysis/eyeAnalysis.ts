@@ -49,10 +49,11 @@ export function eyeAnalysis(
     }
   });
   if (aggressors.length > 0) {
-    const xt = crosstalkParts(aggressors, options.modulation);
+    const xt = crosstalkParts(aggressors, options.modulation, options.noiseRms_V);
     const own = eyeAnalysis(pulse, { ...options, aggressors: [] });
+    const noiseRms_V = Math.sqrt(options.noiseRms_V ** 2 + xt.lumpedVariance_V2);
     return {
-      ...eyeAnalysis(pulse, { ...options, aggressors: [], extraParts_V: xt.parts_V }),
+      ...eyeAnalysis(pulse, { ...options, noiseRms_V, aggressors: [], extraParts_V: xt.parts_V }),
       crosstalk: { rms_V: xt.rms_V, perAggressor: xt.perAggressor },
       eyeHeightWithoutCrosstalk_V: own.eyeHeight_V,
     };

@@ -10,10 +10,20 @@ export interface SampledAggressor {
   readonly pulse: Pulse;
 }
 
+/**
+ * Parts below `noiseRms_V / LUMP_DIVISOR` join the Gaussian noise with their variance: the tail's
+ * exponential rate is about `λ = Q/σ`, and a lumped part `m` misplaces its share of the tail's log
+ * moment generating function by at most `(λm)²/12` (Q ≈ 7 at 1e-12: under 0.4 %). Aggressors carry
+ * hundreds of such parts; lumping them keeps an eye with 8 aggressors as fast as one without.
+ */
+export const LUMP_DIVISOR = 32;
+
 /** The crosstalk of a set of aggressors at the victim's sampler. */
 export interface CrosstalkParts {
-  /** Two-point magnitudes (volts) of every aggressor's cursors, for the eye's `extraParts_V`. */
+  /** Two-point magnitudes (volts) of the aggressors' cursors that stay parts, for the eye's `extraParts_V`. */
   readonly parts_V: Float64Array;
+  /** Variance (V²) of the small parts joined to the Gaussian noise (see {@link LUMP_DIVISOR}). */
+  readonly lumpedVariance_V2: number;
   /** Rms of all the crosstalk (powers add: the aggressors are independent), volts. */
   readonly rms_V: number;
   /** Per aggressor: its rms and its worst phase (UI from its crosstalk pulse's peak, in [−½, ½)). */
@@ -25,13 +35,16 @@ export interface CrosstalkParts {
  * into independent two-point parts (`isiParts`: one per cursor for NRZ, two for PAM4 of ideal levels):
  * the aggressors' symbols are independent of the victim's and of each other and equiprobable, and
  * their clocks are not the victim's, so no DFE cancels them and the victim's jitter does not move
- * them. With no aggressors the parts are empty and the eye is unchanged.
+ * them. Parts far below the noise join it by their variance (central limit theorem; see
+ * {@link LUMP_DIVISOR}). With no aggressors the parts are empty and the eye is unchanged.
  *
  * @param aggressors - crosstalk pulses at the sampler (same UI and samples per UI as the victim).
  * @param modulation - the link's modulation (the aggressors use the same).
+ * @param noiseRms_V - the Gaussian noise at the sampler (0: nothing is lumped).
  */
-export function crosstalkParts(aggressors: readonly SampledAggressor[], modulation: Modulation): CrosstalkParts {
+export function crosstalkParts(aggressors: readonly SampledAggressor[], modulation: Modulation, noiseRms_V = 0): CrosstalkParts {
   if (!Array.isArray(aggressors)) throw new TypeError("aggressors must be an array");
+  if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0)) throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${String(noiseRms_V)}`);
   const pieces: Float64Array[] = [];
   let power = 0;
   const perAggressor = aggressors.map((a, i) => {
@@ -42,11 +55,14 @@ export function crosstalkParts(aggressors: readonly SampledAggressor[], modulati
     power += rms_V * rms_V;
     return { name: a.name, rms_V, phase_UI: s.phase_UI };
   });
-  const parts_V = new Float64Array(pieces.reduce((n, p) => n + p.length, 0));
-  let at = 0;
+  const threshold = noiseRms_V / LUMP_DIVISOR;
+  const kept: number[] = [];
+  let lumpedVariance_V2 = 0;
   for (const p of pieces) {
-    parts_V.set(p, at);
-    at += p.length;
+    for (const m of p) {
+      if (m >= threshold) kept.push(m);
+      else lumpedVariance_V2 += m * m;
+    }
   }
-  return { parts_V, rms_V: Math.sqrt(power), perAggressor };
+  return { parts_V: Float64Array.from(kept), lumpedVariance_V2, rms_V: Math.sqrt(power), perAggressor };
 }

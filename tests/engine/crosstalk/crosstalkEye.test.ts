@@ -3,7 +3,10 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { eyeAnalysis } from "@lib/analysis/eyeAnalysis";
-import { crosstalkParts } from "@lib/crosstalk";
+import { pulseFromLossModel } from "@lib/channel";
+import { crosstalkParts, pulseFromCoupling } from "@lib/crosstalk";
+import { createCtlePlan } from "@lib/equalizers";
+import { scalePulse, trimPulse } from "@lib/pulse";
 import type { Pulse } from "@lib/types";
 import { cursorPulse } from "../analysis/helpers";
 
@@ -141,6 +144,30 @@ describe("crosstalk in the statistical eye", () => {
       ),
       { seed: 17, numRuns: 40 },
     );
+  });
+
+  it("identity: lumping the aggressors' parts below σ/32 into the noise moves the eye by under 0.01 mV (8 aggressors through a CTLE)", () => {
+    const baud = 28e9;
+    const grid = { ui_s: 1 / baud, samplesPerUi: 32 };
+    const ctle = { fz_Hz: baud / 2.5, fp1_Hz: baud / 2.5, fp2_Hz: baud, gDc_dB: -3 };
+    const victim = trimPulse(scalePulse(createCtlePlan(pulseFromLossModel({ lossAtNyquist_dB: 8 }, grid).pulse).apply(ctle), 0.45), 8, 56);
+    const aggressors = Array.from({ length: 8 }, (_, k) => {
+      const model =
+        k % 2 === 0
+          ? { kind: "next" as const, backwardCoefficient: 0.0015 * (1 + k / 4), line: { lossAtNyquist_dB: 1, delay_s: 0.2e-9 } }
+          : { kind: "fext" as const, forwardCoupling_s: 0.3e-12 * (1 + k / 4), line: { lossAtNyquist_dB: 16, delay_s: 2e-9 } };
+      return { name: `a${k}`, pulse: trimPulse(scalePulse(createCtlePlan(pulseFromCoupling(model, grid).pulse).apply(ctle), 0.45), 16, 48) };
+    });
+    const opts = { ...base, noiseRms_V: 0.002, jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 } };
+    const lumped = eyeAnalysis(victim, { ...opts, aggressors });
+    const all = crosstalkParts(aggressors, "nrz"); // nothing lumped without noise
+    expect(all.lumpedVariance_V2).toBe(0);
+    const kept = crosstalkParts(aggressors, "nrz", 0.002);
+    expect(kept.parts_V.length).toBeLessThan(all.parts_V.length / 4);
+    const exact = eyeAnalysis(victim, { ...opts, extraParts_V: all.parts_V });
+    expect(lumped.eyeHeight_V).toBeGreaterThan(0.01);
+    expect(lumped.eyeHeight_V).toBeLessThan(lumped.eyeHeightWithoutCrosstalk_V! - 0.005);
+    expect(Math.abs(lumped.eyeHeight_V - exact.eyeHeight_V)).toBeLessThan(1e-5);
   });
 
   it("edges: an aggressor on another grid is refused", () => {
