@@ -30,6 +30,7 @@ export {
   type TopSetting,
 } from "./optimize.ts";
 export { type PreparedChannels, prepareChannels } from "./prepareChannels.ts";
+export { MAX_SEARCH_SIZE, type SearchSize, searchSize, searchSizeProblem } from "./searchSize.ts";
 export {
   bitsPerSymbol,
   CONTINUOUS_SCAFFOLD_STEP,

@@ -39,6 +39,18 @@ const envSchema = z.object({
   REDIS_URL: optionalText.pipe(z.url({ error: "REDIS_URL must be a URL, e.g. redis://:password@10.0.0.5:6379" }).optional()),
   TAPWRIGHT_JOB_LOCK_S: z.coerce.number({ error: "TAPWRIGHT_JOB_LOCK_S must be a number of seconds" }).min(2, "TAPWRIGHT_JOB_LOCK_S must be at least 2 s").max(3600).default(30),
   TAPWRIGHT_WORKER_NAME: optionalText,
+  TAPWRIGHT_JOB_TIME_LIMIT_S: z.coerce
+    .number({ error: "TAPWRIGHT_JOB_TIME_LIMIT_S must be a number of seconds" })
+    .min(1, "TAPWRIGHT_JOB_TIME_LIMIT_S must be at least 1 s")
+    .max(86_400, "TAPWRIGHT_JOB_TIME_LIMIT_S must be at most 86400 s (a day)")
+    .default(900),
+  TAPWRIGHT_WORKER_MEMORY_MB: z.coerce
+    .number({ error: "TAPWRIGHT_WORKER_MEMORY_MB must be a number of megabytes" })
+    .int("TAPWRIGHT_WORKER_MEMORY_MB must be a whole number of megabytes")
+    .min(8, "TAPWRIGHT_WORKER_MEMORY_MB must be at least 8")
+    .max(65_536)
+    .default(2048),
+  TAPWRIGHT_QUEUE_POLL_S: z.coerce.number({ error: "TAPWRIGHT_QUEUE_POLL_S must be a number of seconds" }).min(0.1).max(86_400).default(2),
   TAPWRIGHT_INVITE_LIMIT: z
     .string()
     .regex(/^\d+\/\d+$/, "TAPWRIGHT_INVITE_LIMIT must be attempts/window_s, e.g. 10/600")
@@ -95,7 +107,12 @@ export function parseConfig(env: Record<string, string | undefined>, cwd: string
      * Who runs long work: the embedded queue (MariaDB plus this process's worker pool) or BullMQ on
      * Redis (standalone workers started with `npm run worker`).
      */
-    queue: { backend: e.TAPWRIGHT_QUEUE, redisUrl: e.REDIS_URL, lock_s: e.TAPWRIGHT_JOB_LOCK_S, workerName: e.TAPWRIGHT_WORKER_NAME },
+    queue: { backend: e.TAPWRIGHT_QUEUE, redisUrl: e.REDIS_URL, lock_s: e.TAPWRIGHT_JOB_LOCK_S, workerName: e.TAPWRIGHT_WORKER_NAME, poll_s: e.TAPWRIGHT_QUEUE_POLL_S },
+    /**
+     * Bounds of one attempt at a job, whichever backend runs it: its wall time (past it the worker
+     * thread is terminated and the job failed) and each engine worker thread's heap.
+     */
+    jobs: { timeLimit_s: e.TAPWRIGHT_JOB_TIME_LIMIT_S, workerMemory_MB: e.TAPWRIGHT_WORKER_MEMORY_MB },
   };
 }
 

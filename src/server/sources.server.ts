@@ -2,7 +2,7 @@
 // inside the caller's transaction so that the copy and the work it starts agree.
 import { inArray, eq } from "drizzle-orm";
 import { budgetSchema, type Budget, type BudgetInput } from "@lib/contract/budget";
-import { searchSpace } from "@lib/optimize";
+import { searchSize, searchSizeProblem, searchSpace } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
 import { budgets, channelSources, channels } from "@/db/schema";
 import type { ChannelKind, StoredPulse } from "@/features/channels/channels";
@@ -75,9 +75,11 @@ export async function channelCopies(tx: DbOrTx, ids: readonly number[], path = "
 
 /**
  * Whether the engine accepts this budget for these channels (their symbol rate against the budget's
- * bit rate, the grids): 422 with the engine's message otherwise, before any job is queued.
+ * bit rate, the grids) and the search it asks for is within `MAX_SEARCH_SIZE` (with `members`
+ * channels searched together, a tap-table class): 422 with the engine's message otherwise, before
+ * any job is queued.
  */
-export function checkBudgetFits(budget: BudgetInput, name: string, list: readonly ChannelCopy[], path = "budgetId"): void {
+export function checkBudgetFits(budget: BudgetInput, name: string, list: readonly ChannelCopy[], path = "budgetId", { members = 1 } = {}): void {
   if (list.length === 0) return;
   try {
     searchSpace(pulseFromJson(list[0].pulse), budget);
@@ -87,6 +89,13 @@ export function checkBudgetFits(budget: BudgetInput, name: string, list: readonl
     }
     throw e;
   }
+  checkSearchSize(budget, list[0].pulse.samplesPerUi, members, path, name);
+}
+
+/** 422 saying what to coarsen when the budget's search (see `searchSize`) is past the limit. */
+export function checkSearchSize(budget: BudgetInput, samplesPerUi: number, members: number, path: string, name?: string): void {
+  const problem = searchSizeProblem(budget, searchSize(budget, { samplesPerUi, members }));
+  if (problem !== null) throw unprocessable(name === undefined ? problem : `The budget “${name}”: ${problem}`, path);
 }
 
 /** The channels without their pulses (for API answers: pulses are large). */

@@ -98,6 +98,20 @@ describe("a tuning run", () => {
     expect([after.runs, after.jobs, after.audit_events]).toEqual([before.runs, before.jobs, before.audit_events]);
   });
 
+  it("that is cancelled ends failed, says why on its page, and keeps its inputs", async () => {
+    const { id } = await (await designer.send("POST", "/api/v1/runs", { channelId: longLane, budgetId: nrzBudget })).json();
+    expect((await designer.send("POST", `/api/v1/runs/${id}/cancel`)).status).toBe(200);
+    const end = await finished(designer, id);
+    expect(end.status).toBe("failed");
+    expect(end.error?.message).toMatch(/^Cancelled by Tomas Ekwueme\.$/);
+    const run = await (await designer.get(`/api/v1/runs/${id}`)).json();
+    expect(run.result).toBeNull();
+    expect(run.error.message).toBe(end.error?.message);
+    expect(run.inputs.channel.pulse.values_V.length).toBeGreaterThan(0);
+    const page = await designer.get(`/runs/${id}`);
+    expect(await page.text()).toContain("Cancelled by Tomas Ekwueme");
+  });
+
   it("is refused up front when the channel or budget does not exist, leaving nothing behind", async () => {
     const before = await rowCounts();
     const noChannel = await designer.send("POST", "/api/v1/runs", { channelId: 999999, budgetId: nrzBudget });

@@ -8,6 +8,8 @@ import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { budgetSchema, type Budget } from "@lib/contract/budget";
 import type { BudgetRequest, BudgetView } from "./budgets";
+import { checkSearchSize } from "@/server/sources.server";
+import { SAMPLES_PER_UI } from "@/features/channels/channels";
 
 const columns = {
   id: budgets.id,
@@ -34,7 +36,10 @@ function toView(r: Pick<BudgetRow, "id" | "name" | "description" | "params" | "c
 function split(body: BudgetRequest): { name: string; description: string | null; params: Budget } {
   const { name, description, ...rest } = body;
   // Parse again so that what is stored is exactly the engine's Budget (defaults filled, nothing extra).
-  return { name, description: description || null, params: budgetSchema.parse(rest) };
+  const params = budgetSchema.parse(rest);
+  // A search too large for any channel is refused at once (channels are stored at SAMPLES_PER_UI).
+  checkSearchSize(params, SAMPLES_PER_UI, 1, "tx");
+  return { name, description: description || null, params };
 }
 
 const isDuplicate = (e: unknown) => (e as { cause?: { code?: string }; code?: string })?.cause?.code === "ER_DUP_ENTRY" || (e as { code?: string })?.code === "ER_DUP_ENTRY";

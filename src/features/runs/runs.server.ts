@@ -5,7 +5,7 @@ import { and, count, desc, eq, sql, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
 import { budgets, channels, jobs, runs, users } from "@/db/schema";
 import type { JobStatus } from "@/features/jobs/jobs";
-import { apiStatus, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
+import { apiStatus, cancelJobFor, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
@@ -108,6 +108,14 @@ export async function rerun(user: SessionUser, runId: number) {
   });
   startJobs(await runJobId(id));
   return { id, status: "queued" as const };
+}
+
+/** Cancels a queued or running run: it ends failed, "Cancelled by <name>.", and keeps its inputs; 409 once finished. */
+export async function cancelRun(user: SessionUser, runId: number) {
+  const [row] = await db.select({ jobId: runs.jobId }).from(runs).where(eq(runs.id, runId));
+  if (!row) throw notFound(`Run ${runId}`);
+  const out = await cancelJobFor(row.jobId, user, "run", (tx) => recordAudit(tx, user, "run.cancel", "run", runId));
+  return { id: runId, ...out };
 }
 
 const listColumns = {

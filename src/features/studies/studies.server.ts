@@ -6,7 +6,7 @@ import { db, type Tx } from "@/server/db.server";
 import { budgets, jobs, studies, users, type Study } from "@/db/schema";
 import { conflict, notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
-import { apiStatus, enqueueJob, jobStatus, registerJobKind, startJobs } from "@/server/jobs/queue.server";
+import { apiStatus, cancelJobFor, enqueueJob, jobStatus, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { defaultCandidates } from "./architecture";
 import { budgetCopy, channelCopies, checkBudgetFits, withoutPulses } from "@/server/sources.server";
@@ -103,6 +103,12 @@ export async function getStudy(id: number) {
     createdBy: await personName(study.createdBy),
     createdAt: study.createdAt,
   };
+}
+
+/** Cancels a queued or running study: it ends failed, "Cancelled by <name>."; 409 once finished. */
+export async function cancelStudy(user: SessionUser, id: number) {
+  const { study } = await studyRow(db, id);
+  return { id, ...(await cancelJobFor(study.jobId, user, "study", (tx) => recordAudit(tx, user, "study.cancel", "study", id))) };
 }
 
 /** Number of studies (the overview's count). */

@@ -7,7 +7,7 @@ import { db, type Tx } from "@/server/db.server";
 import { channels, jobs, programs, sweepChannels, sweepResults, sweeps, users, type Job, type SweepResult } from "@/db/schema";
 import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
-import { apiStatus, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
+import { apiStatus, cancelJobFor, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { budgetCopy, channelSourceText, checkBudgetFits, checkOneRate } from "@/server/sources.server";
 import { needsTouchstone } from "@/features/channels/lossCorners";
@@ -132,6 +132,12 @@ async function progressOf(sweepId: number, pairCount: number, job: Job) {
     total: pairCount,
     timeLeft_s: job.status === "done" ? 0 : timeLeft_s(done, pairCount, elapsed_s),
   };
+}
+
+/** Cancels a sweep that has not finished, with every batch not yet done: it ends failed, "Cancelled by <name>."; 409 once finished. */
+export async function cancelSweep(user: SessionUser, id: number) {
+  const { sweep } = await sweepRow(id);
+  return { id, ...(await cancelJobFor(sweep.jobId, user, "sweep", (tx) => recordAudit(tx, user, "sweep.cancel", "sweep", id))) };
 }
 
 /** GET /api/v1/sweeps/:id?fields=status: only the progress (cheap polling). */

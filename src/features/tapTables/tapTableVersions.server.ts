@@ -84,7 +84,6 @@ function versionInputs(
   const map = registerMap ?? defaultRegisterMap(arch.architecture, budget.budget);
   checkRegisterMap(map, arch.architecture, budget.budget);
   const derived = budgetForArchitecture(budget.budget, arch.architecture);
-  checkBudgetFits(derived, budget.name, [...chans.values()]);
   for (const c of corners?.corners ?? []) {
     try {
       cornerBudget(derived, c);
@@ -100,6 +99,9 @@ function versionInputs(
     if (e instanceof GroupingError) throw unprocessable(e.message, e.path);
     throw e;
   }
+  // A class default is one search over the class's channels together: the largest class counts.
+  const members = Math.max(1, ...classes.map((c) => c.channels.length));
+  checkBudgetFits(derived, budget.name, [...chans.values()], "budgetId", { members });
   return {
     budget: { id: budget.id, name: budget.name, params: budget.params },
     architecture: arch.architecture,

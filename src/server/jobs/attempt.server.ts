@@ -9,6 +9,7 @@ import { jobs, type Job } from "@/db/schema";
 import type { JobKind } from "@/features/jobs/jobs";
 import { config } from "../config.server";
 import { handlerFor } from "./kinds.server";
+import { logError } from "../http/logError";
 
 /** Attempts a job gets before it is failed for good (workers that died under it count). */
 export const MAX_ATTEMPTS = 3;
@@ -22,8 +23,11 @@ export interface Claim {
 /** How an attempt ended: stored, failed (the engine refused: no retry), or fenced off by a newer attempt. */
 export type Outcome = { kind: "done"; parentQueued: number | null } | { kind: "failed"; message: string } | { kind: "fenced" };
 
-/** Computes one job's result off the event loop (the piscina pool), reporting progress 0…1. */
-export type Compute = (kind: JobKind, input: unknown, onProgress: (p: number) => void) => Promise<unknown>;
+/**
+ * Computes one job's result off the event loop (the piscina pool), reporting progress 0…1; `signal`
+ * aborts it (the worker thread computing it is terminated).
+ */
+export type Compute = (kind: JobKind, input: unknown, onProgress: (p: number) => void, signal: AbortSignal) => Promise<unknown>;
 
 const lockExpiry = () => sql`NOW(3) + INTERVAL ${Math.round(config.queue.lock_s * 1e6)} MICROSECOND`;
 
@@ -50,19 +54,23 @@ async function takeRow(tx: Tx, job: Job, owner: string): Promise<Claim | null> {
 
 /**
  * The embedded dispatcher's claim: the oldest queued job, or a running one whose lock lapsed (its
- * process died), skipping rows another dispatcher is claiming.
+ * process died), skipping rows another dispatcher is claiming. A job out of attempts is failed on
+ * the way, and the claim goes on to the next one (so one exhausted job never stalls the queue).
  */
 export async function claimNext(owner: string): Promise<Claim | null> {
-  return db.transaction(async (tx) => {
-    const [job] = await tx
-      .select()
-      .from(jobs)
-      .where(and(eq(jobs.queue, "embedded"), or(eq(jobs.status, "queued"), and(eq(jobs.status, "running"), lt(jobs.lockedUntil, sql`NOW(3)`)))))
-      .orderBy(asc(jobs.id))
-      .limit(1)
-      .for("update", { skipLocked: true });
-    return job ? takeRow(tx, job, owner) : null;
-  });
+  for (;;) {
+    const taken = await db.transaction(async (tx) => {
+      const [job] = await tx
+        .select()
+        .from(jobs)
+        .where(and(eq(jobs.queue, "embedded"), or(eq(jobs.status, "queued"), and(eq(jobs.status, "running"), lt(jobs.lockedUntil, sql`NOW(3)`)))))
+        .orderBy(asc(jobs.id))
+        .limit(1)
+        .for("update", { skipLocked: true });
+      return job ? ((await takeRow(tx, job, owner)) ?? ("exhausted" as const)) : null;
+    });
+    if (taken !== "exhausted") return taken;
+  }
 }
 
 /**
@@ -78,25 +86,81 @@ export async function claimJob(id: number, owner: string): Promise<Claim | null>
   });
 }
 
-/** Turns an engine error into a sentence for the person who started the job. */
-function reason(e: unknown): string {
+/** Why an attempt was stopped from outside its computation. */
+type Stop =
+  /** The row is no longer this attempt's (cancelled, failed, or taken over): leave it alone. */
+  | { kind: "lost" }
+  /** The attempt could not renew its lease: end it; the lock lapses and the job is tried again. */
+  | { kind: "heartbeat"; error: unknown }
+  /** The attempt ran past the wall-time limit: the job fails (it would run as long again). */
+  | { kind: "time"; limit_s: number };
+
+/** This process's attempts in progress, by job id: how to stop each (a cancel asked for here). */
+const inProgress = new Map<number, (stop: Stop) => void>();
+
+/**
+ * Stops this process's attempt at a job at once (its worker thread is terminated), when it runs
+ * here; the row must already say why (a cancel commits first). Attempts elsewhere notice at their
+ * next heartbeat, which finds the row no longer theirs.
+ */
+export function stopLocalAttempt(jobId: number): void {
+  inProgress.get(jobId)?.({ kind: "lost" });
+}
+
+/** A duration for a message: "90 s", "15 min". */
+function formatLimit(s: number): string {
+  return s < 120 ? `${Math.round(s)} s` : `${Math.round(s / 60)} min`;
+}
+
+/** Turns an engine error (or the end of its worker) into a sentence for the person who started the job. */
+export function failureReason(e: unknown): string {
+  const code = (e as { code?: unknown } | null)?.code;
+  if (code === "ERR_WORKER_OUT_OF_MEMORY") {
+    return `The engine ran out of memory (each worker may use ${config.jobs.workerMemory_MB} MB of heap) and its worker was stopped and replaced. Coarsen the budget's grids (a larger transmit FIR step, fewer taps, a coarser CTLE grid) or use fewer channels.`;
+  }
   const message = e instanceof Error ? e.message : String(e);
+  if (code === "ERR_WORKER_INIT_FAILED" || /worker (thread )?exited|terminat/i.test(message)) {
+    return `The engine's worker stopped unexpectedly (${message}) and was replaced; start the job again, and tell an admin if it happens again.`;
+  }
   return message.length > 0 ? message : "The engine stopped without saying why.";
 }
 
 /**
- * Runs a claimed attempt to its end. The engine's refusals fail the job (they would fail again);
- * a failure to store the result (the database went away) is thrown, so the attempt's lock lapses
- * and the job is tried again.
+ * Runs a claimed attempt to its end. The engine's refusals fail the job (they would fail again), as
+ * do a worker that crashed or ran out of memory and an attempt past the wall-time limit (its worker
+ * thread is terminated and replaced). A heartbeat that finds the row no longer this attempt's (a
+ * cancel, a takeover) stops the computation and leaves the row alone. A heartbeat or a store that
+ * fails (the database went away) is logged and thrown, so the attempt's lock lapses and the job is
+ * tried again.
  */
 export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcome> {
   const { job, token } = claim;
   const handler = handlerFor(job.kind);
-  const mine = and(eq(jobs.id, job.id), eq(jobs.lockToken, token));
+  const mine = and(eq(jobs.id, job.id), eq(jobs.lockToken, token), eq(jobs.status, "running"));
+  const controller = new AbortController();
+  const attempt: { stopped: Stop | null } = { stopped: null };
+  const stop = (why: Stop) => {
+    if (attempt.stopped !== null) return;
+    attempt.stopped = why;
+    controller.abort();
+  };
+  inProgress.set(job.id, stop);
+  const limit_s = config.jobs.timeLimit_s;
+  const deadline = setTimeout(() => stop({ kind: "time", limit_s }), limit_s * 1000);
   const heartbeat = setInterval(() => {
-    void db.update(jobs).set({ lockedUntil: lockExpiry() }).where(mine).catch(() => {});
+    db.update(jobs)
+      .set({ lockedUntil: lockExpiry() })
+      .where(mine)
+      .then((r) => {
+        if (r[0].affectedRows === 0) stop({ kind: "lost" });
+      })
+      .catch((e) => {
+        logError(`job ${job.id} (${job.kind}): heartbeat failed, ending the attempt`, e);
+        stop({ kind: "heartbeat", error: e });
+      });
   }, (config.queue.lock_s * 1000) / 3);
   let lastWrite = 0;
+  let progressFailed = false;
   const started = performance.now();
   try {
     let result: unknown;
@@ -108,10 +172,26 @@ export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcom
         lastWrite = now;
         // Progress never goes back (a retried attempt, a parent whose children brought it far).
         const p = Math.min(0.99, Math.max(0, progress));
-        void db.update(jobs).set({ progress: sql`GREATEST(${jobs.progress}, ${p})` }).where(mine).catch(() => {});
-      });
+        db.update(jobs)
+          .set({ progress: sql`GREATEST(${jobs.progress}, ${p})` })
+          .where(mine)
+          .catch((e) => {
+            // Progress is advisory: the heartbeat decides whether the attempt goes on. Logged once.
+            if (!progressFailed) logError(`job ${job.id} (${job.kind}): progress not stored`, e);
+            progressFailed = true;
+          });
+      }, controller.signal);
     } catch (e) {
-      return await failAttempt(claim, reason(e));
+      const why = attempt.stopped;
+      if (why?.kind === "lost") return { kind: "fenced" };
+      if (why?.kind === "heartbeat") throw why.error;
+      if (why?.kind === "time") {
+        return await failAttempt(
+          claim,
+          `The job ran longer than its limit of ${formatLimit(why.limit_s)} and was stopped. Coarsen the budget's grids (a larger transmit FIR step, fewer taps, a coarser CTLE grid) or use fewer channels, then start it again.`,
+        );
+      }
+      return await failAttempt(claim, failureReason(e));
     }
     const compute_ms = Math.round(performance.now() - started);
     return await closeAttempt(claim, async (tx) => {
@@ -119,7 +199,9 @@ export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcom
       await tx.update(jobs).set({ status: "done", progress: 1, finishedAt: sql`NOW(3)`, compute_ms, lockedBy: null, lockedUntil: null }).where(eq(jobs.id, job.id));
     });
   } finally {
+    clearTimeout(deadline);
     clearInterval(heartbeat);
+    inProgress.delete(job.id);
   }
 }
 
@@ -201,5 +283,37 @@ export async function failJob(id: number, message: string): Promise<void> {
   await db.transaction(async (tx) => {
     const [job] = await tx.select().from(jobs).where(eq(jobs.id, id)).for("update");
     if (job && job.status !== "done" && job.status !== "failed") await failInTx(tx, job, message);
+  });
+}
+
+/** How a cancel ended: the job (and its children) failed with the message, or it had already finished. */
+export type CancelOutcome = { cancelled: true; jobIds: number[] } | { cancelled: false; status: "done" | "failed" };
+
+/**
+ * Cancels a job that has not finished, whichever backend holds it: the job fails with `message`
+ * (its target too, and a parent it is a share of), and so do its children that have not finished.
+ * Attempts computing them see at their next heartbeat that the rows are no longer theirs and stop
+ * (their worker threads are terminated); `stopLocalAttempt` stops this process's at once. `also`
+ * runs in the same transaction (the audit event).
+ */
+export async function cancelJob(id: number, message: string, also?: (tx: Tx) => Promise<void>): Promise<CancelOutcome> {
+  return db.transaction(async (tx): Promise<CancelOutcome> => {
+    const [job] = await tx.select().from(jobs).where(eq(jobs.id, id)).for("update");
+    if (!job) throw new Error(`job ${id} has gone`);
+    if (job.status === "done" || job.status === "failed") return { cancelled: false, status: job.status };
+    const children = await tx
+      .select({ id: jobs.id })
+      .from(jobs)
+      .where(and(eq(jobs.parentId, id), inArray(jobs.status, ["queued", "waiting", "running"])))
+      .for("update");
+    if (children.length > 0) {
+      await tx
+        .update(jobs)
+        .set({ status: "failed", error: message.slice(0, 2000), finishedAt: sql`NOW(3)`, lockedBy: null, lockedUntil: null })
+        .where(inArray(jobs.id, children.map((c) => c.id)));
+    }
+    await failInTx(tx, job, message);
+    await also?.(tx);
+    return { cancelled: true, jobIds: [id, ...children.map((c) => c.id)] };
   });
 }

@@ -12,6 +12,7 @@ import { jobs, type Job } from "@/db/schema";
 import { config } from "../config.server";
 import { claimJob, failJob, MAX_ATTEMPTS, runClaimed } from "./attempt.server";
 import { runInPool } from "./pool.server";
+import { logError } from "../http/logError";
 
 /** The one BullMQ queue every kind of job goes through (the kind is the BullMQ job's name). */
 export const QUEUE_NAME = "tapwright-jobs";
@@ -47,7 +48,7 @@ function logErrors<T extends { on(event: "error", fn: (e: Error) => void): unkno
       quiet++;
       return;
     }
-    console.error(`[tapwright] ${what}: ${e.message}${quiet ? ` (and ${quiet} more since)` : ""}`);
+    logError(`${what}${quiet ? ` (and ${quiet} more errors since)` : ""}`, e);
     last = now;
     quiet = 0;
   });
@@ -135,7 +136,7 @@ export function startDistributedWorker(name: string, concurrency: number): Distr
   worker.on("failed", (job, err) => {
     if (!job) return;
     const final = err instanceof UnrecoverableError || err.name === "UnrecoverableError" || job.attemptsMade >= (job.opts.attempts ?? 1) || /stalled/i.test(err.message);
-    if (final) void failJob(job.data.jobId, err.message).catch((e) => console.error(`[tapwright] job ${job.data.jobId}:`, e));
+    if (final) void failJob(job.data.jobId, err.message).catch((e) => logError(`job ${job.data.jobId}: could not be marked failed`, e));
   });
   logErrors(worker, `worker ${name}`);
   return {
@@ -194,7 +195,7 @@ export function startReconciler(every_s = 15): void {
       .then((r) => {
         if (r.republished || r.failed) console.log(`[tapwright] reconciler: ${r.republished} job(s) handed to the queue again, ${r.failed} failed`);
       })
-      .catch((e) => console.error("[tapwright] reconciler:", e.message));
+      .catch((e) => logError("reconciler", e));
   reconciler ??= setInterval(tick, every_s * 1000);
   reconciler.unref();
   tick();

@@ -6,6 +6,8 @@ import { randomUUID } from "node:crypto";
 import { hostname } from "node:os";
 import { claimNext, runClaimed } from "./attempt.server";
 import { runInPool, workerCount } from "./pool.server";
+import { config } from "../config.server";
+import { logError } from "../http/logError";
 
 const OWNER = `${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`;
 let active = 0;
@@ -21,23 +23,23 @@ export async function pumpEmbedded(): Promise<void> {
       if (!claim) break;
       active++;
       void runClaimed(claim, runInPool)
-        .catch((e) => console.error(`[tapwright] job ${claim.job.id} (${claim.job.kind}) could not be closed; it will be tried again:`, e))
+        .catch((e) => logError(`job ${claim.job.id} (${claim.job.kind}) could not be closed; it will be tried again once its lock lapses`, e))
         .finally(() => {
           active--;
           void pumpEmbedded();
         });
     }
   } catch (e) {
-    console.error("[tapwright] job queue:", e);
+    logError("job queue", e);
   } finally {
     pumping = false;
   }
 }
 
 let timer: NodeJS.Timeout | undefined;
-/** Polls the queue every two seconds (jobs queued by other processes, lapsed locks). */
+/** Polls the queue every `TAPWRIGHT_QUEUE_POLL_S` (2 s): jobs queued by other processes, lapsed locks. */
 export function startEmbeddedDispatcher(): void {
-  timer ??= setInterval(() => void pumpEmbedded(), 2000).unref();
+  timer ??= setInterval(() => void pumpEmbedded(), config.queue.poll_s * 1000).unref();
   void pumpEmbedded();
 }
 

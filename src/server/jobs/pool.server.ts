@@ -30,16 +30,21 @@ function thePool(): Piscina {
     filename: workerFile(),
     maxThreads: workerCount,
     idleTimeout: 60_000,
+    // A thread past its heap ends with ERR_WORKER_OUT_OF_MEMORY (its job fails) and piscina starts another.
+    resourceLimits: { maxOldGenerationSizeMb: config.jobs.workerMemory_MB },
   });
   return pool;
 }
 
-/** Runs one job in a worker; `onProgress` hears 0…1 as the engine reports it. */
-export async function runInPool(kind: JobKind, input: unknown, onProgress: (p: number) => void): Promise<unknown> {
+/**
+ * Runs one job in a worker; `onProgress` hears 0…1 as the engine reports it. Aborting `signal`
+ * terminates the thread computing it (piscina starts a fresh one for the next task).
+ */
+export async function runInPool(kind: JobKind, input: unknown, onProgress: (p: number) => void, signal: AbortSignal): Promise<unknown> {
   const { port1, port2 } = new MessageChannel();
   port1.on("message", (p: number) => onProgress(p));
   try {
-    return await thePool().run({ kind, input, port: port2 }, { transferList: [port2] });
+    return await thePool().run({ kind, input, port: port2 }, { transferList: [port2], signal });
   } finally {
     port1.close();
   }

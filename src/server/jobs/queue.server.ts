@@ -3,11 +3,14 @@
 // backend (the default) runs them in this web server's worker pool; with TAPWRIGHT_QUEUE=bullmq they
 // go to BullMQ on Redis for standalone workers. The rows in MariaDB carry status and progress either way.
 import { count, eq, inArray } from "drizzle-orm";
-import { db, type DbOrTx } from "../db.server";
+import { db, type DbOrTx, type Tx } from "../db.server";
 import { jobs, type Job } from "@/db/schema";
 import type { ApiJobStatus, JobKind, JobStatus } from "@/features/jobs/jobs";
 import { config } from "../config.server";
 import { embeddedWorker, pumpEmbedded, startEmbeddedDispatcher } from "./embedded.server";
+import { cancelJob, stopLocalAttempt } from "./attempt.server";
+import { conflict } from "../http/errors";
+import { logError } from "../http/logError";
 
 export { registerJobKind, type JobHandler } from "./kinds.server";
 
@@ -41,7 +44,25 @@ export function startJobs(rootId: number): void {
   }
   void import("./bullmq.server")
     .then((b) => b.publishJob(rootId))
-    .catch((e) => console.error(`[tapwright] job ${rootId} stays queued until the reconciler hands it over:`, e.message));
+    .catch((e) => logError(`job ${rootId} stays queued until the reconciler hands it over`, e));
+}
+
+/**
+ * Cancels a job that has not finished (and its children), for the person who asked: the job fails
+ * with "Cancelled by <name>." and any attempt computing it is stopped (here at once, elsewhere at
+ * its next heartbeat). 409 when the job has already finished.
+ */
+export async function cancelJobFor(
+  jobId: number,
+  by: { name: string },
+  what: string,
+  also?: (tx: Tx) => Promise<void>,
+): Promise<{ status: "failed"; error: { message: string } }> {
+  const message = `Cancelled by ${by.name}.`;
+  const out = await cancelJob(jobId, message, also);
+  if (!out.cancelled) throw conflict(`The ${what} has already ${out.status === "done" ? "finished" : "failed"}; there is nothing to cancel.`);
+  for (const id of out.jobIds) stopLocalAttempt(id);
+  return { status: "failed", error: { message } };
 }
 
 /** Starts this web server's share of the work: the embedded dispatcher (nothing with BullMQ: workers compute). */

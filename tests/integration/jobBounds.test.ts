@@ -1,0 +1,161 @@
+// Engine jobs are bounded: a search past the size limit is refused (422, saying what to coarsen) when
+// a budget is saved and whenever a run, study, sweep or tap table starts; a job past its wall time,
+// or whose worker runs out of memory, is stopped and failed with the reason, and the pool goes on
+// with the next job in a fresh worker; the embedded queue goes on pumping after it fails a job that
+// is out of attempts.
+import mysql from "mysql2/promise";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eventually, signIn, type Client } from "../support/http";
+import { freePort, startServer, type TestServer } from "../support/server";
+import { finished, rowCounts, unique } from "../fixtures/workspace";
+import { population, quickBudget, type Population } from "./handoff.fixture";
+// The start and test scripts' own helpers: a private database for the queue test.
+import { settings } from "../../scripts/lib/config.mjs";
+import { ensureDatabase } from "../../scripts/lib/mariadb.mjs";
+import { migrate } from "../../scripts/lib/migrate.mjs";
+
+let db: mysql.Pool;
+let designer: Client;
+let pop: Population;
+const servers: TestServer[] = [];
+
+const query = async <T = Record<string, unknown>>(sql: string, params: unknown[] = []) => (await db.query(sql, params))[0] as T[];
+
+/** A search past the limit for any channel: 2 pre, 4 post taps at 0.01 (1.8e10 FIR settings). */
+const hugeTx = { pre: 2, post: 4, step: 0.01 };
+
+async function server(env: Record<string, string>): Promise<{ server: TestServer; designer: Client }> {
+  const s = await startServer(await freePort(), env);
+  servers.push(s);
+  return { server: s, designer: await signIn("designer", undefined, s.base) };
+}
+
+async function startRun(client: Client, channelId: number, budgetId: number): Promise<number> {
+  const res = await client.send("POST", "/api/v1/runs", { channelId, budgetId });
+  expect(res.status, await res.clone().text()).toBe(202);
+  return (await res.json()).id;
+}
+
+beforeAll(async () => {
+  db = mysql.createPool({ uri: process.env.DATABASE_URL!, connectionLimit: 2 });
+  designer = await signIn("designer");
+  pop = await population(designer, [8, 20, 30]);
+});
+afterAll(async () => {
+  await Promise.all(servers.map((s) => s.stop()));
+  await db?.end();
+});
+
+describe("the search size", () => {
+  it("is checked when a budget is saved: past the limit it is refused, saying what to coarsen, and nothing is stored", async () => {
+    const before = await rowCounts();
+    const res = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Huge"), tx: hugeTx });
+    expect(res.status).toBe(422);
+    const body = await res.json();
+    expect(body.error.path).toBe("tx");
+    expect(body.error.message).toMatch(/^The search is too large: 4 CTLE settings × 1\.8e10 transmit FIR settings \(2 pre, 4 post taps at step 0\.01\) × 32 sampling phases = 2\.3e12, above the limit of 1\.0e10\./);
+    expect(body.error.message).toMatch(/Coarsen it: a transmit FIR step of 0\.04 or more/);
+    expect((await rowCounts()).budgets).toBe(before.budgets);
+  });
+
+  it("is checked again when a run, a study or a sweep starts (a budget stored before the limit): 422, nothing queued", async () => {
+    const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Grown") });
+    const budgetId = (await b.json()).id;
+    await query("UPDATE budgets SET params = JSON_SET(params, '$.tx', JSON_OBJECT('pre', 2, 'post', 4, 'step', 0.01)) WHERE id = ?", [budgetId]);
+    const before = await rowCounts();
+    const channelIds = pop.channelIds.slice(0, 1);
+    for (const [path, body] of [
+      ["/api/v1/runs", { channelId: channelIds[0], budgetId }],
+      ["/api/v1/studies", { name: unique("Huge study"), channelIds, budgetId }],
+      ["/api/v1/sweeps", { name: unique("Huge sweep"), channelIds, budgetId, corners: [{ name: "nominal" }] }],
+    ] as const) {
+      const res = await designer.send("POST", path, body);
+      expect(res.status, path).toBe(422);
+      const { error } = await res.json();
+      expect(error.path, path).toBe("budgetId");
+      expect(error.message, path).toMatch(/The search is too large: .* Coarsen it: a transmit FIR step of 0\.04 or more/);
+    }
+    const after = await rowCounts();
+    expect([after.runs, after.jobs]).toEqual([before.runs, before.jobs]);
+  });
+
+  it("counts a tap-table class's channels together: each channel alone fits, the class of three does not", async () => {
+    // 13 CTLE settings × 26⁵ FIR settings × 32 phases = 4.9e9 for one channel (saved), × 3 = 1.5e10 for the class.
+    const tx = { pre: 1, post: 4, step: 0.02 };
+    const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Wide FIR"), tx, ctle: { ...quickBudget.ctle, gDc_dB: [-12, 0, 1] } });
+    expect(b.status, await b.clone().text()).toBe(201);
+    const budgetId = (await b.json()).id;
+    const [before] = await query<{ n: number }>("SELECT COUNT(*) AS n FROM tap_tables");
+    const res = await designer.send("POST", "/api/v1/tap-tables", {
+      name: unique("Too wide"),
+      budgetId,
+      architecture: { key: "tx-ctle", label: "TX FIR + CTLE", tx: { pre: 1, post: 4 }, ctle: true, dfeTaps: 0, ffe: null },
+      grouping: { mode: "manual", classes: [{ name: "All", channelIds: pop.channelIds }] },
+    });
+    expect(res.status, await res.clone().text()).toBe(422);
+    expect((await res.json()).error.message).toMatch(/× 3 channels together = 1\.5e10, above the limit of 1\.0e10\. Coarsen it: .*fewer channels per class/);
+    const [after] = await query<{ n: number }>("SELECT COUNT(*) AS n FROM tap_tables");
+    expect(after.n).toBe(before.n);
+  });
+});
+
+describe("a job past its bounds", () => {
+  it("past its wall-time limit is stopped and failed with the reason; the pool takes the next job in a fresh worker", async () => {
+    // A search of minutes (1 pre, 3 post taps at 0.02 over 13 CTLE settings, with jitter) against a limit of 1 s.
+    const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Runaway"), tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...quickBudget.ctle, gDc_dB: [-12, 0, 1] } });
+    const budgetId = (await b.json()).id;
+    const here = await server({ TAPWRIGHT_JOB_TIME_LIMIT_S: "1", TAPWRIGHT_WORKERS: "1" });
+    const channelId = pop.channelIds.at(-1)!;
+    for (const id of [await startRun(here.designer, channelId, budgetId), await startRun(here.designer, channelId, budgetId)]) {
+      const end = await finished(designer, id, 60_000);
+      expect(end.status).toBe("failed");
+      expect(end.error?.message).toMatch(/^The job ran longer than its limit of 1 s and was stopped\. Coarsen the budget's grids/);
+    }
+  }, 120_000);
+
+  it("whose worker runs out of memory fails with the reason; the next job gets a fresh worker", async () => {
+    const here = await server({ TAPWRIGHT_WORKER_MEMORY_MB: "8", TAPWRIGHT_WORKERS: "1" });
+    for (const id of [await startRun(here.designer, pop.channelIds[0], pop.budgetId), await startRun(here.designer, pop.channelIds[0], pop.budgetId)]) {
+      const end = await finished(designer, id, 60_000);
+      expect(end.status).toBe("failed");
+      expect(end.error?.message).toMatch(/^The engine ran out of memory \(each worker may use 8 MB of heap\) and its worker was stopped and replaced\./);
+      const run = await (await designer.get(`/api/v1/runs/${id}`)).json();
+      expect(run.inputs.channel.pulse.values_V.length).toBeGreaterThan(0);
+    }
+  }, 120_000);
+});
+
+describe("the embedded queue", () => {
+  it("goes on to the next job after failing one that is out of attempts", async () => {
+    // A database of its own, so that only this server's dispatcher sees its queue, which it polls
+    // only once an hour: the run is computed only if the same pass goes on after the failed job.
+    const cfg = settings("test");
+    const name = `${cfg.db.name}_pump`;
+    const url = new URL(process.env.DATABASE_URL!);
+    url.pathname = `/${name}`;
+    await ensureDatabase({ ...cfg.db, name }, { fresh: true });
+    await migrate(url.toString());
+    const own = await mysql.createConnection({ uri: url.toString() });
+    try {
+      const [run] = await query<{ inputs: unknown }>("SELECT inputs FROM runs WHERE channel_id = ? ORDER BY id LIMIT 1", [pop.channelIds[0]]);
+      const inputs = run ?? (await query<{ inputs: unknown }>("SELECT inputs FROM runs ORDER BY id LIMIT 1"))[0];
+      const [exhausted] = await own.query("INSERT INTO jobs (kind, target_id, status, attempts) VALUES ('run', 0, 'queued', 3)");
+      const [job] = await own.query("INSERT INTO jobs (kind, target_id, status) VALUES ('run', 0, 'queued')");
+      const jobId = (job as { insertId: number }).insertId;
+      const [r] = await own.query("INSERT INTO runs (job_id, inputs) VALUES (?, ?)", [jobId, JSON.stringify(typeof inputs.inputs === "string" ? JSON.parse(inputs.inputs) : inputs.inputs)]);
+      await own.query("UPDATE jobs SET target_id = ? WHERE id = ?", [(r as { insertId: number }).insertId, jobId]);
+      const s = await startServer(await freePort(), { DATABASE_URL: url.toString(), TAPWRIGHT_QUEUE_POLL_S: "3600" });
+      servers.push(s);
+      const status = async (id: number) => ((await own.query("SELECT status, error FROM jobs WHERE id = ?", [id]))[0] as { status: string; error: string | null }[])[0];
+      await eventually(async () => ((await status(jobId)).status === "done" ? true : undefined), 60_000, "the run after the exhausted job to be computed");
+      const failed = await status((exhausted as { insertId: number }).insertId);
+      expect(failed.status).toBe("failed");
+      expect(failed.error).toMatch(/stopped 3 times before it could finish/);
+      await s.stop();
+    } finally {
+      await own.end();
+      const root = await mysql.createConnection({ uri: process.env.DATABASE_URL! });
+      await root.query(`DROP DATABASE IF EXISTS \`${name}\``).finally(() => root.end());
+    }
+  }, 120_000);
+});
