@@ -1,8 +1,9 @@
 // Engine jobs are bounded: a search past the size limit is refused (422, saying what to coarsen) when
 // a budget is saved and whenever a run, study, sweep or tap table starts; a job past its wall time,
 // or whose worker runs out of memory, is stopped and failed with the reason, and the pool goes on
-// with the next job in a fresh worker; the embedded queue goes on pumping after it fails a job that
-// is out of attempts.
+// with the next job in a fresh worker (a fresh pool when workers die while starting); a heartbeat
+// that keeps failing is logged and ends the attempt; the embedded queue goes on pumping after it
+// fails a job that is out of attempts.
 import mysql from "mysql2/promise";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eventually, signIn, type Client } from "../support/http";
@@ -24,23 +25,72 @@ const query = async <T = Record<string, unknown>>(sql: string, params: unknown[]
 /** A search past the limit for any channel: 2 pre, 4 post taps at 0.01 (1.8e10 FIR settings). */
 const hugeTx = { pre: 2, post: 4, step: 0.01 };
 
-async function server(env: Record<string, string>): Promise<{ server: TestServer; designer: Client }> {
-  const s = await startServer(await freePort(), env);
-  servers.push(s);
-  return { server: s, designer: await signIn("designer", undefined, s.base) };
+interface PrivateQueue {
+  /** Queues a run of these inputs (`attempts` already spent) straight into the private database. */
+  queueRun(inputs: unknown, attempts?: number): Promise<number>;
+  status(jobId: number): Promise<{ status: string; error: string | null; attempts: number }>;
+  query(sql: string): Promise<unknown>;
+  /** Starts a web server on the private database (its dispatcher is the only one that sees it). */
+  start(env: Record<string, string>): Promise<TestServer>;
+  drop(): Promise<void>;
 }
 
-async function startRun(client: Client, channelId: number, budgetId: number): Promise<number> {
-  const res = await client.send("POST", "/api/v1/runs", { channelId, budgetId });
-  expect(res.status, await res.clone().text()).toBe(202);
-  return (await res.json()).id;
+let databases = 0;
+/**
+ * A database of its own, so that only the server started on it computes its jobs (the suite's
+ * server, without the limits under test, would otherwise claim some of them).
+ */
+async function privateQueue(): Promise<PrivateQueue> {
+  const cfg = settings("test");
+  const name = `${cfg.db.name}_bounds${++databases}`;
+  const url = new URL(process.env.DATABASE_URL!);
+  url.pathname = `/${name}`;
+  await ensureDatabase({ ...cfg.db, name }, { fresh: true });
+  await migrate(url.toString());
+  const own = await mysql.createConnection({ uri: url.toString() });
+  return {
+    async queueRun(inputs, attempts = 0) {
+      const [job] = await own.query("INSERT INTO jobs (kind, target_id, status, attempts) VALUES ('run', 0, 'queued', ?)", [attempts]);
+      const jobId = (job as { insertId: number }).insertId;
+      const [r] = await own.query("INSERT INTO runs (job_id, inputs) VALUES (?, ?)", [jobId, JSON.stringify(inputs)]);
+      await own.query("UPDATE jobs SET target_id = ? WHERE id = ?", [(r as { insertId: number }).insertId, jobId]);
+      return jobId;
+    },
+    async status(jobId) {
+      return ((await own.query("SELECT status, error, attempts FROM jobs WHERE id = ?", [jobId]))[0] as { status: string; error: string | null; attempts: number }[])[0];
+    },
+    query: (sql) => own.query(sql),
+    async start(env) {
+      const s = await startServer(await freePort(), { DATABASE_URL: url.toString(), ...env });
+      servers.push(s);
+      return s;
+    },
+    async drop() {
+      await own.end();
+      const root = await mysql.createConnection({ uri: process.env.DATABASE_URL! });
+      await root.query(`DROP DATABASE IF EXISTS \`${name}\``).finally(() => root.end());
+    },
+  };
 }
+
+const settled = (q: PrivateQueue, jobId: number) =>
+  eventually(async () => {
+    const s = await q.status(jobId);
+    return s.status === "done" || s.status === "failed" ? s : undefined;
+  }, 90_000, `job ${jobId} to finish`);
+
+/** The inputs of a run of the quick budget, computed by the suite's server (a real copy of a channel and a budget). */
+let quickInputs: { channel: unknown; budget: { id: number; name: string; params: Record<string, unknown> } };
 
 beforeAll(async () => {
   db = mysql.createPool({ uri: process.env.DATABASE_URL!, connectionLimit: 2 });
   designer = await signIn("designer");
   pop = await population(designer, [8, 20, 30]);
-});
+  const res = await designer.send("POST", "/api/v1/runs", { channelId: pop.channelIds[0], budgetId: pop.budgetId });
+  const { id } = await res.json();
+  expect((await finished(designer, id)).status).toBe("done");
+  quickInputs = (await (await designer.get(`/api/v1/runs/${id}`)).json()).inputs;
+}, 120_000);
 afterAll(async () => {
   await Promise.all(servers.map((s) => s.stop()));
   await db?.end();
@@ -101,61 +151,78 @@ describe("the search size", () => {
 
 describe("a job past its bounds", () => {
   it("past its wall-time limit is stopped and failed with the reason; the pool takes the next job in a fresh worker", async () => {
-    // A search of minutes (1 pre, 3 post taps at 0.02 over 13 CTLE settings, with jitter) against a limit of 1 s.
-    const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Runaway"), tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...quickBudget.ctle, gDc_dB: [-12, 0, 1] } });
-    const budgetId = (await b.json()).id;
-    const here = await server({ TAPWRIGHT_JOB_TIME_LIMIT_S: "1", TAPWRIGHT_WORKERS: "1" });
-    const channelId = pop.channelIds.at(-1)!;
-    for (const id of [await startRun(here.designer, channelId, budgetId), await startRun(here.designer, channelId, budgetId)]) {
-      const end = await finished(designer, id, 60_000);
-      expect(end.status).toBe("failed");
-      expect(end.error?.message).toMatch(/^The job ran longer than its limit of 1 s and was stopped\. Coarsen the budget's grids/);
+    // A search of minutes (1 pre, 3 post taps at 0.02 over 13 CTLE settings) against a limit of 1 s.
+    const params = { ...quickInputs.budget.params, tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...quickBudget.ctle, gDc_dB: [-12, 0, 1] } };
+    const q = await privateQueue();
+    try {
+      const ids = [await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } }), await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } })];
+      const s = await q.start({ TAPWRIGHT_JOB_TIME_LIMIT_S: "1", TAPWRIGHT_WORKERS: "1" });
+      for (const id of ids) {
+        const end = await settled(q, id);
+        expect(end.status).toBe("failed");
+        expect(end.error).toMatch(/^The job ran longer than its limit of 1 s and was stopped\. Coarsen the budget's grids/);
+      }
+      await s.stop();
+    } finally {
+      await q.drop();
     }
-  }, 120_000);
+  }, 180_000);
 
   it("whose worker runs out of memory fails with the reason; the next job gets a fresh worker", async () => {
-    const here = await server({ TAPWRIGHT_WORKER_MEMORY_MB: "8", TAPWRIGHT_WORKERS: "1" });
-    for (const id of [await startRun(here.designer, pop.channelIds[0], pop.budgetId), await startRun(here.designer, pop.channelIds[0], pop.budgetId)]) {
-      const end = await finished(designer, id, 60_000);
-      expect(end.status).toBe("failed");
-      expect(end.error?.message).toMatch(/^The engine ran out of memory \(each worker may use 8 MB of heap\) and its worker was stopped and replaced\./);
-      const run = await (await designer.get(`/api/v1/runs/${id}`)).json();
-      expect(run.inputs.channel.pulse.values_V.length).toBeGreaterThan(0);
+    const q = await privateQueue();
+    try {
+      const ids = [await q.queueRun(quickInputs), await q.queueRun(quickInputs)];
+      const s = await q.start({ TAPWRIGHT_WORKER_MEMORY_MB: "8", TAPWRIGHT_WORKERS: "1" });
+      for (const id of ids) {
+        const end = await settled(q, id);
+        expect(end.status).toBe("failed");
+        expect(end.error).toMatch(/^The engine ran out of memory \(each worker may use 8 MB of heap\) and its worker was stopped and replaced\./);
+      }
+      await s.stop();
+    } finally {
+      await q.drop();
     }
-  }, 120_000);
+  }, 180_000);
+});
+
+describe("a heartbeat that fails", () => {
+  it("is logged and ends the attempt (its worker stopped), and the job is taken again once the lease lapses", async () => {
+    // A search of minutes; leases of 2 s renewed every ⅔ s. While the column the heartbeat writes
+    // is renamed away, renewals fail; two in a row end the attempt, which frees the only worker.
+    const params = { ...quickInputs.budget.params, tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...quickBudget.ctle, gDc_dB: [-12, 0, 1] } };
+    const q = await privateQueue();
+    try {
+      const id = await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } });
+      const s = await q.start({ TAPWRIGHT_JOB_LOCK_S: "2", TAPWRIGHT_WORKERS: "1", TAPWRIGHT_JOB_TIME_LIMIT_S: "120" });
+      await eventually(async () => ((await q.status(id)).status === "running" ? true : undefined), 30_000, "the run to start");
+      await q.query("ALTER TABLE jobs RENAME COLUMN locked_until TO locked_until_away");
+      await new Promise((r) => setTimeout(r, 3000));
+      await q.query("ALTER TABLE jobs RENAME COLUMN locked_until_away TO locked_until");
+      await eventually(async () => ((await q.status(id)).attempts >= 2 ? true : undefined), 30_000, "the run to be taken again");
+      expect(s.stderr()).toMatch(new RegExp(`job ${id} \\(run\\): heartbeat failed, ending the attempt`));
+      await s.stop();
+    } finally {
+      await q.drop();
+    }
+  }, 180_000);
 });
 
 describe("the embedded queue", () => {
   it("goes on to the next job after failing one that is out of attempts", async () => {
-    // A database of its own, so that only this server's dispatcher sees its queue, which it polls
-    // only once an hour: the run is computed only if the same pass goes on after the failed job.
-    const cfg = settings("test");
-    const name = `${cfg.db.name}_pump`;
-    const url = new URL(process.env.DATABASE_URL!);
-    url.pathname = `/${name}`;
-    await ensureDatabase({ ...cfg.db, name }, { fresh: true });
-    await migrate(url.toString());
-    const own = await mysql.createConnection({ uri: url.toString() });
+    // Its dispatcher polls only once an hour: the run is computed only if the pass that fails the
+    // exhausted job goes on to the next one.
+    const q = await privateQueue();
     try {
-      const [run] = await query<{ inputs: unknown }>("SELECT inputs FROM runs WHERE channel_id = ? ORDER BY id LIMIT 1", [pop.channelIds[0]]);
-      const inputs = run ?? (await query<{ inputs: unknown }>("SELECT inputs FROM runs ORDER BY id LIMIT 1"))[0];
-      const [exhausted] = await own.query("INSERT INTO jobs (kind, target_id, status, attempts) VALUES ('run', 0, 'queued', 3)");
-      const [job] = await own.query("INSERT INTO jobs (kind, target_id, status) VALUES ('run', 0, 'queued')");
-      const jobId = (job as { insertId: number }).insertId;
-      const [r] = await own.query("INSERT INTO runs (job_id, inputs) VALUES (?, ?)", [jobId, JSON.stringify(typeof inputs.inputs === "string" ? JSON.parse(inputs.inputs) : inputs.inputs)]);
-      await own.query("UPDATE jobs SET target_id = ? WHERE id = ?", [(r as { insertId: number }).insertId, jobId]);
-      const s = await startServer(await freePort(), { DATABASE_URL: url.toString(), TAPWRIGHT_QUEUE_POLL_S: "3600" });
-      servers.push(s);
-      const status = async (id: number) => ((await own.query("SELECT status, error FROM jobs WHERE id = ?", [id]))[0] as { status: string; error: string | null }[])[0];
-      await eventually(async () => ((await status(jobId)).status === "done" ? true : undefined), 60_000, "the run after the exhausted job to be computed");
-      const failed = await status((exhausted as { insertId: number }).insertId);
+      const exhausted = await q.queueRun(quickInputs, 3);
+      const next = await q.queueRun(quickInputs);
+      const s = await q.start({ TAPWRIGHT_QUEUE_POLL_S: "3600" });
+      expect((await settled(q, next)).status).toBe("done");
+      const failed = await q.status(exhausted);
       expect(failed.status).toBe("failed");
       expect(failed.error).toMatch(/stopped 3 times before it could finish/);
       await s.stop();
     } finally {
-      await own.end();
-      const root = await mysql.createConnection({ uri: process.env.DATABASE_URL! });
-      await root.query(`DROP DATABASE IF EXISTS \`${name}\``).finally(() => root.end());
+      await q.drop();
     }
-  }, 120_000);
+  }, 180_000);
 });

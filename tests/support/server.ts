@@ -10,6 +10,8 @@ export interface TestServer {
   stop(): Promise<void>;
   /** kill -9: the process ends at once, mid-request, without any shutdown. */
   kill(): void;
+  /** What the server wrote to stderr so far (passed through to the test's stderr as well). */
+  stderr(): string;
 }
 
 export async function startServer(port: number, extraEnv: Record<string, string> = {}): Promise<TestServer> {
@@ -17,7 +19,12 @@ export async function startServer(port: number, extraEnv: Record<string, string>
   const child: ChildProcess = spawn(process.execPath, [join(root, "scripts", "serve.mjs")], {
     cwd: root,
     env: { ...process.env, PORT: String(port), HOST: "127.0.0.1", BETTER_AUTH_URL: base, ...extraEnv },
-    stdio: ["ignore", "ignore", "inherit"],
+    stdio: ["ignore", "ignore", "pipe"],
+  });
+  let stderr = "";
+  child.stderr?.on("data", (chunk: Buffer) => {
+    stderr += chunk.toString();
+    process.stderr.write(chunk);
   });
   const until = Date.now() + 30_000;
   for (;;) {
@@ -33,9 +40,11 @@ export async function startServer(port: number, extraEnv: Record<string, string>
   return {
     base,
     kill: () => child.kill("SIGKILL"),
+    stderr: () => stderr,
     stop: () =>
       new Promise<void>((resolve) => {
-        if (child.exitCode !== null) return resolve();
+        // Already gone (stopped before, or killed: then it has a signal and no exit code).
+        if (child.exitCode !== null || child.signalCode !== null) return resolve();
         child.once("exit", () => resolve());
         child.kill("SIGTERM");
       }),

@@ -14,6 +14,9 @@ import { logError } from "../http/logError";
 /** Attempts a job gets before it is failed for good (workers that died under it count). */
 export const MAX_ATTEMPTS = 3;
 
+/** Failed lease renewals in a row that end an attempt (renewals come every third of the lease). */
+export const HEARTBEAT_FAILURES_TO_END = 2;
+
 /** A job claimed by this attempt, and the token that proves it. */
 export interface Claim {
   job: Job;
@@ -147,16 +150,23 @@ export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcom
   inProgress.set(job.id, stop);
   const limit_s = config.jobs.timeLimit_s;
   const deadline = setTimeout(() => stop({ kind: "time", limit_s }), limit_s * 1000);
+  // The lease is renewed every third of its length: one failed renewal (a deadlock, a blip) is
+  // logged and the next one tried; a second in a row leaves too little of the lease, so the
+  // attempt ends rather than compute on while another worker may take the job over.
+  let heartbeatFailures = 0;
   const heartbeat = setInterval(() => {
     db.update(jobs)
       .set({ lockedUntil: lockExpiry() })
       .where(mine)
       .then((r) => {
+        heartbeatFailures = 0;
         if (r[0].affectedRows === 0) stop({ kind: "lost" });
       })
       .catch((e) => {
-        logError(`job ${job.id} (${job.kind}): heartbeat failed, ending the attempt`, e);
-        stop({ kind: "heartbeat", error: e });
+        heartbeatFailures++;
+        const ending = heartbeatFailures >= HEARTBEAT_FAILURES_TO_END;
+        logError(`job ${job.id} (${job.kind}): heartbeat failed${ending ? ", ending the attempt" : ", trying again"}`, e);
+        if (ending) stop({ kind: "heartbeat", error: e });
       });
   }, (config.queue.lock_s * 1000) / 3);
   let lastWrite = 0;

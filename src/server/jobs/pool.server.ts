@@ -7,6 +7,7 @@ import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
 import type { JobKind } from "@/features/jobs/jobs";
 import { config } from "@/server/config.server";
+import { logError } from "@/server/http/logError";
 
 function workerFile(): string {
   const candidates = [
@@ -25,15 +26,30 @@ function workerFile(): string {
 export const workerCount = Math.max(1, Math.min(config.workers, availableParallelism()));
 
 let pool: Piscina | undefined;
+/** Why a pool was given up: a worker died while starting, before it took a task. */
+const brokenBy = new WeakMap<Piscina, Error>();
+
 function thePool(): Piscina {
-  pool ??= new Piscina({
+  if (pool) return pool;
+  const created = new Piscina({
     filename: workerFile(),
     maxThreads: workerCount,
     idleTimeout: 60_000,
     // A thread past its heap ends with ERR_WORKER_OUT_OF_MEMORY (its job fails) and piscina starts another.
     resourceLimits: { maxOldGenerationSizeMb: config.jobs.workerMemory_MB },
   });
-  return pool;
+  // A worker that dies while starting (e.g. a heap limit too small to load the engine) is reported
+  // here, not to a task: piscina then starts no more workers and its queued tasks would wait for
+  // ever (and an unheard 'error' would end the process). Give the pool up, failing its tasks with
+  // the cause; the next job starts a fresh pool.
+  created.on("error", (e: Error) => {
+    logError("engine worker pool: a worker died while starting; its jobs fail and the next one gets a fresh pool", e);
+    brokenBy.set(created, e);
+    if (pool === created) pool = undefined;
+    void created.destroy();
+  });
+  pool = created;
+  return created;
 }
 
 /**
@@ -43,8 +59,12 @@ function thePool(): Piscina {
 export async function runInPool(kind: JobKind, input: unknown, onProgress: (p: number) => void, signal: AbortSignal): Promise<unknown> {
   const { port1, port2 } = new MessageChannel();
   port1.on("message", (p: number) => onProgress(p));
+  const running = thePool();
   try {
-    return await thePool().run({ kind, input, port: port2 }, { transferList: [port2], signal });
+    return await running.run({ kind, input, port: port2 }, { transferList: [port2], signal });
+  } catch (e) {
+    // A pool given up fails its tasks with "Terminating worker thread": say what broke it instead.
+    throw brokenBy.get(running) ?? e;
   } finally {
     port1.close();
   }
