@@ -8,7 +8,7 @@ import { anonymous, baseUrl, eventually, signIn, signInRaw, type Client } from "
 import { freePort, startServer } from "../support/server";
 import { closeDb, unique, upload } from "../fixtures/workspace";
 import { BIT_RATE, files } from "../fixtures/channelFiles";
-import { population, versionComputed, type Population } from "./handoff.fixture";
+import { population, studyFinished, versionComputed, type Population } from "./handoff.fixture";
 
 let designer: Client;
 let admin: Client;
@@ -281,4 +281,35 @@ describe("lists read only what they show", () => {
       await db.end();
     }
   });
+
+  it("the studies list and a study's detail never load the studies' inputs (every channel's pulse)", async () => {
+    for (let i = 0; i < 2; i++) {
+      const res = await designer.send("POST", "/api/v1/studies", { name: unique("Listed study"), channelIds: pop.channelIds, budgetId: pop.budgetId });
+      expect(res.status).toBe(202);
+      await studyFinished(designer, (await res.json()).id);
+    }
+    const db = await import("mysql2/promise").then((m) => m.createConnection({ uri: process.env.DATABASE_URL! }));
+    // What MariaDB sent to all its clients: the list's share must be far below the inputs' size.
+    const sent = async () => Number(((await db.query("SHOW GLOBAL STATUS LIKE 'Bytes_sent'"))[0] as { Value: string }[])[0].Value);
+    try {
+      const [[{ inputs_B, newest }]] = (await db.query("SELECT SUM(LENGTH(inputs)) AS inputs_B, MAX(id) AS newest FROM architecture_studies")) as unknown as [{ inputs_B: number; newest: number }[]];
+      expect(Number(inputs_B)).toBeGreaterThan(400_000);
+      const before = await sent();
+      const list = await designer.get("/api/v1/studies?limit=50");
+      const between = await sent();
+      const detail = await designer.get(`/api/v1/studies/${newest}`);
+      const after = await sent();
+      const { items } = await list.json();
+      expect(items.find((s: { name: string }) => s.name.startsWith("Listed study"))).toMatchObject({ channelCount: 2, status: "done" });
+      const study = await detail.json();
+      expect(study.channels.map((c: { id: number }) => c.id)).toEqual(pop.channelIds);
+      expect(study.channels[0]).not.toHaveProperty("pulse");
+      expect(study.candidates.length).toBeGreaterThan(0);
+      // A background poll or a session lookup may land in the window: kilobytes, not the inputs' size.
+      expect(between - before).toBeLessThan(Math.min(100_000, Number(inputs_B) / 4));
+      expect(after - between).toBeLessThan(100_000 + JSON.stringify(study.result).length * 2);
+    } finally {
+      await db.end();
+    }
+  }, 300_000);
 });

@@ -77,6 +77,39 @@ describe("roles", () => {
     expect(res.status).toBe(409);
     expect((await res.json()).error.message).toMatch(/only admin/);
   });
+
+  it("two demotions at once of the last two admins leave one admin: one is refused (409), neither fails", async () => {
+    const admin = await signIn("admin");
+    const me = (await (await admin.get("/api/v1/me")).json()) as { id: string };
+    const email = `ada.${unique()}@tapwright.test`;
+    const { link } = await (await admin.send("POST", "/api/v1/invitations", { email, role: "designer" })).json();
+    await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, { name: "Ada Mbeki", password: "third-password-1" });
+    const ada = await signIn(email, "third-password-1");
+    const adaId = ((await (await ada.get("/api/v1/me")).json()) as { id: string }).id;
+    const activeAdmins = async (client: typeof admin) =>
+      ((await (await client.get("/api/v1/users")).json()) as { items: { id: string; role: string; deactivatedAt: string | null }[] }).items.filter(
+        (u) => u.role === "admin" && u.deactivatedAt === null,
+      );
+    expect((await activeAdmins(admin)).map((u) => u.id)).toEqual([me.id]);
+    // Several rounds, each demotion by the admin it does not demote, so that the two requests overlap.
+    for (let round = 0; round < 6; round++) {
+      expect((await admin.send("PUT", `/api/v1/users/${adaId}/role`, { role: "admin" })).status).toBe(200);
+      const answers = await Promise.all([
+        admin.send("PUT", `/api/v1/users/${adaId}/role`, { role: "designer" }),
+        ada.send("PUT", `/api/v1/users/${me.id}/role`, { role: "designer" }),
+      ]);
+      expect(answers.map((a) => a.status).sort(), `round ${round}`).toEqual([200, 409]);
+      const left = answers[0].status === 200 ? admin : ada;
+      const admins = await activeAdmins(left);
+      expect(admins.map((u) => u.id)).toEqual([left === admin ? me.id : adaId]);
+      if (left === ada) {
+        // Back to the suite's admin alone.
+        expect((await ada.send("PUT", `/api/v1/users/${me.id}/role`, { role: "admin" })).status).toBe(200);
+        expect((await admin.send("PUT", `/api/v1/users/${adaId}/role`, { role: "designer" })).status).toBe(200);
+      }
+    }
+    expect((await activeAdmins(admin)).map((u) => u.id)).toEqual([me.id]);
+  });
 });
 
 describe("API tokens", () => {

@@ -32,9 +32,19 @@ export async function listOpenInvitations() {
     .orderBy(asc(invitations.email));
 }
 
-/** Refuses (409) when `userId` is the last active admin; locks every admin row so two changes at once cannot both pass. */
-async function keepAnAdmin(tx: Tx, userId: string, what: string) {
-  const admins = await tx.select({ id: users.id }).from(users).where(and(eq(users.role, "admin"), isNull(users.deactivatedAt))).for("update");
+/**
+ * Locks every active admin's row (in id order), then the person's: two changes at once that each
+ * remove one of the last two admins queue behind each other here, in one order (locking the person
+ * first would let each hold one admin row and wait for the other's: a deadlock).
+ */
+async function lockAdminsAndPerson(tx: Tx, userId: string) {
+  const admins = await tx.select({ id: users.id }).from(users).where(and(eq(users.role, "admin"), isNull(users.deactivatedAt))).orderBy(asc(users.id)).for("update");
+  const [target] = await tx.select().from(users).where(eq(users.id, userId)).for("update");
+  return { admins, target };
+}
+
+/** Refuses (409) when `userId` is the last active admin (`admins` locked by `lockAdminsAndPerson`). */
+function keepAnAdmin(admins: readonly { id: string }[], userId: string, what: string) {
   if (admins.length <= 1 && admins.some((a) => a.id === userId)) throw conflict(`This is the only admin; make someone else admin before you ${what}.`);
 }
 
@@ -44,11 +54,11 @@ async function keepAnAdmin(tx: Tx, userId: string, what: string) {
  */
 export async function setActive(actor: SessionUser, userId: string, active: boolean) {
   await db.transaction(async (tx) => {
-    const [target] = await tx.select().from(users).where(eq(users.id, userId)).for("update");
+    const { admins, target } = await lockAdminsAndPerson(tx, userId);
     if (!target) throw notFound("That person");
     if (active === !target.deactivatedAt) return;
     if (!active) {
-      if (target.role === "admin") await keepAnAdmin(tx, userId, "deactivate them");
+      if (target.role === "admin") keepAnAdmin(admins, userId, "deactivate them");
       await tx.update(users).set({ deactivatedAt: new Date() }).where(eq(users.id, userId));
       await tx.delete(sessions).where(eq(sessions.userId, userId));
       await tx.update(apiTokens).set({ revokedAt: new Date(), revokedBy: actor.id }).where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
@@ -83,10 +93,10 @@ export async function revokeInvitation(actor: SessionUser, id: number) {
 /** Changes a person's role; refuses to leave the workspace without an admin. */
 export async function setRole(actor: SessionUser, userId: string, role: Role) {
   await db.transaction(async (tx) => {
-    const [target] = await tx.select().from(users).where(eq(users.id, userId)).for("update");
+    const { admins, target } = await lockAdminsAndPerson(tx, userId);
     if (!target) throw notFound("That person");
     if (target.role === role) return;
-    if (target.role === "admin") await keepAnAdmin(tx, userId, "change their role");
+    if (target.role === "admin") keepAnAdmin(admins, userId, "change their role");
     await tx.update(users).set({ role }).where(eq(users.id, userId));
     await recordAudit(tx, actor, "user.role", "user", userId, { email: target.email, from: target.role, to: role });
   });

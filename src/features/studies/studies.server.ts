@@ -1,6 +1,6 @@
 // Architecture studies: start one (a job in the worker pool), list and read them, and record the
 // decision (the chosen architecture and why). Every write is one transaction with its audit event.
-import { and, asc, count, desc, eq, inArray, lt } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, isNotNull, lt, sql } from "drizzle-orm";
 import { budgetSchema, type Budget } from "@lib/contract/budget";
 import { db, type Tx } from "@/server/db.server";
 import { budgets, jobs, studies, users, type Study } from "@/db/schema";
@@ -9,7 +9,7 @@ import { recordAudit } from "@/server/audit/audit.server";
 import { apiStatus, cancelJobFor, enqueueJob, jobStatus, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { defaultCandidates } from "./architecture";
-import { budgetCopy, channelCopies, checkBudgetFits, withoutPulses } from "@/server/sources.server";
+import { budgetCopy, channelCopies, checkBudgetFits } from "@/server/sources.server";
 import { finishHere, type RunHere } from "@/server/jobs/inlineJob.server";
 import type { StudyBudgetChoice } from "./newStudyStore";
 import type { CreateStudyRequest, DecisionRequest, DecisionView, StudyInputs, StudyResult } from "./studies";
@@ -73,10 +73,9 @@ async function personName(id: string | null): Promise<string | null> {
 }
 
 /** The decision record of a study for people: the candidate's label, who decided and when. */
-async function decisionView(study: Study): Promise<DecisionView | null> {
+async function decisionView(study: Pick<Study, "decision" | "decidedBy" | "decidedAt">, candidates: StudyInputs["candidates"]): Promise<DecisionView | null> {
   if (!study.decision) return null;
-  const inputs = study.inputs;
-  const c = inputs.candidates.find((x) => x.key === study.decision!.candidateKey);
+  const c = candidates.find((x) => x.key === study.decision!.candidateKey);
   return {
     candidateKey: study.decision.candidateKey,
     candidateLabel: c?.label ?? study.decision.candidateKey,
@@ -86,22 +85,50 @@ async function decisionView(study: Study): Promise<DecisionView | null> {
   };
 }
 
-/** GET /api/v1/studies/:id: inputs (without pulses), status and progress, result and decision. */
+/**
+ * GET /api/v1/studies/:id: inputs (without pulses), status and progress, result and decision. The
+ * channels are read in SQL as their ids, names and losses: the stored inputs carry their pulses.
+ */
 export async function getStudy(id: number) {
-  const { study, job } = await studyRow(db, id);
-  const inputs = study.inputs;
+  const [row] = await db
+    .select({
+      id: studies.id,
+      name: studies.name,
+      result: studies.result,
+      engineVersion: studies.engineVersion,
+      decision: studies.decision,
+      decidedBy: studies.decidedBy,
+      decidedAt: studies.decidedAt,
+      createdBy: studies.createdBy,
+      createdAt: studies.createdAt,
+      budgetId: sql<number>`JSON_VALUE(${studies.inputs}, '$.budget.id')`,
+      budgetName: sql<string>`JSON_VALUE(${studies.inputs}, '$.budget.name')`,
+      channelIds: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.channels[*].id')`,
+      channelNames: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.channels[*].name')`,
+      channelLosses: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.channels[*].lossAtNyquist_dB')`,
+      candidates: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.candidates')`,
+      job: { status: jobs.status, progress: jobs.progress, error: jobs.error, startedAt: jobs.startedAt, finishedAt: jobs.finishedAt, compute_ms: jobs.compute_ms },
+    })
+    .from(studies)
+    .innerJoin(jobs, eq(jobs.id, studies.jobId))
+    .where(eq(studies.id, id));
+  if (!row) throw notFound(`Study ${id}`);
+  const names = parsedJson<string[]>(row.channelNames) ?? [];
+  const losses = parsedJson<(number | null)[]>(row.channelLosses) ?? [];
+  const channels = (parsedJson<number[]>(row.channelIds) ?? []).map((cid, i) => ({ id: cid, name: names[i], lossAtNyquist_dB: losses[i] ?? null }));
+  const candidates = parsedJson<StudyInputs["candidates"]>(row.candidates) ?? [];
   return {
-    id: study.id,
-    name: study.name,
-    ...jobStatus(job),
-    budget: { id: inputs.budget.id, name: inputs.budget.name },
-    channels: withoutPulses(inputs.channels),
-    candidates: inputs.candidates,
-    result: study.result ?? null,
-    engineVersion: study.engineVersion,
-    decision: await decisionView(study),
-    createdBy: await personName(study.createdBy),
-    createdAt: study.createdAt,
+    id: row.id,
+    name: row.name,
+    ...jobStatus(row.job),
+    budget: { id: Number(row.budgetId), name: row.budgetName },
+    channels,
+    candidates,
+    result: row.result ?? null,
+    engineVersion: row.engineVersion,
+    decision: await decisionView(row, candidates),
+    createdBy: await personName(row.createdBy),
+    createdAt: row.createdAt,
   };
 }
 
@@ -117,32 +144,60 @@ export async function countStudies(): Promise<number> {
   return n;
 }
 
-/** Newest first. */
+/** A JSON value read in SQL: MariaDB answers JSON_EXTRACT as text (mysql2 parses only JSON columns). */
+function parsedJson<T>(v: unknown): T | null {
+  if (v === null || v === undefined) return null;
+  return (typeof v === "string" ? JSON.parse(v) : v) as T;
+}
+
+/**
+ * Newest first. The figures the list shows are read in SQL from the inputs and the result (never
+ * the inputs themselves: they hold every channel's pulse).
+ */
 export async function listStudies(limit: number, cursor?: number) {
   const rows = await db
-    .select({ study: studies, job: jobs, by: users.name })
+    .select({
+      id: studies.id,
+      name: studies.name,
+      decision: studies.decision,
+      createdAt: studies.createdAt,
+      status: jobs.status,
+      progress: jobs.progress,
+      by: users.name,
+      budget: sql<string | null>`JSON_VALUE(${studies.inputs}, '$.budget.name')`,
+      channelCount: sql<number | null>`JSON_LENGTH(${studies.inputs}, '$.channels')`,
+      candidateKeys: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.candidates[*].key')`,
+      candidateLabels: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.candidates[*].label')`,
+      resultLabels: sql<unknown>`JSON_EXTRACT(${studies.result}, '$.candidates[*].label')`,
+      resultHeadrooms: sql<unknown>`JSON_EXTRACT(${studies.result}, '$.candidates[*].worstHeadroom_V')`,
+    })
     .from(studies)
     .innerJoin(jobs, eq(jobs.id, studies.jobId))
     .leftJoin(users, eq(users.id, studies.createdBy))
     .where(cursor ? lt(studies.id, cursor) : undefined)
     .orderBy(desc(studies.id))
     .limit(limit + 1);
-  const items = rows.slice(0, limit).map(({ study, job, by }) => {
-    const inputs = study.inputs;
-    const result = study.result;
-    const chosen = study.decision ? inputs.candidates.find((c) => c.key === study.decision!.candidateKey) : undefined;
+  const items = rows.slice(0, limit).map((r) => {
+    const keys = parsedJson<string[]>(r.candidateKeys) ?? [];
+    const labels = parsedJson<string[]>(r.candidateLabels) ?? [];
+    const chosen = r.decision ? keys.indexOf(r.decision.candidateKey) : -1;
+    const resultLabels = parsedJson<string[]>(r.resultLabels);
+    const headrooms = parsedJson<number[]>(r.resultHeadrooms) ?? [];
+    // The candidate with the largest worst-case headroom (the first of equals, as a stable sort gives).
+    let best: number | null = null;
+    for (let i = 0; i < headrooms.length; i++) if (best === null || headrooms[i] > headrooms[best]) best = i;
     return {
-      id: study.id,
-      name: study.name,
-      status: apiStatus(job.status),
-      progress: job.progress,
-      budget: inputs.budget.name,
-      channelCount: inputs.channels.length,
-      candidateCount: inputs.candidates.length,
-      decision: chosen ? { candidateKey: chosen.key, label: chosen.label } : null,
-      best: result ? [...result.candidates].sort((a, b) => b.worstHeadroom_V - a.worstHeadroom_V)[0]?.label ?? null : null,
-      createdBy: by,
-      createdAt: study.createdAt,
+      id: r.id,
+      name: r.name,
+      status: apiStatus(r.status),
+      progress: r.progress,
+      budget: r.budget ?? "",
+      channelCount: Number(r.channelCount ?? 0),
+      candidateCount: keys.length,
+      decision: chosen >= 0 ? { candidateKey: keys[chosen], label: labels[chosen] } : null,
+      best: resultLabels && best !== null ? (resultLabels[best] ?? null) : null,
+      createdBy: r.by,
+      createdAt: r.createdAt,
     };
   });
   return { items, nextCursor: rows.length > limit ? String(items[items.length - 1].id) : null };
@@ -191,26 +246,37 @@ export async function studyBudgetChoices(): Promise<(StudyBudgetChoice & { param
   });
 }
 
-/** Studies whose job is done and that carry a decision (the tap-table form offers these). */
+/**
+ * Studies whose job is done and that carry a decision (the tap-table form offers these): the budget,
+ * channel ids and candidates read in SQL, without the channels' pulses.
+ */
 export async function decidedStudies() {
   const rows = await db
-    .select({ study: studies })
+    .select({
+      id: studies.id,
+      name: studies.name,
+      decision: studies.decision,
+      budgetId: sql<number>`JSON_VALUE(${studies.inputs}, '$.budget.id')`,
+      channelIds: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.channels[*].id')`,
+      candidates: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.candidates')`,
+    })
     .from(studies)
     .innerJoin(jobs, and(eq(jobs.id, studies.jobId), inArray(jobs.status, ["done"])))
+    .where(isNotNull(studies.decision))
     .orderBy(desc(studies.id))
     .limit(200);
   return rows
-    .filter((r) => r.study.decision)
-    .map(({ study }) => {
-      const inputs = study.inputs;
-      const chosen = inputs.candidates.find((c) => c.key === study.decision!.candidateKey)!;
+    .filter((r) => r.decision)
+    .map((r) => {
+      const candidates = parsedJson<StudyInputs["candidates"]>(r.candidates) ?? [];
+      const chosen = candidates.find((c) => c.key === r.decision!.candidateKey)!;
       return {
-        id: study.id,
-        name: study.name,
-        budgetId: inputs.budget.id,
-        channelIds: inputs.channels.map((c) => c.id),
+        id: r.id,
+        name: r.name,
+        budgetId: Number(r.budgetId),
+        channelIds: parsedJson<number[]>(r.channelIds) ?? [],
         architecture: chosen,
-        rationale: study.decision!.rationale,
+        rationale: r.decision!.rationale,
       };
     });
 }

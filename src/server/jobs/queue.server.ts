@@ -81,7 +81,7 @@ export function apiStatus(status: JobStatus): ApiJobStatus {
 }
 
 /** The status fields the API shows for a job. */
-export function jobStatus(job: Job) {
+export function jobStatus(job: Pick<Job, "status" | "progress" | "error" | "startedAt" | "finishedAt" | "compute_ms">) {
   return {
     status: apiStatus(job.status),
     progress: job.progress,
