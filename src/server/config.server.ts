@@ -47,7 +47,9 @@ const envSchema = z.object({
   TAPWRIGHT_WORKER_MEMORY_MB: z.coerce
     .number({ error: "TAPWRIGHT_WORKER_MEMORY_MB must be a number of megabytes" })
     .int("TAPWRIGHT_WORKER_MEMORY_MB must be a whole number of megabytes")
-    .min(8, "TAPWRIGHT_WORKER_MEMORY_MB must be at least 8")
+    // Below about 10 MB a worker cannot load the engine, and Node 20 may abort the whole process
+    // when a worker runs out of heap while it loads its modules.
+    .min(10, "TAPWRIGHT_WORKER_MEMORY_MB must be at least 10 (the engine needs that much to load)")
     .max(65_536)
     .default(2048),
   TAPWRIGHT_QUEUE_POLL_S: z.coerce.number({ error: "TAPWRIGHT_QUEUE_POLL_S must be a number of seconds" }).min(0.1).max(86_400).default(2),

@@ -172,11 +172,12 @@ describe("a job past its bounds", () => {
     const q = await privateQueue();
     try {
       const ids = [await q.queueRun(quickInputs), await q.queueRun(quickInputs)];
-      const s = await q.start({ TAPWRIGHT_WORKER_MEMORY_MB: "8", TAPWRIGHT_WORKERS: "1" });
+      // 11 MB: enough to load the engine, too little for a run (about 14 MB of heap).
+      const s = await q.start({ TAPWRIGHT_WORKER_MEMORY_MB: "11", TAPWRIGHT_WORKERS: "1" });
       for (const id of ids) {
         const end = await settled(q, id);
         expect(end.status).toBe("failed");
-        expect(end.error).toMatch(/^The engine ran out of memory \(each worker may use 8 MB of heap\) and its worker was stopped and replaced\./);
+        expect(end.error).toMatch(/^The engine ran out of memory \(each worker may use 11 MB of heap\) and its worker was stopped and replaced\./);
       }
       await s.stop();
     } finally {

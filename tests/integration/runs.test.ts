@@ -151,11 +151,52 @@ describe("two runs at once", () => {
   });
 });
 
+describe("a finished run's detail", () => {
+  it("is serialized and compressed once: the same bytes each time with an ETag, 304 when the client has them, brotli and gzip decoding to the JSON", async () => {
+    const { id } = await (await designer.send("POST", "/api/v1/runs", { channelId: shortLane, budgetId: nrzBudget })).json();
+    await finished(designer, id);
+    const plain = await designer.fetch(`/api/v1/runs/${id}`, { headers: { "accept-encoding": "identity" } });
+    expect(plain.status).toBe(200);
+    const etag = plain.headers.get("etag");
+    expect(etag).toMatch(/^"[\w-]+"$/);
+    const body = await plain.text();
+    const view = JSON.parse(body);
+    expect(view).toMatchObject({ id, status: "done" });
+    expect(view.result).not.toBeNull();
+    // Node's fetch decodes for us; ask through node:http to see the encoded bytes.
+    const { request } = await import("node:http");
+    const { brotliDecompressSync, gunzipSync } = await import("node:zlib");
+    const raw = (encoding: string, extra: Record<string, string> = {}) =>
+      new Promise<{ status: number; headers: Record<string, unknown>; bytes: Buffer }>((resolve, reject) => {
+        const req = request(`${baseUrl}/api/v1/runs/${id}`, { headers: { cookie: designer.cookie, "accept-encoding": encoding, ...extra } }, (res) => {
+          const chunks: Buffer[] = [];
+          res.on("data", (c: Buffer) => chunks.push(c));
+          res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, bytes: Buffer.concat(chunks) }));
+        });
+        req.on("error", reject);
+        req.end();
+      });
+    const br = await raw("br, gzip");
+    expect(br.headers["content-encoding"]).toBe("br");
+    expect(br.headers.etag).toBe(etag);
+    expect(brotliDecompressSync(br.bytes).toString()).toBe(body);
+    expect(br.bytes.length).toBeLessThan(body.length / 2);
+    const gz = await raw("gzip");
+    expect(gz.headers["content-encoding"]).toBe("gzip");
+    expect(gunzipSync(gz.bytes).toString()).toBe(body);
+    const again = await raw("gzip", { "if-none-match": etag! });
+    expect(again.status).toBe(304);
+    expect(again.bytes.length).toBe(0);
+  });
+});
+
 describe("deleting a channel that runs used", () => {
   it("asks first (409), then deletes; the runs keep their copy and can run again", async () => {
     const made = await (await designer.send("POST", "/api/v1/channels", { name: unique("Doomed lane"), bitRate_bps: 28e9, lossModel: { lossAtNyquist_dB: 8 } })).json();
     const { id: runId } = await (await designer.send("POST", "/api/v1/runs", { channelId: made.id, budgetId: nrzBudget })).json();
     await finished(designer, runId);
+    // Read once before the delete: a detail served from stored bytes must not keep the old link.
+    expect((await (await designer.get(`/api/v1/runs/${runId}`)).json()).channel).toEqual({ id: made.id, name: made.name });
     const refused = await designer.send("DELETE", `/api/v1/channels/${made.id}`);
     expect(refused.status).toBe(409);
     expect((await refused.json()).error.message).toMatch(/used by 1 tuning run.*confirm=true/);

@@ -7,6 +7,7 @@ import { budgets, channels, jobs, runs, users } from "@/db/schema";
 import type { JobStatus } from "@/features/jobs/jobs";
 import { apiStatus, cancelJobFor, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import { notFound, unprocessable } from "@/server/http/errors";
+import { frozenJsonResponse } from "@/server/http/frozenJson.server";
 import { recordAudit } from "@/server/audit/audit.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import type { TuningRunResult } from "@lib/run";
@@ -212,6 +213,25 @@ export async function getRun(id: number): Promise<RunView> {
     rerunOf: r.rerunOf ?? null,
     timings: { queuedAt: r.queuedAt, startedAt: r.startedAt, finishedAt: r.finishedAt, compute_ms: r.compute_ms },
   };
+}
+
+/**
+ * GET /api/v1/runs/:id for a person or a script: a run that has finished never changes but for its
+ * links (a deleted channel or budget, a renamed author), so its detail is serialized and compressed
+ * once and then served as bytes (`frozenJsonResponse`), keyed by those links; an unfinished run is
+ * read afresh.
+ */
+export async function runDetailResponse(request: Request, id: number): Promise<Response | RunView> {
+  const [r] = await db
+    .select({ status: jobs.status, channelId: runs.channelId, budgetId: runs.budgetId, createdBy: users.name, finishedAt: jobs.finishedAt })
+    .from(runs)
+    .innerJoin(jobs, eq(jobs.id, runs.jobId))
+    .leftJoin(users, eq(users.id, runs.createdBy))
+    .where(eq(runs.id, id));
+  if (!r) throw notFound(`Run ${id}`);
+  if (r.status !== "done" && r.status !== "failed") return getRun(id);
+  const key = `run:${id}:${JSON.stringify([r.channelId, r.budgetId, r.createdBy, r.finishedAt?.getTime() ?? null])}`;
+  return frozenJsonResponse(request, key, () => getRun(id));
 }
 
 /** Status and progress only (for polling). */
