@@ -99,8 +99,11 @@ describe("a tuning run", () => {
   });
 
   it("that is cancelled ends failed, says why on its page, and keeps its inputs", async () => {
-    const { id } = await (await designer.send("POST", "/api/v1/runs", { channelId: longLane, budgetId: nrzBudget })).json();
-    expect((await designer.send("POST", `/api/v1/runs/${id}/cancel`)).status).toBe(200);
+    // A search of minutes (1 pre, 3 post taps at 0.02 over 13 CTLE settings): still computing when cancelled.
+    const slow = await (await designer.send("POST", "/api/v1/budgets", nrzBudgetBody(unique("Runs test slow"), { tx: { pre: 1, post: 3, step: 0.02 }, ctle: { gDc_dB: [-12, 0, 1], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 } }))).json();
+    const { id } = await (await designer.send("POST", "/api/v1/runs", { channelId: longLane, budgetId: slow.id })).json();
+    const cancelled = await designer.send("POST", `/api/v1/runs/${id}/cancel`);
+    expect(cancelled.status, await cancelled.clone().text()).toBe(200);
     const end = await finished(designer, id);
     expect(end.status).toBe("failed");
     expect(end.error?.message).toMatch(/^Cancelled by Tomas Ekwueme\.$/);
