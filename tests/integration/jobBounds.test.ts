@@ -9,7 +9,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eventually, signIn, type Client } from "../support/http";
 import { freePort, startServer, type TestServer } from "../support/server";
 import { finished, rowCounts, unique } from "../fixtures/workspace";
-import { population, quickBudget, type Population } from "./handoff.fixture";
+import { population, type Population } from "./handoff.fixture";
+import { budget, budgetBody } from "../support/budget";
 // The start and test scripts' own helpers: a private database for the queue test.
 import { settings } from "../../scripts/lib/config.mjs";
 import { ensureDatabase } from "../../scripts/lib/mariadb.mjs";
@@ -99,7 +100,7 @@ afterAll(async () => {
 describe("the search size", () => {
   it("is checked when a budget is saved: past the limit it is refused, saying what to coarsen, and nothing is stored", async () => {
     const before = await rowCounts();
-    const res = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Huge"), tx: hugeTx });
+    const res = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Huge"), { tx: hugeTx }));
     expect(res.status).toBe(422);
     const body = await res.json();
     expect(body.error.path).toBe("tx");
@@ -109,9 +110,9 @@ describe("the search size", () => {
   });
 
   it("is checked again when a run, a study or a sweep starts (a budget stored before the limit): 422, nothing queued", async () => {
-    const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Grown") });
+    const b = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Grown")));
     const budgetId = (await b.json()).id;
-    await query("UPDATE budgets SET params = JSON_SET(params, '$.tx', JSON_OBJECT('pre', 2, 'post', 4, 'step', 0.01)) WHERE id = ?", [budgetId]);
+    await query("UPDATE budgets SET params = JSON_SET(params, { '$.tx', JSON_OBJECT('pre', 2, 'post', 4, 'step', 0.01)) WHERE id = ?", [budgetId]);
     const before = await rowCounts();
     const channelIds = pop.channelIds.slice(0, 1);
     for (const [path, body] of [
@@ -132,7 +133,7 @@ describe("the search size", () => {
   it("counts a tap-table class's channels together: each channel alone fits, the class of three does not", async () => {
     // 13 CTLE settings × 26⁵ FIR settings × 32 phases = 4.9e9 for one channel (saved), × 3 = 1.5e10 for the class.
     const tx = { pre: 1, post: 4, step: 0.02 };
-    const b = await designer.send("POST", "/api/v1/budgets", { ...quickBudget, name: unique("Wide FIR"), tx, ctle: { ...quickBudget.ctle, gDc_dB: [-12, 0, 1] } });
+    const b = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Wide FIR"), { tx, ctle: { gDc_dB: [-12, 0, 1] } }));
     expect(b.status, await b.clone().text()).toBe(201);
     const budgetId = (await b.json()).id;
     const [before] = await query<{ n: number }>("SELECT COUNT(*) AS n FROM tap_tables");
@@ -152,7 +153,7 @@ describe("the search size", () => {
 describe("a job past its bounds", () => {
   it("past its wall-time limit is stopped and failed with the reason; the pool takes the next job in a fresh worker", async () => {
     // A search of minutes (1 pre, 3 post taps at 0.02 over 13 CTLE settings) against a limit of 1 s.
-    const params = { ...quickInputs.budget.params, tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...quickBudget.ctle, gDc_dB: [-12, 0, 1] } };
+    const params = { ...quickInputs.budget.params, tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] } };
     const q = await privateQueue();
     try {
       const ids = [await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } }), await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } })];
@@ -190,7 +191,7 @@ describe("a heartbeat that fails", () => {
   it("is logged and ends the attempt (its worker stopped), and the job is taken again once the lease lapses", async () => {
     // A search of minutes; leases of 2 s renewed every ⅔ s. While the column the heartbeat writes
     // is renamed away, renewals fail; two in a row end the attempt, which frees the only worker.
-    const params = { ...quickInputs.budget.params, tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...quickBudget.ctle, gDc_dB: [-12, 0, 1] } };
+    const params = { ...quickInputs.budget.params, tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] } };
     const q = await privateQueue();
     try {
       const id = await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } });
