@@ -112,7 +112,7 @@ describe("the search size", () => {
   it("is checked again when a run, a study or a sweep starts (a budget stored before the limit): 422, nothing queued", async () => {
     const b = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Grown")));
     const budgetId = (await b.json()).id;
-    await query("UPDATE budgets SET params = JSON_SET(params, { '$.tx', JSON_OBJECT('pre', 2, 'post', 4, 'step', 0.01)) WHERE id = ?", [budgetId]);
+    await query("UPDATE budgets SET params = JSON_SET(params, '$.tx', JSON_OBJECT('pre', 2, 'post', 4, 'step', 0.01)) WHERE id = ?", [budgetId]);
     const before = await rowCounts();
     const channelIds = pop.channelIds.slice(0, 1);
     for (const [path, body] of [
@@ -152,8 +152,8 @@ describe("the search size", () => {
 
 describe("a job past its bounds", () => {
   it("past its wall-time limit is stopped and failed with the reason; the pool takes the next job in a fresh worker", async () => {
-    // A search of minutes (1 pre, 3 post taps at 0.02 over 13 CTLE settings) against a limit of 1 s.
-    const params = { ...quickInputs.budget.params, tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] } };
+    // A search of minutes or more (2 pre, 4 post taps at 0.01 over 13 CTLE settings) against a limit of 1 s.
+    const params = { ...quickInputs.budget.params, tx: { pre: 2, post: 4, step: 0.01 }, ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] } };
     const q = await privateQueue();
     try {
       const ids = [await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } }), await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } })];
@@ -191,7 +191,7 @@ describe("a heartbeat that fails", () => {
   it("is logged and ends the attempt (its worker stopped), and the job is taken again once the lease lapses", async () => {
     // A search of minutes; leases of 2 s renewed every ⅔ s. While the column the heartbeat writes
     // is renamed away, renewals fail; two in a row end the attempt, which frees the only worker.
-    const params = { ...quickInputs.budget.params, tx: { pre: 1, post: 3, step: 0.02 }, ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] } };
+    const params = { ...quickInputs.budget.params, tx: { pre: 2, post: 4, step: 0.01 }, ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] } };
     const q = await privateQueue();
     try {
       const id = await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } });

@@ -307,6 +307,29 @@ export type CancelOutcome = { cancelled: true; jobIds: number[] } | { cancelled:
  * runs in the same transaction (the audit event).
  */
 export async function cancelJob(id: number, message: string, also?: (tx: Tx) => Promise<void>): Promise<CancelOutcome> {
+  // The cancel locks the job and then its children while the attempt computing it renews its lease
+  // and stores progress: InnoDB may pick the cancel as a deadlock's victim. It rolled back whole,
+  // so it is simply tried again.
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await cancelOnce(id, message, also);
+    } catch (e) {
+      if (attempt >= DEADLOCK_RETRIES || !isDeadlock(e)) throw e;
+    }
+  }
+}
+
+/** Times a transaction chosen as a deadlock's victim is tried again before the error stands. */
+const DEADLOCK_RETRIES = 4;
+
+function isDeadlock(e: unknown): boolean {
+  for (let c: unknown = e; c && typeof c === "object"; c = (c as { cause?: unknown }).cause) {
+    if ((c as { errno?: number }).errno === 1213) return true; // ER_LOCK_DEADLOCK
+  }
+  return false;
+}
+
+async function cancelOnce(id: number, message: string, also?: (tx: Tx) => Promise<void>): Promise<CancelOutcome> {
   return db.transaction(async (tx): Promise<CancelOutcome> => {
     const [job] = await tx.select().from(jobs).where(eq(jobs.id, id)).for("update");
     if (!job) throw new Error(`job ${id} has gone`);
