@@ -54,6 +54,7 @@ export function readCsvResponse(text: string): SampledRecord {
       relax_column_count: true,
       trim: delimiter !== "whitespace",
       info: true,
+      // csv-parse's typings do not follow `info: true`, which wraps each record as { record, info }.
     }) as unknown as { record: string[]; info: { lines: number } }[];
   } catch (e) {
     if (e instanceof CsvError) {

@@ -54,6 +54,7 @@ export function nelderMead(
   x0.forEach((v, i) => {
     if (!Number.isFinite(v)) throw new RangeError(`x0[${i}] must be finite, got ${v}`);
   });
+  // The UMD build's global has no type declaration (see the top of this file).
   const api = (globalThis as unknown as { fmin?: FminApi }).fmin;
   if (api === undefined || typeof api.nelderMead !== "function") {
     throw new TypeError("the fmin package did not register its API (globalThis.fmin)");
