@@ -3,6 +3,7 @@
 import { z } from "zod";
 import { DEFAULT_SAMPLING_POLICY } from "../clocking/samplingPhase.ts";
 import { finiteNumber, modulationSchema, nonNegativeInt, nonNegativeNumber, positiveNumber, samplingPolicySchema } from "./common.ts";
+import { ffeSchema, frontEndSchema, packagesSchema } from "./frontEnd.ts";
 
 /** Largest number of settings one CTLE grid axis may hold. */
 export const MAX_GRID_POINTS = 512;
@@ -119,7 +120,8 @@ export const clockingSchema = z.object({
 
 /**
  * The Budget: swing, noise, sensitivity, jitter, target BER, the equalizers' search space, the
- * required headroom and the clocking. Units are in the field names (volts, hertz, UI).
+ * required headroom and the clocking, and optionally the packages, the receiver's bandwidth and a
+ * receive FFE. Units are in the field names (volts, hertz, UI, farads, ohms, metres).
  */
 export const budgetSchema = z.object({
   modulation: modulationSchema.default("nrz"),
@@ -151,6 +153,9 @@ export const budgetSchema = z.object({
   ctle: ctleSchema,
   dfe: dfeSchema.default({ taps: 0 }),
   clocking: clockingSchema.default({ scheme: "recovered", policy: DEFAULT_SAMPLING_POLICY }),
+  package: packagesSchema.optional().describe("the transmitter's and receiver's packages (IEEE 802.3 Annex 93A form); omit for ideal pins"),
+  frontEnd: frontEndSchema.optional().describe("the receiver's bandwidth filter; omit for none"),
+  ffe: ffeSchema.optional().describe("a receive FFE (the feed-forward filter of an MMSE-DFE, set per CTLE setting); omit for none"),
 });
 
 /** A budget as written by a person or a script (defaults not yet applied). */

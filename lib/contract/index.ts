@@ -15,3 +15,4 @@ export * from "./optimize.ts";
 export * from "./population.ts";
 export * from "./registerField.ts";
 export * from "./aggressor.ts";
+export * from "./frontEnd.ts";

@@ -5,3 +5,4 @@ export * from "./crosstalkTransfers.ts";
 export * from "./integratedCrosstalkNoise.ts";
 export * from "./linkFromTouchstone.ts";
 export * from "./crosstalkParts.ts";
+export * from "./linkAggressor.ts";

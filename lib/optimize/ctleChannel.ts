@@ -1,23 +1,32 @@
-// The channel after one CTLE setting, prepared for a search: filtered once, noise at the limiter
-// known, and symbol-spaced cursors per sampling phase computed once and kept.
+// The channel after one CTLE setting (and the receive FFE, when the budget has one), prepared for a
+// search: filtered once, noise at the limiter known, its aggressors at the sampler, and
+// symbol-spaced cursors per sampling phase computed once and kept.
 import { jitterKernel } from "../analysis/jitterKernel.ts";
-import { limiterNoise } from "../analysis/limiterNoise.ts";
-import { ctleNoiseGain } from "../equalizers/ctleNoiseGain.ts";
-import { type CtlePlan, createCtlePlan } from "../equalizers/ctlePlan.ts";
+import { aggressorLabel, type LinkAggressor } from "../crosstalk/linkAggressor.ts";
+import { applyFir } from "../equalizers/applyFir.ts";
+import { createCtlePlan } from "../equalizers/ctlePlan.ts";
 import type { CtleParams } from "../equalizers/ctleResponse.ts";
+import { applyFrontEnd } from "../package/frontEnd.ts";
 import type { Pulse } from "../types.ts";
+import { type ChannelCrosstalk, channelCrosstalk, receivedAggressor } from "./channelCrosstalk.ts";
+import { designReceiveFfe, ffeNoiseVariance, type ReceiveFfe } from "./receiveFfe.ts";
+import { receiverNoiseCorrelation } from "./receiverNoise.ts";
 import type { CtleSetting, SearchSpace } from "./searchSpace.ts";
 
 /** The channel through one CTLE setting (pulse for a 1 V symbol, before the transmit FIR). */
 export interface CtleChannel {
   readonly setting: CtleSetting;
   readonly params: CtleParams;
-  /** CTLE output for a 1 V symbol; `mainIndex` is its peak. */
+  /** CTLE (and receive FFE) output for a 1 V symbol; `mainIndex` is its main cursor. */
   readonly pulse: Pulse;
-  /** Noise rms at the limiter input with this CTLE, volts. */
+  /** Noise rms at the limiter input with this CTLE (and FFE), volts. */
   readonly noiseRms_V: number;
-  /** CTLE noise-power gain applied to the front-end noise (1 when there is none). */
+  /** Noise-power gain of the receiver (package, bandwidth, CTLE, FFE) on the front-end noise (1 when there is none). */
   readonly noisePowerGain: number;
+  /** The aggressors at the sampler (null: none). */
+  readonly crosstalk: ChannelCrosstalk | null;
+  /** The receive FFE designed for this CTLE setting (null: none). */
+  readonly ffe: ReceiveFfe | null;
   /** Cursors per phase hold offsets `−pre … length − 1 − pre` around the main cursor. */
   readonly pre: number;
   readonly length: number;
@@ -38,40 +47,62 @@ export function phaseReach(space: SearchSpace, samplesPerUi: number): number {
   return Math.floor(samplesPerUi / 2) + kernel + samplesPerUi + 2;
 }
 
-/** One CTLE channel of `pulse` for any setting (e.g. gains rounded to register codes). */
-export function channelFor(pulse: Pulse, space: SearchSpace, setting: CtleSetting): CtleChannel {
-  return ctleChannel(createCtlePlan(pulse), space, setting, phaseReach(space, pulse.samplesPerUi));
-}
-
 /**
- * Filters the pulse by one CTLE setting (through a shared plan) and prepares its cursors.
- *
- * @param plan - CTLE plan of the channel's pulse.
- * @param space - the resolved budget (corners, noise).
- * @param setting - the gains of this setting.
- * @param maxPhase - largest |phase| in samples that will be asked for (sizes the cursor window).
+ * One CTLE channel of `pulse` (and its aggressors) for any setting (e.g. gains rounded to register
+ * codes): through the budget's front end and the CTLE, then {@link receiverChannel}.
  */
-export function ctleChannel(plan: CtlePlan, space: SearchSpace, setting: CtleSetting, maxPhase: number): CtleChannel {
-  if (!Number.isInteger(maxPhase) || maxPhase < 0) throw new RangeError(`maxPhase must be an integer ≥ 0, got ${maxPhase}`);
+export function channelFor(pulse: Pulse, space: SearchSpace, setting: CtleSetting, aggressors: readonly LinkAggressor[] = []): CtleChannel {
   const params: CtleParams = { ...space.ctleCorners, gDc_dB: setting.gDc_dB, gDc2_dB: setting.gDc2_dB };
-  return filteredChannel(plan.apply(params), space, setting, maxPhase);
+  const through = (p: Pulse) => createCtlePlan(applyFrontEnd(p, space.frontEnd)).apply(params);
+  const atCtle = aggressors.map((a) => ({ ...a, pulse: through(a.pulse) }));
+  return receiverChannel(through(pulse), space, setting, phaseReach(space, pulse.samplesPerUi), atCtle);
 }
 
 /**
- * A channel from the pulse already filtered by the CTLE setting `setting` (e.g. by
- * `ctleGridPulses`): its noise at the limiter and its cursors per phase.
+ * A channel from the pulse already through the front end and the CTLE setting `setting` (e.g. by
+ * `ctleGridPulses`), with its aggressors likewise filtered: the receive FFE designed for it when the
+ * budget has one ({@link designReceiveFfe}) and applied to the channel and every aggressor; the noise
+ * at the limiter, `√(noiseRms_V² + cᵀ·R·c)` with `R` the front-end noise's correlation through the
+ * receiver ({@link receiverNoiseCorrelation}; `c = [1]` without an FFE); each aggressor's transmitter
+ * (swing, and its own FIR unless it follows the victim's); and the cursors per phase.
  *
  * @param filtered - the CTLE output for a 1 V symbol, `mainIndex` at its peak.
- * @param space - the resolved budget (corners, noise).
+ * @param space - the resolved budget (corners, noise, FFE).
  * @param setting - the gains the pulse was filtered with.
  * @param maxPhase - largest |phase| in samples that will be asked for (sizes the cursor window).
+ * @param aggressors - the aggressors, their pulses through the same front end and CTLE.
  */
-export function filteredChannel(filtered: Pulse, space: SearchSpace, setting: CtleSetting, maxPhase: number): CtleChannel {
+export function receiverChannel(
+  filtered: Pulse,
+  space: SearchSpace,
+  setting: CtleSetting,
+  maxPhase: number,
+  aggressors: readonly LinkAggressor[] = [],
+): CtleChannel {
   if (!Number.isInteger(maxPhase) || maxPhase < 0) throw new RangeError(`maxPhase must be an integer ≥ 0, got ${maxPhase}`);
   const params: CtleParams = { ...space.ctleCorners, gDc_dB: setting.gDc_dB, gDc2_dB: setting.gDc2_dB };
   const b = space.budget;
-  const noisePowerGain = b.inputNoiseRms_V > 0 ? ctleNoiseGain(params, space.baud_Hz / 2) : 1;
-  return new FilteredChannel(setting, params, filtered, limiterNoise(b.noiseRms_V, b.inputNoiseRms_V, noisePowerGain), noisePowerGain, maxPhase);
+  const ffeSpec = space.ffe;
+  const r = receiverNoiseCorrelation(space, params, ffeSpec === null ? 0 : ffeSpec.pre + ffeSpec.post);
+  const received = aggressors.map((a, i) =>
+    receivedAggressor({ name: aggressorLabel(a, i), kind: a.kind, pulse: a.pulse, txTaps: a.txTaps }, (p) => p, (a.txSwing_Vppd ?? b.txSwing_Vppd) / 2),
+  );
+  let pulse = filtered;
+  let ffe: ReceiveFfe | null = null;
+  let inputVariance = r[0];
+  let atSampler = received;
+  if (ffeSpec !== null) {
+    ffe = designReceiveFfe(filtered, space, r, received.map((a) => a.pulse));
+    const f = ffe;
+    pulse = applyFir(filtered, f.taps, f.pre);
+    inputVariance = ffeNoiseVariance(f, r);
+    atSampler = received.map((a) => ({ ...a, pulse: applyFir(a.pulse, f.taps, f.pre) }));
+  }
+  const sigmaIn = b.inputNoiseRms_V;
+  const noisePowerGain = sigmaIn > 0 ? inputVariance / (sigmaIn * sigmaIn) : 1;
+  const noiseRms_V = Math.sqrt(b.noiseRms_V * b.noiseRms_V + inputVariance);
+  const crosstalk = atSampler.length === 0 ? null : channelCrosstalk(atSampler, space.modulation, noiseRms_V);
+  return new FilteredChannel(setting, params, pulse, noiseRms_V, noisePowerGain, maxPhase, crosstalk, ffe);
 }
 
 /** {@link CtleChannel} with its cursors computed per phase on first use. */
@@ -88,6 +119,8 @@ class FilteredChannel implements CtleChannel {
     readonly noiseRms_V: number,
     readonly noisePowerGain: number,
     maxPhase: number,
+    readonly crosstalk: ChannelCrosstalk | null,
+    readonly ffe: ReceiveFfe | null,
   ) {
     const spu = pulse.samplesPerUi;
     const m = pulse.mainIndex;

@@ -2,7 +2,9 @@
 // policy's sampling phase, with the closed-form (clipped) DFE, and the limiter headroom it leaves.
 import { type StatisticalEye, statisticalEyeOfCursors } from "../analysis/statisticalEye.ts";
 import { criterionLag, criterionPhase, defaultPhaseWindow } from "../clocking/samplingPhase.ts";
+import type { CrosstalkParts } from "../crosstalk/crosstalkParts.ts";
 import { dfeTaps } from "../equalizers/dfeTaps.ts";
+import { crosstalkFor } from "./channelCrosstalk.ts";
 import { type CtleChannel, equalizedCursors } from "./ctleChannel.ts";
 import type { SearchSpace } from "./searchSpace.ts";
 
@@ -25,8 +27,10 @@ export interface PreparedEye {
   readonly dfeTaps: Float64Array;
   /** Whether each DFE tap hit its limit. */
   readonly dfeClipped: readonly boolean[];
-  /** The statistical eye (DFE included). */
+  /** The statistical eye (DFE and crosstalk included). */
   readonly eye: StatisticalEye;
+  /** The crosstalk in the eye (null: no aggressors, or left out). */
+  readonly crosstalk: CrosstalkParts | null;
 }
 
 /** The eye of one setting at one sampling phase, with its figures. */
@@ -39,7 +43,10 @@ export interface PhaseEye extends PreparedEye {
 
 /**
  * Prepares the statistical eye of CTLE channel + transmit FIR `taps` with a DFE of `dfeCount` taps
- * set in closed form at `phase`: each tap equals its post-cursor there, clipped to its limit.
+ * set in closed form at `phase`: each tap equals its post-cursor there, clipped to its limit. The
+ * channel's aggressors ({@link crosstalkFor}: each at its worst phase, FEXT through `taps` unless its
+ * FIR is its own) add their parts to every law and their lumped variance to the noise; the DFE
+ * cancels none of them. `withCrosstalk = false` leaves them out (the eye without crosstalk).
  */
 export function prepareEye(
   channel: CtleChannel,
@@ -47,11 +54,13 @@ export function prepareEye(
   taps: ArrayLike<number>,
   dfeCount: number,
   phase: number,
+  withCrosstalk = true,
 ): PreparedEye {
   const pre = space.firSpec.pre;
   const at = equalizedCursors(channel, taps, pre, phase, space.scale_V);
   const dfe = dfeTaps(at, dfeCount, space.dfeLimits_V.subarray(0, dfeCount));
   const jittered = space.jitter.rjRms_UI > 0 || space.jitter.djPp_UI > 0;
+  const crosstalk = withCrosstalk && channel.crosstalk !== null ? crosstalkFor(channel.crosstalk, taps, pre) : null;
   const eye = statisticalEyeOfCursors(
     {
       samplesPerUi: channel.pulse.samplesPerUi,
@@ -59,14 +68,15 @@ export function prepareEye(
     },
     {
       modulation: space.modulation,
-      noiseRms_V: channel.noiseRms_V,
+      noiseRms_V: crosstalk === null ? channel.noiseRms_V : Math.sqrt(channel.noiseRms_V ** 2 + crosstalk.lumpedVariance_V2),
       jitter: jittered ? space.jitter : undefined,
       dfeTaps: dfe.taps,
       kernelFloor: kernelFloorOf(space),
       targetBer: space.budget.targetBer,
+      ...(crosstalk === null ? {} : { extraParts_V: crosstalk.parts_V }),
     },
   );
-  return { phase, dfeTaps: dfe.taps, dfeClipped: dfe.clipped, eye };
+  return { phase, dfeTaps: dfe.taps, dfeClipped: dfe.clipped, eye, crosstalk };
 }
 
 /** Completes a prepared eye: eye height at the target BER and the limiter headroom. */
@@ -104,15 +114,16 @@ export function lightPhaseBound(space: SearchSpace, prepared: PreparedEye, shift
   return (eye > 0 ? eye : 0) - space.budget.limiterSensitivity_V + 1e-12;
 }
 
-/** {@link prepareEye} and {@link finishEye} in one step. */
+/** {@link prepareEye} and {@link finishEye} in one step (`withCrosstalk = false`: the eye without the aggressors). */
 export function phaseEye(
   channel: CtleChannel,
   space: SearchSpace,
   taps: ArrayLike<number>,
   dfeCount: number,
   phase: number,
+  withCrosstalk = true,
 ): PhaseEye {
-  return finishEye(space, prepareEye(channel, space, taps, dfeCount, phase));
+  return finishEye(space, prepareEye(channel, space, taps, dfeCount, phase, withCrosstalk));
 }
 
 /**

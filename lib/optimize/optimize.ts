@@ -3,6 +3,8 @@
 import { eyeWidth } from "../analysis/bathtub.ts";
 import { type DfeErrorPropagation, dfeErrorPropagation } from "../analysis/dfeErrorPropagation.ts";
 import type { BudgetInput } from "../contract/budget.ts";
+import type { AggressorKind } from "../crosstalk/aggressorKind.ts";
+import type { LinkAggressor } from "../crosstalk/linkAggressor.ts";
 import type { Pulse } from "../types.ts";
 import type { CtleChannel } from "./ctleChannel.ts";
 import { type PhaseEye, phaseEye } from "./evaluateSetting.ts";
@@ -26,6 +28,19 @@ export interface SettingResult {
   readonly samplingPhase_UI: number;
   /** Noise rms at the limiter input with this CTLE setting. */
   readonly noiseRms_V: number;
+  /** The receive FFE at this CTLE setting (null: the budget has none). */
+  readonly ffe: { readonly taps: number[]; readonly pre: number } | null;
+}
+
+/** The crosstalk at the chosen setting (the contract's `crosstalk`, with the eye without it). */
+export interface CrosstalkResult {
+  /** Rms of all the crosstalk at the sampler (powers add), volts. */
+  readonly rms_V: number;
+  /** Per aggressor, in the order given: its rms at the sampler and its worst phase (UI from its peak). */
+  readonly perAggressor: { readonly name: string; readonly kind: AggressorKind; readonly rms_V: number; readonly phase_UI: number }[];
+  /** The chosen setting's eye height and headroom without the aggressors (same phase). */
+  readonly eyeHeightWithoutCrosstalk_V: number;
+  readonly limiterHeadroomWithoutCrosstalk_V: number;
 }
 
 /** One of the best settings, for plotting. */
@@ -42,6 +57,8 @@ export interface TopSetting {
 export interface OptimizeResult extends SettingResult {
   /** The best setting without DFE (transmit FIR + CTLE only). */
   readonly linearOnly: SettingResult;
+  /** The aggressors at the chosen setting (null: none given). */
+  readonly crosstalk: CrosstalkResult | null;
   readonly verdict: Verdict;
   /**
    * DFE error propagation at the chosen setting (its own decisions fed back; `dfeErrorPropagation`),
@@ -85,6 +102,8 @@ export interface OptimizeOptions {
   readonly onProgress?: (fraction: number) => void;
   /** Number of top settings returned (default 5). */
   readonly topCount?: number;
+  /** The victim's aggressors: crosstalk pulses at the receiver's pins (see `LinkAggressor`). */
+  readonly aggressors?: readonly LinkAggressor[];
 }
 
 /** The optimizer's result together with what a tuning run needs to draw it. */
@@ -112,6 +131,24 @@ function settingResult(space: SearchSpace, s: { taps: Float64Array; channel: Ctl
     limiterHeadroom_V: s.eye.limiterHeadroom_V,
     samplingPhase_UI: s.eye.phase / spu,
     noiseRms_V: s.channel.noiseRms_V,
+    ffe: s.channel.ffe === null ? null : { taps: Array.from(s.channel.ffe.taps), pre: s.channel.ffe.pre },
+  };
+}
+
+/** The crosstalk figures of a setting, and its eye without the aggressors. */
+function crosstalkResult(space: SearchSpace, s: { taps: Float64Array; channel: CtleChannel; eye: PhaseEye }): { result: CrosstalkResult; without: PhaseEye } | null {
+  const x = s.eye.crosstalk;
+  const agg = s.channel.crosstalk;
+  if (x === null || agg === null) return null;
+  const without = phaseEye(s.channel, space, s.taps, s.eye.dfeTaps.length, s.eye.phase, false);
+  return {
+    result: {
+      rms_V: x.rms_V,
+      perAggressor: x.perAggressor.map((p, i) => ({ name: p.name, kind: agg.aggressors[i].kind, rms_V: p.rms_V, phase_UI: p.phase_UI })),
+      eyeHeightWithoutCrosstalk_V: without.eyeHeight_V,
+      limiterHeadroomWithoutCrosstalk_V: without.limiterHeadroom_V,
+    },
+    without,
   };
 }
 
@@ -120,16 +157,19 @@ function settingResult(space: SearchSpace, s: { taps: Float64Array; channel: Ctl
  * setting with the budget's DFE taps and the best without DFE in one pass, then the fewest DFE taps
  * that meet the required headroom (feasibility passes, bisecting the tap count: more taps never
  * remove a setting's ability to cancel), then — for a continuous FIR — Nelder–Mead refinement.
+ * Aggressors, when given, go through the same front end, CTLE and receive FFE as the channel and are
+ * in every eye the search evaluates; the result then reports them at the chosen setting, with its
+ * eye without them, and the verdict names crosstalk where it decides.
  *
  * @param pulse - channel pulse response for a 1 V symbol.
  * @param budget - the budget (validated; RangeError names the faulty field).
- * @param options - progress callback, number of top settings.
+ * @param options - progress callback, number of top settings, aggressors.
  */
 export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: OptimizeOptions = {}): OptimizeDetail {
   const space = searchSpace(pulse, budget);
   const report = options.onProgress ?? (() => {});
   report(0);
-  const prepared = prepareChannels(pulse, space);
+  const prepared = prepareChannels(pulse, space, options.aggressors ?? []);
   const budgetDfeCount = space.dfeCount;
   const counts = budgetDfeCount > 0 ? [budgetDfeCount, 0] : [0];
   const main = jointSearch(pulse, space, { dfeCounts: counts, topCount: options.topCount, onProgress: (f) => report(0.75 * f) }, prepared);
@@ -161,11 +201,17 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
   const fullCandidate: Candidate = { ...fullC, taps: full.taps, limiterHeadroom_V: full.eye.limiterHeadroom_V, eyeHeight_V: full.eye.eyeHeight_V };
   const linCandidate: Candidate = { ...linC, taps: linear.taps, limiterHeadroom_V: linear.eye.limiterHeadroom_V, eyeHeight_V: linear.eye.eyeHeight_V };
   const propagation = full.eye.dfeTaps.length > 0 ? dfeErrorPropagation(full.eye.eye, full.eye.phase) : null;
+  const fullXt = crosstalkResult(space, full);
+  const linXt = crosstalkResult(space, linear);
+  const worst = fullXt === null ? null : fullXt.result.perAggressor.reduce((a, b) => (b.rms_V > a.rms_V ? b : a));
   const v = verdict(
     space,
     { candidate: linCandidate, mainCursor_V: linear.eye.eye.main(linear.eye.phase), noiseRms_V: linear.channel.noiseRms_V },
-    { candidate: fullCandidate, errorPropagation: propagation },
+    { candidate: fullCandidate, noiseRms_V: full.channel.noiseRms_V, errorPropagation: propagation },
     fewest.taps,
+    fullXt === null || linXt === null || worst === null
+      ? undefined
+      : { linearWithout_V: linXt.without.eyeHeight_V, fullWithout_V: fullXt.without.eyeHeight_V, rms_V: fullXt.result.rms_V, count: fullXt.result.perAggressor.length, worst },
   );
 
   const g1 = space.ctleAxes.gDc_dB;
@@ -174,6 +220,7 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
   const result: OptimizeResult = {
     ...settingResult(space, full),
     linearOnly: settingResult(space, linear),
+    crosstalk: fullXt?.result ?? null,
     verdict: v,
     errorPropagation: propagation,
     clocking: {

@@ -9,6 +9,7 @@ import { formatPath } from "../contract/common.ts";
 import { formatQuantity } from "../contract/formatQuantity.ts";
 import type { CtleParams } from "../equalizers/ctleResponse.ts";
 import type { TxFirSpec } from "../equalizers/txFirConstraints.ts";
+import { type FrontEnd, frontEndTransfer, isNeutralFrontEnd } from "../package/frontEnd.ts";
 import { assertPulse } from "../pulse/assertPulse.ts";
 import type { Modulation, Pulse } from "../types.ts";
 
@@ -48,6 +49,15 @@ export interface SearchSpace {
   readonly policy: SamplingPolicy;
   /** The conditional tail each eye edge carries at the budget's target bit error ratio (`edgeTail`). */
   readonly edgeTail: number;
+  /** Packages and the receiver's bandwidth filter, applied to the channel and every aggressor before the CTLE. */
+  readonly frontEnd: FrontEnd;
+  /**
+   * `|H_rx(f)|²` of the receiver's package and bandwidth filter (what shapes the front-end noise) on
+   * [0, baud/2], interpolated from a 4097-point table; null when the receiver has neither.
+   */
+  readonly rxNoiseShaping: ((freq_Hz: number) => number) | null;
+  /** The receive FFE's tap counts (null: none). */
+  readonly ffe: { readonly pre: number; readonly post: number } | null;
 }
 
 /**
@@ -123,6 +133,24 @@ export function searchSpace(pulse: Pulse, budget: BudgetInput | Budget): SearchS
     jitter: samplerJitter(linkJitter, b.clocking.scheme, b.clocking.bandwidth_Hz, baud_Hz),
     policy: b.clocking.policy,
     edgeTail: edgeTail(b.modulation, b.targetBer),
+    frontEnd: { txPackage: b.package?.tx, rxPackage: b.package?.rx, rxBandwidth_Hz: b.frontEnd?.rxBandwidth_Hz },
+    rxNoiseShaping: rxNoiseShaping({ rxPackage: b.package?.rx, rxBandwidth_Hz: b.frontEnd?.rxBandwidth_Hz }, baud_Hz / 2),
+    ffe: b.ffe ?? null,
+  };
+}
+
+/** Points of the table {@link SearchSpace.rxNoiseShaping} interpolates. */
+const SHAPING_POINTS = 4096;
+
+function rxNoiseShaping(rx: FrontEnd, band_Hz: number): ((freq_Hz: number) => number) | null {
+  if (isNeutralFrontEnd(rx)) return null;
+  const freqs = Float64Array.from({ length: SHAPING_POINTS + 1 }, (_, k) => (k * band_Hz) / SHAPING_POINTS);
+  const h = frontEndTransfer(rx, freqs);
+  const p = Float64Array.from(freqs, (_, k) => h.re[k] * h.re[k] + h.im[k] * h.im[k]);
+  return (f) => {
+    const x = Math.min(SHAPING_POINTS, Math.max(0, (f / band_Hz) * SHAPING_POINTS));
+    const i = Math.min(SHAPING_POINTS - 1, Math.floor(x));
+    return p[i] + (x - i) * (p[i + 1] - p[i]);
   };
 }
 

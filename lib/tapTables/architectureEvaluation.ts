@@ -1,14 +1,12 @@
 // An architecture study: for a set of channels and one budget, how much limiter headroom each
 // candidate equalizer architecture leaves (worst case and median), against its complexity.
 import type { BudgetInput } from "../contract/budget.ts";
-import { applyFir } from "../equalizers/applyFir.ts";
-import { convolveCursors } from "../equalizers/convolveCursors.ts";
+import type { LinkAggressor } from "../crosstalk/linkAggressor.ts";
 import { jointSearch } from "../optimize/jointSearch.ts";
 import { prepareChannels } from "../optimize/prepareChannels.ts";
 import { resolveBudget, searchSpace } from "../optimize/searchSpace.ts";
-import { mmseEqualizer } from "../solvers/mmse.ts";
 import type { Pulse } from "../types.ts";
-import { commonGrid } from "./populationDefault.ts";
+import { aggressorsOnGrid, commonGrid } from "./populationDefault.ts";
 
 /** A candidate architecture: which blocks the link has and their tap counts. */
 export interface ArchitectureCandidate {
@@ -72,30 +70,36 @@ function checkCandidate(a: ArchitectureCandidate, i: number): void {
  * blocks), and the outcome gives the worst and median headroom.
  *
  * Blocks a candidate lacks become neutral: no transmit FIR is one full-swing tap; no CTLE is a flat
- * front end (the budget's noise and front-end noise apply unshaped). A receive FFE is the MMSE
- * equalizer of the CTLE output (scaled to keep the main cursor), designed per CTLE setting; it
- * multiplies the noise rms at the limiter by `‖c‖₂` (white noise at its input). DFE limits beyond the
+ * front end (the budget's noise and front-end noise apply unshaped). A receive FFE is the budget's
+ * `ffe` in the joint search itself — the feed-forward filter of an MMSE-DFE with the candidate's DFE
+ * taps, designed per CTLE setting against the noise and crosstalk that reach it, its noise the
+ * front-end noise's correlation through it — the same model as a tuning run. DFE limits beyond the
  * budget's list repeat its last limit. Candidates that share transmit FIR, CTLE and FFE share one
- * search per channel (the DFE tap counts are searched together).
+ * search per channel (the DFE tap counts are searched together; with an FFE, whose design depends
+ * on the feedback taps, one search per count). Each channel's aggressors are in every eye.
  *
  * @param pulses - the channels (same UI).
  * @param budget - the budget.
  * @param candidates - the architectures.
  * @param onProgress - progress 0 … 1.
+ * @param aggressors - per channel (same order), its aggressors at the receiver's pins.
  */
 export function evaluateArchitectures(
   pulses: readonly Pulse[],
   budget: BudgetInput,
   candidates: readonly ArchitectureCandidate[],
   onProgress: (fraction: number) => void = () => {},
+  aggressors?: readonly (readonly LinkAggressor[])[],
 ): ArchitectureOutcome[] {
   const members = commonGrid(pulses);
+  const memberAggressors = aggressorsOnGrid(members, aggressors);
   if (!Array.isArray(candidates) || candidates.length === 0) throw new RangeError("candidates must hold at least one architecture");
   candidates.forEach(checkCandidate);
   const b = resolveBudget(budget);
+  const groupKey = (c: ArchitectureCandidate) => JSON.stringify([c.tx, c.ctle, c.ffe, c.ffe === null ? null : c.dfeTaps]);
   const groups = new Map<string, { cand: ArchitectureCandidate; counts: Set<number> }>();
   for (const c of candidates) {
-    const key = JSON.stringify([c.tx, c.ctle, c.ffe]);
+    const key = groupKey(c);
     const g = groups.get(key) ?? { cand: c, counts: new Set<number>() };
     g.counts.add(c.dfeTaps);
     groups.set(key, g);
@@ -113,7 +117,7 @@ export function evaluateArchitectures(
           : undefined
         : Array.from({ length: maxDfe }, (_, k) => lim[Math.min(k, lim.length - 1)]);
     const sameTx = cand.tx !== null && cand.tx.pre === b.tx.pre && cand.tx.post === b.tx.post;
-    const derived = {
+    const derived: BudgetInput = {
       ...b,
       tx:
         cand.tx === null
@@ -121,19 +125,21 @@ export function evaluateArchitectures(
           : { pre: cand.tx.pre, post: cand.tx.post, step: b.tx.step, ranges: sameTx ? b.tx.ranges : undefined },
       ctle: cand.ctle ? b.ctle : FLAT_CTLE,
       dfe: { taps: maxDfe, limits_V: limits },
+      ffe: cand.ffe ?? undefined,
     };
     const list = [...counts].sort((x, y) => x - y);
     const per = list.map(() => [] as number[]);
-    members.forEach((pulse) => {
-      const best = cand.ffe === null ? searchPlain(pulse, derived, list) : searchWithFfe(pulse, derived, list, cand.ffe);
-      best.forEach((v, j) => per[j].push(v));
+    members.forEach((pulse, i) => {
+      const space = searchSpace(pulse, derived);
+      const r = jointSearch(pulse, space, { dfeCounts: list, topCount: 1 }, prepareChannels(pulse, space, memberAggressors[i]));
+      r.best.forEach((c, j) => per[j].push(c === null ? Number.NEGATIVE_INFINITY : c.limiterHeadroom_V));
       done++;
       onProgress(done / total);
     });
     list.forEach((n, j) => headroom.set(`${gk}|${n}`, per[j]));
   }
   return candidates.map((c) => {
-    const h = headroom.get(`${JSON.stringify([c.tx, c.ctle, c.ffe])}|${c.dfeTaps}`) as number[];
+    const h = headroom.get(`${groupKey(c)}|${c.dfeTaps}`) as number[];
     let worst = 0;
     h.forEach((v, i) => {
       if (v < h[worst]) worst = i;
@@ -147,40 +153,4 @@ export function evaluateArchitectures(
       headroom_V: h,
     };
   });
-}
-
-/** Best headroom per DFE count for one channel (plain joint search). */
-function searchPlain(pulse: Pulse, budget: BudgetInput, counts: number[]): number[] {
-  const space = searchSpace(pulse, budget);
-  const r = jointSearch(pulse, space, { dfeCounts: counts, topCount: 1 });
-  return r.best.map((c) => (c === null ? Number.NEGATIVE_INFINITY : c.limiterHeadroom_V));
-}
-
-/** Best headroom per DFE count with a receive FFE designed per CTLE setting. */
-function searchWithFfe(pulse: Pulse, budget: BudgetInput, counts: number[], ffe: { pre: number; post: number }): number[] {
-  const space = searchSpace(pulse, budget);
-  const best = counts.map(() => Number.NEGATIVE_INFINITY);
-  for (const ch of prepareChannels(pulse, space).channels) {
-    const cursors = { h: ch.cursors(0), main: ch.pre };
-    const c = mmseEqualizer(cursors, ffe.pre, ffe.post, ch.noiseRms_V / space.scale_V).taps;
-    const g = convolveCursors(cursors, c, ffe.pre);
-    const gain = g.h[g.main];
-    if (!(Math.abs(gain) > 0)) continue;
-    const scale = cursors.h[cursors.main] / gain;
-    const taps = Float64Array.from(c, (x) => x * scale);
-    let norm = 0;
-    for (const x of taps) norm += x * x;
-    const equalized = applyFir(ch.pulse, taps, ffe.pre);
-    const inner = {
-      ...(budget as object),
-      noiseRms_V: ch.noiseRms_V * Math.sqrt(norm),
-      inputNoiseRms_V: 0,
-      ctle: FLAT_CTLE,
-    } as BudgetInput;
-    const r = searchPlain(equalized, inner, counts);
-    r.forEach((v, j) => {
-      if (v > best[j]) best[j] = v;
-    });
-  }
-  return best;
 }

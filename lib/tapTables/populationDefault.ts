@@ -2,7 +2,9 @@
 // worst channel's limiter headroom (minimax), optionally on register codes, with each channel's
 // headroom under the default next to its own optimum.
 import type { BudgetInput } from "../contract/budget.ts";
-import { channelFor } from "../optimize/ctleChannel.ts";
+import type { LinkAggressor } from "../crosstalk/linkAggressor.ts";
+import { type CtleChannel, channelFor } from "../optimize/ctleChannel.ts";
+import type { ReceiveFfe } from "../optimize/receiveFfe.ts";
 import { evaluateSetting, type PhaseEye } from "../optimize/evaluateSetting.ts";
 import { type Candidate, jointSearch } from "../optimize/jointSearch.ts";
 import { ownOptimum, type OwnOptimum } from "./ownOptimum.ts";
@@ -24,6 +26,10 @@ export interface ChannelUnderDefault {
   readonly samplingPhase_UI: number;
   /** The channel's adapted DFE taps with the default, volts. */
   readonly dfeTaps: number[];
+  /** The channel's adapted receive FFE taps with the default (null: the budget has no FFE). */
+  readonly ffeTaps: number[] | null;
+  /** Its aggressors with the default: crosstalk rms at the sampler, per aggressor (null: none). */
+  readonly crosstalk: { readonly rms_V: number; readonly perAggressor: { readonly name: string; readonly rms_V: number; readonly phase_UI: number }[] } | null;
   /** The channel's own optimum on the budget's grid (its best setting alone). */
   readonly ownHeadroom_V: number;
   readonly own: { readonly tx: number[]; readonly ctle: { readonly gDc_dB: number; readonly gDc2_dB: number } };
@@ -39,6 +45,8 @@ export interface PopulationResult {
     readonly tx: { readonly taps: number[] };
     readonly ctle: { readonly gDc_dB: number; readonly gDc2_dB: number };
     readonly dfe: { readonly taps: number[] };
+    /** Receive FFE starting values like the DFE's (null: the budget has no FFE); main tap `taps[pre]`. */
+    readonly ffe: { readonly taps: number[]; readonly pre: number } | null;
   };
   /** Register codes and their values per field name (null without a register map). */
   readonly codes: Record<string, number> | null;
@@ -64,6 +72,8 @@ export interface PopulationOptions {
   readonly memberBudgets?: readonly BudgetInput[];
   /** Each member's own optimum when already known (computed by another job): those searches are skipped. */
   readonly own?: readonly OwnOptimum[];
+  /** Per channel (same order as the pulses), its aggressors at the receiver's pins. */
+  readonly aggressors?: readonly (readonly LinkAggressor[])[];
 }
 
 /**
@@ -87,9 +97,26 @@ export function commonGrid(pulses: readonly Pulse[]): Pulse[] {
   });
 }
 
+/**
+ * Each member's aggressors on the members' grid (resampled like the members by {@link commonGrid});
+ * empty lists when none are given.
+ * @throws RangeError unless there is one list per member.
+ */
+export function aggressorsOnGrid(members: readonly Pulse[], given: readonly (readonly LinkAggressor[])[] | undefined): LinkAggressor[][] {
+  if (given !== undefined && given.length !== members.length) {
+    throw new RangeError(`aggressors must hold one list per pulse (${members.length}), got ${given.length}`);
+  }
+  return members.map((_, i) => {
+    const list = given?.[i] ?? [];
+    const onGrid = commonGrid([members[0], ...list.map((a) => a.pulse)]).slice(1);
+    return list.map((a, j) => ({ ...a, pulse: onGrid[j] }));
+  });
+}
+
 interface Evaluated {
   readonly setting: EqualizerSetting;
   readonly eyes: PhaseEye[];
+  readonly channels: CtleChannel[];
   readonly worst: number;
   readonly worstIndex: number;
 }
@@ -103,10 +130,13 @@ interface Evaluated {
  * any single channel's optimum applied to the whole class. Without a map that holds by exactness.
  * Members may be channels at corners, each with its own budget (`memberBudgets`): the default then
  * maximizes the worst headroom over channels and corners.
+ * Each channel's aggressors are in its every eye (through its receive FFE, when the budget has one);
+ * the FFE, like the DFE, adapts per channel, and the default carries starting values for both.
  *
  * @param pulses - the class's members (same UI; pulses for a 1 V symbol).
  * @param budget - the budget (validated against the first pulse); its grids are every member's.
- * @param options - register map, progress, the members' budgets, their own optima when known.
+ * @param options - register map, progress, the members' budgets, their own optima when known, each
+ *   member's aggressors.
  */
 export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput, options: PopulationOptions = {}): PopulationResult {
   const members = commonGrid(pulses);
@@ -126,7 +156,8 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
     if (differs !== null) throw new RangeError(`memberBudgets[${i}].${differs} differs from budget's; a class's members share the grids`);
     return s;
   });
-  const prepared: PreparedChannels[] = members.map((p, i) => prepareChannels(p, spaces[i]));
+  const aggressors = aggressorsOnGrid(members, options.aggressors);
+  const prepared: PreparedChannels[] = members.map((p, i) => prepareChannels(p, spaces[i], aggressors[i]));
   report(0.05);
   const own: readonly OwnOptimum[] =
     options.own ??
@@ -146,16 +177,14 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
   });
   const map = options.registerMap;
   const evaluate = (s: EqualizerSetting): Evaluated => {
-    const eyes = members.map((p, i) => {
-      const onGrid = space.ctleSettings.findIndex((x) => x.gDc_dB === s.ctle.gDc_dB && x.gDc2_dB === s.ctle.gDc2_dB);
-      const ch = onGrid >= 0 ? prepared[i].channels[onGrid] : channelFor(p, spaces[i], s.ctle);
-      return evaluateSetting(ch, spaces[i], s.tx, dfeCount);
-    });
+    const onGrid = space.ctleSettings.findIndex((x) => x.gDc_dB === s.ctle.gDc_dB && x.gDc2_dB === s.ctle.gDc2_dB);
+    const channels = members.map((p, i) => (onGrid >= 0 ? prepared[i].channels[onGrid] : channelFor(p, spaces[i], s.ctle, aggressors[i])));
+    const eyes = channels.map((ch, i) => evaluateSetting(ch, spaces[i], s.tx, dfeCount));
     let worstIndex = 0;
     eyes.forEach((e, i) => {
       if (e.limiterHeadroom_V < eyes[worstIndex].limiterHeadroom_V) worstIndex = i;
     });
-    return { setting: s, eyes, worst: eyes[worstIndex].limiterHeadroom_V, worstIndex };
+    return { setting: s, eyes, channels, worst: eyes[worstIndex].limiterHeadroom_V, worstIndex };
   };
   let chosen: Evaluated;
   let codes: Record<string, number> | null = null;
@@ -178,23 +207,25 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
   }
   report(0.95);
 
-  // DFE starting values: per tap the centre of the channels' adapted taps (then rounded to codes).
-  const dfeStart: number[] = [];
-  for (let k = 0; k < dfeCount; k++) {
-    const taps = chosen.eyes.map((e) => e.dfeTaps[k]);
-    dfeStart.push((Math.min(...taps) + Math.max(...taps)) / 2);
-  }
+  // DFE and FFE starting values: per tap the centre of the channels' adapted taps (then rounded to codes).
+  const centre = (values: number[]) => (Math.min(...values) + Math.max(...values)) / 2;
+  const dfeStart = Array.from({ length: dfeCount }, (_, k) => centre(chosen.eyes.map((e) => e.dfeTaps[k])));
+  const ffeSpec = space.ffe;
+  const ffeStart =
+    ffeSpec === null ? null : Array.from({ length: ffeSpec.pre + 1 + ffeSpec.post }, (_, k) => centre(chosen.channels.map((c) => (c.ffe as ReceiveFfe).taps[k])));
   if (map !== undefined && codes !== null && values !== null) {
     for (const f of map) {
-      const m = /^dfe\[(\d+)\]$/.exec(f.parameter);
-      if (m === null) continue;
-      const k = Number(m[1]) - 1;
-      if (k >= dfeCount) continue;
-      const v = Math.min(f.max, Math.max(f.min, dfeStart[k]));
-      const code = encodeField(f, v);
+      const d = /^dfe\[(\d+)\]$/.exec(f.parameter);
+      const r = /^ffe\[(-?\d+)\]$/.exec(f.parameter);
+      let start: number[] | null = null;
+      let k = -1;
+      if (d !== null && Number(d[1]) <= dfeCount) [start, k] = [dfeStart, Number(d[1]) - 1];
+      if (r !== null && ffeStart !== null && ffeSpec !== null) [start, k] = [ffeStart, Number(r[1]) + ffeSpec.pre];
+      if (start === null || k < 0 || k >= start.length) continue;
+      const code = encodeField(f, Math.min(f.max, Math.max(f.min, start[k])));
       codes[f.name] = code;
       values[f.name] = decodeField(f, code);
-      dfeStart[k] = values[f.name];
+      start[k] = values[f.name];
     }
   }
   const spu = members[0].samplesPerUi;
@@ -203,6 +234,7 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
       tx: { taps: chosen.setting.tx.map(tidyTap) },
       ctle: { ...chosen.setting.ctle },
       dfe: { taps: dfeStart },
+      ffe: ffeStart === null || ffeSpec === null ? null : { taps: ffeStart, pre: ffeSpec.pre },
     },
     codes,
     values,
@@ -213,6 +245,8 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
       defaultEyeHeight_V: e.eyeHeight_V,
       samplingPhase_UI: e.phase / spu,
       dfeTaps: Array.from(e.dfeTaps),
+      ffeTaps: chosen.channels[i].ffe === null ? null : Array.from((chosen.channels[i].ffe as ReceiveFfe).taps),
+      crosstalk: e.crosstalk === null ? null : { rms_V: e.crosstalk.rms_V, perAggressor: e.crosstalk.perAggressor.map((x) => ({ ...x })) },
       ownHeadroom_V: own[i].limiterHeadroom_V,
       own: { tx: Array.from(own[i].taps, tidyTap), ctle: { gDc_dB: own[i].ctle.gDc_dB, gDc2_dB: own[i].ctle.gDc2_dB } },
     })),
