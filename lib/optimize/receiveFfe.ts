@@ -21,8 +21,10 @@ const DESIGN_SPAN = { pre: 16, post: 96 } as const;
  * the budget's DFE) on the CTLE output's cursors at its main cursor times the transmit amplitude
  * (a plain transmit FIR), for unit-power symbols of the budget's modulation, against the front-end
  * noise's correlation `noise_V2` plus each aggressor's (`E_s·Σ_k x_k·x_{k+m}` of its cursors at its
- * worst phase). The taps are then scaled so that the equalized main cursor equals the CTLE output's
- * (an unbiased slicer); a singular system gives the plain FFE.
+ * worst phase). The DFE's tap limits are honoured by leaving out of the feedback every post-cursor
+ * the design would make larger than its tap may cancel, and designing again (at most one pass per
+ * DFE tap). The taps are then scaled so that the equalized main cursor equals the CTLE output's (an
+ * unbiased slicer); a singular system gives the plain FFE.
  *
  * @param ctleOut - the CTLE output for a 1 V symbol (main cursor at its `mainIndex`).
  * @param space - the resolved budget (`space.ffe` non-null).
@@ -50,17 +52,32 @@ export function designReceiveFfe(ctleOut: Pulse, space: SearchSpace, noise_V2: F
       r[m] += es * s;
     }
   }
-  let taps: Float64Array;
+  const N = space.dfeCount;
+  const cancelled = new Array<boolean>(N).fill(true);
   try {
-    const d = mmseDfe({ h, main: cursors.main }, { pre: spec.pre, post: spec.post, feedbackTaps: space.dfeCount, noiseCorrelation_V2: r, symbolPower: es });
-    const gain = d.equalized.h[d.equalized.main];
-    if (!(Math.abs(gain) > 1e-12 * Math.abs(h[cursors.main]))) return { taps: plain, pre: spec.pre };
-    taps = Float64Array.from(d.taps, (c) => (c * h[cursors.main]) / gain);
+    for (let pass = 0; pass <= N; pass++) {
+      const d = mmseDfe({ h, main: cursors.main }, { pre: spec.pre, post: spec.post, feedbackTaps: N, cancelled, noiseCorrelation_V2: r, symbolPower: es });
+      const g = d.equalized;
+      const gain = g.h[g.main];
+      if (!(Math.abs(gain) > 1e-12 * Math.abs(h[cursors.main]))) return { taps: plain, pre: spec.pre };
+      const scale = h[cursors.main] / gain;
+      // A post-cursor beyond its tap's limit (after the unbiasing scale) cannot be cancelled: design without it.
+      let changed = false;
+      for (let k = 0; k < N; k++) {
+        const i = g.main + 1 + k;
+        const v = i < g.h.length ? Math.abs(g.h[i] * scale) : 0;
+        if (cancelled[k] && v > space.dfeLimits_V[k]) {
+          cancelled[k] = false;
+          changed = true;
+        }
+      }
+      if (!changed) return { taps: Float64Array.from(d.taps, (c) => c * scale), pre: spec.pre };
+    }
   } catch (e) {
     if (e instanceof RangeError) return { taps: plain, pre: spec.pre };
     throw e;
   }
-  return { taps, pre: spec.pre };
+  return { taps: plain, pre: spec.pre };
 }
 
 /** `cᵀ·R·c` for the Toeplitz correlation `r` (lags beyond it are 0): the variance after the FFE. */

@@ -15,6 +15,11 @@ export interface MmseDfeOptions {
   /** Feedback taps (0: a linear MMSE equalizer). */
   readonly feedbackTaps: number;
   /**
+   * Which of the first `feedbackTaps` post-cursors the feedback cancels (default all); a post-cursor
+   * left out counts as ISI in the error (e.g. one a tap limit keeps the DFE from cancelling).
+   */
+  readonly cancelled?: ArrayLike<boolean>;
+  /**
    * Autocorrelation of the noise at the filter's input at symbol spacing, `r[m] = E[n_k·n_{k+m}]`
    * (V²) for m = 0, 1, …; lags beyond the array are 0. White noise is `[σ²]`.
    */
@@ -27,7 +32,7 @@ export interface MmseDfeOptions {
 export interface MmseDfeResult {
   /** Feed-forward taps `c`, main tap `c[pre]`. */
   readonly taps: Float64Array;
-  /** Feedback taps `b_k = g[main + pre + k]` (they cancel the first post-cursors exactly). */
+  /** Feedback taps `b_k = g[main + pre + k]` (they cancel the first post-cursors exactly; 0 where not cancelled). */
   readonly feedback: Float64Array;
   /** Minimum mean-square error `E_s·(1 − g[main + pre])`, V². */
   readonly mse: number;
@@ -40,7 +45,8 @@ export interface MmseDfeResult {
 /**
  * Finite-length MMSE-DFE with decision delay at the main cursor and correct past decisions: the
  * feed-forward filter `c` minimizes `E_s·Σ_{i ∉ F}(g_i − δ_{i,d})² + cᵀ·R_n·c`, where `g = H·c`,
- * `d = main + pre` and `F = {d + 1 … d + feedbackTaps}` (the cursors the feedback taps cancel), so
+ * `d = main + pre` and `F = {d + 1 … d + feedbackTaps}` (the cursors the feedback taps cancel, less
+ * those `cancelled` leaves out), so
  * `c = (E_s·H̃ᵀH̃ + R_n)⁻¹·E_s·H̃ᵀ·e_d` with `H̃` the convolution matrix without the rows of `F` and
  * `R_n` the Toeplitz noise correlation. The noise spectrum enters through `R_n`, not as white noise
  * scaled by `‖c‖²`.
@@ -54,6 +60,8 @@ export function mmseDfe(cursors: Cursors, options: MmseDfeOptions): MmseDfeResul
   const { pre, post, feedbackTaps } = options;
   checkCursorWindow(cursors, pre, post);
   if (!Number.isInteger(feedbackTaps) || feedbackTaps < 0) throw new RangeError(`feedbackTaps must be an integer ≥ 0, got ${String(feedbackTaps)}`);
+  const cancelled = options.cancelled;
+  if (cancelled !== undefined && cancelled.length !== feedbackTaps) throw new RangeError(`cancelled must hold ${feedbackTaps} flags, one per feedback tap`);
   const es = options.symbolPower ?? 1;
   if (!(Number.isFinite(es) && es > 0)) throw new RangeError(`symbolPower must be a finite number > 0, got ${String(es)}`);
   const r = options.noiseCorrelation_V2;
@@ -64,7 +72,7 @@ export function mmseDfe(cursors: Cursors, options: MmseDfeOptions): MmseDfeResul
   const H = convolutionMatrix(cursors.h, n);
   const d = cursors.main + pre;
   const kept: number[] = [];
-  for (let i = 0; i < H.rows; i++) if (i <= d || i > d + feedbackTaps) kept.push(i);
+  for (let i = 0; i < H.rows; i++) if (i <= d || i > d + feedbackTaps || (cancelled !== undefined && !cancelled[i - d - 1])) kept.push(i);
   const Ht = H.selection(kept, Array.from({ length: n }, (_, j) => j));
   const Rn = noiseToeplitz(r, n);
   const R = Ht.transpose().mmul(Ht).mul(es).add(Rn);
@@ -79,7 +87,7 @@ export function mmseDfe(cursors: Cursors, options: MmseDfeOptions): MmseDfeResul
   const equalized = convolveCursors(cursors, taps, pre);
   const feedback = Float64Array.from({ length: feedbackTaps }, (_, k) => {
     const i = equalized.main + 1 + k;
-    return i < equalized.h.length ? equalized.h[i] : 0;
+    return i < equalized.h.length && (cancelled === undefined || cancelled[k]) ? equalized.h[i] : 0;
   });
   const noiseVariance_V2 = quadraticForm(Rn, taps);
   return { taps, feedback, mse: es * (1 - equalized.h[equalized.main]), noiseVariance_V2, equalized };
