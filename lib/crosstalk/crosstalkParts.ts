@@ -30,6 +30,15 @@ export interface CrosstalkParts {
   readonly perAggressor: { readonly name: string; readonly rms_V: number; readonly phase_UI: number }[];
 }
 
+/** An aggressor's cursors at its worst phase, at the sampler. */
+export interface SampledCursors {
+  readonly name: string;
+  /** Cursors in volts (a 1 V aggressor symbol, or its transmitter's swing when applied). */
+  readonly cursors: ArrayLike<number>;
+  /** The worst phase, UI from the crosstalk pulse's peak. */
+  readonly phase_UI: number;
+}
+
 /**
  * Each aggressor sampled once per UI at its own worst phase ({@link worstPhaseSampling}) and turned
  * into independent two-point parts (`isiParts`: one per cursor for NRZ, two for PAM4 of ideal levels):
@@ -44,25 +53,36 @@ export interface CrosstalkParts {
  */
 export function crosstalkParts(aggressors: readonly SampledAggressor[], modulation: Modulation, noiseRms_V = 0): CrosstalkParts {
   if (!Array.isArray(aggressors)) throw new TypeError("aggressors must be an array");
+  return combineCrosstalk(
+    aggressors.map((a, i) => {
+      if (a === null || typeof a !== "object") throw new TypeError(`aggressors[${i}] must be an object`);
+      const s = worstPhaseSampling(a.pulse);
+      return { name: a.name, cursors: s.cursors, phase_UI: s.phase_UI };
+    }),
+    modulation,
+    noiseRms_V,
+  );
+}
+
+/**
+ * {@link crosstalkParts} from aggressors already sampled at their worst phases: their parts, those
+ * below `noiseRms_V / LUMP_DIVISOR` lumped by variance, and each one's rms `√(E[a²]·Σx²)`.
+ */
+export function combineCrosstalk(sampled: readonly SampledCursors[], modulation: Modulation, noiseRms_V = 0): CrosstalkParts {
   if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0)) throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${String(noiseRms_V)}`);
-  const pieces: Float64Array[] = [];
-  let power = 0;
-  const perAggressor = aggressors.map((a, i) => {
-    if (a === null || typeof a !== "object") throw new TypeError(`aggressors[${i}] must be an object`);
-    const s = worstPhaseSampling(a.pulse);
-    pieces.push(isiParts(s.cursors, modulation, PAM4_INNER_LEVEL));
-    const rms_V = crosstalkRms(s.cursors, modulation);
-    power += rms_V * rms_V;
-    return { name: a.name, rms_V, phase_UI: s.phase_UI };
-  });
   const threshold = noiseRms_V / LUMP_DIVISOR;
   const kept: number[] = [];
   let lumpedVariance_V2 = 0;
-  for (const p of pieces) {
-    for (const m of p) {
+  let power = 0;
+  const perAggressor = sampled.map((a) => {
+    const parts = isiParts(Float64Array.from(a.cursors), modulation, PAM4_INNER_LEVEL);
+    for (const m of parts) {
       if (m >= threshold) kept.push(m);
       else lumpedVariance_V2 += m * m;
     }
-  }
+    const rms_V = crosstalkRms(a.cursors, modulation);
+    power += rms_V * rms_V;
+    return { name: a.name, rms_V, phase_UI: a.phase_UI };
+  });
   return { parts_V: Float64Array.from(kept), lumpedVariance_V2, rms_V: Math.sqrt(power), perAggressor };
 }

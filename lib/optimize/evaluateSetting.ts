@@ -60,7 +60,7 @@ export function prepareEye(
   const at = equalizedCursors(channel, taps, pre, phase, space.scale_V);
   const dfe = dfeTaps(at, dfeCount, space.dfeLimits_V.subarray(0, dfeCount));
   const jittered = space.jitter.rjRms_UI > 0 || space.jitter.djPp_UI > 0;
-  const crosstalk = withCrosstalk && channel.crosstalk !== null ? crosstalkFor(channel.crosstalk, taps, pre) : null;
+  const crosstalk = withCrosstalk && channel.crosstalk !== null ? crosstalkFor(channel.crosstalk, taps) : null;
   const eye = statisticalEyeOfCursors(
     {
       samplesPerUi: channel.pulse.samplesPerUi,

@@ -38,8 +38,17 @@ export interface BoundSetup {
   readonly qSigma: Float64Array;
   /** Binning slack in grid steps for a bound over k cursors: `slack[k]·Δ`. */
   readonly slack: Float64Array;
-  /** Noise rms of the channel (for the grid step), volts. */
+  /** Noise rms of the channel: the law's Gaussian is at least this (facts 1 and 2), volts. */
   readonly noiseRms_V: number;
+  /** The law's Gaussian is at most this (with every aggressor's lumped parts at their largest; for the grid step), volts. */
+  readonly noiseHigh_V: number;
+  /**
+   * Parts of the aggressors whose FIR is fixed (volts, largest first): independent two-point parts
+   * the bound may hold adverse like residual cursors (each at probability ½ ≥ 1/m).
+   */
+  readonly crosstalkParts_V: Float64Array;
+  /** Upper bound on the total of every aggressor's parts (fixed, and FEXT following any FIR of the grid), volts. */
+  readonly crosstalkSpan_V: number;
   /** Level spacing: the eye is `levelGap·g₀ + 2q`. */
   readonly levelGap: number;
   readonly sensitivity_V: number;
@@ -70,7 +79,8 @@ export function boundSetup(space: SearchSpace, channel: CtleChannel, maxDfe: num
   usable.sort((a, b) => Math.abs(b.shift) - Math.abs(a.shift) || a.shift - b.shift);
   const shifts = usable.map((x) => x.shift);
   const weights = usable.map((x) => x.w);
-  const sigma = channel.noiseRms_V;
+  const crosstalk = crosstalkBounds(channel);
+  const sigma = crosstalk.noiseLow_V;
   const levelsPerCursor = space.modulation === "pam4" ? 4 : 2;
   const qSigma = new Float64Array(shifts.length * watchedCount);
   weights.forEach((w, j) => {
@@ -88,8 +98,49 @@ export function boundSetup(space: SearchSpace, channel: CtleChannel, maxDfe: num
     qSigma,
     slack,
     noiseRms_V: sigma,
+    noiseHigh_V: crosstalk.noiseHigh_V,
+    crosstalkParts_V: crosstalk.parts_V,
+    crosstalkSpan_V: crosstalk.span_V,
     levelGap: space.levelGap,
     sensitivity_V: space.budget.limiterSensitivity_V,
     limits_V: space.dfeLimits_V,
   };
+}
+
+/**
+ * What the bounds know of a channel's crosstalk before the transmit FIR is chosen. The fixed
+ * aggressors' parts and lumped variance are exact. A FEXT aggressor that follows the victim's FIR
+ * `c` (Σ|c| ≤ 1) has cursors `x = f * c` at its worst phase, so `Σ|x| ≤ max_t Σ_k |f(t + k·UI)|` and
+ * `Σx² ≤ max_t Σ_k f(t + k·UI)²` (Minkowski): these bound its share of the law's span and of the
+ * lumped Gaussian from above, and 0 bounds them from below.
+ */
+function crosstalkBounds(channel: CtleChannel): { parts_V: Float64Array; span_V: number; noiseLow_V: number; noiseHigh_V: number } {
+  const sigma = channel.noiseRms_V;
+  const x = channel.crosstalk;
+  if (x === null) return { parts_V: new Float64Array(0), span_V: 0, noiseLow_V: sigma, noiseHigh_V: sigma };
+  const parts_V = Float64Array.from(x.fixed.parts_V).sort().reverse();
+  let span_V = 0;
+  for (const m of parts_V) span_V += m;
+  let energy = 0;
+  for (const a of x.aggressors) {
+    if (!a.followsVictimFir) continue;
+    const v = a.pulse.values_V;
+    const spu = a.pulse.samplesPerUi;
+    let sumMax = 0;
+    let energyMax = 0;
+    for (let ph = 0; ph < spu; ph++) {
+      let s = 0;
+      let e = 0;
+      for (let i = ph; i < v.length; i += spu) {
+        s += Math.abs(v[i]);
+        e += v[i] * v[i];
+      }
+      if (s > sumMax) sumMax = s;
+      if (e > energyMax) energyMax = e;
+    }
+    span_V += sumMax;
+    energy += energyMax;
+  }
+  const low = sigma * sigma + x.fixed.lumpedVariance_V2;
+  return { parts_V, span_V, noiseLow_V: Math.sqrt(low), noiseHigh_V: Math.sqrt(low + energy) };
 }

@@ -29,6 +29,8 @@ export function clipped(x: number, limit: number): number {
  * @param taps - transmit FIR taps (fractions of the peak swing).
  * @param dfeCount - DFE taps (at most the setup's).
  * @param scratch - caller-owned buffers ({@link createBoundScratch}).
+ * @param crosstalkParts_V - every aggressor's parts for these taps, largest first (default: the
+ *   fixed aggressors' of the setup).
  */
 export function leafBound(
   setup: BoundSetup,
@@ -37,6 +39,7 @@ export function leafBound(
   taps: ArrayLike<number>,
   dfeCount: number,
   scratch: BoundScratch,
+  crosstalkParts_V?: Float64Array,
 ): LeafBound {
   const tapCount = setup.tapCount;
   const watchedCount = setup.offsets.length;
@@ -73,7 +76,7 @@ export function leafBound(
       residuals[f - 1] = r;
       sum += r;
     }
-    const b = residualBound(setup, jj, pc.tail, main, residuals, watchedCount - 1, sum);
+    const b = residualBound(setup, jj, pc.tail, main, residuals, watchedCount - 1, sum, crosstalkParts_V);
     if (b < out) {
       out = b;
       shiftIndex = jj;

@@ -2,6 +2,7 @@
 // (watched cursors), the light bound (every cursor, no law built), the heavy bound (one exact law),
 // and only then the exact eye.
 import { leafBound } from "../bound/leafBound.ts";
+import { sortedCrosstalkParts } from "../channelCrosstalk.ts";
 import { criterionPhaseOf, finishEye, heavyPhaseBound, lightPhaseBound, type PhaseEye, prepareEye } from "../evaluateSetting.ts";
 import type { CtleContext, MemberContext } from "./ctleContext.ts";
 import type { SearchState } from "./searchState.ts";
@@ -25,11 +26,13 @@ function memberFigure(state: SearchState, member: MemberContext, taps: Float64Ar
     member.leafSerial = state.leafSerial;
   }
   const setup = member.setup;
+  // Aggressors that follow these taps are known exactly at a leaf: the leaf bound holds their parts too.
+  const crosstalk = member.channel.crosstalk === null ? null : sortedCrosstalkParts(member.channel.crosstalk, taps);
   let bestEye: PhaseEye | null = null;
   let worstPruned = Number.NEGATIVE_INFINITY;
   for (const t of member.leafPhases) {
     const floor = bestEye === null ? Number.NEGATIVE_INFINITY : bestEye.limiterHeadroom_V;
-    const leaf = leafBound(setup, member.coefficients, t, taps, dfeCount, member.scratch);
+    const leaf = leafBound(setup, member.coefficients, t, taps, dfeCount, member.scratch, crosstalk ?? undefined);
     const leafBound_V = leaf.bound_V;
     if (!results.canEnter(o, leafBound_V) || !(leafBound_V > floor)) {
       worstPruned = Math.max(worstPruned, leafBound_V);

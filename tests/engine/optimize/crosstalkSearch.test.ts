@@ -7,7 +7,9 @@ import { pulseFromCoupling } from "@lib/crosstalk";
 import type { LinkAggressor } from "@lib/crosstalk";
 import { enumerateTxFirs } from "@lib/equalizers/enumerateTxFirs";
 import { evaluateSetting } from "@lib/optimize/evaluateSetting";
-import { crosstalkFor } from "@lib/optimize/channelCrosstalk";
+import { channelCrosstalk, crosstalkFor } from "@lib/optimize/channelCrosstalk";
+import { applyFir } from "@lib/equalizers/applyFir";
+import { crosstalkParts } from "@lib/crosstalk";
 import { jointSearch } from "@lib/optimize/jointSearch";
 import { optimize } from "@lib/optimize/optimize";
 import { prepareChannels } from "@lib/optimize/prepareChannels";
@@ -178,8 +180,41 @@ describe("a realistic lane: coupling-model aggressors through the CTLE", () => {
     const b = { ...budget("centre", false), ctle: { gDc_dB: [-9, 0, 9] as [number, number, number], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 } };
     const space = searchSpace(lane, b);
     const [peaked, flat] = prepareChannels(lane, space, [{ kind: "fext", pulse: fext }]).channels;
-    const ratio = (ch: typeof flat) => crosstalkFor(ch.crosstalk!, [1], 0).rms_V / (ch.pulse.values_V[ch.pulse.mainIndex] * space.scale_V);
+    const ratio = (ch: typeof flat) => crosstalkFor(ch.crosstalk!, [1]).rms_V / (ch.pulse.values_V[ch.pulse.mainIndex] * space.scale_V);
     expect(peaked.setting.gDc_dB).toBe(-9);
     expect(ratio(peaked)).toBeGreaterThan(1.15 * ratio(flat)); // 1.24× here: the FEXT sits at high frequency, where the peaking lifts it
+  });
+});
+
+describe("crosstalk of aggressors that follow the victim's FIR", () => {
+  it("identity: from per-phase cursors and correlations equals applying the FIR to the pulse and sampling it at its worst phase", () => {
+    const fext = trimPulse(pulseFromCoupling({ kind: "fext", forwardCoupling_s: 3e-12, line: { lossAtNyquist_dB: 20, delay_s: 2e-9 } }, { ui_s: ui, samplesPerUi: spu }).pulse, 8, 40);
+    const received = [
+      { name: "near", kind: "next" as const, pulse: xtPulse([0.02, -0.012, 0.005], 3), followsVictimFir: false },
+      { name: "far", kind: "fext" as const, pulse: fext, followsVictimFir: true },
+    ];
+    const noise_V = 0.002;
+    for (const modulation of ["nrz", "pam4"] as const) {
+      const x = channelCrosstalk(received, modulation, noise_V);
+      let seed = 7;
+      const rand = () => ((seed = (seed * 16807) % 2147483647) / 2147483647) * 2 - 1;
+      for (let trial = 0; trial < 20; trial++) {
+        const taps = [0.2 * rand(), 0.7 + 0.3 * rand(), 0.3 * rand(), 0.1 * rand()];
+        const direct = crosstalkParts(
+          received.map((a) => ({ name: a.name, pulse: a.followsVictimFir ? applyFir(a.pulse, taps, 1) : a.pulse })),
+          modulation,
+          noise_V,
+        );
+        const fast = crosstalkFor(x, taps);
+        expect(fast.rms_V).toBeCloseTo(direct.rms_V, 12);
+        expect(fast.lumpedVariance_V2).toBeCloseTo(direct.lumpedVariance_V2, 15);
+        const nonzero = (p: Float64Array) => [...p].filter((m) => m > 0).sort((a, b) => b - a);
+        const [f, d] = [nonzero(fast.parts_V), nonzero(direct.parts_V)];
+        expect(f.length).toBe(d.length);
+        expect(f.length).toBeGreaterThan(3); // the FEXT aggressor keeps parts of its own beside the NEXT one's
+        f.forEach((m, i) => expect(m).toBeCloseTo(d[i], 12));
+        fast.perAggressor.forEach((a, i) => expect(a.phase_UI).toBeCloseTo(direct.perAggressor[i].phase_UI, 12));
+      }
+    }
   });
 });
