@@ -5,3 +5,4 @@ export * from "./pulseArea.ts";
 export * from "./pulseJson.ts";
 export * from "./scalePulse.ts";
 export * from "./trimPulse.ts";
+export * from "./pulseLoss.ts";

@@ -12,11 +12,14 @@ import { symbolStream } from "../analysis/symbolStream.ts";
 import { samplingPhase } from "../clocking/samplingPhase.ts";
 import type { BudgetInput } from "../contract/budget.ts";
 import { applyFir } from "../equalizers/applyFir.ts";
+import type { LinkAggressor } from "../crosstalk/linkAggressor.ts";
 import { ctleNoiseGain } from "../equalizers/ctleNoiseGain.ts";
 import { equalizedCursors } from "../optimize/ctleChannel.ts";
-import { kernelFloorOf } from "../optimize/evaluateSetting.ts";
-import { type OptimizeResult, optimizeDetailed } from "../optimize/optimize.ts";
+import { kernelFloorOf, phaseEye } from "../optimize/evaluateSetting.ts";
+import { type CrosstalkResult, type OptimizeResult, optimizeDetailed } from "../optimize/optimize.ts";
 import type { SearchSpace } from "../optimize/searchSpace.ts";
+import { frontEndLoss_dB } from "../package/frontEnd.ts";
+import { pulseLoss_dB } from "../pulse/pulseLoss.ts";
 import { scalePulse } from "../pulse/scalePulse.ts";
 import { txTraining } from "../solvers/txTraining.ts";
 import type { Pulse } from "../types.ts";
@@ -87,6 +90,22 @@ export interface TuningRunResult {
     readonly dfe: { readonly taps: number[]; readonly limits_V: (number | null)[]; readonly clipped: boolean[] };
   };
   readonly verdict: OptimizeResult["verdict"];
+  /**
+   * The aggressors at the chosen setting (null: none): the optimizer's figures and the after-eye
+   * drawn again without them (same setting and phase; its contours without crosstalk).
+   */
+  readonly crosstalk: (CrosstalkResult & { readonly eyeWithout: EyeFigure }) | null;
+  /**
+   * Loss at Nyquist, dB: the channel's (from its pulse, relative to DC), each package's and the
+   * receiver filter's, and the packages' share of the total (null: the budget has no package).
+   */
+  readonly loss: {
+    readonly channelAtNyquist_dB: number;
+    readonly txPackage_dB: number | null;
+    readonly rxPackage_dB: number | null;
+    readonly rxFilter_dB: number | null;
+    readonly packageShare: number | null;
+  };
 }
 
 /** Size and content of the run's pictures. */
@@ -133,6 +152,25 @@ function eyeFigure(pulse: Pulse, eye: StatisticalEye, phase: number, space: Sear
   };
 }
 
+/** The channel's and the front end's loss at Nyquist (see {@link TuningRunResult.loss}). */
+function lossAtNyquist(pulse: Pulse, space: SearchSpace): TuningRunResult["loss"] {
+  const f = space.baud_Hz / 2;
+  const fe = space.frontEnd;
+  const channel = pulseLoss_dB(pulse, f);
+  const tx = fe.txPackage === undefined ? null : frontEndLoss_dB({ txPackage: fe.txPackage }, f);
+  const rx = fe.rxPackage === undefined ? null : frontEndLoss_dB({ rxPackage: fe.rxPackage }, f);
+  const filter = fe.rxBandwidth_Hz === undefined ? null : frontEndLoss_dB({ rxBandwidth_Hz: fe.rxBandwidth_Hz }, f);
+  const packages = (tx ?? 0) + (rx ?? 0);
+  const total = channel + packages + (filter ?? 0);
+  return {
+    channelAtNyquist_dB: channel,
+    txPackage_dB: tx,
+    rxPackage_dB: rx,
+    rxFilter_dB: filter,
+    packageShare: tx === null && rx === null ? null : total > 0 ? packages / total : 0,
+  };
+}
+
 /** `pulse` sampled at `time_UI` from its main cursor (linear, 0 outside). */
 function sampleAt(pulse: Pulse, time_UI: readonly number[]): number[] {
   const v = pulse.values_V;
@@ -160,13 +198,22 @@ function sampleAt(pulse: Pulse, time_UI: readonly number[]): number[] {
  * - Adaptation: LMS of the DFE taps on the equalized cursors toward their closed form, and
  *   back-channel transmit training with the chosen CTLE.
  *
+ * - Crosstalk: with aggressors, the optimizer's crosstalk figures and the after-eye's contours again
+ *   without them; loss: the channel's and the front end's at Nyquist.
+ *
  * @param pulse - channel pulse response for a 1 V symbol.
  * @param budget - the budget (validated; RangeError names the field).
  * @param onProgress - progress 0 … 1.
+ * @param aggressors - the channel's aggressors (crosstalk pulses at the receiver's pins).
  */
-export function tuningRun(pulse: Pulse, budget: BudgetInput, onProgress?: (fraction: number) => void): TuningRunResult {
+export function tuningRun(
+  pulse: Pulse,
+  budget: BudgetInput,
+  onProgress?: (fraction: number) => void,
+  aggressors: readonly LinkAggressor[] = [],
+): TuningRunResult {
   const report = onProgress ?? (() => {});
-  const detail = optimizeDetailed(pulse, budget, { onProgress: (f) => report(0.8 * f) });
+  const detail = optimizeDetailed(pulse, budget, { onProgress: (f) => report(0.8 * f), aggressors });
   const { space, full, result } = detail;
   const b = space.budget;
   const ber = b.targetBer;
@@ -199,6 +246,11 @@ export function tuningRun(pulse: Pulse, budget: BudgetInput, onProgress?: (fract
   }
   const afterPulse: Pulse = { ...equalized, values_V: withDfe };
   const after = eyeFigure(afterPulse, full.eye.eye, full.eye.phase, space, ber);
+  let crosstalk: TuningRunResult["crosstalk"] = null;
+  if (result.crosstalk !== null) {
+    const without = phaseEye(full.channel, space, full.taps, full.eye.dfeTaps.length, full.eye.phase, false);
+    crosstalk = { ...result.crosstalk, eyeWithout: eyeFigure(afterPulse, without.eye, full.eye.phase, space, ber) };
+  }
   report(0.93);
 
   const tub = bathtub(full.eye.eye, full.eye.phase, 1);
@@ -276,6 +328,8 @@ export function tuningRun(pulse: Pulse, budget: BudgetInput, onProgress?: (fract
       dfe: result.dfe,
     },
     verdict: result.verdict,
+    crosstalk,
+    loss: lossAtNyquist(pulse, space),
   };
   report(1);
   return out;

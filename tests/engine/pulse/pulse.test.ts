@@ -6,11 +6,13 @@ import {
   peakIndex,
   pulseArea,
   pulseFromJson,
+  pulseLoss_dB,
   pulseToJson,
   scalePulse,
   trimPulse,
 } from "@lib/pulse";
 import type { Pulse } from "@lib/types";
+import { pulseFromLossModel } from "@lib/channel";
 
 const make = (values: number[], samplesPerUi: number, mainIndex: number, ui_s = 1e-10): Pulse => ({
   ui_s,
@@ -133,5 +135,41 @@ describe("pulseFromJson / pulseToJson", () => {
     expect(() => pulseFromJson({ ui_s: 1, samplesPerUi: 1, values_V: [1], mainIndex: 1 })).toThrow(/mainIndex/);
     expect(() => pulseFromJson({ ui_s: -1, samplesPerUi: 1, values_V: [1], mainIndex: 0 })).toThrow(/ui_s/);
     expect(() => pulseFromJson({ ui_s: 1, samplesPerUi: 1, values_V: [], mainIndex: 0 })).toThrow(/empty/);
+  });
+});
+
+describe("pulseLoss_dB", () => {
+  const ui = 1e-10;
+  const spu = 64;
+  /** The pulse of a first-order low-pass (time constant tau) for a one-UI rectangle, sampled at the sample midpoints. */
+  const rcPulse = (tau_s: number) => {
+    const dt = ui / spu;
+    const v = Float64Array.from({ length: 200 * spu }, (_, n) => {
+      const t = (n + 0.5) * dt;
+      return t < ui ? 1 - Math.exp(-t / tau_s) : (1 - Math.exp(-ui / tau_s)) * Math.exp(-(t - ui) / tau_s);
+    });
+    return { ui_s: ui, samplesPerUi: spu, values_V: v, mainIndex: peakIndex(v) };
+  };
+
+  it("analytic: a single pole loses 10·log10(1 + (2πfτ)²) [computed: |H| = 1/√(1 + (ωτ)²)]", () => {
+    const tau = 2e-11;
+    for (const f of [1e9, 5e9, 8e9]) {
+      expect(pulseLoss_dB(rcPulse(tau), f)).toBeCloseTo(10 * Math.log10(1 + (2 * Math.PI * f * tau) ** 2), 2);
+    }
+  });
+
+  it("oracle: the synthetic line's pulse gives back its loss at Nyquist (within 0.05 dB)", () => {
+    for (const loss of [5, 20, 35]) {
+      const p = pulseFromLossModel({ lossAtNyquist_dB: loss, delay_s: 1e-9 }, { ui_s: ui, samplesPerUi: 32 }).pulse;
+      expect(Math.abs(pulseLoss_dB(p, 1 / (2 * ui)) - loss)).toBeLessThan(0.05);
+    }
+  });
+
+  it("identities and edges: a bare rectangle loses nothing; scaling changes nothing; bad input is refused", () => {
+    const rect = make(Array.from({ length: 3 * spu }, (_, i) => (i >= spu && i < 2 * spu ? 1 : 0)), spu, spu + 10, ui);
+    expect(pulseLoss_dB(rect, 3e9)).toBeCloseTo(0, 6);
+    expect(pulseLoss_dB(scalePulse(rcPulse(2e-11), 0.3), 5e9)).toBeCloseTo(pulseLoss_dB(rcPulse(2e-11), 5e9), 10);
+    expect(() => pulseLoss_dB(rect, 1 / ui)).toThrow(/freq_Hz/);
+    expect(() => pulseLoss_dB(scalePulse(rect, -1), 1e9)).toThrow(/positive area/);
   });
 });

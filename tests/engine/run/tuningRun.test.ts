@@ -4,6 +4,9 @@ import { describe, expect, it } from "vitest";
 import { dfeAdaptation } from "@lib/run/dfeAdaptation";
 import { ENGINE_VERSION } from "@lib/run/engineVersion";
 import { tuningRun } from "@lib/run/tuningRun";
+import { frontEndLoss_dB } from "@lib/package/frontEnd";
+import { ANNEX_93A_PACKAGE } from "@lib/package";
+import { pulseLoss_dB } from "@lib/pulse";
 import { cursorPulse } from "../analysis/helpers.ts";
 
 const pulse = cursorPulse([0, 0.05, 0.55, 0.3, 0.15, 0.07, 0.03, 0.01, 0], 2, 16);
@@ -106,6 +109,39 @@ describe("tuningRun", () => {
     tuningRun(pulse, { ...budget, dfe: { taps: 0 } }, (f) => seen.push(f));
     expect(seen[0]).toBe(0);
     expect(seen[seen.length - 1]).toBe(1);
+  });
+});
+
+describe("tuningRun with aggressors and packages", () => {
+  const near = cursorPulse([0, 0.03, -0.02, 0.012, 0], 1, 16);
+  const far = cursorPulse([0, 0.01, 0.025, -0.008, 0.004, 0], 2, 16);
+  const withPackages = { ...budget, package: { tx: {}, rx: {} } };
+  const r = tuningRun(pulse, withPackages, undefined, [
+    { kind: "next", name: "Near", pulse: near },
+    { kind: "fext", name: "Far", pulse: far },
+  ]);
+
+  it("carries the optimizer's crosstalk and draws the eye again without it: same image, its own contours and height", () => {
+    plainJson(r);
+    const x = r.crosstalk!;
+    expect(x.perAggressor.map((a) => [a.name, a.kind])).toEqual([["Near", "next"], ["Far", "fext"]]);
+    expect(x).toMatchObject(r.optimize.crosstalk!);
+    expect(x.eyeWithout.eyeHeight_V).toBeCloseTo(x.eyeHeightWithoutCrosstalk_V, 12);
+    expect(x.eyeWithout.eyeHeight_V).toBeGreaterThan(r.eyes.after.eyeHeight_V);
+    expect(x.eyeWithout.image).toEqual(r.eyes.after.image);
+    expect(tuningRun(pulse, budget).crosstalk).toBeNull();
+  });
+
+  it("loss at Nyquist: the channel's from its pulse, each package's from the front end; the packages' share of the sum", () => {
+    const f = 1 / (2 * pulse.ui_s);
+    const l = r.loss;
+    expect(l.channelAtNyquist_dB).toBeCloseTo(pulseLoss_dB(pulse, f), 12);
+    expect(l.txPackage_dB).toBeCloseTo(frontEndLoss_dB({ txPackage: ANNEX_93A_PACKAGE }, f), 9);
+    expect(l.rxPackage_dB).toBeCloseTo(frontEndLoss_dB({ rxPackage: ANNEX_93A_PACKAGE }, f), 9);
+    expect(l.rxFilter_dB).toBeNull();
+    expect(l.packageShare).toBeCloseTo((l.txPackage_dB! + l.rxPackage_dB!) / (l.channelAtNyquist_dB + l.txPackage_dB! + l.rxPackage_dB!), 12);
+    expect(l.packageShare).toBeGreaterThan(0);
+    expect(tuningRun(pulse, budget).loss.packageShare).toBeNull();
   });
 });
 
