@@ -5,7 +5,7 @@ import { createHash } from "node:crypto";
 import { afterAll, describe, expect, it } from "vitest";
 import { signIn } from "../support/http";
 import { BIT_RATE, files } from "../fixtures/channelFiles";
-import { closeDb, rowCounts, unique, upload } from "../fixtures/workspace";
+import { closeDb, finished, rowCounts, unique, upload } from "../fixtures/workspace";
 
 afterAll(closeDb);
 
@@ -108,6 +108,53 @@ describe("a victim with its aggressors", () => {
     expect(list).toHaveLength(1);
     expect(list[0]).toMatchObject({ kind: "next", source: "coupling", name: "NEXT 1" });
   });
+
+  it("a run of a victim with aggressors copies them and shows the eye with and without crosstalk, each aggressor and the packages' loss", async () => {
+    const designer = await signIn("designer");
+    const channel = await designer.send("POST", "/api/v1/channels", {
+      name: unique("Victim for a run"),
+      bitRate_bps: BIT_RATE,
+      lossModel: { lossAtNyquist_dB: 16, delay_s: 2e-9 },
+      aggressors: [
+        { source: "coupling", kind: "next", name: "Lane 3 NEXT", coupling: { backwardCoefficient: 0.02, lossAtNyquist_dB: 1, delay_s: 2e-10 } },
+        { source: "coupling", kind: "fext", name: "Lane 1 FEXT", coupling: { forwardCoupling_s: 3e-12, lossAtNyquist_dB: 16, delay_s: 2e-9 } },
+      ],
+    });
+    expect(channel.status, await channel.clone().text()).toBe(201);
+    const channelId = (await channel.json()).id;
+    const budget = await designer.send("POST", "/api/v1/budgets", {
+      name: unique("Budget with packages"),
+      modulation: "nrz",
+      txSwing_Vppd: 0.8,
+      noiseRms_V: 0.0015,
+      limiterSensitivity_V: 0.015,
+      requiredHeadroom_V: 0.005,
+      tx: { pre: 1, post: 1, step: 0.1 },
+      ctle: { gDc_dB: [-8, 0, 4], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 },
+      dfe: { taps: 2, limits_V: 0.1 },
+      package: { tx: {}, rx: {} },
+    });
+    expect(budget.status, await budget.clone().text()).toBe(201);
+    const start = await designer.send("POST", "/api/v1/runs", { channelId, budgetId: (await budget.json()).id });
+    expect(start.status, await start.clone().text()).toBe(202);
+    const { id } = await start.json();
+    expect(await finished(designer, id, 120_000)).toMatchObject({ status: "done" });
+    const run = await (await designer.get(`/api/v1/runs/${id}`)).json();
+    expect(run.inputs.channel.aggressors.map((a: { name: string; kind: string }) => [a.name, a.kind])).toEqual([
+      ["Lane 3 NEXT", "next"],
+      ["Lane 1 FEXT", "fext"],
+    ]);
+    const x = run.result.crosstalk;
+    expect(x.perAggressor.map((a: { name: string }) => a.name)).toEqual(["Lane 3 NEXT", "Lane 1 FEXT"]);
+    expect(x.eyeHeightWithoutCrosstalk_V).toBeGreaterThan(run.result.metrics.eyeHeight_V);
+    expect(x.eyeWithout.eyeHeight_V).toBeCloseTo(x.eyeHeightWithoutCrosstalk_V, 9);
+    expect(run.result.loss.channelAtNyquist_dB).toBeCloseTo(16, 0);
+    expect(run.result.loss.packageShare).toBeGreaterThan(0);
+    const page = await (await designer.get(`/runs/${id}`)).text();
+    for (const marker of ['data-testid="eye-without-crosstalk"', 'data-testid="crosstalk-aggressors"', "Lane 1 FEXT", 'data-testid="package-share"']) {
+      expect(page).toContain(marker);
+    }
+  }, 150_000);
 
   it("aggressors that do not fit are refused with a message naming them, and nothing is stored", async () => {
     const designer = await signIn("designer");

@@ -1,5 +1,6 @@
-// The eyes of a tuning run at the limiter, before (channel alone) and after equalization: density
-// images with the statistical eye's BER contours, optionally on one voltage scale.
+// The eyes of a tuning run at the limiter, before (channel alone) and after equalization — and, when
+// the channel has aggressors, after equalization without them: density images with the statistical
+// eye's BER contours, optionally on one voltage scale.
 import { useMemo, useState } from "react";
 import DensityEye, { type EyeOpening } from "@/components/charts/DensityEye";
 import { unpackEye, type PackedEye } from "./runs";
@@ -8,6 +9,8 @@ import type { Modulation } from "@lib/types";
 interface Props {
   before: PackedEye;
   after: PackedEye;
+  /** The after-eye's contours without the aggressors (omitted: the channel has none). */
+  withoutCrosstalk?: PackedEye;
   modulation: Modulation;
 }
 
@@ -31,6 +34,7 @@ function span(a: readonly number[], b: readonly number[]): [number, number] {
 export default function RunEyes(props: Props) {
   const before = useMemo(() => unpackEye(props.before), [props.before]);
   const after = useMemo(() => unpackEye(props.after), [props.after]);
+  const without = useMemo(() => (props.withoutCrosstalk === undefined ? null : unpackEye(props.withoutCrosstalk)), [props.withoutCrosstalk]);
   const [sameScale, setSameScale] = useState(false);
   const shared = useMemo(() => span(before.image.voltage_V, after.image.voltage_V), [before, after]);
   const opening = (h: number): EyeOpening[] =>
@@ -64,9 +68,9 @@ export default function RunEyes(props: Props) {
           />
         </div>
         <div>
-          <h3>After: transmit FIR, CTLE and DFE</h3>
+          <h3>After: transmit FIR, CTLE and DFE{without !== null ? ", with crosstalk" : ""}</h3>
           <p className="help">
-            The chosen setting, DFE feedback included.{" "}
+            The chosen setting, DFE feedback included{without !== null ? "; the contours count every aggressor at its worst phase" : ""}.{" "}
             {after.eyeHeight_V > 0 ? `Eye height ${mV(after.eyeHeight_V).toFixed(1)} mV.` : "The eye is still closed at the target BER."}
           </p>
           <DensityEye
@@ -78,6 +82,23 @@ export default function RunEyes(props: Props) {
             testId="eye-after"
           />
         </div>
+        {without !== null && (
+          <div>
+            <h3>After, without crosstalk</h3>
+            <p className="help">
+              The same setting and sampling phase with the aggressors left out (the density image is the victim's alone in both).{" "}
+              {without.eyeHeight_V > 0 ? `Eye height ${mV(without.eyeHeight_V).toFixed(1)} mV.` : "The eye is closed at the target BER."}
+            </p>
+            <DensityEye
+              image={without.image}
+              contours={without.contours}
+              openings={opening(without.eyeHeight_V)}
+              voltageDomain_V={sameScale ? shared : undefined}
+              ariaLabel="Eye after equalization without crosstalk"
+              testId="eye-without-crosstalk"
+            />
+          </div>
+        )}
       </div>
     </section>
   );

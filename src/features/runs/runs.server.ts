@@ -3,7 +3,7 @@
 // (runs.job.ts); this module tells the queue how to read a run's input and store its result.
 import { and, count, desc, eq, sql, type SQL } from "drizzle-orm";
 import { db, type Tx } from "@/server/db.server";
-import { budgets, channels, jobs, runs, users } from "@/db/schema";
+import { budgets, channelAggressors, channels, jobs, runs, users } from "@/db/schema";
 import type { JobStatus } from "@/features/jobs/jobs";
 import { apiStatus, cancelJobFor, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
 import { notFound, unprocessable } from "@/server/http/errors";
@@ -49,7 +49,8 @@ export async function storeRunResult(tx: Tx, runId: number, result: TuningRunRes
 export async function runJobInput(runId: number) {
   const [row] = await db.select({ inputs: runs.inputs }).from(runs).where(eq(runs.id, runId));
   if (!row) throw new Error(`Run ${runId} has gone.`);
-  return { pulse: row.inputs.channel.pulse, budget: row.inputs.budget.params };
+  const aggressors = row.inputs.channel.aggressors ?? [];
+  return { pulse: row.inputs.channel.pulse, budget: row.inputs.budget.params, ...(aggressors.length > 0 ? { aggressors } : {}) };
 }
 
 /**
@@ -90,7 +91,13 @@ export async function startRun(user: SessionUser | null, req: StartRunRequest) {
     if (!budget) throw unprocessable(`There is no budget ${req.budgetId}.`, "budgetId");
     // Refused here (422), not queued and failed later: a budget whose bit rate or grids the channel cannot take.
     checkBudgetFits(budget.params as BudgetInput, budget.name, [{ ...channel, lossAtNyquist_dB: null }]);
-    const id = await insertRun(tx, user, { channel, budget }, { channelId: channel.id, budgetId: budget.id });
+    const aggressors = await tx
+      .select({ name: channelAggressors.name, kind: channelAggressors.kind, pulse: channelAggressors.pulse })
+      .from(channelAggressors)
+      .where(eq(channelAggressors.channelId, channel.id))
+      .orderBy(channelAggressors.position);
+    const copy = aggressors.length > 0 ? { ...channel, aggressors } : channel;
+    const id = await insertRun(tx, user, { channel: copy, budget }, { channelId: channel.id, budgetId: budget.id });
     await recordAudit(tx, user, "run.start", "run", id, { channel: channel.name, budget: budget.name });
     return id;
   });

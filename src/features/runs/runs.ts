@@ -22,9 +22,17 @@ export type RunListQuery = z.input<typeof listQuery>;
 
 export const idParams = z.object({ id: z.coerce.number({ error: "The id must be a number." }).int().positive() });
 
+/** An aggressor as a run copies it. */
+export interface RunAggressor {
+  name: string;
+  kind: "next" | "fext";
+  pulse: StoredPulse;
+}
+
 /** What a run was computed from, copied at its start so that it never changes afterwards (the budget as stored, defaults filled in). */
 export interface RunInputs {
-  channel: { id: number; name: string; bitRate_bps: number; pulse: StoredPulse };
+  /** `aggressors`: the channel's crosstalk pulses at the receiver's pins (absent for none, and in runs started before aggressors existed). */
+  channel: { id: number; name: string; bitRate_bps: number; pulse: StoredPulse; aggressors?: RunAggressor[] };
   budget: { id: number; name: string; params: Budget };
 }
 
