@@ -91,6 +91,51 @@ export const budgetForm: FieldGroup[] = [
     ],
   },
   {
+    title: "Packages and receiver front end",
+    intro: "Optional: applied to the channel and to every aggressor before the CTLE. Leave a package at None for ideal pins.",
+    fields: [
+      {
+        path: "package.tx",
+        label: "Transmitter package",
+        kind: "select",
+        options: [
+          { value: "", label: "None (ideal pins)" },
+          { value: "model", label: "Package model" },
+        ],
+        help: "A transmission-line trace between pad and die capacitances, terminated against the reference (IEEE 802.3 Annex 93A form); empty fields take that annex's values.",
+      },
+      { path: "package.tx.dieCapacitance_F", label: "Transmitter die capacitance", unit: "fF", scale: 1e-15, kind: "number", optional: true, placeholder: "250", help: "Capacitance at the die, single-ended." },
+      { path: "package.tx.padCapacitance_F", label: "Transmitter pad capacitance", unit: "fF", scale: 1e-15, kind: "number", optional: true, placeholder: "180", help: "Capacitance at the board pad, single-ended." },
+      { path: "package.tx.traceLength_m", label: "Transmitter package trace", unit: "mm", scale: 1e-3, kind: "number", optional: true, placeholder: "12", help: "Length of the package's transmission line." },
+      { path: "package.tx.traceImpedance_Ohm", label: "Transmitter trace impedance", unit: "Ω", kind: "number", optional: true, placeholder: "78.2", help: "Single-ended impedance of the package trace." },
+      { path: "package.tx.termination_Ohm", label: "Transmitter termination", unit: "Ω", kind: "number", optional: true, placeholder: "55", help: "On-die termination, single-ended, against a 50 Ω reference: Γ = (R − 50)/(R + 50)." },
+      {
+        path: "package.rx",
+        label: "Receiver package",
+        kind: "select",
+        options: [
+          { value: "", label: "None (ideal pins)" },
+          { value: "model", label: "Package model" },
+        ],
+        help: "A transmission-line trace between pad and die capacitances, terminated against the reference (IEEE 802.3 Annex 93A form); empty fields take that annex's values.",
+      },
+      { path: "package.rx.dieCapacitance_F", label: "Receiver die capacitance", unit: "fF", scale: 1e-15, kind: "number", optional: true, placeholder: "250", help: "Capacitance at the die, single-ended." },
+      { path: "package.rx.padCapacitance_F", label: "Receiver pad capacitance", unit: "fF", scale: 1e-15, kind: "number", optional: true, placeholder: "180", help: "Capacitance at the board pad, single-ended." },
+      { path: "package.rx.traceLength_m", label: "Receiver package trace", unit: "mm", scale: 1e-3, kind: "number", optional: true, placeholder: "12", help: "Length of the package's transmission line." },
+      { path: "package.rx.traceImpedance_Ohm", label: "Receiver trace impedance", unit: "Ω", kind: "number", optional: true, placeholder: "78.2", help: "Single-ended impedance of the package trace." },
+      { path: "package.rx.termination_Ohm", label: "Receiver termination", unit: "Ω", kind: "number", optional: true, placeholder: "55", help: "On-die termination, single-ended, against a 50 Ω reference: Γ = (R − 50)/(R + 50)." },
+      { path: "frontEnd.rxBandwidth_Hz", label: "Receiver bandwidth", unit: "GHz", scale: 1e9, kind: "number", optional: true, placeholder: "none", help: "−3 dB frequency of a 4th-order Butterworth filter at the receiver (IEEE 802.3 Annex 93A form); 0.75 × baud is usual." },
+    ],
+  },
+  {
+    title: "Receive FFE",
+    intro: "Optional: a feed-forward filter after the CTLE, designed per CTLE setting as the feed-forward part of an MMSE-DFE against the noise and crosstalk that reach it.",
+    fields: [
+      { path: "ffe.pre", label: "FFE pre-cursor taps", kind: "int", optional: true, placeholder: "none", help: "0 … 8; leave both empty for no FFE." },
+      { path: "ffe.post", label: "FFE post-cursor taps", kind: "int", optional: true, placeholder: "none", help: "0 … 16." },
+    ],
+  },
+  {
     title: "Clocking",
     fields: [
       { path: "clocking.scheme", label: "Clock", kind: "select", options: [{ value: "recovered", label: "Recovered (CDR)" }, { value: "forwarded", label: "Forwarded" }], help: "A forwarded clock cancels correlated transmit jitter up to its tracking bandwidth; a CDR tracks only inside its loop bandwidth." },
@@ -168,12 +213,18 @@ const codecs: Record<FieldKind, { toText(v: unknown, f: FieldSpec): string; from
   },
 };
 
+/** The select that includes a package ("package.tx" / "package.rx"); its detail fields lie under it. */
+function isPackageSwitch(path: string): boolean {
+  return path === "package.tx" || path === "package.rx";
+}
+
 /** The form's text values for a budget (display units). */
 export function draftFromBudget(budget: BudgetInput): Draft {
   const draft: Draft = {};
   for (const f of budgetForm.flatMap((g) => g.fields)) {
     const v = getPath(budget, f.path);
-    draft[f.path] = v === undefined || v === null ? "" : codecs[f.kind].toText(v, f);
+    if (isPackageSwitch(f.path)) draft[f.path] = v === undefined || v === null ? "" : "model";
+    else draft[f.path] = v === undefined || v === null ? "" : codecs[f.kind].toText(v, f);
   }
   return draft;
 }
@@ -183,6 +234,13 @@ export function budgetFromDraft(draft: Draft): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const f of budgetForm.flatMap((g) => g.fields)) {
     const text = (draft[f.path] ?? "").trim();
+    if (isPackageSwitch(f.path)) {
+      // "model" includes the package (the schema fills its fields from Annex 93A); "" leaves it out.
+      if (text !== "") setPath(out, f.path, {});
+      continue;
+    }
+    const within = /^package\.(tx|rx)\./.exec(f.path);
+    if (within && (draft[`package.${within[1]}`] ?? "").trim() === "") continue;
     if (text === "" && f.optional) continue;
     setPath(out, f.path, codecs[f.kind].fromText(text, f));
   }

@@ -33,5 +33,7 @@ export type BudgetView = Budget & {
 export function budgetSummary(b: Budget): string {
   const rate = b.bitRate_bps ? ` ${Number((b.bitRate_bps / 1e9).toPrecision(6))} Gb/s` : "";
   const [lo, hi] = b.ctle.gDc_dB;
-  return `${b.modulation.toUpperCase()}${rate} · FIR ${b.tx.pre}+1+${b.tx.post} · CTLE ${lo}…${hi} dB · ${b.dfe.taps} DFE tap${b.dfe.taps === 1 ? "" : "s"} · BER ${b.targetBer.toExponential(0)}`;
+  const pkg = b.package?.tx || b.package?.rx ? ` · package${b.package.tx && b.package.rx ? "s" : b.package.tx ? " (Tx)" : " (Rx)"}` : "";
+  const ffe = b.ffe ? ` · FFE ${b.ffe.pre}+1+${b.ffe.post}` : "";
+  return `${b.modulation.toUpperCase()}${rate} · FIR ${b.tx.pre}+1+${b.tx.post} · CTLE ${lo}…${hi} dB${ffe} · ${b.dfe.taps} DFE tap${b.dfe.taps === 1 ? "" : "s"}${pkg} · BER ${b.targetBer.toExponential(0)}`;
 }
