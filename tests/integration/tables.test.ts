@@ -180,6 +180,34 @@ describe("tap tables: computing versions", () => {
     }
   });
 
+  it("an architecture with a receive FFE: the map holds its taps, the version computes, and it exports with them", async () => {
+    const withFfe = { key: "ctle-ffe1-2-dfe1", label: "CTLE + RX FFE + DFE 1", tx: null, ctle: true, dfeTaps: 1, ffe: { pre: 1, post: 2 } };
+    const res = await designer.send("POST", "/api/v1/tap-tables", tableRequest({ architecture: withFfe }));
+    expect(res.status, await res.clone().text()).toBe(202);
+    const { id } = await res.json();
+    const v1 = await versionComputed(designer, id, 1);
+    expect(v1.job.status, v1.job.error?.message).toBe("done");
+    const map = v1.inputs.registerMap as RegisterField[];
+    expect(map.filter((f) => f.parameter.startsWith("ffe[")).map((f) => [f.name, f.parameter])).toEqual([
+      ["ffe_pre1", "ffe[-1]"],
+      ["ffe_main", "ffe[0]"],
+      ["ffe_post1", "ffe[1]"],
+      ["ffe_post2", "ffe[2]"],
+    ]);
+    for (const c of v1.result.classes) {
+      // The FFE's starting main tap sits near 1 (the design keeps the main cursor), on the map's grid.
+      expect(c.values.ffe_main).toBeGreaterThan(0.5);
+      expect(c.values.ffe_main).toBeCloseTo(c.codes.ffe_main * map.find((f) => f.name === "ffe_main")!.lsb, 12);
+    }
+    const csv = await designer.get(`/api/v1/tap-tables/${id}/versions/1/export?format=csv`);
+    expect(csv.status).toBe(200);
+    const header = (await csv.text()).split("\n")[0];
+    for (const name of ["ffe_pre1", "ffe_main", "ffe_post2", "dfe_tap1"]) expect(header).toContain(name);
+    const c = await designer.get(`/api/v1/tap-tables/${id}/versions/1/export?format=c`);
+    expect(c.status).toBe(200);
+    expect((await c.text()).toUpperCase()).toContain("FFE_MAIN");
+  });
+
   it("a new version with other bin edges shows the diff against the previous one", async () => {
     const { id } = await (await designer.send("POST", "/api/v1/tap-tables", tableRequest())).json();
     await versionComputed(designer, id, 1);

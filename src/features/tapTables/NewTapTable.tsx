@@ -126,6 +126,14 @@ export default function NewTapTable(props: Props) {
                 <Count label="post" value={s.manual.tx?.post ?? 0} max={8} disabled={!s.manual.tx} onChange={(post) => s.setManual({ tx: { pre: s.manual.tx?.pre ?? 1, post } })} />
               </span>
               <span className="text-sm text-ink-soft">CTLE (the budget's grid)</span>
+              <span className="flex items-center gap-2">
+                <label className="flex items-center gap-1.5 text-sm">
+                  <input type="checkbox" checked={!!s.manual.ffe} onChange={(e) => s.setManual({ ffe: e.target.checked ? { pre: 1, post: 3 } : null })} />
+                  RX FFE
+                </label>
+                <Count label="FFE pre" value={s.manual.ffe?.pre ?? 0} max={8} disabled={!s.manual.ffe} onChange={(pre) => s.setManual({ ffe: { pre, post: s.manual.ffe?.post ?? 3 } })} />
+                <Count label="FFE post" value={s.manual.ffe?.post ?? 0} max={16} disabled={!s.manual.ffe} onChange={(post) => s.setManual({ ffe: { pre: s.manual.ffe?.pre ?? 1, post } })} />
+              </span>
               <Count label="DFE taps" value={s.manual.dfeTaps} max={32} onChange={(dfeTaps) => s.setManual({ dfeTaps })} />
             </div>
           )}

@@ -1,13 +1,13 @@
 // The budget a tap table's minimax searches: the budget restricted to the chosen architecture's
-// blocks — its transmit FIR tap counts (or a single full-swing tap), the budget's CTLE grid, and its
-// DFE tap count (limits beyond the budget's list repeat the last one).
+// blocks — its transmit FIR tap counts (or a single full-swing tap), the budget's CTLE grid, its
+// receive FFE (designed per channel and CTLE setting, as an adapting block) and its DFE tap count
+// (limits beyond the budget's list repeat the last one).
 import type { Budget, BudgetInput } from "@lib/contract/budget";
 import type { Architecture } from "@/features/studies/architecture";
 
 /** Why an architecture cannot have a tap table, or null when it can. */
 export function tapTableArchitectureProblem(a: Architecture): string | null {
   if (!a.ctle) return `“${a.label}” has no CTLE; tap tables hold the budget's CTLE setting, so choose an architecture with one.`;
-  if (a.ffe) return `“${a.label}” has a receive FFE; tap tables hold transmit FIR, CTLE and DFE settings only — choose an architecture without one.`;
   return null;
 }
 
@@ -27,7 +27,7 @@ export function budgetForArchitecture(b: Budget, a: Architecture): BudgetInput {
       ? undefined
       : Array.from({ length: a.dfeTaps }, (_, k) => lim[Math.min(k, lim.length - 1)])
     : lim;
-  return { ...b, tx, dfe: { taps: a.dfeTaps, limits_V } };
+  return { ...b, tx, dfe: { taps: a.dfeTaps, limits_V }, ffe: a.ffe ?? undefined };
 }
 
 /**

@@ -36,6 +36,8 @@ export interface DecidedStudy {
 export interface ManualArchitecture {
   tx: { pre: number; post: number } | null;
   dfeTaps: number;
+  /** Receive FFE tap counts (omitted or null: none). */
+  ffe?: { pre: number; post: number } | null;
 }
 
 export interface NewTapTableState {
@@ -71,13 +73,15 @@ export interface NewTapTableState {
   submit(): Promise<number | null>;
 }
 
-/** Key and label of an architecture picked by hand: "tx1-1-ctle-dfe2", "TX FIR 1 pre / 1 post · CTLE · DFE 2 taps". */
+/** Key and label of an architecture picked by hand: "tx1-1-ctle-ffe1-3-dfe2", "TX FIR 1 pre / 1 post · CTLE · RX FFE 1 pre / 3 post · DFE 2 taps". */
 export function manualArchitecture(m: ManualArchitecture): Architecture {
   const parts: string[] = [];
   if (m.tx) parts.push(`tx${m.tx.pre}-${m.tx.post}`);
   parts.push("ctle");
+  const ffe = m.ffe ?? null;
+  if (ffe) parts.push(`ffe${ffe.pre}-${ffe.post}`);
   if (m.dfeTaps > 0) parts.push(`dfe${m.dfeTaps}`);
-  const a = { key: parts.join("-"), label: "", tx: m.tx, ctle: true, dfeTaps: m.dfeTaps, ffe: null };
+  const a = { key: parts.join("-"), label: "", tx: m.tx, ctle: true, dfeTaps: m.dfeTaps, ffe };
   return { ...a, label: describeArchitecture(a) };
 }
 

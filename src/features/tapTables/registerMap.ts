@@ -66,6 +66,9 @@ function field(name: string, parameter: string, unit: FieldUnit, lsb: number, mi
 /** DFE LSBs offered by default (volts): the finest that reaches the tap's limit within ±127 codes. */
 const DFE_LSBS_V = [0.25e-3, 0.5e-3, 1e-3, 2e-3, 5e-3, 10e-3];
 
+/** Receive FFE tap LSB by default (the FFE's main tap is near 1). */
+const FFE_LSB = 1 / 64;
+
 /** Transmit tap range when the budget gives none: pre/post taps de-emphasize (≤ 0), the main tap drives. */
 function defaultTxRange(k: number): [number, number] {
   if (k === 0) return [0.5, 1];
@@ -76,8 +79,8 @@ function defaultTxRange(k: number): [number, number] {
  * The default register map of an architecture under a budget: transmit taps at the budget's step
  * (1/64 of the swing otherwise) within its ranges, the CTLE gains at the grid's step over the grid,
  * and DFE taps at the finest of 0.25, 0.5, 1, 2, 5 or 10 mV that reaches their limit (half the
- * swing when unlimited) within 8 signed bits. Tap
- * tables hold no receive FFE (see architectureBudget.ts), so the map has no FFE fields.
+ * swing when unlimited) within 8 signed bits; receive FFE taps (starting values: the FFE adapts per
+ * channel like the DFE) at 1/64 over [0, 2] for the main tap and [−1, 1] for the others.
  */
 export function defaultRegisterMap(a: Architecture, budget: BudgetForMap): RegisterField[] {
   const fields: RegisterField[] = [];
@@ -94,6 +97,12 @@ export function defaultRegisterMap(a: Architecture, budget: BudgetForMap): Regis
     fields.push(field("ctle_gdc", "ctle.gDc_dB", "dB", step, lo, hi));
     const g2 = budget.ctle.gDc2_dB;
     if (Array.isArray(g2) && g2[1] > g2[0]) fields.push(field("ctle_gdc2", "ctle.gDc2_dB", "dB", g2[2], g2[0], g2[1]));
+  }
+  if (a.ffe) {
+    for (let k = -a.ffe.pre; k <= a.ffe.post; k++) {
+      const name = k === 0 ? "ffe_main" : k < 0 ? `ffe_pre${-k}` : `ffe_post${k}`;
+      fields.push(field(name, `ffe[${k}]`, "fraction", FFE_LSB, k === 0 ? 0 : -1, k === 0 ? 2 : 1));
+    }
   }
   const limits = budget.dfe?.limits_V;
   for (let n = 1; n <= a.dfeTaps; n++) {
