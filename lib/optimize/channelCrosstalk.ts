@@ -4,7 +4,8 @@
 // cursors and their correlations per phase, computed once.
 import { worstPhaseSampling } from "../crosstalk/aggressorSampling.ts";
 import type { AggressorKind } from "../crosstalk/aggressorKind.ts";
-import { combineCrosstalk, type CrosstalkParts, type SampledCursors } from "../crosstalk/crosstalkParts.ts";
+import { PAM4_INNER_LEVEL } from "../analysis/isiParts.ts";
+import { combineCrosstalk, type CrosstalkParts, LUMP_DIVISOR, type SampledCursors } from "../crosstalk/crosstalkParts.ts";
 import { applyFir } from "../equalizers/applyFir.ts";
 import { scalePulse } from "../pulse/scalePulse.ts";
 import type { Modulation, Pulse } from "../types.ts";
@@ -32,6 +33,8 @@ interface Follower {
   readonly correlation: Float64Array[];
   /** Sample index of the pulse's peak (for the reported phase). */
   readonly peak: number;
+  /** Scratch for its cursors through a FIR (the longest phase plus `MAX_FIR_TAPS − 1`). */
+  readonly scratch: Float64Array;
 }
 
 /** The crosstalk of one CTLE channel. */
@@ -45,8 +48,14 @@ export interface ChannelCrosstalk {
   /** Their parts alone (the same for every transmit FIR; what the bounds count). */
   readonly fixed: CrosstalkParts;
   readonly followers: readonly Follower[];
-  /** Memo of {@link crosstalkFor}'s last answer (and of its parts sorted, once asked). */
-  last: { key: string; parts: CrosstalkParts; sorted?: Float64Array } | null;
+  /** The fixed aggressors' kept parts, largest first. */
+  readonly fixedSorted: Float64Array;
+  /** Memo of {@link crosstalkFor}'s last answer. */
+  last: { key: string; parts: CrosstalkParts } | null;
+  /** Memo of {@link sortedCrosstalkParts}' last answer (a view of `leafScratch`). */
+  leaf: { key: string; sorted: Float64Array } | null;
+  /** Room for every kept part of one transmit FIR. */
+  readonly leafScratch: Float64Array;
 }
 
 /** Most transmit FIR taps a follower's correlations are prepared for. */
@@ -60,14 +69,20 @@ export function channelCrosstalk(aggressors: readonly ReceivedAggressor[], modul
     return { name: a.name, cursors: s.cursors, phase_UI: s.phase_UI };
   });
   const followers = aggressors.flatMap((a, index) => (a.followsVictimFir ? [follower(a, index)] : []));
+  const fixed = combineCrosstalk(fixedSampled.filter((x): x is SampledCursors => x !== null), modulation, noiseRms_V);
+  const perCursor = modulation === "pam4" ? 2 : 1;
+  const room = fixed.parts_V.length + followers.reduce((n, f) => n + perCursor * f.scratch.length, 0);
   return {
     aggressors,
     modulation,
     noiseRms_V,
     fixedSampled,
-    fixed: combineCrosstalk(fixedSampled.filter((x): x is SampledCursors => x !== null), modulation, noiseRms_V),
+    fixed,
     followers,
+    fixedSorted: Float64Array.from(fixed.parts_V).sort().reverse(),
     last: null,
+    leaf: null,
+    leafScratch: new Float64Array(room),
   };
 }
 
@@ -87,7 +102,39 @@ function follower(a: ReceivedAggressor, index: number): Follower {
     cursors.push(f);
     correlation.push(r);
   }
-  return { index, name: a.name, cursors, correlation, peak: mainIndex };
+  const longest = Math.max(...cursors.map((f) => f.length));
+  return { index, name: a.name, cursors, correlation, peak: mainIndex, scratch: new Float64Array(longest + MAX_FIR_TAPS - 1) };
+}
+
+/**
+ * A follower's worst phase for FIR `taps` (largest `Σ_{i,j} c_i·c_j·R_φ(i − j)`, the first on ties)
+ * and its cursors there, `f(φ) * c`, written into `out` (its first `f(φ).length + taps.length − 1`
+ * values); answers the phase's sample offset and the cursor count.
+ */
+function followerAt(f: Follower, taps: ArrayLike<number>, out: Float64Array): { phase: number; length: number } {
+  const spu = f.cursors.length;
+  let best = 0;
+  let bestEnergy = -1;
+  for (let ph = 0; ph < spu; ph++) {
+    const r = f.correlation[ph];
+    let e = 0;
+    for (let i = 0; i < taps.length; i++) {
+      for (let j = 0; j < taps.length; j++) e += taps[i] * taps[j] * r[Math.abs(i - j)];
+    }
+    if (e > bestEnergy) {
+      bestEnergy = e;
+      best = ph;
+    }
+  }
+  const h = f.cursors[best];
+  const length = h.length + taps.length - 1;
+  out.fill(0, 0, length);
+  for (let j = 0; j < taps.length; j++) {
+    const c = taps[j];
+    if (c === 0) continue;
+    for (let k = 0; k < h.length; k++) out[k + j] += c * h[k];
+  }
+  return { phase: best, length };
 }
 
 /**
@@ -103,30 +150,10 @@ export function crosstalkFor(x: ChannelCrosstalk, taps: ArrayLike<number>): Cros
   if (x.last !== null && x.last.key === key) return x.last.parts;
   const sampled = [...x.fixedSampled];
   for (const f of x.followers) {
-    const spu = f.cursors.length;
-    let best = 0;
-    let bestEnergy = -1;
-    for (let ph = 0; ph < spu; ph++) {
-      const r = f.correlation[ph];
-      let e = 0;
-      for (let i = 0; i < taps.length; i++) {
-        for (let j = 0; j < taps.length; j++) e += taps[i] * taps[j] * r[Math.abs(i - j)];
-      }
-      if (e > bestEnergy) {
-        bestEnergy = e;
-        best = ph;
-      }
-    }
-    const h = f.cursors[best];
-    const y = new Float64Array(h.length + taps.length - 1);
-    for (let j = 0; j < taps.length; j++) {
-      const c = taps[j];
-      if (c === 0) continue;
-      for (let k = 0; k < h.length; k++) y[k + j] += c * h[k];
-    }
-    let rel = (best - f.peak) / spu;
+    const { phase, length } = followerAt(f, taps, f.scratch);
+    let rel = (phase - f.peak) / f.cursors.length;
     rel -= Math.floor(rel + 0.5);
-    sampled[f.index] = { name: f.name, cursors: y, phase_UI: rel };
+    sampled[f.index] = { name: f.name, cursors: f.scratch.slice(0, length), phase_UI: rel };
   }
   const parts = combineCrosstalk(sampled as SampledCursors[], x.modulation, x.noiseRms_V);
   x.last = { key, parts };
@@ -139,10 +166,34 @@ export function crosstalkFor(x: ChannelCrosstalk, taps: ArrayLike<number>): Cros
  */
 export function sortedCrosstalkParts(x: ChannelCrosstalk, taps: ArrayLike<number>): Float64Array | null {
   if (x.followers.length === 0) return null;
-  crosstalkFor(x, taps);
-  const last = x.last as NonNullable<ChannelCrosstalk["last"]>;
-  last.sorted ??= Float64Array.from(last.parts.parts_V).sort().reverse();
-  return last.sorted;
+  if (taps.length > MAX_FIR_TAPS) throw new RangeError(`taps must hold at most ${MAX_FIR_TAPS} values, got ${taps.length}`);
+  const key = Array.prototype.join.call(taps, ",");
+  if (x.leaf !== null && x.leaf.key === key) return x.leaf.sorted;
+  // The same parts as crosstalkFor's, without building them per aggressor: the fixed ones are kept
+  // from the start; a follower's cursor gives |y| (NRZ) or |y|·(1 ± ⅓)/2 (PAM4), kept when at least
+  // the lumping threshold.
+  const out = x.leafScratch;
+  out.set(x.fixedSorted);
+  let n = x.fixedSorted.length;
+  const threshold = x.noiseRms_V / LUMP_DIVISOR;
+  const pam4 = x.modulation === "pam4";
+  const a = (1 + PAM4_INNER_LEVEL) / 2;
+  const b = (1 - PAM4_INNER_LEVEL) / 2;
+  for (const f of x.followers) {
+    const { length } = followerAt(f, taps, f.scratch);
+    for (let k = 0; k < length; k++) {
+      const m = Math.abs(f.scratch[k]);
+      if (!pam4) {
+        if (m >= threshold) out[n++] = m;
+      } else {
+        if (a * m >= threshold) out[n++] = a * m;
+        if (b * m >= threshold) out[n++] = b * m;
+      }
+    }
+  }
+  const sorted = out.subarray(0, n).sort().reverse();
+  x.leaf = { key, sorted };
+  return sorted;
 }
 
 /**

@@ -7,7 +7,7 @@ import { pulseFromCoupling } from "@lib/crosstalk";
 import type { LinkAggressor } from "@lib/crosstalk";
 import { enumerateTxFirs } from "@lib/equalizers/enumerateTxFirs";
 import { evaluateSetting } from "@lib/optimize/evaluateSetting";
-import { channelCrosstalk, crosstalkFor } from "@lib/optimize/channelCrosstalk";
+import { channelCrosstalk, crosstalkFor, sortedCrosstalkParts } from "@lib/optimize/channelCrosstalk";
 import { applyFir } from "@lib/equalizers/applyFir";
 import { crosstalkParts } from "@lib/crosstalk";
 import { jointSearch } from "@lib/optimize/jointSearch";
@@ -187,7 +187,7 @@ describe("a realistic lane: coupling-model aggressors through the CTLE", () => {
 });
 
 describe("crosstalk of aggressors that follow the victim's FIR", () => {
-  it("identity: from per-phase cursors and correlations equals applying the FIR to the pulse and sampling it at its worst phase", () => {
+  it("identity: from per-phase cursors and correlations equals applying the FIR to the pulse and sampling it at its worst phase; the leaf's sorted parts are the same parts", () => {
     const fext = trimPulse(pulseFromCoupling({ kind: "fext", forwardCoupling_s: 3e-12, line: { lossAtNyquist_dB: 20, delay_s: 2e-9 } }, { ui_s: ui, samplesPerUi: spu }).pulse, 8, 40);
     const received = [
       { name: "near", kind: "next" as const, pulse: xtPulse([0.02, -0.012, 0.005], 3), followsVictimFir: false },
@@ -214,6 +214,8 @@ describe("crosstalk of aggressors that follow the victim's FIR", () => {
         expect(f.length).toBeGreaterThan(3); // the FEXT aggressor keeps parts of its own beside the NEXT one's
         f.forEach((m, i) => expect(m).toBeCloseTo(d[i], 12));
         fast.perAggressor.forEach((a, i) => expect(a.phase_UI).toBeCloseTo(direct.perAggressor[i].phase_UI, 12));
+        // What the leaf bound holds adverse: the same kept parts, largest first.
+        expect(Array.from(sortedCrosstalkParts(x, taps)!)).toEqual([...fast.parts_V].sort((p, q) => q - p));
       }
     }
   });
