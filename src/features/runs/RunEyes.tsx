@@ -86,7 +86,7 @@ export default function RunEyes(props: Props) {
           <div>
             <h3>After, without crosstalk</h3>
             <p className="help">
-              The same setting and sampling phase with the aggressors left out (the density image is the victim's alone in both).{" "}
+              The same setting and sampling phase with the aggressors left out (both images fold the victim's own symbols; the crosstalk shows in the contours).{" "}
               {without.eyeHeight_V > 0 ? `Eye height ${mV(without.eyeHeight_V).toFixed(1)} mV.` : "The eye is closed at the target BER."}
             </p>
             <DensityEye
