@@ -156,6 +156,26 @@ describe("a victim with its aggressors", () => {
     }
   }, 150_000);
 
+  it("the demo's Slot 9 lane comes with two neighbours from its 12-port file and closes only when their crosstalk is ignored", async () => {
+    const designer = await signIn("designer");
+    const found = await (await designer.get(`/api/v1/channels?q=${encodeURIComponent("Slot 9 lane 2")}`)).json();
+    expect(found.items.length).toBeGreaterThan(0);
+    const channelId = found.items[0].id;
+    const detail = await (await designer.get(`/api/v1/channels/${channelId}`)).json();
+    expect(detail.derivation).toMatchObject({ ports: 12 });
+    expect((detail.aggressors as Aggressor[]).map((a) => [a.kind, a.source])).toEqual([
+      ["next", "ports"],
+      ["fext", "ports"],
+    ]);
+    const runs = await (await designer.get(`/api/v1/runs?channelId=${channelId}`)).json();
+    expect(runs.items.length).toBeGreaterThan(0);
+    const run = await (await designer.get(`/api/v1/runs/${runs.items[runs.items.length - 1].id}`)).json();
+    const required = run.inputs.budget.params.requiredHeadroom_V;
+    expect(run.result.metrics.limiterHeadroom_V).toBeLessThan(required);
+    expect(run.result.crosstalk.limiterHeadroomWithoutCrosstalk_V).toBeGreaterThanOrEqual(required);
+    expect(run.result.verdict.reasons.join(" ")).toMatch(/Crosstalk is what closes the eye/);
+  });
+
   it("aggressors that do not fit are refused with a message naming them, and nothing is stored", async () => {
     const designer = await signIn("designer");
     const before = await rowCounts();

@@ -9,7 +9,7 @@ import { join } from "node:path";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/server/db.server";
 import { config } from "@/server/config.server";
-import { budgets, channels, programs, runs, users } from "@/db/schema";
+import { budgets, channelAggressors, channels, programs, runs, users } from "@/db/schema";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { deriveFromFile, deriveSynthetic } from "@/features/channels/derive";
 import { saveChannel } from "@/features/channels/channels.server";
@@ -18,6 +18,7 @@ import { recordFinishedRun } from "@/features/runs/runs.server";
 import { computeRun, type RunJobInput } from "@/features/runs/runs.job";
 import type { TuningRunResult } from "@lib/run";
 import { backplaneTouchstone } from "./backplaneTouchstone";
+import { laneBundleTouchstone } from "./laneBundleTouchstone";
 import { DEMO_BUDGETS, DEMO_CHANNELS, DEMO_PROGRAM, DEMO_RUNS, type DemoChannel } from "./demo";
 
 async function demoDesigner(): Promise<SessionUser | null> {
@@ -26,10 +27,25 @@ async function demoDesigner(): Promise<SessionUser | null> {
 }
 
 function deriveDemoChannel(c: DemoChannel) {
+  const baud = c.bitRate_bps / (c.modulation === "pam4" ? 2 : 1);
+  if (c.bundle) {
+    const text = laneBundleTouchstone({
+      model: { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s },
+      nyquist_Hz: baud / 2,
+      step_Hz: 25e6,
+      stop_Hz: 1.5 * baud,
+      neighbours: c.bundle.neighbours,
+      comments: [`Quillfeather Systems, Brackenridge backplane: ${c.name}, with its neighbours`, "Generated for the Tapwright demo workspace (not a measurement)."],
+    });
+    const bytes = new TextEncoder().encode(text);
+    const file = { filename: c.bundle.filename, contentType: "application/octet-stream", bytes };
+    const pairs = { inP: 1, inN: 2, outP: 7, outN: 8 };
+    const derived = deriveFromFile({ filename: file.filename, bytes, bitRate_bps: c.bitRate_bps, modulation: c.modulation, pairs, aggressors: c.bundle.aggressors });
+    return { derived, file, aggressors: c.bundle.aggressors };
+  }
   if (!c.touchstone) {
     return { derived: deriveSynthetic(c.bitRate_bps, c.modulation, { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s }) };
   }
-  const baud = c.bitRate_bps / (c.modulation === "pam4" ? 2 : 1);
   const text = backplaneTouchstone({
     model: { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s },
     nyquist_Hz: baud / 2,
@@ -92,8 +108,8 @@ export async function seedDemoWork(): Promise<{ channels: number; budgets: numbe
       channelIds.set(c.name, found.id);
       continue;
     }
-    const { derived, file } = deriveDemoChannel(c);
-    const saved = await saveChannel(designer, { name: c.name, bitRate_bps: c.bitRate_bps, modulation: c.modulation, program: DEMO_PROGRAM.name, file }, derived);
+    const { derived, file, aggressors } = deriveDemoChannel(c);
+    const saved = await saveChannel(designer, { name: c.name, bitRate_bps: c.bitRate_bps, modulation: c.modulation, program: DEMO_PROGRAM.name, file, aggressors }, derived);
     channelIds.set(c.name, saved.id);
     added.channels++;
   }
@@ -118,9 +134,16 @@ export async function seedDemoWork(): Promise<{ channels: number; budgets: numbe
     if (exists) continue;
     const [channel] = await db.select({ id: channels.id, name: channels.name, bitRate_bps: channels.bitRate_bps, pulse: channels.pulse }).from(channels).where(eq(channels.id, channelId));
     const [budget] = await db.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).where(eq(budgets.id, budgetId));
+    const aggressors = await db
+      .select({ name: channelAggressors.name, kind: channelAggressors.kind, pulse: channelAggressors.pulse })
+      .from(channelAggressors)
+      .where(eq(channelAggressors.channelId, channelId))
+      .orderBy(channelAggressors.position);
     engine ??= engineHash();
-    const { result, compute_ms } = cachedRun({ pulse: channel.pulse, budget: budget.params }, engine);
-    await recordFinishedRun(designer, { channel, budget }, result, compute_ms);
+    // The same inputs a run started from the page copies: the channel with its aggressors.
+    const input = aggressors.length > 0 ? { pulse: channel.pulse, budget: budget.params, aggressors } : { pulse: channel.pulse, budget: budget.params };
+    const { result, compute_ms } = cachedRun(input, engine);
+    await recordFinishedRun(designer, { channel: aggressors.length > 0 ? { ...channel, aggressors } : channel, budget }, result, compute_ms);
     added.runs++;
   }
   return added;
