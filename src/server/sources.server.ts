@@ -4,8 +4,9 @@ import { inArray, eq } from "drizzle-orm";
 import { budgetSchema, type Budget, type BudgetInput } from "@lib/contract/budget";
 import { searchSize, searchSizeProblem, searchSpace } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
-import { budgets, channelSources, channels } from "@/db/schema";
+import { budgets, channelAggressors, channelSources, channels } from "@/db/schema";
 import type { ChannelKind, StoredPulse } from "@/features/channels/channels";
+import type { RunAggressor } from "@/features/runs/runs";
 import type { DbOrTx } from "@/server/db.server";
 import { notFound, unprocessable } from "@/server/http/errors";
 
@@ -25,6 +26,8 @@ export interface ChannelCopy {
   /** What the channel was made of (its loss corners are rebuilt from it); absent in older copies. */
   kind?: ChannelKind;
   derivation?: Record<string, unknown>;
+  /** Its aggressors (crosstalk pulses at the receiver's pins), when it has any. */
+  aggressors?: RunAggressor[];
 }
 
 /** A budget with its validated params; 404 when missing, 422 when its params no longer validate. */
@@ -47,10 +50,19 @@ export function parseBudget(params: unknown, name: string): Budget {
 /** The channels among these ids that exist (deleted ones are left out). */
 export async function findChannels(tx: DbOrTx, ids: readonly number[]): Promise<ChannelCopy[]> {
   if (ids.length === 0) return [];
-  return tx
+  const rows = await tx
     .select({ id: channels.id, name: channels.name, lossAtNyquist_dB: channels.lossAtNyquist_dB, pulse: channels.pulse, kind: channels.kind, derivation: channels.derivation })
     .from(channels)
     .where(inArray(channels.id, [...ids]));
+  const aggressors = await tx
+    .select({ channelId: channelAggressors.channelId, name: channelAggressors.name, kind: channelAggressors.kind, pulse: channelAggressors.pulse })
+    .from(channelAggressors)
+    .where(inArray(channelAggressors.channelId, [...ids]))
+    .orderBy(channelAggressors.channelId, channelAggressors.position);
+  return rows.map((r) => {
+    const own = aggressors.filter((a) => a.channelId === r.id).map(({ name, kind, pulse }) => ({ name, kind, pulse }));
+    return own.length > 0 ? { ...r, aggressors: own } : r;
+  });
 }
 
 /** One default setting serves channels of one symbol rate: 422 naming the first channel that differs. */
@@ -99,8 +111,8 @@ export function checkSearchSize(budget: BudgetInput, samplesPerUi: number, membe
 }
 
 /** The channels without their pulses (for API answers: pulses are large). */
-export function withoutPulses<T extends { pulse: StoredPulse }>(list: readonly T[]): Omit<T, "pulse">[] {
-  return list.map(({ pulse: _pulse, ...rest }) => rest);
+export function withoutPulses<T extends { pulse: StoredPulse; aggressors?: RunAggressor[] }>(list: readonly T[]): Omit<T, "pulse" | "aggressors">[] {
+  return list.map(({ pulse: _pulse, aggressors: _aggressors, ...rest }) => rest);
 }
 
 /** The text of a channel's uploaded file (its Touchstone file), or null when it has none any more. */

@@ -208,6 +208,42 @@ describe("tap tables: computing versions", () => {
     expect((await c.text()).toUpperCase()).toContain("FFE_MAIN");
   });
 
+  it("a channel with aggressors: its crosstalk is in its headroom with the class default, and the page and report say how much", async () => {
+    const found = await (await designer.get(`/api/v1/channels?q=${encodeURIComponent("Slot 9 lane 2")}`)).json();
+    const bundleLane = found.items[0].id as number;
+    const other = pop.byLoss.get(22)!;
+    const res = await designer.send(
+      "POST",
+      "/api/v1/tap-tables",
+      tableRequest({ grouping: { mode: "manual", classes: [{ name: "Long lanes", channelIds: [bundleLane, other] }] } }),
+    );
+    expect(res.status, await res.clone().text()).toBe(202);
+    const { id } = await res.json();
+    const v1 = await versionComputed(designer, id, 1);
+    expect(v1.job.status, v1.job.error?.message).toBe("done");
+    const cls = v1.result.classes[0];
+    const lane = cls.channels.find((c: { id: number }) => c.id === bundleLane);
+    expect(lane.crosstalkRms_V).toBeGreaterThan(1e-4);
+    expect(cls.channels.find((c: { id: number }) => c.id === other).crosstalkRms_V).toBeUndefined();
+    // Independently: the class default's setting on that channel, with and without its aggressors.
+    const detail = await (await designer.get(`/api/v1/channels/${bundleLane}`)).json();
+    const pulse = pulseFromJson(detail.pulse);
+    const budget = budgetForArchitecture(resolveBudget(v1.inputs.budget.params), v1.inputs.architecture);
+    const space = searchSpace(pulse, budget);
+    const aggressors = detail.aggressors.map((a: { name: string; kind: "next" | "fext"; pulse: never }) => ({ name: a.name, kind: a.kind, pulse: pulseFromJson(a.pulse) }));
+    const ctle = { gDc_dB: cls.values.ctle_gdc, gDc2_dB: 0 };
+    const tx = [cls.values.tx_main, cls.values.tx_post1];
+    const withXt = evaluateSetting(channelFor(pulse, space, ctle, aggressors), space, tx, 2).limiterHeadroom_V;
+    const alone = evaluateSetting(channelFor(pulse, space, ctle), space, tx, 2).limiterHeadroom_V;
+    expect(Math.abs(withXt - lane.defaultHeadroom_V)).toBeLessThan(2e-4);
+    expect(alone).toBeGreaterThan(withXt + 1e-3);
+    for (const path of [`/tables/${id}`, `/reports/tables/${id}/1`]) {
+      const html = await (await designer.get(path)).text();
+      expect(html, path).toContain("Crosstalk (default)");
+      expect(html, path).toMatch(/\d+\.\d\d mV rms/);
+    }
+  });
+
   it("a new version with other bin edges shows the diff against the previous one", async () => {
     const { id } = await (await designer.send("POST", "/api/v1/tap-tables", tableRequest())).json();
     await versionComputed(designer, id, 1);

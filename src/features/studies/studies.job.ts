@@ -13,6 +13,8 @@ export function computeStudy(inputs: StudyInputs, onProgress: (fraction: number)
     inputs.budget.params,
     inputs.candidates.map(({ key, tx, ctle, dfeTaps, ffe }) => ({ key, tx, ctle, dfeTaps, ffe })),
     onProgress,
+    // Each channel's aggressors are in every candidate's eyes (none: the channel alone).
+    inputs.channels.map((c) => (c.aggressors ?? []).map((a) => ({ name: a.name, kind: a.kind, pulse: pulseFromJson(a.pulse) }))),
   );
   return {
     engineVersion: ENGINE_VERSION,

@@ -3,6 +3,7 @@
 import { z } from "zod";
 import type { BudgetInput } from "@lib/contract/budget";
 import type { StoredPulse } from "@/features/channels/channels";
+import type { RunAggressor } from "@/features/runs/runs";
 import { architectureSchema, type Architecture } from "./architecture";
 
 /** Largest number of channels one study evaluates. */
@@ -54,7 +55,8 @@ export interface StudyDecision {
 /** What a study was computed from (copies taken at its start). */
 export interface StudyInputs {
   budget: { id: number; name: string; params: BudgetInput };
-  channels: { id: number; name: string; lossAtNyquist_dB: number | null; pulse: StoredPulse }[];
+  /** With each channel's aggressors, when it has any (copied like the pulse). */
+  channels: { id: number; name: string; lossAtNyquist_dB: number | null; pulse: StoredPulse; aggressors?: RunAggressor[] }[];
   candidates: Architecture[];
 }
 

@@ -7,9 +7,11 @@ import type { BudgetInput } from "@lib/contract/budget";
 import type { Corner } from "@lib/contract/corner";
 import { cornerBudget } from "@lib/corners";
 import { applyFir } from "@lib/equalizers";
-import { resolveBudget } from "@lib/optimize";
+import type { LinkAggressor } from "@lib/crosstalk";
+import { prepareChannels, resolveBudget, searchSpace } from "@lib/optimize";
+import { pulseFromJson } from "@lib/pulse";
 import { ENGINE_VERSION, tuningRun } from "@lib/run";
-import { ownOptimum, populationDefault, type OwnOptimum, type PopulationResult } from "@lib/tapTables";
+import { aggressorsOnGrid, ownOptimum, populationDefault, type OwnOptimum, type PopulationResult } from "@lib/tapTables";
 import type { Pulse } from "@lib/types";
 import type { Budget } from "@lib/contract/budget";
 import { pulsesAtLoss, type CornerChannel } from "@/features/channels/lossCorners";
@@ -48,6 +50,15 @@ function channelPulses(ch: TableChannel, corners: Corner[]): Pulse[] {
   });
 }
 
+/**
+ * A channel's aggressors (crosstalk pulses at the receiver's pins) on its pulse's grid. A corner scales
+ * the channel's loss only: its aggressors are the same at every corner.
+ */
+function channelAggressors(ch: TableChannel, pulse: Pulse): LinkAggressor[] {
+  const list = (ch.aggressors ?? []).map((a) => ({ name: a.name, kind: a.kind, pulse: pulseFromJson(a.pulse) }));
+  return aggressorsOnGrid([pulse], [list])[0];
+}
+
 /** Each corner's budget (the architecture's budget moved to the corner). */
 const cornerBudgets = (derived: Budget, corners: Corner[]) => corners.map((c) => cornerBudget(derived, c));
 
@@ -66,7 +77,8 @@ export function computeTableMember(input: TableMemberInput, onProgress: (fractio
   const budgets = cornerBudgets(derived, corners);
   const pulses = channelPulses(input.channel, corners);
   const own = pulses.map((p, k) => {
-    const o = ownOptimum(p, budgets[k]);
+    // Its aggressors are in every eye of its own optimum, as in the class default's.
+    const o = ownOptimum(p, budgets[k], prepareChannels(p, searchSpace(p, budgets[k]), channelAggressors(input.channel, p)));
     onProgress((k + 1) / pulses.length);
     return o;
   });
@@ -100,6 +112,8 @@ export function computeTableClass(input: TableClassInput, onProgress: (fraction:
     memberBudgets: pulses.map((_, m) => budgets[m % K]),
     own: input.own.flatMap((o) => o.own),
     onProgress,
+    // Each channel's aggressors are in its every eye, with the default and with its own optimum.
+    aggressors: pulses.map((p, m) => channelAggressors(input.cls.channels[Math.floor(m / K)], p)),
   });
   const channels: ChannelHeadroom[] = input.cls.channels.map((ch, j) => {
     const at = r.channels.slice(j * K, (j + 1) * K);
@@ -115,6 +129,7 @@ export function computeTableClass(input: TableClassInput, onProgress: (fraction:
       defaultEyeHeight_V: at[k].defaultEyeHeight_V,
       ownHeadroom_V: at[k].ownHeadroom_V,
       own: at[k].own,
+      ...(at[k].crosstalk === null ? {} : { crosstalkRms_V: at[k].crosstalk!.rms_V }),
       ...(input.corners
         ? {
             worstCorner: corners[k].name,
@@ -168,7 +183,9 @@ export function finishTableVersion(input: TableVersionInput, onProgress: (fracti
   const corner = corners[w.cornerIndex];
   const pulse = channelPulses(input.worstChannel, [corner])[0];
   const withTx = applyFir(pulse, Float64Array.from(cls.setting.tx.taps), derived.tx.pre);
-  const run = tuningRun(withTx, receiverOnlyBudget(cornerBudget(derived, corner), cls.setting.ctle), onProgress);
+  // FEXT aggressors follow the victim's FIR: the default's, given here since the channel carries it already.
+  const aggressors = channelAggressors(input.worstChannel, pulse).map((a) => (a.kind === "fext" ? { ...a, txTaps: cls.setting.tx.taps } : a));
+  const run = tuningRun(withTx, receiverOnlyBudget(cornerBudget(derived, corner), cls.setting.ctle), onProgress, aggressors);
   const worstEye: WorstEye = {
     channelId: input.worstChannel.id,
     channelName: input.worstChannel.name,

@@ -4,6 +4,7 @@ import { z } from "zod";
 import type { BudgetInput } from "@lib/contract/budget";
 import type { ChannelKind, StoredPulse } from "@/features/channels/channels";
 import type { Corner } from "@lib/contract/corner";
+import type { RunAggressor } from "@/features/runs/runs";
 import type { EyeFigure } from "@lib/run";
 import { architectureSchema, type Architecture } from "@/features/studies/architecture";
 import { registerMapSchema, type RegisterField } from "./registerMap";
@@ -129,6 +130,8 @@ export interface VersionChannel {
   /** What the channel was made of, to rebuild it at the corners' losses (absent in older versions). */
   kind?: ChannelKind;
   derivation?: Record<string, unknown>;
+  /** Its aggressors (crosstalk pulses at the receiver's pins), when it has any. */
+  aggressors?: RunAggressor[];
 }
 
 /** One class as a version keeps it. */
@@ -172,6 +175,8 @@ export interface ChannelHeadroom {
    */
   worstCorner?: string;
   corners?: { name: string; defaultHeadroom_V: number; ownHeadroom_V: number }[];
+  /** Crosstalk rms at the sampler with the class default, all its aggressors together (absent: none), volts. */
+  crosstalkRms_V?: number;
 }
 
 /** One class's result: its default in codes and physical values, and its channels. */
