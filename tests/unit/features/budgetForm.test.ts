@@ -1,10 +1,14 @@
 // The budget form's model: a budget written into the form's text (display units) and read back is
 // the same budget, for every preset and for the fields the presets leave out; text that is not a
-// number reaches the schema as text, so the error names the field; error paths find their field.
+// number reaches the schema as text, so the error names the field; error paths find their field; the
+// package, front-end and receive FFE sections survive the round trip, and a package at "None" drops
+// its detail fields.
 import { describe, expect, it } from "vitest";
 import { budgetSchema } from "@lib/contract/budget";
 import { budgetForm, budgetFromDraft, draftFromBudget, fieldForPath } from "@/features/budgets/budgetForm";
 import { budgetPresets } from "@/features/budgets/budgetPresets";
+import { budgetSummary } from "@/features/budgets/budgets";
+import { ANNEX_93A_PACKAGE } from "@lib/package";
 import { budget } from "../../support/budget";
 
 describe("budget form round trip", () => {
@@ -73,5 +77,38 @@ describe("budget form round trip", () => {
     expect(fieldForPath("ctle.gDc_dB")).toBe("ctle.gDc_dB.0");
     expect(fieldForPath("jitter")).toBe("jitter.rjRms_UI");
     expect(fieldForPath("nowhere")).toBeUndefined();
+  });
+});
+
+const base = budgetPresets[0].budget;
+
+describe("budget form: packages, receiver bandwidth and receive FFE", () => {
+  it("round trip: a budget with both packages, a bandwidth filter and an FFE comes back as it went in", () => {
+    const budget = budgetSchema.parse({
+      ...base,
+      package: { tx: { dieCapacitance_F: 2e-13, traceLength_m: 0.015 }, rx: {} },
+      frontEnd: { rxBandwidth_Hz: 21e9 },
+      ffe: { pre: 1, post: 3 },
+    });
+    const draft = draftFromBudget(budget);
+    expect(draft["package.tx"]).toBe("model");
+    expect(draft["package.tx.dieCapacitance_F"]).toBe("200");
+    expect(draft["package.tx.traceLength_m"]).toBe("15");
+    expect(draft["frontEnd.rxBandwidth_Hz"]).toBe("21");
+    expect(budgetSchema.parse(budgetFromDraft(draft))).toEqual(budget);
+    expect(budgetSummary(budget)).toContain("FFE 1+1+3");
+    expect(budgetSummary(budget)).toContain("packages");
+  });
+
+  it("a package at None leaves it out with its detail fields; empty detail fields take the Annex 93A values", () => {
+    const draft = draftFromBudget(budgetSchema.parse(base));
+    expect(draft["package.tx"]).toBe("");
+    const none = budgetFromDraft({ ...draft, "package.tx.dieCapacitance_F": "300" });
+    expect(none.package).toBeUndefined();
+    const on = budgetSchema.parse(budgetFromDraft({ ...draft, "package.rx": "model", "package.rx.termination_Ohm": "45" }));
+    expect(on.package?.tx).toBeUndefined();
+    expect(on.package?.rx).toEqual({ ...ANNEX_93A_PACKAGE, termination_Ohm: 45 });
+    expect(on.ffe).toBeUndefined();
+    expect(on.frontEnd).toBeUndefined();
   });
 });
