@@ -156,8 +156,8 @@ function rxNoiseShaping(rx: FrontEnd, band_Hz: number): ((freq_Hz: number) => nu
 
 /**
  * What two resolved budgets searched together (members of one population, e.g. corners) must share:
- * modulation, sampling policy, the CTLE grid and corners, the transmit FIR grid, and the DFE's taps
- * and limits. Returns the first field that differs, or null. Swing, noise, jitter, sensitivity and
+ * modulation, sampling policy, the CTLE grid and corners, the transmit FIR grid, the DFE's taps and
+ * limits, and the receive FFE's taps (the class default carries starting values for them). Returns the first field that differs, or null. Swing, noise, jitter, sensitivity and
  * the BER target may differ.
  */
 export function sharedGridMismatch(a: SearchSpace, b: SearchSpace): string | null {
@@ -168,5 +168,6 @@ export function sharedGridMismatch(a: SearchSpace, b: SearchSpace): string | nul
   if (settings(a) !== settings(b) || JSON.stringify(a.ctleCorners) !== JSON.stringify(b.ctleCorners)) return "ctle";
   if (JSON.stringify(a.firSpec) !== JSON.stringify(b.firSpec)) return "tx";
   if (a.dfeCount !== b.dfeCount || a.dfeLimits_V.some((l, k) => l !== b.dfeLimits_V[k])) return "dfe";
+  if (JSON.stringify(a.ffe) !== JSON.stringify(b.ffe)) return "ffe";
   return null;
 }
