@@ -33,6 +33,7 @@ const envSchema = z.object({
   MAIL_FROM: z.string().default("Tapwright <no-reply@tapwright.test>"),
   TAPWRIGHT_DEV_MAIL: z.string().optional(),
   TAPWRIGHT_WORKERS: optionalText,
+  TAPWRIGHT_DERIVE_THREADS: optionalText,
   TAPWRIGHT_WORKER: optionalText,
   TAPWRIGHT_DATA_DIR: optionalText,
   TAPWRIGHT_QUEUE: z.preprocess((v) => (v === "" ? undefined : v), z.enum(["embedded", "bullmq"], { error: 'TAPWRIGHT_QUEUE must be "embedded" or "bullmq"' }).default("embedded")),
@@ -101,6 +102,8 @@ export function parseConfig(env: Record<string, string | undefined>, cwd: string
     devMail: e.TAPWRIGHT_DEV_MAIL === "1" && e.NODE_ENV !== "production",
     /** Engine worker threads asked for (the pool keeps at most one per core). */
     workers: Number(e.TAPWRIGHT_WORKERS) || 2,
+    /** Engine threads deriving channel uploads at once, apart from the job threads. */
+    deriveThreads: Number(e.TAPWRIGHT_DERIVE_THREADS) || 1,
     /** Where the bundled engine worker is, when not beside the server's build. */
     workerFile: e.TAPWRIGHT_WORKER,
     /** The checkout's private data folder (the database, the demo's computed results). */

@@ -15,13 +15,17 @@ import type { Modulation } from "@lib/types";
 import type { ChannelDerivation, ChannelDetail, ChannelListItem, DerivedChannel, ListQuery } from "./channels";
 import type { AggressorView } from "./aggressors";
 import type { ChannelRequest } from "./channelRequest.server";
-import { ChannelInputError, deriveFromFile, deriveSynthetic } from "./derive";
+import { deriveInPool } from "@/server/jobs/pool.server";
+import type { DeriveInput } from "./derive.job";
 
-/** The engine's derivation of a request (ChannelInputError when the file or model gives no channel). */
-function derive(req: ChannelRequest): DerivedChannel {
-  if (req.source === "synthetic") return deriveSynthetic(req.body.bitRate_bps, req.body.modulation, req.body.lossModel, req.body.aggressors);
+/** What the engine worker derives for a request. */
+function deriveInput(req: ChannelRequest): DeriveInput {
+  if (req.source === "synthetic") {
+    const b = req.body;
+    return { source: "synthetic", bitRate_bps: b.bitRate_bps, modulation: b.modulation, lossModel: b.lossModel, aggressors: b.aggressors };
+  }
   const f = req.fields;
-  return deriveFromFile({
+  return { source: "file", file: {
     filename: req.file.filename,
     bytes: req.file.bytes,
     bitRate_bps: f.bitRate_bps,
@@ -31,19 +35,19 @@ function derive(req: ChannelRequest): DerivedChannel {
     riseTime_s: f.riseTime_s,
     aggressors: f.aggressors,
     aggressorFiles: req.aggressorFiles,
-  });
+  } };
 }
 
 const inputErrorStatus = { unsupported: 415, unusable: 422, malformed: 400 } as const;
 
-/** Runs the engine on a request: the derived pulse, insertion loss, aggressors and their provenance. */
-export function deriveChannel(req: ChannelRequest): DerivedChannel {
-  try {
-    return derive(req);
-  } catch (e) {
-    if (e instanceof ChannelInputError) throw new ApiError(inputErrorStatus[e.reason], e.message, e.path);
-    throw e;
-  }
+/**
+ * Runs the engine on a request in a worker thread (a big Touchstone file does not hold up other
+ * requests): the derived pulse, insertion loss, aggressors and their provenance.
+ */
+export async function deriveChannel(req: ChannelRequest): Promise<DerivedChannel> {
+  const outcome = await deriveInPool(deriveInput(req));
+  if (!outcome.ok) throw new ApiError(inputErrorStatus[outcome.reason], outcome.message, outcome.path);
+  return outcome.derived;
 }
 
 const DEFAULT_PROGRAM = "General";
@@ -150,7 +154,7 @@ export async function saveChannel(
 
 /** POST /api/v1/channels: derive, then store. */
 export async function createChannel(user: SessionUser, req: ChannelRequest) {
-  const derived = deriveChannel(req);
+  const derived = await deriveChannel(req);
   if (req.source === "synthetic") return saveChannel(user, req.body, derived);
   return saveChannel(user, { ...req.fields, file: req.file, aggressorFiles: req.aggressorFiles }, derived);
 }

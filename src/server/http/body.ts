@@ -88,6 +88,16 @@ export async function readMultipart(
   return { file: await uploaded(file), fields, extras };
 }
 
+/**
+ * A file's bytes, streamed into a SharedArrayBuffer: the engine worker that derives it reads the
+ * same memory, so the upload is held once (no copy per thread).
+ */
 async function uploaded(file: File): Promise<UploadedFile> {
-  return { filename: file.name || "upload", contentType: file.type || "application/octet-stream", bytes: new Uint8Array(await file.arrayBuffer()) };
+  const bytes = new Uint8Array(new SharedArrayBuffer(file.size));
+  let at = 0;
+  for await (const chunk of file.stream()) {
+    bytes.set(chunk, at);
+    at += chunk.length;
+  }
+  return { filename: file.name || "upload", contentType: file.type || "application/octet-stream", bytes };
 }

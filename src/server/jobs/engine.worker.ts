@@ -7,6 +7,7 @@ import type { StudyInputs } from "@/features/studies/studies";
 import { computeTableClass, computeTableMember, computeTableVersionJob, type TableClassInput, type TableMemberInput, type TableVersionJob } from "@/features/tapTables/tapTables.job";
 import { computeRun, type RunJobInput } from "@/features/runs/runs.job";
 import { computeSweepBatch, summarizeSweep, type SweepBatchInput } from "@/features/sweeps/sweeps.job";
+import { deriveInWorker, type DeriveTask } from "@/features/channels/derive.job";
 
 interface Task {
   kind: JobKind;
@@ -14,7 +15,9 @@ interface Task {
   port: MessagePort;
 }
 
-export default async function engineTask({ kind, input, port }: Task): Promise<unknown> {
+export default async function engineTask(task: Task | DeriveTask): Promise<unknown> {
+  if ("derive" in task) return deriveInWorker(task.derive);
+  const { kind, input, port } = task;
   const progress = (fraction: number) => port.postMessage(fraction);
   if (kind === "run") return computeRun(input as RunJobInput, progress);
   if (kind === "study") return computeStudy(input as StudyInputs, progress);

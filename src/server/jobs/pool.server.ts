@@ -6,6 +6,7 @@ import { dirname, join, resolve } from "node:path";
 import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
 import type { JobKind } from "@/features/jobs/jobs";
+import type { DeriveInput, DeriveOutcome } from "@/features/channels/derive.job";
 import { config } from "@/server/config.server";
 import { logError } from "@/server/http/logError";
 
@@ -70,8 +71,30 @@ export async function runInPool(kind: JobKind, input: unknown, onProgress: (p: n
   }
 }
 
-/** Ends the pool's threads (a worker process shutting down). */
+/** Channel uploads derived at once (TAPWRIGHT_DERIVE_THREADS, default 1); more wait their turn. */
+export const deriveThreads = Math.max(1, Math.min(config.deriveThreads, availableParallelism()));
+
+let derivePool: Piscina | undefined;
+
+/**
+ * Derives an upload or a loss model in the engine worker, off the event loop. Its own threads (the
+ * cap), so an upload never waits behind a run of minutes. A file's bytes are shared
+ * (SharedArrayBuffer), not copied, when the request reader stored them so.
+ */
+export async function deriveInPool(input: DeriveInput): Promise<DeriveOutcome> {
+  derivePool ??= new Piscina({
+    filename: workerFile(),
+    maxThreads: deriveThreads,
+    idleTimeout: 60_000,
+    resourceLimits: { maxOldGenerationSizeMb: config.jobs.workerMemory_MB },
+  });
+  return (await derivePool.run({ derive: input })) as DeriveOutcome;
+}
+
+/** Ends the pools' threads (a worker process shutting down). */
 export async function closePool(): Promise<void> {
   await pool?.destroy();
   pool = undefined;
+  await derivePool?.destroy();
+  derivePool = undefined;
 }
