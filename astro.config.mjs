@@ -6,8 +6,12 @@ import tailwindcss from "@tailwindcss/vite";
 
 // Host names the server trusts in the Host header (Astro ignores it otherwise, and then its own
 // origin check cannot match same-origin requests). Add more with TAPWRIGHT_ALLOWED_HOSTS=a,b.
-const allowedHosts = ["127.0.0.1", "localhost", process.env.HOST, ...(process.env.TAPWRIGHT_ALLOWED_HOSTS ?? "").split(",")]
-  .filter((h) => h && h !== "0.0.0.0" && h !== "::");
+const allowedHosts = [
+  "127.0.0.1",
+  "localhost",
+  process.env.HOST,
+  ...(process.env.TAPWRIGHT_ALLOWED_HOSTS ?? "").split(","),
+].filter((h) => h && h !== "0.0.0.0" && h !== "::");
 
 export default defineConfig({
   output: "server",

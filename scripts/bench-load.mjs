@@ -79,8 +79,15 @@ try {
     body: JSON.stringify({ email: "designer@tapwright.test", password: process.env.DEMO_PASSWORD ?? "tapwright-demo" }),
   });
   if (!signIn.ok) throw new Error(`sign-in failed: HTTP ${signIn.status}`);
-  const cookie = signIn.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
-  const api = (path, init = {}) => fetch(base + path, { ...init, headers: { cookie, origin: base, "content-type": "application/json", ...init.headers } });
+  const cookie = signIn.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
+  const api = (path, init = {}) =>
+    fetch(base + path, {
+      ...init,
+      headers: { cookie, origin: base, "content-type": "application/json", ...init.headers },
+    });
 
   const runs = (await (await api("/api/v1/runs?limit=50")).json()).items;
   const done = runs.find((r) => r.status === "done");
@@ -89,21 +96,39 @@ try {
   const budgets = (await (await api("/api/v1/budgets")).json()).items;
 
   const results = [];
-  results.push(await load("channel list", { path: "/api/v1/channels", connections: 64, duration: seconds, headers: { cookie } }));
-  results.push(await load("run detail", { path: `/api/v1/runs/${done.id}`, connections: 64, duration: seconds, headers: { cookie } }));
+  results.push(
+    await load("channel list", { path: "/api/v1/channels", connections: 64, duration: seconds, headers: { cookie } }),
+  );
+  results.push(
+    await load("run detail", {
+      path: `/api/v1/runs/${done.id}`,
+      connections: 64,
+      duration: seconds,
+      headers: { cookie },
+    }),
+  );
 
   // Keep two runs computing while health is measured: queue enough long-reach runs to outlast it.
   const longest = channels.find((c) => budgets.some((b) => b.bitRate_bps === c.bitRate_bps)) ?? channels[0];
   const budget = budgets.find((b) => b.bitRate_bps === longest.bitRate_bps) ?? budgets[0];
   const queued = [];
   for (let i = 0; i < 24; i++) {
-    const r = await api("/api/v1/runs", { method: "POST", body: JSON.stringify({ channelId: longest.id, budgetId: budget.id }) });
+    const r = await api("/api/v1/runs", {
+      method: "POST",
+      body: JSON.stringify({ channelId: longest.id, budgetId: budget.id }),
+    });
     if (r.status !== 202) throw new Error(`starting a run failed: HTTP ${r.status} ${await r.text()}`);
     queued.push((await r.json()).id);
   }
   const healthSeconds = Math.max(5, Math.round((seconds * 2) / 3));
-  const health = await load("health while runs compute", { path: "/api/v1/health", connections: 8, duration: healthSeconds });
-  const states = await Promise.all(queued.map(async (id) => (await (await api(`/api/v1/runs/${id}?fields=status`)).json()).status));
+  const health = await load("health while runs compute", {
+    path: "/api/v1/health",
+    connections: 8,
+    duration: healthSeconds,
+  });
+  const states = await Promise.all(
+    queued.map(async (id) => (await (await api(`/api/v1/runs/${id}?fields=status`)).json()).status),
+  );
   health.runsStillQueuedOrRunning = states.filter((s) => s === "queued" || s === "running").length;
   health.runsDone = states.filter((s) => s === "done").length;
   results.push(health);
@@ -117,7 +142,8 @@ try {
       `${r.case.padEnd(28)}${String(r.connections).padStart(4)}${String(r.perSecond).padStart(8)}${String(r.p50_ms).padStart(10)}${String(r.p95_ms).padStart(9)}${String(r.p99_ms).padStart(9)}${String(r.errors).padStart(9)}${String(r.non2xx).padStart(9)}`,
     );
   }
-  if (health.runsStillQueuedOrRunning === 0) log("warning: every queued run had finished before health was measured to the end.");
+  if (health.runsStillQueuedOrRunning === 0)
+    log("warning: every queued run had finished before health was measured to the end.");
 } finally {
   server?.kill("SIGTERM");
   if (!database.reused) await stopMariadb(cfg.db);

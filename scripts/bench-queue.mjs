@@ -67,7 +67,10 @@ const server = await serve(env, { quiet: true });
 const db = mysql.createPool({ uri: env.DATABASE_URL, connectionLimit: 2 });
 const redisClient = new Redis(redis.url, { lazyConnect: true });
 await redisClient.connect();
-const load = () => loadavg().map((x) => x.toFixed(1)).join(" / ");
+const load = () =>
+  loadavg()
+    .map((x) => x.toFixed(1))
+    .join(" / ");
 const loadBefore = load();
 
 /** Redis commands served so far (the INFO call itself included, a constant). */
@@ -82,7 +85,9 @@ async function redisCpu_s() {
 }
 /** CPU seconds the MariaDB server process has used so far (/proc: utime + stime, at 100 ticks a second). */
 function mariadbCpu_s() {
-  const fields = readFileSync(`/proc/${runningPid(cfg.db)}/stat`, "utf8").split(") ")[1].split(" ");
+  const fields = readFileSync(`/proc/${runningPid(cfg.db)}/stat`, "utf8")
+    .split(") ")[1]
+    .split(" ");
   return (Number(fields[11]) + Number(fields[12])) / 100;
 }
 /** Writing statements MariaDB has run so far (the whole private server: nothing else uses it during the bench). */
@@ -99,7 +104,11 @@ async function call(method, path, body) {
     body: body ? JSON.stringify(body) : undefined,
   });
   if (!r.ok) throw new Error(`${method} ${path}: ${r.status} ${await r.text()}`);
-  if (path.includes("/auth/")) cookie = r.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  if (path.includes("/auth/"))
+    cookie = r.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
   return r.json();
 }
 
@@ -131,13 +140,26 @@ async function waitDone(path) {
 }
 
 async function timedSweep(name, channelIds, budgetId, corners) {
-  const [commands0, writes0, redisCpu0, dbCpu0] = [await redisCommands(), await dbWrites(), await redisCpu_s(), mariadbCpu_s()];
+  const [commands0, writes0, redisCpu0, dbCpu0] = [
+    await redisCommands(),
+    await dbWrites(),
+    await redisCpu_s(),
+    mariadbCpu_s(),
+  ];
   const t0 = performance.now();
   const { id } = await call("POST", "/api/v1/sweeps", { name, channelIds, budgetId, corners });
   const s = await waitDone(`/api/v1/sweeps/${id}`);
   const wall_s = (performance.now() - t0) / 1000;
-  const [commands1, writes1, redisCpu1, dbCpu1] = [await redisCommands(), await dbWrites(), await redisCpu_s(), mariadbCpu_s()];
-  const [[jobsRow]] = await db.query("SELECT COUNT(*) AS n FROM jobs WHERE parent_id = (SELECT job_id FROM sweeps WHERE id = ?)", [id]);
+  const [commands1, writes1, redisCpu1, dbCpu1] = [
+    await redisCommands(),
+    await dbWrites(),
+    await redisCpu_s(),
+    mariadbCpu_s(),
+  ];
+  const [[jobsRow]] = await db.query(
+    "SELECT COUNT(*) AS n FROM jobs WHERE parent_id = (SELECT job_id FROM sweeps WHERE id = ?)",
+    [id],
+  );
   const engine_ms = s.results.reduce((t, r) => t + r.compute_ms, 0);
   // The parent counts as a job too: it is queued, claimed and completed like its batches.
   const jobs = Number(jobsRow.n);
@@ -155,17 +177,34 @@ async function timedSweep(name, channelIds, budgetId, corners) {
 }
 
 try {
-  await call("POST", "/api/auth/sign-in/email", { email: "designer@tapwright.test", password: process.env.DEMO_PASSWORD ?? "tapwright-demo" });
+  await call("POST", "/api/auth/sign-in/email", {
+    email: "designer@tapwright.test",
+    password: process.env.DEMO_PASSWORD ?? "tapwright-demo",
+  });
   const budgets = (await call("GET", "/api/v1/budgets")).items;
   const backplane = budgets.find((b) => b.name === "28 Gb/s NRZ backplane");
   const channelIds = [];
   for (let i = 0; i < 24; i++) {
-    const c = await call("POST", "/api/v1/channels", { name: `Bench lane ${i + 1}`, bitRate_bps: 28e9, lossModel: { lossAtNyquist_dB: 6 + i } });
+    const c = await call("POST", "/api/v1/channels", {
+      name: `Bench lane ${i + 1}`,
+      bitRate_bps: 28e9,
+      lossModel: { lossAtNyquist_dB: 6 + i },
+    });
     channelIds.push(c.id);
   }
-  const corners = [{ name: "nominal" }, { name: "loss −10 %", lossScale: 0.9 }, { name: "loss +10 %", lossScale: 1.1 }, { name: "slow", lossScale: 1.1, txSwingScale: 0.9, noiseScale: 1.2 }];
+  const corners = [
+    { name: "nominal" },
+    { name: "loss −10 %", lossScale: 0.9 },
+    { name: "loss +10 %", lossScale: 1.1 },
+    { name: "slow", lossScale: 1.1, txSwingScale: 0.9, noiseScale: 1.2 },
+  ];
   // A lighter budget than the demo's (transmit FIR 1/1 in 1/20 steps, CTLE, DFE 3) keeps a round short.
-  const sweepBudget = await call("POST", "/api/v1/budgets", { ...backplane, name: "Bench sweep budget", tx: { pre: 1, post: 1, step: 0.05 }, dfe: { taps: 3, limits_V: 0.1 } });
+  const sweepBudget = await call("POST", "/api/v1/budgets", {
+    ...backplane,
+    name: "Bench sweep budget",
+    tx: { pre: 1, post: 1, step: 0.05 },
+    dfe: { taps: 3, limits_V: 0.1 },
+  });
   const trivial = await call("POST", "/api/v1/budgets", {
     ...backplane,
     name: "Bench trivial budget",
@@ -182,12 +221,19 @@ try {
       const t = await timedSweep(`Bench ${n} worker(s) round ${r + 1}`, channelIds, sweepBudget.id, corners);
       await stopWorkers(workers);
       rounds[n].push(t);
-      log(`round ${r + 1}, ${n} worker process(es): ${t.pairs} pairs in ${t.wall_s.toFixed(1)} s = ${(t.pairs / t.wall_s).toFixed(2)} pairs/s`);
+      log(
+        `round ${r + 1}, ${n} worker process(es): ${t.pairs} pairs in ${t.wall_s.toFixed(1)} s = ${(t.pairs / t.wall_s).toFixed(2)} pairs/s`,
+      );
     }
   }
 
   const one = await startWorkers(1);
-  const o = await timedSweep("Bench queue overhead", channelIds, trivial.id, Array.from({ length: 8 }, (_, i) => ({ name: `c${i}`, lossScale: 1 + i / 100 })));
+  const o = await timedSweep(
+    "Bench queue overhead",
+    channelIds,
+    trivial.id,
+    Array.from({ length: 8 }, (_, i) => ({ name: `c${i}`, lossScale: 1 + i / 100 })),
+  );
   await stopWorkers(one);
   // The table `npm run bench` times in one thread (4 classes over 24 channels), fanned out.
   const tableSeconds = {};
@@ -197,7 +243,14 @@ try {
     const table = await call("POST", "/api/v1/tap-tables", {
       name: `Bench table, ${n} worker(s)`,
       budgetId: backplane.id,
-      architecture: { key: "tx-ctle-dfe5", label: "Transmit FIR + CTLE + 5-tap DFE", tx: { pre: 1, post: 2 }, ctle: true, dfeTaps: 5, ffe: null },
+      architecture: {
+        key: "tx-ctle-dfe5",
+        label: "Transmit FIR + CTLE + 5-tap DFE",
+        tx: { pre: 1, post: 2 },
+        ctle: true,
+        dfeTaps: 5,
+        ffe: null,
+      },
       grouping: { mode: "loss-bins", channelIds, edges_dB: [12, 18, 24] },
     });
     await waitDone(`/api/v1/tap-tables/${table.id}/versions/1`);
@@ -215,18 +268,45 @@ try {
   console.log("");
   console.log("| what | figure |");
   console.log("| --- | --- |");
-  console.log(`| sweep, 1 worker process | ${Math.min(...r1).toFixed(2)}–${Math.max(...r1).toFixed(2)} pairs/s (mean ${mean(r1).toFixed(2)}) |`);
-  console.log(`| sweep, 2 worker processes | ${Math.min(...r2).toFixed(2)}–${Math.max(...r2).toFixed(2)} pairs/s (mean ${mean(r2).toFixed(2)}) |`);
-  console.log(`| speed-up with 2 | ${(mean(r2) / mean(r1)).toFixed(2)}× (rounds: ${r2.map((x, i) => (x / r1[i]).toFixed(2)).join(", ")}) |`);
+  console.log(
+    `| sweep, 1 worker process | ${Math.min(...r1).toFixed(2)}–${Math.max(...r1).toFixed(2)} pairs/s (mean ${mean(r1).toFixed(2)}) |`,
+  );
+  console.log(
+    `| sweep, 2 worker processes | ${Math.min(...r2).toFixed(2)}–${Math.max(...r2).toFixed(2)} pairs/s (mean ${mean(r2).toFixed(2)}) |`,
+  );
+  console.log(
+    `| speed-up with 2 | ${(mean(r2) / mean(r1)).toFixed(2)}× (rounds: ${r2.map((x, i) => (x / r1[i]).toFixed(2)).join(", ")}) |`,
+  );
   console.log(`| engine time per pair | ${Math.min(...perPair).toFixed(0)}–${Math.max(...perPair).toFixed(0)} ms |`);
-  console.log(`| queue overhead per job (${o.jobs} jobs of 4 trivial pairs, 1 worker) | ${overhead_ms.toFixed(1)} ms (engine ${(o.engine_ms / o.jobs).toFixed(1)} ms per job) |`);
-  console.log(`| tap table, 4 classes over 24 channels | ${tableSeconds[1].toFixed(1)} s with 1 worker process, ${tableSeconds[2].toFixed(1)} s with 2 |`);
+  console.log(
+    `| queue overhead per job (${o.jobs} jobs of 4 trivial pairs, 1 worker) | ${overhead_ms.toFixed(1)} ms (engine ${(o.engine_ms / o.jobs).toFixed(1)} ms per job) |`,
+  );
+  console.log(
+    `| tap table, 4 classes over 24 channels | ${tableSeconds[1].toFixed(1)} s with 1 worker process, ${tableSeconds[2].toFixed(1)} s with 2 |`,
+  );
   const all = [...rounds[1], ...rounds[2]];
   const spread = (xs, digits = 0) => `${Math.min(...xs).toFixed(digits)}–${Math.max(...xs).toFixed(digits)}`;
-  console.log(`| Redis commands per job (${all[0].jobs} batch jobs + the parent per sweep) | ${spread(all.map((t) => t.redisPerJob))} |`);
-  console.log(`| Redis CPU per job | ${spread(all.map((t) => t.redisCpuPerJob_ms), 2)} ms |`);
-  console.log(`| MariaDB write statements per pair | ${spread(all.map((t) => t.writesPerPair), 1)} |`);
-  console.log(`| MariaDB CPU per pair (the bench's 100 ms progress polls included) | ${spread(all.map((t) => t.dbCpuPerPair_ms), 2)} ms |`);
+  console.log(
+    `| Redis commands per job (${all[0].jobs} batch jobs + the parent per sweep) | ${spread(all.map((t) => t.redisPerJob))} |`,
+  );
+  console.log(
+    `| Redis CPU per job | ${spread(
+      all.map((t) => t.redisCpuPerJob_ms),
+      2,
+    )} ms |`,
+  );
+  console.log(
+    `| MariaDB write statements per pair | ${spread(
+      all.map((t) => t.writesPerPair),
+      1,
+    )} |`,
+  );
+  console.log(
+    `| MariaDB CPU per pair (the bench's 100 ms progress polls included) | ${spread(
+      all.map((t) => t.dbCpuPerPair_ms),
+      2,
+    )} ms |`,
+  );
   console.log(`| load average (1 / 5 / 15 min) before → after | ${loadBefore} → ${load()} |`);
 } finally {
   redisClient.disconnect();

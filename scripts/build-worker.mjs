@@ -7,9 +7,25 @@ import { build } from "esbuild";
 import { join } from "node:path";
 import { distDir, root } from "./lib/config.mjs";
 
-const common = { bundle: true, platform: "node", format: "esm", target: "node20", packages: "external", sourcemap: "linked", logLevel: "warning" };
+const common = {
+  bundle: true,
+  platform: "node",
+  format: "esm",
+  target: "node20",
+  packages: "external",
+  sourcemap: "linked",
+  logLevel: "warning",
+};
 
 await Promise.all([
-  build({ ...common, entryPoints: [join(root, "src", "server", "jobs", "engine.worker.ts")], outfile: join(distDir, "engine-worker.mjs") }),
-  build({ ...common, entryPoints: [join(root, "src", "server", "jobs", "worker.main.ts")], outfile: join(distDir, "worker.mjs") }),
+  build({
+    ...common,
+    entryPoints: [join(root, "src", "server", "jobs", "engine.worker.ts")],
+    outfile: join(distDir, "engine-worker.mjs"),
+  }),
+  build({
+    ...common,
+    entryPoints: [join(root, "src", "server", "jobs", "worker.main.ts")],
+    outfile: join(distDir, "worker.mjs"),
+  }),
 ]);

@@ -12,9 +12,14 @@ const c = await mysql.createConnection({ uri: url });
 try {
   const emails = DEMO_PEOPLE.map((p) => p.email);
   await c.beginTransaction();
-  const [admins] = await c.query("SELECT id FROM users WHERE role = 'admin' AND deactivated_at IS NULL AND email NOT IN (?) FOR UPDATE", [emails]);
+  const [admins] = await c.query(
+    "SELECT id FROM users WHERE role = 'admin' AND deactivated_at IS NULL AND email NOT IN (?) FOR UPDATE",
+    [emails],
+  );
   if (admins.length === 0) {
-    throw new Error("No admin of your own would be left: invite one (Admin → People), accept the invitation, then run this again.");
+    throw new Error(
+      "No admin of your own would be left: invite one (Admin → People), accept the invitation, then run this again.",
+    );
   }
   const [found] = await c.query("SELECT id FROM users WHERE email IN (?)", [emails]);
   const ids = found.map((r) => r.id);

@@ -27,4 +27,6 @@ for (const name of readdirSync(assets)) {
   raw += bytes.length;
   br += brotli.length;
 }
-console.log(`[tapwright] Precompressed ${files} assets: ${(raw / 1024).toFixed(0)} KiB → ${(br / 1024).toFixed(0)} KiB (brotli).`);
+console.log(
+  `[tapwright] Precompressed ${files} assets: ${(raw / 1024).toFixed(0)} KiB → ${(br / 1024).toFixed(0)} KiB (brotli).`,
+);

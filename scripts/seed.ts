@@ -19,9 +19,14 @@ async function main() {
   for (const p of people) await ensurePerson(p.email, p.name, p.role, DEMO_PASSWORD);
   console.log(`[tapwright] Demo accounts: ${people.map((p) => p.email).join(", ")} — password: ${DEMO_PASSWORD}`);
   const work = await seedDemoWork();
-  console.log(`[tapwright] Demo work: added ${work.channels} channels, ${work.budgets} budgets, ${work.runs} tuning runs.`);
+  console.log(
+    `[tapwright] Demo work: added ${work.channels} channels, ${work.budgets} budgets, ${work.runs} tuning runs.`,
+  );
   const handoff = await seedHandoff();
-  if (handoff.table) console.log("[tapwright] Demo hand-off: an architecture study with its decision, a tap table with v1 signed off and v2 awaiting sign-off.");
+  if (handoff.table)
+    console.log(
+      "[tapwright] Demo hand-off: an architecture study with its decision, a tap table with v1 signed off and v2 awaiting sign-off.",
+    );
 }
 
 main()

@@ -22,7 +22,14 @@ process.env.TAPWRIGHT_WORKER ??= join(outDir, "engine-worker.mjs");
 process.env.ASTRO_NODE_AUTOSTART = "disabled";
 
 const trustedProxies = parseProxies(process.env.TAPWRIGHT_TRUSTED_PROXIES ?? "");
-const FORWARDED = ["x-forwarded-for", "x-forwarded-host", "x-forwarded-proto", "x-forwarded-port", "x-real-ip", "forwarded"];
+const FORWARDED = [
+  "x-forwarded-for",
+  "x-forwarded-host",
+  "x-forwarded-proto",
+  "x-forwarded-port",
+  "x-real-ip",
+  "forwarded",
+];
 
 /**
  * The adapter takes the client's address from X-Forwarded-For when present: leave it holding

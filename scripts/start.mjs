@@ -31,7 +31,9 @@ try {
   }
   build(cfg.env);
   const server = await serve(cfg.env);
-  log(`Tapwright is ready: ${cfg.env.BETTER_AUTH_URL} (Ctrl-C stops it; MariaDB keeps running until \`npm run db:stop\`).`);
+  log(
+    `Tapwright is ready: ${cfg.env.BETTER_AUTH_URL} (Ctrl-C stops it; MariaDB keeps running until \`npm run db:stop\`).`,
+  );
   // With the distributed queue this machine also runs one worker (unless TAPWRIGHT_LOCAL_WORKER=0);
   // more machines add theirs with `npm run worker`.
   let worker = null;
@@ -41,7 +43,9 @@ try {
       const { startWorker } = await import("./lib/worker.mjs");
       worker = startWorker(cfg.env);
     }
-    log(`Jobs go to BullMQ on Redis at ${where.host}${worker ? ", computed by a worker on this machine" : ""}; add workers with \`npm run worker\` (here or on any machine that reaches Redis and MariaDB).`);
+    log(
+      `Jobs go to BullMQ on Redis at ${where.host}${worker ? ", computed by a worker on this machine" : ""}; add workers with \`npm run worker\` (here or on any machine that reaches Redis and MariaDB).`,
+    );
   }
   const stop = async () => {
     worker?.kill("SIGTERM");

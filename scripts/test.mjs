@@ -30,8 +30,9 @@ let code = 1;
 const wholeSuite = process.argv.length <= 2;
 try {
   ensureNpmPackages();
-  // Lint first (ESLint: typescript-eslint, the import boundaries, React's hooks rules); it counts
-  // as one more test of the whole suite, like the type check at the end.
+  // Lint first (ESLint: typescript-eslint, the import boundaries, React's hooks rules; then
+  // Prettier's check of the formatting); it counts as one more test of the whole suite, like the
+  // type check at the end.
   let lintPassed = null;
   if (wholeSuite && process.env.TAPWRIGHT_SKIP_LINT !== "1") {
     log("Linting (npm run lint)…");
@@ -75,7 +76,15 @@ try {
   // Asynchronous on purpose: the fake SMTP server lives in this process and must keep answering.
   const vitest = spawn(
     join(root, "node_modules", ".bin", "vitest"),
-    ["run", "--config", "tests/vitest.config.ts", "--reporter=default", "--reporter=json", `--outputFile.json=${report}`, ...process.argv.slice(2)],
+    [
+      "run",
+      "--config",
+      "tests/vitest.config.ts",
+      "--reporter=default",
+      "--reporter=json",
+      `--outputFile.json=${report}`,
+      ...process.argv.slice(2),
+    ],
     {
       cwd: root,
       stdio: "inherit",

@@ -33,7 +33,8 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
       return json(errorBody("API tokens may only read (and export tap tables); sign in to change anything."), 401);
     }
     const user = await userForToken(bearer);
-    if (!user) return json(errorBody("That API token is unknown or revoked; create a new one under your profile."), 401);
+    if (!user)
+      return json(errorBody("That API token is unknown or revoked; create a new one under your profile."), 401);
     ctx.locals.user = user;
     ctx.locals.authVia = "token";
   } else if (!pathname.startsWith("/api/auth/") && !pathname.startsWith("/_astro/")) {

@@ -32,7 +32,9 @@ export function berContours(map: BerMap, levels: readonly number[], scalePhase =
   // d3-contour keeps values ≥ threshold; negate so that "≥ −level" means "BER ≤ 10^level".
   const neg = new Array<number>(W * H);
   for (let i = 0; i < W * H; i++) neg[i] = -map.values[i];
-  const gen = contours().size([W, H]).thresholds(levels.map((l) => -l));
+  const gen = contours()
+    .size([W, H])
+    .thresholds(levels.map((l) => -l));
   const polys = gen(neg);
   // Grid coordinate x ↔ column x − 0.5 (d3-contour puts value i at ⟨i + 0.5, j + 0.5⟩).
   const axis = (a: Float64Array, x: number): number => {
@@ -43,7 +45,9 @@ export function berContours(map: BerMap, levels: readonly number[], scalePhase =
   return polys.map((mp, idx) => ({
     log10Ber: levels[idx],
     paths: mp.coordinates.flatMap((poly) =>
-      poly.map((ring) => ring.map(([x, y]) => [axis(map.phases, x) * scalePhase, axis(map.voltage_V, y)] as [number, number])),
+      poly.map((ring) =>
+        ring.map(([x, y]) => [axis(map.phases, x) * scalePhase, axis(map.voltage_V, y)] as [number, number]),
+      ),
     ),
   }));
 }

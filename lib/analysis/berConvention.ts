@@ -36,7 +36,9 @@ export function berPerLevelTail(modulation: Modulation): number {
 export function edgeTail(modulation: Modulation, ber: number): number {
   const tail = ber / berPerLevelTail(modulation);
   if (!(Number.isFinite(ber) && ber > 0 && tail < 0.5)) {
-    throw new RangeError(`ber must be a number in (0, ${0.5 * berPerLevelTail(modulation)}) for ${modulation}, got ${String(ber)}`);
+    throw new RangeError(
+      `ber must be a number in (0, ${0.5 * berPerLevelTail(modulation)}) for ${modulation}, got ${String(ber)}`,
+    );
   }
   return tail;
 }

@@ -38,10 +38,15 @@ export interface EyeAnalysis {
  */
 export function eyeAnalysis(
   pulse: Pulse,
-  options: StatisticalEyeOptions & { readonly targetBer: number; readonly policy?: SamplingPolicy; readonly aggressors?: readonly SampledAggressor[] },
+  options: StatisticalEyeOptions & {
+    readonly targetBer: number;
+    readonly policy?: SamplingPolicy;
+    readonly aggressors?: readonly SampledAggressor[];
+  },
 ): EyeAnalysis {
   const ber = options.targetBer;
-  if (!(Number.isFinite(ber) && ber > 0 && ber < 0.25)) throw new RangeError(`targetBer must be a number in (0, 0.25), got ${String(ber)}`);
+  if (!(Number.isFinite(ber) && ber > 0 && ber < 0.25))
+    throw new RangeError(`targetBer must be a number in (0, 0.25), got ${String(ber)}`);
   const aggressors = options.aggressors ?? [];
   aggressors.forEach((a, i) => {
     if (a.pulse.ui_s !== pulse.ui_s || a.pulse.samplesPerUi !== pulse.samplesPerUi) {

@@ -41,7 +41,9 @@ export function splitWeight(m: number, s: number, x: number): number {
   if (m === s) return 0;
   if (x === 0) return (m * m - s * s) / (2 * s + 1);
   // cosh a − cosh b = 2·sinh((a + b)/2)·sinh((a − b)/2), in logs against overflow.
-  const w = Math.exp(logSinh((x * (m + s)) / 2) + logSinh((x * (m - s)) / 2) - logSinh((x * (2 * s + 1)) / 2) - logSinh(x / 2));
+  const w = Math.exp(
+    logSinh((x * (m + s)) / 2) + logSinh((x * (m - s)) / 2) - logSinh((x * (2 * s + 1)) / 2) - logSinh(x / 2),
+  );
   // A weight, whatever rounding does at large tilts (NaN counts as none).
   return w >= 0 ? (w <= 1 ? w : 1) : 0;
 }
@@ -83,9 +85,12 @@ export function lumpedVariance(m: number, tilt: number): number {
  *   per-cursor distributions [memory: recalled, not re-read].
  */
 export function isiDistribution(parts: Float64Array, step_V: number, tilt_perV = 0): IsiDistribution {
-  if (!(parts instanceof Float64Array)) throw new TypeError("parts must be a Float64Array of two-point magnitudes in volts");
-  if (!(Number.isFinite(step_V) && step_V > 0)) throw new RangeError(`step_V must be a finite number > 0, got ${step_V}`);
-  if (!(Number.isFinite(tilt_perV) && tilt_perV >= 0)) throw new RangeError(`tilt_perV must be a finite number ≥ 0, got ${tilt_perV}`);
+  if (!(parts instanceof Float64Array))
+    throw new TypeError("parts must be a Float64Array of two-point magnitudes in volts");
+  if (!(Number.isFinite(step_V) && step_V > 0))
+    throw new RangeError(`step_V must be a finite number > 0, got ${step_V}`);
+  if (!(Number.isFinite(tilt_perV) && tilt_perV >= 0))
+    throw new RangeError(`tilt_perV must be a finite number ≥ 0, got ${tilt_perV}`);
   let lumped = 0;
   let count = 0;
   const onGrid = new Float64Array(parts.length);

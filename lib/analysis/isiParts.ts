@@ -25,7 +25,8 @@ export function isiParts(isi: Float64Array, modulation: Modulation, innerLevel =
   if (modulation !== "nrz" && modulation !== "pam4") {
     throw new RangeError(`modulation must be "nrz" or "pam4", got ${String(modulation)}`);
   }
-  if (!(innerLevel > 0 && innerLevel < 1)) throw new RangeError(`innerLevel must be a number in (0, 1), got ${String(innerLevel)}`);
+  if (!(innerLevel > 0 && innerLevel < 1))
+    throw new RangeError(`innerLevel must be a number in (0, 1), got ${String(innerLevel)}`);
   for (let k = 0; k < isi.length; k++) {
     if (!Number.isFinite(isi[k])) throw new RangeError(`isi[${k}] is not finite (${isi[k]})`);
   }

@@ -12,7 +12,13 @@ export class JitterMixture {
   readonly #floor: number;
   readonly #kernels = new Map<number, JitterKernel>();
 
-  constructor(laws: PhaseLaws, levels: Float64Array, jitter: Jitter | undefined, samplesPerUi: number, kernelFloor: number) {
+  constructor(
+    laws: PhaseLaws,
+    levels: Float64Array,
+    jitter: Jitter | undefined,
+    samplesPerUi: number,
+    kernelFloor: number,
+  ) {
     this.#laws = laws;
     this.#levels = levels;
     this.#jitter = jitter;

@@ -39,8 +39,10 @@ export function lawStepForSpan(span_V: number, noiseRms_V: number, refine = 1): 
   if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0)) {
     throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${noiseRms_V}`);
   }
-  if (!(Number.isFinite(span_V) && span_V >= 0)) throw new RangeError(`span_V must be a finite number ≥ 0, got ${span_V}`);
-  if (!(Number.isFinite(refine) && refine >= 1)) throw new RangeError(`refine must be a finite number ≥ 1, got ${String(refine)}`);
+  if (!(Number.isFinite(span_V) && span_V >= 0))
+    throw new RangeError(`span_V must be a finite number ≥ 0, got ${span_V}`);
+  if (!(Number.isFinite(refine) && refine >= 1))
+    throw new RangeError(`refine must be a finite number ≥ 1, got ${String(refine)}`);
   const sigma = noiseRms_V;
   const coarsest = (span_V + NOISE_TAIL_SIGMAS * sigma) / DEFAULT_HALF_BINS;
   if (coarsest === 0) return 0;

@@ -9,7 +9,9 @@ const KERNEL_SIGMAS = 7;
 
 /** `P(a < Z < b)` for a standard normal `Z`. */
 function normalMass(a: number, b: number): number {
-  return a >= 0 ? 0.5 * (erfc(a / Math.SQRT2) - erfc(b / Math.SQRT2)) : 0.5 * (erfc(-b / Math.SQRT2) - erfc(-a / Math.SQRT2));
+  return a >= 0
+    ? 0.5 * (erfc(a / Math.SQRT2) - erfc(b / Math.SQRT2))
+    : 0.5 * (erfc(-b / Math.SQRT2) - erfc(-a / Math.SQRT2));
 }
 
 /**
@@ -29,7 +31,8 @@ function cellKernel(centres: readonly number[], rms: number, cell: number): { fi
       weights[reach + k + 1] += share * (x - k);
       continue;
     }
-    for (let k = -reach; k <= reach; k++) weights[reach + k] += share * normalMass(((k - 0.5) * cell - c) / rms, ((k + 0.5) * cell - c) / rms);
+    for (let k = -reach; k <= reach; k++)
+      weights[reach + k] += share * normalMass(((k - 0.5) * cell - c) / rms, ((k + 0.5) * cell - c) / rms);
   }
   return { first: -reach, weights };
 }
@@ -48,7 +51,8 @@ function cellKernel(centres: readonly number[], rms: number, cell: number): { fi
  * @returns a new image on the same axes (counts are expected hits, not integers).
  */
 export function noisyDensityEye(eye: DensityEye, noiseRms_V: number, jitter?: Jitter): DensityEye {
-  if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0)) throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${noiseRms_V}`);
+  if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0))
+    throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${noiseRms_V}`);
   const { width: W, height: H } = eye;
   let counts = Float64Array.from(eye.counts);
   if (noiseRms_V > 0) {

@@ -39,13 +39,15 @@ const MAX_ADVERSE = 8;
  *   `log E_P e^g ≥ E_Q g − KL(Q‖P)` [memory: recalled, not re-read].
  */
 export function quantileBound(parts: Float64Array, noiseRms_V: number, p: number, options: LawOptions = {}): number {
-  if (!(parts instanceof Float64Array)) throw new TypeError("parts must be a Float64Array of two-point magnitudes in volts");
+  if (!(parts instanceof Float64Array))
+    throw new TypeError("parts must be a Float64Array of two-point magnitudes in volts");
   if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0)) {
     throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${noiseRms_V}`);
   }
   if (!(p > 0 && p < 0.5)) throw new RangeError(`p must be a probability strictly between 0 and 0.5, got ${p}`);
   for (let i = 0; i < parts.length; i++) {
-    if (!(Number.isFinite(parts[i]) && parts[i] >= 0)) throw new RangeError(`parts[${i}] must be a finite number ≥ 0, got ${parts[i]}`);
+    if (!(Number.isFinite(parts[i]) && parts[i] >= 0))
+      throw new RangeError(`parts[${i}] must be a finite number ≥ 0, got ${parts[i]}`);
   }
   // The law's grid and Gaussian, computed exactly as sampleDistribution computes them.
   const step = lawStep(parts, noiseRms_V, options.refine ?? 1);

@@ -48,7 +48,8 @@ export interface LawOptions {
 export function lawTilt(parts: Float64Array, noiseRms_V: number, options: LawOptions): number {
   const p = options.designTail;
   if (p === undefined) return 0;
-  if (!(p > 0 && p < 0.5)) throw new RangeError(`designTail must be a probability strictly between 0 and 0.5, got ${String(p)}`);
+  if (!(p > 0 && p < 0.5))
+    throw new RangeError(`designTail must be a probability strictly between 0 and 0.5, got ${String(p)}`);
   return tailTilt(parts, noiseRms_V, p);
 }
 
@@ -65,11 +66,16 @@ export function lawTilt(parts: Float64Array, noiseRms_V: number, options: LawOpt
  * @param noiseRms_V - Gaussian noise rms in volts, ≥ 0.
  * @param options - grid refinement and design tail.
  */
-export function sampleDistribution(parts: Float64Array, noiseRms_V: number, options: LawOptions = {}): SampleDistribution {
+export function sampleDistribution(
+  parts: Float64Array,
+  noiseRms_V: number,
+  options: LawOptions = {},
+): SampleDistribution {
   if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0)) {
     throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${noiseRms_V}`);
   }
-  if (!(parts instanceof Float64Array)) throw new TypeError("parts must be a Float64Array of two-point magnitudes in volts");
+  if (!(parts instanceof Float64Array))
+    throw new TypeError("parts must be a Float64Array of two-point magnitudes in volts");
   const step = lawStep(parts, noiseRms_V, options.refine ?? 1);
 
   if (step === 0) return pointMass();

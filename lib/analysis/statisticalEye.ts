@@ -123,7 +123,8 @@ export const DEFAULT_TARGET_BER = 1e-12;
 export function symbolLevels(modulation: Modulation, innerLevel = PAM4_INNER_LEVEL): Float64Array {
   if (modulation === "nrz") return Float64Array.of(-1, 1);
   if (modulation === "pam4") {
-    if (!(innerLevel > 0 && innerLevel < 1)) throw new RangeError(`pam4InnerLevel must be a number in (0, 1), got ${String(innerLevel)}`);
+    if (!(innerLevel > 0 && innerLevel < 1))
+      throw new RangeError(`pam4InnerLevel must be a number in (0, 1), got ${String(innerLevel)}`);
     return Float64Array.of(-1, -innerLevel, innerLevel, 1);
   }
   throw new RangeError(`modulation must be "nrz" or "pam4", got ${String(modulation)}`);
@@ -173,18 +174,22 @@ function resolveOptions(source: CursorSource, options: StatisticalEyeOptions) {
     if (!Number.isFinite(dfeTaps[k])) throw new RangeError(`dfeTaps[${k}] is not finite (${dfeTaps[k]})`);
   }
   const extraParts_V = options.extraParts_V ?? new Float64Array(0);
-  if (!(extraParts_V instanceof Float64Array)) throw new TypeError("extraParts_V must be a Float64Array of magnitudes in volts");
+  if (!(extraParts_V instanceof Float64Array))
+    throw new TypeError("extraParts_V must be a Float64Array of magnitudes in volts");
   for (let i = 0; i < extraParts_V.length; i++) {
     if (!(Number.isFinite(extraParts_V[i]) && extraParts_V[i] >= 0)) {
       throw new RangeError(`extraParts_V[${i}] must be a finite number ≥ 0, got ${extraParts_V[i]}`);
     }
   }
   const refine = options.refine ?? 1;
-  if (!(Number.isFinite(refine) && refine >= 1)) throw new RangeError(`refine must be a finite number ≥ 1, got ${String(refine)}`);
+  if (!(Number.isFinite(refine) && refine >= 1))
+    throw new RangeError(`refine must be a finite number ≥ 1, got ${String(refine)}`);
   const kernelFloor = options.kernelFloor ?? 1e-38;
   const targetBer = options.targetBer ?? DEFAULT_TARGET_BER;
   if (!(Number.isFinite(targetBer) && targetBer > 0 && targetBer / berPerLevelTail(modulation) < 0.5)) {
-    throw new RangeError(`targetBer must be a bit error ratio in (0, ${0.5 * berPerLevelTail(modulation)}), got ${String(targetBer)}`);
+    throw new RangeError(
+      `targetBer must be a bit error ratio in (0, ${0.5 * berPerLevelTail(modulation)}), got ${String(targetBer)}`,
+    );
   }
   const law = { refine, designTail: edgeTail(modulation, targetBer) };
   return { spu, modulation, noiseRms_V, jitter, innerLevel, levels, dfeTaps, extraParts_V, law, kernelFloor };
@@ -237,7 +242,9 @@ export function statisticalEyeOfCursors(source: CursorSource, options: Statistic
   };
   const eyeEdges = (t: number, ber: number): Float64Array => {
     if (!(Number.isFinite(ber) && ber > 0 && ber / perTail < 0.5)) {
-      throw new RangeError(`ber must be a bit error ratio in (0, ${0.5 * perTail}) for ${o.modulation}, got ${String(ber)}`);
+      throw new RangeError(
+        `ber must be a bit error ratio in (0, ${0.5 * perTail}) for ${o.modulation}, got ${String(ber)}`,
+      );
     }
     return levelEdges(t, ber / perTail);
   };

@@ -39,14 +39,17 @@ export function symbolStream(modulation: Modulation, source: SymbolSource): Floa
   let bits: Uint8Array;
   if (source.kind === "prbs") {
     if (PRBS_TAPS[source.order] === undefined) {
-      throw new RangeError(`source.order must be one of ${Object.keys(PRBS_TAPS).join(", ")}, got ${String(source.order)}`);
+      throw new RangeError(
+        `source.order must be one of ${Object.keys(PRBS_TAPS).join(", ")}, got ${String(source.order)}`,
+      );
     }
     const period = prbsPeriod(source.order);
     const length = source.length ?? Math.min(period, MAX_SYMBOLS);
     checkLength(length);
     bits = prbs(source.order, length * perSymbol);
   } else if (source.kind === "random") {
-    if (!Number.isInteger(source.seed)) throw new RangeError(`source.seed must be an integer, got ${String(source.seed)}`);
+    if (!Number.isInteger(source.seed))
+      throw new RangeError(`source.seed must be an integer, got ${String(source.seed)}`);
     checkLength(source.length);
     bits = randomBits(source.seed, source.length * perSymbol);
   } else {

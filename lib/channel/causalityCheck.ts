@@ -31,7 +31,12 @@ export interface CausalityCheck {
  * @see Oppenheim & Schafer, *Discrete-Time Signal Processing* (a causal real response's spectrum is
  *   Hilbert-related; sampling in frequency makes the time response periodic).
  */
-export function causalityCheck(freqs_Hz: Float64Array, transfer: ComplexArray, dt_s: number, window_s: number): CausalityCheck {
+export function causalityCheck(
+  freqs_Hz: Float64Array,
+  transfer: ComplexArray,
+  dt_s: number,
+  window_s: number,
+): CausalityCheck {
   const size = 2 ** Math.round(Math.log2(window_s / dt_s));
   const { spectrum } = s21OnFftGrid(freqs_Hz, transfer, size, dt_s, CAUSALITY_TAPER);
   const x = new FftPlan(size).realInverse(spectrum);
@@ -48,7 +53,11 @@ export function causalityCheck(freqs_Hz: Float64Array, transfer: ComplexArray, d
   const margin = Math.ceil(2 / (fmax * dt_s));
   let pre = 0;
   for (let i = onset - size / 2; i < onset - margin; i++) pre += at(i) * at(i);
-  return { phaseDelay_s: phaseDelay(freqs_Hz, transfer), onset_s: onset * dt_s, preOnsetEnergy: total > 0 ? pre / total : 0 };
+  return {
+    phaseDelay_s: phaseDelay(freqs_Hz, transfer),
+    onset_s: onset * dt_s,
+    preOnsetEnergy: total > 0 ? pre / total : 0,
+  };
 }
 
 /** Weighted least-squares slope of the unwrapped phase against ω (with an intercept), as a delay. */

@@ -22,8 +22,12 @@ export function differentialNetwork(net: NetworkData, pairs: readonly PortPair[]
   if (!Array.isArray(pairs) || pairs.length === 0) throw new RangeError("pairs must hold at least one pair");
   const used = new Set<number>();
   pairs.forEach((pair, i) => {
-    for (const [key, q] of [["p", pair.p], ["n", pair.n]] as const) {
-      if (!Number.isInteger(q) || q < 1 || q > net.ports) throw new RangeError(`pairs[${i}].${key} must be a port 1…${net.ports}, got ${String(q)}`);
+    for (const [key, q] of [
+      ["p", pair.p],
+      ["n", pair.n],
+    ] as const) {
+      if (!Number.isInteger(q) || q < 1 || q > net.ports)
+        throw new RangeError(`pairs[${i}].${key} must be a port 1…${net.ports}, got ${String(q)}`);
     }
     for (const q of [pair.p, pair.n]) {
       if (used.has(q)) throw new RangeError(`port ${q} appears in more than one pair (pairs[${i}])`);
@@ -48,6 +52,9 @@ export function differentialNetwork(net: NetworkData, pairs: readonly PortPair[]
       }
     }
   }
-  const referenceOhms = Float64Array.from(pairs, (pair) => net.referenceOhms[pair.p - 1] + net.referenceOhms[pair.n - 1]);
+  const referenceOhms = Float64Array.from(
+    pairs,
+    (pair) => net.referenceOhms[pair.p - 1] + net.referenceOhms[pair.n - 1],
+  );
   return { ports: K, freqs_Hz: Float64Array.from(net.freqs_Hz), s, referenceOhms };
 }

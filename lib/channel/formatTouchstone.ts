@@ -60,8 +60,18 @@ export function formatTouchstone(net: NetworkData, options: TouchstoneWriteOptio
     if (n === 2) {
       const cells: [number, number][] =
         order === "21_12"
-          ? [[0, 0], [1, 0], [0, 1], [1, 1]]
-          : [[0, 0], [0, 1], [1, 0], [1, 1]];
+          ? [
+              [0, 0],
+              [1, 0],
+              [0, 1],
+              [1, 1],
+            ]
+          : [
+              [0, 0],
+              [0, 1],
+              [1, 0],
+              [1, 1],
+            ];
       out.push([freq, ...cells.map(([r, c]) => pair(f, r, c))].join(" "));
       continue;
     }

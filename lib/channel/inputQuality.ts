@@ -126,7 +126,12 @@ export function inputQuality(
   let modeConversion_dB: number | null = null;
   if (net.ports >= 4) {
     const p = grid.pairs ?? DEFAULT_PORT_PAIRS;
-    const [a, b, cc, d] = [sParameter(net, p.outP, p.inP), sParameter(net, p.outP, p.inN), sParameter(net, p.outN, p.inP), sParameter(net, p.outN, p.inN)];
+    const [a, b, cc, d] = [
+      sParameter(net, p.outP, p.inP),
+      sParameter(net, p.outP, p.inN),
+      sParameter(net, p.outN, p.inP),
+      sParameter(net, p.outN, p.inN),
+    ];
     let peak = 0;
     let peakAt = 0;
     for (let i = 0; i < count && f[i] <= 1 / grid.ui_s; i++) {

@@ -48,7 +48,8 @@ function checkModel(model: LossModel): { skin: number; diel: number; delay: numb
  */
 export function lossModelS21(freqs_Hz: ArrayLike<number>, model: LossModel, nyquist_Hz: number): ComplexArray {
   const { skin, diel, delay } = checkModel(model);
-  if (!(nyquist_Hz > 0) || !Number.isFinite(nyquist_Hz)) throw new RangeError(`nyquist_Hz must be a finite number > 0, got ${String(nyquist_Hz)}`);
+  if (!(nyquist_Hz > 0) || !Number.isFinite(nyquist_Hz))
+    throw new RangeError(`nyquist_Hz must be a finite number > 0, got ${String(nyquist_Hz)}`);
   const re = new Float64Array(freqs_Hz.length);
   const im = new Float64Array(freqs_Hz.length);
   for (let k = 0; k < freqs_Hz.length; k++) {
@@ -69,7 +70,11 @@ export function lossModelS21(freqs_Hz: ArrayLike<number>, model: LossModel, nyqu
  * Pulse response of the synthetic line on the given grid (Nyquist = 1/(2·ui_s)), with the
  * insertion loss from DC to the baud rate (201 points) for plotting.
  */
-export function pulseFromLossModel(model: LossModel, grid: PulseGrid, options: SpectrumPulseOptions = {}): FrequencyPulse {
+export function pulseFromLossModel(
+  model: LossModel,
+  grid: PulseGrid,
+  options: SpectrumPulseOptions = {},
+): FrequencyPulse {
   checkPulseGrid(grid);
   const { delay } = checkModel(model);
   const spu = grid.samplesPerUi;
@@ -77,7 +82,8 @@ export function pulseFromLossModel(model: LossModel, grid: PulseGrid, options: S
   const nyquist = 1 / (2 * grid.ui_s);
   const window_s = Math.max(1024 * grid.ui_s, 2 * delay + 512 * grid.ui_s);
   const size = nextPowerOfTwo(Math.ceil(window_s / dt));
-  if (size > MAX_CHANNEL_FFT) throw new RangeError(`delay_s and samplesPerUi need an FFT of ${size} points (at most ${MAX_CHANNEL_FFT})`);
+  if (size > MAX_CHANNEL_FFT)
+    throw new RangeError(`delay_s and samplesPerUi need an FFT of ${size} points (at most ${MAX_CHANNEL_FFT})`);
   const half = size / 2 + 1;
   const freqs = Float64Array.from({ length: half }, (_, k) => k / (size * dt));
   const h = lossModelS21(freqs, model, nyquist);

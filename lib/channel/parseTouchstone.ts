@@ -33,7 +33,10 @@ export interface TouchstoneOptions {
  */
 export function parseTouchstone(text: string, options: TouchstoneOptions = {}): NetworkData {
   if (typeof text !== "string") throw new TypeError("text must be a string");
-  if (options.ports !== undefined && (!Number.isInteger(options.ports) || options.ports < 1 || options.ports > TOUCHSTONE_MAX_PORTS)) {
+  if (
+    options.ports !== undefined &&
+    (!Number.isInteger(options.ports) || options.ports < 1 || options.ports > TOUCHSTONE_MAX_PORTS)
+  ) {
     throw new RangeError(`ports must be an integer 1…${TOUCHSTONE_MAX_PORTS}, got ${String(options.ports)}`);
   }
   const lines = text.replace(/^\ufeff/, "").split(/\r\n|\r|\n/);

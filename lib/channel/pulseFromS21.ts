@@ -49,16 +49,20 @@ export function pulseFromS21(freqs_Hz: Float64Array, s21: ComplexArray, options:
   checkPulseGrid(options);
   const count = freqs_Hz.length;
   if (count < 2) throw new RangeError(`freqs_Hz must hold at least 2 frequencies, got ${count}`);
-  if (s21.re.length !== count || s21.im.length !== count) throw new RangeError(`s21 must hold ${count} values (one per frequency)`);
+  if (s21.re.length !== count || s21.im.length !== count)
+    throw new RangeError(`s21 must hold ${count} values (one per frequency)`);
   for (let i = 0; i < count; i++) {
-    if (!Number.isFinite(freqs_Hz[i]) || freqs_Hz[i] < 0) throw new RangeError(`freqs_Hz[${i}] must be a finite number ≥ 0`);
-    if (i > 0 && !(freqs_Hz[i] > freqs_Hz[i - 1])) throw new RangeError(`freqs_Hz must ascend strictly (freqs_Hz[${i}])`);
+    if (!Number.isFinite(freqs_Hz[i]) || freqs_Hz[i] < 0)
+      throw new RangeError(`freqs_Hz[${i}] must be a finite number ≥ 0`);
+    if (i > 0 && !(freqs_Hz[i] > freqs_Hz[i - 1]))
+      throw new RangeError(`freqs_Hz must ascend strictly (freqs_Hz[${i}])`);
     if (!Number.isFinite(s21.re[i]) || !Number.isFinite(s21.im[i])) throw new RangeError(`s21[${i}] must be finite`);
   }
   const taper = options.taperFraction ?? 0.1;
   if (!(taper >= 0 && taper <= 1)) throw new RangeError(`taperFraction must be in [0, 1], got ${String(taper)}`);
   const minWindow = options.minWindow_UI ?? 64;
-  if (!Number.isInteger(minWindow) || minWindow < 1) throw new RangeError(`minWindow_UI must be an integer ≥ 1, got ${String(minWindow)}`);
+  if (!Number.isInteger(minWindow) || minWindow < 1)
+    throw new RangeError(`minWindow_UI must be an integer ≥ 1, got ${String(minWindow)}`);
 
   // The FFT grid: time step from the pulse grid, window from the data's frequency spacing.
   const spu = options.samplesPerUi;
@@ -98,7 +102,14 @@ export function pulseFromS21(freqs_Hz: Float64Array, s21: ComplexArray, options:
     });
   }
   const magnitude_dB = magnitudeDb(s21.re, s21.im);
-  return { pulse, start_s, insertionLoss: { freqs_Hz: Float64Array.from(freqs_Hz), magnitude_dB }, dcExtrapolated, window_s: size * dt, warnings };
+  return {
+    pulse,
+    start_s,
+    insertionLoss: { freqs_Hz: Float64Array.from(freqs_Hz), magnitude_dB },
+    dcExtrapolated,
+    window_s: size * dt,
+    warnings,
+  };
 }
 
 /**

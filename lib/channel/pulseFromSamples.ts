@@ -41,12 +41,14 @@ export const MAX_PULSE_SAMPLES = 1 << 22;
 
 /** Checks the target grid, naming the field at fault. */
 export function checkPulseGrid(grid: PulseGrid): void {
-  if (!(grid.ui_s > 0) || !Number.isFinite(grid.ui_s)) throw new RangeError(`ui_s must be a finite number > 0, got ${String(grid.ui_s)}`);
+  if (!(grid.ui_s > 0) || !Number.isFinite(grid.ui_s))
+    throw new RangeError(`ui_s must be a finite number > 0, got ${String(grid.ui_s)}`);
   if (!Number.isInteger(grid.samplesPerUi) || grid.samplesPerUi < 1 || grid.samplesPerUi > 1024) {
     throw new RangeError(`samplesPerUi must be an integer 1…1024, got ${String(grid.samplesPerUi)}`);
   }
   const rt = grid.riseTime_s ?? 0;
-  if (!(rt >= 0) || !Number.isFinite(rt)) throw new RangeError(`riseTime_s must be a finite number ≥ 0, got ${String(rt)}`);
+  if (!(rt >= 0) || !Number.isFinite(rt))
+    throw new RangeError(`riseTime_s must be a finite number ≥ 0, got ${String(rt)}`);
 }
 
 /**
@@ -66,7 +68,8 @@ export function pulseFromSamples(source: SampledResponse, grid: PulseGrid): Puls
   if (response !== "pulse" && response !== "step" && response !== "impulse") {
     throw new RangeError(`response must be "pulse", "step" or "impulse", got ${String(response)}`);
   }
-  if (!(values instanceof Float64Array) || values.length < 2) throw new RangeError("values must hold at least 2 samples");
+  if (!(values instanceof Float64Array) || values.length < 2)
+    throw new RangeError("values must hold at least 2 samples");
   for (let i = 0; i < values.length; i++) {
     if (!Number.isFinite(values[i])) throw new RangeError(`values[${i}] must be finite, got ${values[i]}`);
   }
@@ -82,7 +85,8 @@ export function pulseFromSamples(source: SampledResponse, grid: PulseGrid): Puls
     }
   } else {
     const dt = source.dt_s;
-    if (dt === undefined || !(dt > 0) || !Number.isFinite(dt)) throw new RangeError(`dt_s must be a finite number > 0, got ${String(dt)}`);
+    if (dt === undefined || !(dt > 0) || !Number.isFinite(dt))
+      throw new RangeError(`dt_s must be a finite number > 0, got ${String(dt)}`);
     time = Float64Array.from(values, (_, i) => i * dt);
   }
   const spu = grid.samplesPerUi;

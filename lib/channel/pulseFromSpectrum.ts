@@ -41,8 +41,10 @@ export function pulseFromSpectrum(
   const dt = grid.ui_s / spu;
   const guardUi = options.guard_UI ?? 8;
   const threshold = options.tailThreshold ?? 1e-4;
-  if (!Number.isInteger(guardUi) || guardUi < 0) throw new RangeError(`guard_UI must be an integer ≥ 0, got ${String(guardUi)}`);
-  if (!(threshold >= 0 && threshold < 1)) throw new RangeError(`tailThreshold must be in [0, 1), got ${String(threshold)}`);
+  if (!Number.isInteger(guardUi) || guardUi < 0)
+    throw new RangeError(`guard_UI must be an integer ≥ 0, got ${String(guardUi)}`);
+  if (!(threshold >= 0 && threshold < 1))
+    throw new RangeError(`tailThreshold must be in [0, 1), got ${String(threshold)}`);
   const areaTolerance = options.areaTolerance ?? 5e-3;
   if (!(areaTolerance >= 0 && areaTolerance < 1)) {
     throw new RangeError(`areaTolerance must be in [0, 1), got ${String(areaTolerance)}`);

@@ -26,5 +26,12 @@ export function pulseFromTouchstone(
   const net = renormalizeNetwork(parseTouchstone(text, { ports: options.ports }));
   const transfer = channelTransfer(net, options.pairs);
   const built = pulseFromS21(net.freqs_Hz, transfer, options);
-  return { ...built, quality: inputQuality(net, transfer, built, { ui_s: options.ui_s, samplesPerUi: options.samplesPerUi, pairs: options.pairs }) };
+  return {
+    ...built,
+    quality: inputQuality(net, transfer, built, {
+      ui_s: options.ui_s,
+      samplesPerUi: options.samplesPerUi,
+      pairs: options.pairs,
+    }),
+  };
 }

@@ -18,12 +18,18 @@ export const SYSTEM_REFERENCE_OHMS = 50;
  * @see Kurokawa, "Power waves and the scattering matrix", IEEE Trans. Microwave Theory Tech. 13(2),
  *   1965 (real references, where power and pseudo-waves agree); IBIS Open Forum, Touchstone 2.0 `[Reference]`.
  */
-export function renormalizeNetwork(net: NetworkData, referenceOhms: number | ArrayLike<number> = SYSTEM_REFERENCE_OHMS): NetworkData {
+export function renormalizeNetwork(
+  net: NetworkData,
+  referenceOhms: number | ArrayLike<number> = SYSTEM_REFERENCE_OHMS,
+): NetworkData {
   const n = net.ports;
-  const target = typeof referenceOhms === "number" ? new Float64Array(n).fill(referenceOhms) : Float64Array.from(referenceOhms);
-  if (target.length !== n) throw new RangeError(`referenceOhms must hold ${n} impedances (one per port), got ${target.length}`);
+  const target =
+    typeof referenceOhms === "number" ? new Float64Array(n).fill(referenceOhms) : Float64Array.from(referenceOhms);
+  if (target.length !== n)
+    throw new RangeError(`referenceOhms must hold ${n} impedances (one per port), got ${target.length}`);
   for (const r of target) {
-    if (!(r > 0) || !Number.isFinite(r)) throw new RangeError(`referenceOhms must be finite numbers > 0, got ${String(r)}`);
+    if (!(r > 0) || !Number.isFinite(r))
+      throw new RangeError(`referenceOhms must be finite numbers > 0, got ${String(r)}`);
   }
   if (net.referenceOhms.every((r, i) => r === target[i])) return net;
   const gamma = Array.from(net.referenceOhms, (r, i) => (target[i] - r) / (target[i] + r));

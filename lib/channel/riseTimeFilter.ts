@@ -28,7 +28,8 @@ export function riseTimeResponse(freq_Hz: number, riseTime_s: number): number {
  */
 export function riseTimeKernel(riseTime_s: number, dt_s: number): { kernel: Float64Array; half: number } {
   const s = riseTimeSigma(riseTime_s);
-  if (!(dt_s > 0) || !Number.isFinite(dt_s)) throw new RangeError(`dt_s must be a finite number > 0, got ${String(dt_s)}`);
+  if (!(dt_s > 0) || !Number.isFinite(dt_s))
+    throw new RangeError(`dt_s must be a finite number > 0, got ${String(dt_s)}`);
   const half = Math.ceil((4 * s) / dt_s);
   if (half > 1 << 20) throw new RangeError("riseTime_s is too long for the sample step (kernel over 2^21 samples)");
   const kernel = new Float64Array(2 * half + 1);

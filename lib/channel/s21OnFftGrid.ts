@@ -26,7 +26,13 @@ export interface FftGridSpectrum {
  * @param dt_s - time step in seconds.
  * @param taperFraction - fraction of the usable band rolled off at its top, in [0, 1].
  */
-export function s21OnFftGrid(freqs_Hz: Float64Array, s21: ComplexArray, size: number, dt_s: number, taperFraction: number): FftGridSpectrum {
+export function s21OnFftGrid(
+  freqs_Hz: Float64Array,
+  s21: ComplexArray,
+  size: number,
+  dt_s: number,
+  taperFraction: number,
+): FftGridSpectrum {
   const count = freqs_Hz.length;
   const mag = new Float64Array(count);
   const phase = new Float64Array(count);

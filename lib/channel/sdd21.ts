@@ -25,7 +25,8 @@ export function sdd21(net: NetworkData, pairs: PortPairs = DEFAULT_PORT_PAIRS): 
   if (net.ports < 4) throw new RangeError(`net must have at least 4 ports for SDD21, it has ${net.ports}`);
   const ids = [pairs.inP, pairs.inN, pairs.outP, pairs.outN];
   for (const [name, p] of Object.entries(pairs)) {
-    if (!Number.isInteger(p) || p < 1 || p > net.ports) throw new RangeError(`pairs.${name} must be a port 1…${net.ports}, got ${String(p)}`);
+    if (!Number.isInteger(p) || p < 1 || p > net.ports)
+      throw new RangeError(`pairs.${name} must be a port 1…${net.ports}, got ${String(p)}`);
   }
   if (new Set(ids).size !== 4) throw new RangeError("pairs must name four different ports");
   const a = sParameter(net, pairs.outP, pairs.inP);

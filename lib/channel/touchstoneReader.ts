@@ -34,13 +34,17 @@ function readOptionLine(tokens: string[], line: number): OptionLine {
     else if (t === "db" || t === "ma" || t === "ri") o.format = t;
     else if (t === "r") {
       const v = i + 1 < tokens.length ? parseDecimal(tokens[i + 1]) : null;
-      if (v === null || !(v > 0)) throw new InputFileError(line, "the option line's R must be followed by a positive resistance");
+      if (v === null || !(v > 0))
+        throw new InputFileError(line, "the option line's R must be followed by a positive resistance");
       o.resistance = v;
       i++;
     } else throw new InputFileError(line, `unknown option '${tokens[i]}' on the option line`);
   }
   if (o.parameter !== "s") {
-    throw new InputFileError(line, `only S-parameter files are supported; this one holds ${o.parameter.toUpperCase()}-parameters`);
+    throw new InputFileError(
+      line,
+      `only S-parameter files are supported; this one holds ${o.parameter.toUpperCase()}-parameters`,
+    );
   }
   return o;
 }
@@ -130,8 +134,10 @@ export class TouchstoneReader {
     }
     if (this.#inInformation || this.#inNoise) return;
     if (content.startsWith("#")) {
-      if (!this.#optionLineSeen && this.#sawData) throw new InputFileError(lineNo, "the option line must come before the data");
-      if (!this.#optionLineSeen) this.#options = readOptionLine(content.slice(1).trim().split(/\s+/).filter(Boolean), lineNo);
+      if (!this.#optionLineSeen && this.#sawData)
+        throw new InputFileError(lineNo, "the option line must come before the data");
+      if (!this.#optionLineSeen)
+        this.#options = readOptionLine(content.slice(1).trim().split(/\s+/).filter(Boolean), lineNo);
       this.#optionLineSeen = true; // later option lines are ignored, as the specification says
       this.#sawContent = true;
       return;
@@ -158,14 +164,20 @@ export class TouchstoneReader {
     const blocks = this.#blocks;
     if (blocks.length === 0 || this.#ports === null) throw new InputFileError(0, "the file holds no network data");
     if (this.#declaredFreqs !== null && this.#declaredFreqs !== blocks.length) {
-      throw new InputFileError(lastLine, `[Number of Frequencies] says ${this.#declaredFreqs} but the file holds ${blocks.length}`);
+      throw new InputFileError(
+        lastLine,
+        `[Number of Frequencies] says ${this.#declaredFreqs} but the file holds ${blocks.length}`,
+      );
     }
     const n: number = this.#ports;
     const o = this.#options as OptionLine;
     const referenceOhms = new Float64Array(n).fill(o.resistance);
     if (this.#reference !== null) {
       if (this.#reference.length !== n) {
-        throw new InputFileError(this.#referenceLine, `[Reference] needs ${n} impedances, got ${this.#reference.length}`);
+        throw new InputFileError(
+          this.#referenceLine,
+          `[Reference] needs ${n} impedances, got ${this.#reference.length}`,
+        );
       }
       referenceOhms.set(this.#reference);
     }
@@ -200,12 +212,14 @@ export class TouchstoneReader {
     const keyword = content.slice(1, close).trim().toLowerCase().replace(/\s+/g, " ");
     const arg = content.slice(close + 1).trim();
     if (!this.#sawContent && keyword === "version") {
-      if (!/^2\.\d+$/.test(arg)) throw new InputFileError(lineNo, `unsupported [Version] '${arg}' (2.0 or 2.1 expected)`);
+      if (!/^2\.\d+$/.test(arg))
+        throw new InputFileError(lineNo, `unsupported [Version] '${arg}' (2.0 or 2.1 expected)`);
       this.#version = 2;
       this.#sawContent = true;
       return;
     }
-    if (this.#version === 1) throw new InputFileError(lineNo, `keyword [${content.slice(1, close)}] in a file without [Version] 2.0 first`);
+    if (this.#version === 1)
+      throw new InputFileError(lineNo, `keyword [${content.slice(1, close)}] in a file without [Version] 2.0 first`);
     if (this.#inInformation) {
       if (keyword === "end information") this.#inInformation = false;
       return;
@@ -219,22 +233,30 @@ export class TouchstoneReader {
     switch (keyword) {
       case "number of ports": {
         const n = parseDecimal(arg);
-        if (n === null || !Number.isInteger(n)) throw new InputFileError(lineNo, `[Number of Ports] needs an integer, got '${arg}'`);
+        if (n === null || !Number.isInteger(n))
+          throw new InputFileError(lineNo, `[Number of Ports] needs an integer, got '${arg}'`);
         if (this.#expectedPorts !== undefined && this.#expectedPorts !== n) {
-          throw new InputFileError(lineNo, `[Number of Ports] ${n} disagrees with the expected ${this.#expectedPorts} ports`);
+          throw new InputFileError(
+            lineNo,
+            `[Number of Ports] ${n} disagrees with the expected ${this.#expectedPorts} ports`,
+          );
         }
         this.#declaredPorts = n;
         this.#fixPorts(n, lineNo);
         break;
       }
       case "two-port data order":
-        if (arg !== "12_21" && arg !== "21_12") throw new InputFileError(lineNo, `[Two-Port Data Order] must be 12_21 or 21_12, got '${arg}'`);
+        if (arg !== "12_21" && arg !== "21_12")
+          throw new InputFileError(lineNo, `[Two-Port Data Order] must be 12_21 or 21_12, got '${arg}'`);
         this.#twoPort = arg;
         break;
       case "number of frequencies": {
         const n = parseDecimal(arg);
         if (n === null || !Number.isInteger(n) || n < 1 || n > TOUCHSTONE_MAX_FREQUENCIES) {
-          throw new InputFileError(lineNo, `[Number of Frequencies] needs an integer 1…${TOUCHSTONE_MAX_FREQUENCIES}, got '${arg}'`);
+          throw new InputFileError(
+            lineNo,
+            `[Number of Frequencies] needs an integer 1…${TOUCHSTONE_MAX_FREQUENCIES}, got '${arg}'`,
+          );
         }
         this.#declaredFreqs = n;
         break;
@@ -245,7 +267,8 @@ export class TouchstoneReader {
         const toks = arg === "" ? [] : arg.split(/\s+/);
         this.#reference = toks.map((t) => {
           const v = parseDecimal(t);
-          if (v === null || !(v > 0)) throw new InputFileError(lineNo, `[Reference] impedance '${t}' is not a positive number`);
+          if (v === null || !(v > 0))
+            throw new InputFileError(lineNo, `[Reference] impedance '${t}' is not a positive number`);
           return v;
         });
         this.#referenceLine = lineNo;
@@ -253,7 +276,8 @@ export class TouchstoneReader {
       }
       case "matrix format": {
         const m = arg.toLowerCase();
-        if (m !== "full" && m !== "lower" && m !== "upper") throw new InputFileError(lineNo, `[Matrix Format] must be Full, Lower or Upper, got '${arg}'`);
+        if (m !== "full" && m !== "lower" && m !== "upper")
+          throw new InputFileError(lineNo, `[Matrix Format] must be Full, Lower or Upper, got '${arg}'`);
         this.#matrix = m;
         if (this.#declaredPorts !== null) this.#fixPorts(this.#declaredPorts, lineNo);
         break;
@@ -266,8 +290,10 @@ export class TouchstoneReader {
       case "network data":
         if (this.#options === null) throw new InputFileError(lineNo, "[Network Data] before the option line");
         if (this.#declaredPorts === null) throw new InputFileError(lineNo, "[Network Data] before [Number of Ports]");
-        if (this.#declaredFreqs === null) throw new InputFileError(lineNo, "[Network Data] before [Number of Frequencies]");
-        if (this.#declaredPorts === 2 && this.#twoPort === null) throw new InputFileError(lineNo, "a 2-port file needs [Two-Port Data Order]");
+        if (this.#declaredFreqs === null)
+          throw new InputFileError(lineNo, "[Network Data] before [Number of Frequencies]");
+        if (this.#declaredPorts === 2 && this.#twoPort === null)
+          throw new InputFileError(lineNo, "a 2-port file needs [Two-Port Data Order]");
         this.#inNetwork = true;
         break;
       case "noise data":
@@ -297,7 +323,11 @@ export class TouchstoneReader {
 
     // A version 1 file without a port count: the first block tells it.
     if (this.#ports === null && !this.#inferring) {
-      if (nums.length % 2 === 0) throw new InputFileError(lineNo, `a frequency line needs an odd number of values (frequency + pairs), got ${nums.length}`);
+      if (nums.length % 2 === 0)
+        throw new InputFileError(
+          lineNo,
+          `a frequency line needs an odd number of values (frequency + pairs), got ${nums.length}`,
+        );
       this.#inferring = true;
       this.#inferLast = lineNo;
       this.#checkFrequency(nums[0], lineNo);
@@ -333,7 +363,8 @@ export class TouchstoneReader {
       );
     }
     if (current.values.length === perBlock) this.#closeBlock();
-    if (this.#blocks.length > TOUCHSTONE_MAX_FREQUENCIES) throw new InputFileError(lineNo, `more than ${TOUCHSTONE_MAX_FREQUENCIES} frequencies`);
+    if (this.#blocks.length > TOUCHSTONE_MAX_FREQUENCIES)
+      throw new InputFileError(lineNo, `more than ${TOUCHSTONE_MAX_FREQUENCIES} frequencies`);
   }
 
   #closeBlock(): void {
@@ -350,7 +381,8 @@ export class TouchstoneReader {
   }
 
   #fixPorts(n: number, line: number): void {
-    if (n < 1 || n > TOUCHSTONE_MAX_PORTS) throw new InputFileError(line, `port count ${n} is outside 1…${TOUCHSTONE_MAX_PORTS}`);
+    if (n < 1 || n > TOUCHSTONE_MAX_PORTS)
+      throw new InputFileError(line, `port count ${n} is outside 1…${TOUCHSTONE_MAX_PORTS}`);
     this.#ports = n;
     const pairs = this.#matrix === "full" ? n * n : (n * (n + 1)) / 2;
     this.#perBlock = 1 + 2 * pairs;

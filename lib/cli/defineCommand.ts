@@ -42,7 +42,12 @@ export function defineCommand<S extends z.ZodType>(spec: {
         return spec.run(request as z.output<S>);
       } catch (e) {
         if (e instanceof RangeError) {
-          const path = libErrorPath(e.message, request as object, spec.errorPaths.aliases ?? {}, spec.errorPaths.fallback);
+          const path = libErrorPath(
+            e.message,
+            request as object,
+            spec.errorPaths.aliases ?? {},
+            spec.errorPaths.fallback,
+          );
           throw new CliInputError(e.message, path);
         }
         throw e;

@@ -33,7 +33,8 @@ export interface SamplerJitter extends Jitter {
  * baud/10 (limited by the skew between the clock and data paths) [practice].
  */
 export function defaultTrackingBandwidth(scheme: ClockingScheme, baud_Hz: number): number {
-  if (!(Number.isFinite(baud_Hz) && baud_Hz > 0)) throw new RangeError(`baud_Hz must be a finite number > 0, got ${baud_Hz}`);
+  if (!(Number.isFinite(baud_Hz) && baud_Hz > 0))
+    throw new RangeError(`baud_Hz must be a finite number > 0, got ${baud_Hz}`);
   if (scheme === "recovered") return baud_Hz / 1667;
   if (scheme === "forwarded") return baud_Hz / 10;
   throw new RangeError(`scheme must be one of ${CLOCKING_SCHEMES.join(", ")}, got ${String(scheme)}`);
@@ -67,8 +68,10 @@ export function samplerJitter(
   if (!CLOCKING_SCHEMES.includes(scheme)) {
     throw new RangeError(`scheme must be one of ${CLOCKING_SCHEMES.join(", ")}, got ${String(scheme)}`);
   }
-  if (!(Number.isFinite(B) && B > 0)) throw new RangeError(`bandwidth_Hz must be a finite number > 0, got ${String(B)}`);
-  if (!(Number.isFinite(baud_Hz) && baud_Hz > 0)) throw new RangeError(`baud_Hz must be a finite number > 0, got ${baud_Hz}`);
+  if (!(Number.isFinite(B) && B > 0))
+    throw new RangeError(`bandwidth_Hz must be a finite number > 0, got ${String(B)}`);
+  if (!(Number.isFinite(baud_Hz) && baud_Hz > 0))
+    throw new RangeError(`baud_Hz must be a finite number > 0, got ${baud_Hz}`);
   const fN = baud_Hz / 2;
   const rjFactor = Math.sqrt(Math.max(0, 1 - (B / fN) * Math.atan(fN / B)));
   let djFactor = 1;

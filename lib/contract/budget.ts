@@ -2,7 +2,14 @@
 // line's `optimize` request, the web API and the budget form all use this one schema.
 import { z } from "zod";
 import { DEFAULT_SAMPLING_POLICY } from "../clocking/samplingPhase.ts";
-import { finiteNumber, modulationSchema, nonNegativeInt, nonNegativeNumber, positiveNumber, samplingPolicySchema } from "./common.ts";
+import {
+  finiteNumber,
+  modulationSchema,
+  nonNegativeInt,
+  nonNegativeNumber,
+  positiveNumber,
+  samplingPolicySchema,
+} from "./common.ts";
 import { ffeSchema, frontEndSchema, packagesSchema } from "./frontEnd.ts";
 
 /** Largest number of settings one CTLE grid axis may hold. */
@@ -153,9 +160,13 @@ export const budgetSchema = z.object({
   ctle: ctleSchema,
   dfe: dfeSchema.default({ taps: 0 }),
   clocking: clockingSchema.default({ scheme: "recovered", policy: DEFAULT_SAMPLING_POLICY }),
-  package: packagesSchema.optional().describe("the transmitter's and receiver's packages (IEEE 802.3 Annex 93A form); omit for ideal pins"),
+  package: packagesSchema
+    .optional()
+    .describe("the transmitter's and receiver's packages (IEEE 802.3 Annex 93A form); omit for ideal pins"),
   frontEnd: frontEndSchema.optional().describe("the receiver's bandwidth filter; omit for none"),
-  ffe: ffeSchema.optional().describe("a receive FFE (the feed-forward filter of an MMSE-DFE, set per CTLE setting); omit for none"),
+  ffe: ffeSchema
+    .optional()
+    .describe("a receive FFE (the feed-forward filter of an MMSE-DFE, set per CTLE setting); omit for none"),
 });
 
 /** A budget as written by a person or a script (defaults not yet applied). */

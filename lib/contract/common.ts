@@ -28,10 +28,14 @@ export const positiveNumber = finiteNumber.positive({ error: "expected a number 
 export const nonNegativeNumber = finiteNumber.nonnegative({ error: "expected a number ≥ 0" });
 
 /** An integer ≥ 1 (safe range). */
-export const positiveInt = z.int({ error: fieldError("expected an integer") }).min(1, { error: "expected an integer ≥ 1" });
+export const positiveInt = z
+  .int({ error: fieldError("expected an integer") })
+  .min(1, { error: "expected an integer ≥ 1" });
 
 /** An integer ≥ 0 (safe range). */
-export const nonNegativeInt = z.int({ error: fieldError("expected an integer") }).min(0, { error: "expected an integer ≥ 0" });
+export const nonNegativeInt = z
+  .int({ error: fieldError("expected an integer") })
+  .min(0, { error: "expected an integer ≥ 0" });
 
 /** A non-empty array of finite numbers of bounded length. */
 export const numberArray = z

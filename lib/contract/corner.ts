@@ -8,7 +8,9 @@ export const MAX_CORNER_SCALE = 4;
 
 const factor = (what: string, allowZero: boolean) =>
   finiteNumber
-    .refine((x) => (allowZero ? x >= 0 : x > 0), { error: `expected a factor ${allowZero ? "≥ 0" : "> 0"} on the ${what} (1 = nominal)` })
+    .refine((x) => (allowZero ? x >= 0 : x > 0), {
+      error: `expected a factor ${allowZero ? "≥ 0" : "> 0"} on the ${what} (1 = nominal)`,
+    })
     .refine((x) => x <= MAX_CORNER_SCALE, { error: `expected a factor at most ${MAX_CORNER_SCALE} on the ${what}` })
     .optional();
 

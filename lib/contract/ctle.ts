@@ -13,7 +13,11 @@ const ctleFields = {
 
 const needsCorner = (c: { gDc2_dB?: number; fLf_Hz?: number }, ctx: z.RefinementCtx) => {
   if ((c.gDc2_dB ?? 0) !== 0 && c.fLf_Hz === undefined) {
-    ctx.addIssue({ code: "custom", path: ["fLf_Hz"], message: "give fLf_Hz (the low-frequency stage's corner) when gDc2_dB is not 0" });
+    ctx.addIssue({
+      code: "custom",
+      path: ["fLf_Hz"],
+      message: "give fLf_Hz (the low-frequency stage's corner) when gDc2_dB is not 0",
+    });
   }
 };
 

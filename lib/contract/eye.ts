@@ -35,7 +35,9 @@ export const eyeRequestSchema = z.object({
   policy: samplingPolicySchema,
   aggressors: eyeAggressorsSchema
     .optional()
-    .describe("crosstalk pulses at the same sampler (through the same receiver) for a 1 V aggressor symbol; each sampled at its worst phase"),
+    .describe(
+      "crosstalk pulses at the same sampler (through the same receiver) for a 1 V aggressor symbol; each sampled at its worst phase",
+    ),
 });
 
 /** A validated request (defaults applied). */

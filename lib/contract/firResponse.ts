@@ -12,7 +12,11 @@ export const firResponseRequestSchema = z
   })
   .superRefine((r, ctx) => {
     if (r.pre >= r.taps.length) {
-      ctx.addIssue({ code: "custom", path: ["pre"], message: `pre ${r.pre} leaves no main tap among ${r.taps.length} taps` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["pre"],
+        message: `pre ${r.pre} leaves no main tap among ${r.taps.length} taps`,
+      });
     }
   });
 

@@ -8,10 +8,18 @@ const d = ANNEX_93A_PACKAGE;
 
 /** A package (single-ended values of the differential half-circuit); each field defaults to IEEE 802.3 Annex 93A's value (from memory). */
 export const packageSchema = z.object({
-  dieCapacitance_F: nonNegativeNumber.max(1e-9, { error: "expected a capacitance in farads, at most 1e-9 (e.g. 2.5e-13)" }).default(d.dieCapacitance_F),
-  padCapacitance_F: nonNegativeNumber.max(1e-9, { error: "expected a capacitance in farads, at most 1e-9 (e.g. 1.8e-13)" }).default(d.padCapacitance_F),
-  traceLength_m: nonNegativeNumber.max(0.1, { error: "expected a trace length in metres, at most 0.1 (e.g. 0.012)" }).default(d.traceLength_m),
-  traceImpedance_Ohm: positiveNumber.max(1000, { error: "expected an impedance in ohms, at most 1000" }).default(d.traceImpedance_Ohm),
+  dieCapacitance_F: nonNegativeNumber
+    .max(1e-9, { error: "expected a capacitance in farads, at most 1e-9 (e.g. 2.5e-13)" })
+    .default(d.dieCapacitance_F),
+  padCapacitance_F: nonNegativeNumber
+    .max(1e-9, { error: "expected a capacitance in farads, at most 1e-9 (e.g. 1.8e-13)" })
+    .default(d.padCapacitance_F),
+  traceLength_m: nonNegativeNumber
+    .max(0.1, { error: "expected a trace length in metres, at most 0.1 (e.g. 0.012)" })
+    .default(d.traceLength_m),
+  traceImpedance_Ohm: positiveNumber
+    .max(1000, { error: "expected an impedance in ohms, at most 1000" })
+    .default(d.traceImpedance_Ohm),
   traceLoss: z
     .object({
       skinAt1GHz_NpPerM: nonNegativeNumber.max(1000, { error: "expected a loss in Np/m at 1 GHz, at most 1000" }),
@@ -19,7 +27,9 @@ export const packageSchema = z.object({
       delay_sPerM: positiveNumber.max(1e-7, { error: "expected a delay in s/m, at most 1e-7 (e.g. 6.1e-9)" }),
     })
     .default({ ...d.traceLoss }),
-  termination_Ohm: positiveNumber.max(10000, { error: "expected a termination in ohms, at most 10000" }).default(d.termination_Ohm),
+  termination_Ohm: positiveNumber
+    .max(10000, { error: "expected a termination in ohms, at most 10000" })
+    .default(d.termination_Ohm),
   reference_Ohm: positiveNumber.max(10000, { error: "expected a reference in ohms, at most 10000" }).default(50),
 });
 
@@ -28,7 +38,9 @@ export const packagesSchema = z.object({ tx: packageSchema.optional(), rx: packa
 
 /** The receiver's front end: its bandwidth (a 4th-order Butterworth, IEEE 802.3 Annex 93A). */
 export const frontEndSchema = z.object({
-  rxBandwidth_Hz: positiveNumber.max(1e12, { error: "expected a bandwidth in Hz, at most 1e12" }).describe("−3 dB frequency; 0.75 × baud is usual"),
+  rxBandwidth_Hz: positiveNumber
+    .max(1e12, { error: "expected a bandwidth in Hz, at most 1e12" })
+    .describe("−3 dB frequency; 0.75 × baud is usual"),
 });
 
 /** A receive FFE: the feed-forward filter of an MMSE-DFE, designed per CTLE setting. */

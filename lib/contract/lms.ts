@@ -1,6 +1,13 @@
 // Request of the `lms` command: LMS or sign-sign LMS adaptation on random NRZ symbols.
 import { z } from "zod";
-import { checkMainInCursors, fieldError, cursorWindowShape, nonNegativeNumber, positiveInt, positiveNumber } from "./common.ts";
+import {
+  checkMainInCursors,
+  fieldError,
+  cursorWindowShape,
+  nonNegativeNumber,
+  positiveInt,
+  positiveNumber,
+} from "./common.ts";
 
 /** Upper bound on `iterations × (cursors + taps)`, the work of one request. */
 export const LMS_MAX_WORK = 2e9;
@@ -20,10 +27,18 @@ export const lmsRequestSchema = z
     checkMainInCursors(r, ctx);
     const taps = r.pre + 1 + r.post;
     if (r.iterations * (r.cursors.length + taps) > LMS_MAX_WORK) {
-      ctx.addIssue({ code: "custom", path: ["iterations"], message: "iterations × (cursors + taps) is too large for one request; use fewer iterations" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["iterations"],
+        message: "iterations × (cursors + taps) is too large for one request; use fewer iterations",
+      });
     }
     if (r.every !== undefined && r.iterations / r.every > 100_000) {
-      ctx.addIssue({ code: "custom", path: ["every"], message: "every is too small: at most 100000 trajectory records" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["every"],
+        message: "every is too small: at most 100000 trajectory records",
+      });
     }
   });
 

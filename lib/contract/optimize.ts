@@ -9,7 +9,9 @@ export const optimizeRequestSchema = z.object({
   pulse: pulseSchema,
   budget: budgetSchema,
   topCount: positiveInt.max(100, { error: "at most 100 top settings" }).default(5),
-  aggressors: linkAggressorsSchema.optional().describe("crosstalk pulses at the receiver's pins, NEXT or FEXT, for a 1 V aggressor symbol"),
+  aggressors: linkAggressorsSchema
+    .optional()
+    .describe("crosstalk pulses at the receiver's pins, NEXT or FEXT, for a 1 V aggressor symbol"),
 });
 
 /** A validated request (defaults applied). */

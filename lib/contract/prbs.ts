@@ -7,7 +7,9 @@ export const PRBS_REQUEST_MAX_LENGTH = 10_000_000;
 
 /** `{ order, length, invert? }`; order 7, 9, 11, 15, 23, 31 (ITU-T O.150) or 13 (PAM4 tests). */
 export const prbsRequestSchema = z.object({
-  order: z.literal([7, 9, 11, 13, 15, 23, 31], { error: fieldError("expected an order of 7, 9, 11, 13, 15, 23 or 31") }),
+  order: z.literal([7, 9, 11, 13, 15, 23, 31], {
+    error: fieldError("expected an order of 7, 9, 11, 13, 15, 23 or 31"),
+  }),
   length: nonNegativeInt.max(PRBS_REQUEST_MAX_LENGTH, { error: `expected at most ${PRBS_REQUEST_MAX_LENGTH} bits` }),
   invert: z.boolean({ error: "expected true or false" }).optional(),
 });

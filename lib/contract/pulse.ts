@@ -1,12 +1,24 @@
 // Request of the `pulse` command: a channel (samples, CSV, Touchstone or loss model) to a pulse response.
 import { z } from "zod";
-import { fieldError, nonNegativeNumber, numberArray, positiveInt, positiveNumber, samplesPerUiSchema } from "./common.ts";
+import {
+  fieldError,
+  nonNegativeNumber,
+  numberArray,
+  positiveInt,
+  positiveNumber,
+  samplesPerUiSchema,
+} from "./common.ts";
 
 /** Largest file text accepted inside a request (50 MB). */
 export const MAX_FILE_TEXT = 50 * 1024 * 1024;
 
-const responseKind = z.enum(["pulse", "step", "impulse"], { error: fieldError('expected "pulse", "step" or "impulse"') });
-const fileText = z.string({ error: fieldError("expected the file's text") }).min(1, { error: "the file is empty" }).max(MAX_FILE_TEXT, { error: "the file is larger than 50 MB" });
+const responseKind = z.enum(["pulse", "step", "impulse"], {
+  error: fieldError('expected "pulse", "step" or "impulse"'),
+});
+const fileText = z
+  .string({ error: fieldError("expected the file's text") })
+  .min(1, { error: "the file is empty" })
+  .max(MAX_FILE_TEXT, { error: "the file is larger than 50 MB" });
 
 /** Port pairing of a 4-port (or larger) file, ports numbered from 1. */
 export const portPairsSchema = z
@@ -27,7 +39,10 @@ export const pulseSourceSchema = z.discriminatedUnion(
     z.object({
       kind: z.literal("touchstone"),
       text: fileText,
-      format: z.string().regex(/^s[1-9]\d?p$/i, { error: 'expected a file type like "s2p" or "s4p"' }).optional(),
+      format: z
+        .string()
+        .regex(/^s[1-9]\d?p$/i, { error: 'expected a file type like "s2p" or "s4p"' })
+        .optional(),
       pairs: portPairsSchema.optional(),
     }),
     z.object({

@@ -18,7 +18,11 @@ export const zfRequestSchema = z
   .superRefine((r, ctx) => {
     checkMainInCursors(r, ctx);
     if (r.window !== undefined && (r.window.pre < r.pre || r.window.post < r.post)) {
-      ctx.addIssue({ code: "custom", path: ["window"], message: "window must reach at least pre cursors before and post cursors after the main cursor" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["window"],
+        message: "window must reach at least pre cursors before and post cursors after the main cursor",
+      });
     }
   });
 

@@ -15,7 +15,13 @@ export type CornerSource =
   /** A synthetic line: the corner scales its loss at Nyquist (both the skin and the dielectric term). */
   | { readonly kind: "loss-model"; readonly model: LossModel; readonly grid: PulseGrid }
   /** A Touchstone file: the corner scales the loss of its S21 (2-port) or SDD21 (`pairs`, 4-port). */
-  | { readonly kind: "touchstone"; readonly text: string; readonly ports?: number; readonly pairs?: PortPairs; readonly grid: PulseGrid }
+  | {
+      readonly kind: "touchstone";
+      readonly text: string;
+      readonly ports?: number;
+      readonly pairs?: PortPairs;
+      readonly grid: PulseGrid;
+    }
   /** A sampled pulse, step or impulse response: the corner scales the loss read off the pulse. */
   | { readonly kind: "pulse"; readonly pulse: Pulse };
 
@@ -35,7 +41,8 @@ const MAX_MODEL_LOSS_dB = 100;
  */
 export function cornerPulses(source: CornerSource, lossScales: readonly number[]): Pulse[] {
   for (const [i, s] of lossScales.entries()) {
-    if (!(s > 0) || !Number.isFinite(s)) throw new RangeError(`lossScales[${i}] must be a finite number > 0, got ${String(s)}`);
+    if (!(s > 0) || !Number.isFinite(s))
+      throw new RangeError(`lossScales[${i}] must be a finite number > 0, got ${String(s)}`);
   }
   const built = new Map<number, Pulse>();
   let build: (s: number) => Pulse;
@@ -43,7 +50,9 @@ export function cornerPulses(source: CornerSource, lossScales: readonly number[]
     build = (s) => {
       const loss = source.model.lossAtNyquist_dB * s;
       if (loss > MAX_MODEL_LOSS_dB) {
-        throw new RangeError(`lossScale ${s} takes the loss at Nyquist to ${loss.toFixed(1)} dB, beyond the model's ${MAX_MODEL_LOSS_dB} dB`);
+        throw new RangeError(
+          `lossScale ${s} takes the loss at Nyquist to ${loss.toFixed(1)} dB, beyond the model's ${MAX_MODEL_LOSS_dB} dB`,
+        );
       }
       return pulseFromLossModel({ ...source.model, lossAtNyquist_dB: loss }, source.grid).pulse;
     };

@@ -35,9 +35,11 @@ const MAX_FFT = 1 << 22;
  */
 export function lossScaledPulse(pulse: Pulse, lossScale: number): Pulse {
   assertPulse(pulse);
-  if (!(lossScale > 0) || !Number.isFinite(lossScale)) throw new RangeError(`lossScale must be a finite number > 0, got ${String(lossScale)}`);
+  if (!(lossScale > 0) || !Number.isFinite(lossScale))
+    throw new RangeError(`lossScale must be a finite number > 0, got ${String(lossScale)}`);
   const { ui_s, samplesPerUi: spu, values_V } = pulse;
-  if (lossScale === 1) return { ui_s, samplesPerUi: spu, values_V: Float64Array.from(values_V), mainIndex: pulse.mainIndex };
+  if (lossScale === 1)
+    return { ui_s, samplesPerUi: spu, values_V: Float64Array.from(values_V), mainIndex: pulse.mainIndex };
   const len = values_V.length;
   // Room for a tail several times longer, and a fine frequency grid for the cepstrum.
   const size = nextPowerOfTwo(Math.max(8 * len, 256 * spu));

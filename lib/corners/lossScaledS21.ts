@@ -24,12 +24,16 @@ const MIN_MAGNITUDE = 1e-20;
  */
 export function lossScaledS21(freqs_Hz: Float64Array, s21: ComplexArray, lossScale: number): ComplexArray {
   const count = freqs_Hz.length;
-  if (!(lossScale > 0) || !Number.isFinite(lossScale)) throw new RangeError(`lossScale must be a finite number > 0, got ${String(lossScale)}`);
+  if (!(lossScale > 0) || !Number.isFinite(lossScale))
+    throw new RangeError(`lossScale must be a finite number > 0, got ${String(lossScale)}`);
   if (count < 2) throw new RangeError(`freqs_Hz must hold at least 2 frequencies, got ${count}`);
-  if (s21.re.length !== count || s21.im.length !== count) throw new RangeError(`s21 must hold ${count} values (one per frequency)`);
+  if (s21.re.length !== count || s21.im.length !== count)
+    throw new RangeError(`s21 must hold ${count} values (one per frequency)`);
   for (let i = 0; i < count; i++) {
-    if (!Number.isFinite(freqs_Hz[i]) || freqs_Hz[i] < 0) throw new RangeError(`freqs_Hz[${i}] must be a finite number ≥ 0`);
-    if (i > 0 && !(freqs_Hz[i] > freqs_Hz[i - 1])) throw new RangeError(`freqs_Hz must ascend strictly (freqs_Hz[${i}])`);
+    if (!Number.isFinite(freqs_Hz[i]) || freqs_Hz[i] < 0)
+      throw new RangeError(`freqs_Hz[${i}] must be a finite number ≥ 0`);
+    if (i > 0 && !(freqs_Hz[i] > freqs_Hz[i - 1]))
+      throw new RangeError(`freqs_Hz must ascend strictly (freqs_Hz[${i}])`);
     if (!Number.isFinite(s21.re[i]) || !Number.isFinite(s21.im[i])) throw new RangeError(`s21[${i}] must be finite`);
   }
   if (lossScale === 1) return { re: Float64Array.from(s21.re), im: Float64Array.from(s21.im) };
@@ -42,7 +46,10 @@ export function lossScaledS21(freqs_Hz: Float64Array, s21: ComplexArray, lossSca
   // A uniform grid from DC to twice the top frequency, fine enough to resolve the data's spacing;
   // the curve is held flat below the first and above the last data point.
   const fTop = freqs_Hz[count - 1];
-  const minSpacing = freqs_Hz.reduce((m, f, i) => (i === 0 ? m : Math.min(m, f - freqs_Hz[i - 1])), Number.POSITIVE_INFINITY);
+  const minSpacing = freqs_Hz.reduce(
+    (m, f, i) => (i === 0 ? m : Math.min(m, f - freqs_Hz[i - 1])),
+    Number.POSITIVE_INFINITY,
+  );
   const half = Math.min(1 << 17, nextPowerOfTwo(Math.max(4 * count, Math.ceil((4 * fTop) / minSpacing))));
   const size = 2 * half;
   const df = (2 * fTop) / half;

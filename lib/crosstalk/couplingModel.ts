@@ -23,10 +23,12 @@ export function checkCouplingModel(model: CouplingModel, name = "coupling"): voi
   if (model === null || typeof model !== "object") throw new TypeError(`${name} must be a coupling model`);
   if (model.kind === "next") {
     const k = model.backwardCoefficient;
-    if (!(Number.isFinite(k) && k >= 0 && k <= 0.5)) throw new RangeError(`${name}.backwardCoefficient must be a number 0…0.5, got ${String(k)}`);
+    if (!(Number.isFinite(k) && k >= 0 && k <= 0.5))
+      throw new RangeError(`${name}.backwardCoefficient must be a number 0…0.5, got ${String(k)}`);
   } else if (model.kind === "fext") {
     const k = model.forwardCoupling_s;
-    if (!(Number.isFinite(k) && Math.abs(k) <= 1e-9)) throw new RangeError(`${name}.forwardCoupling_s must be a number within ±1e-9 s, got ${String(k)}`);
+    if (!(Number.isFinite(k) && Math.abs(k) <= 1e-9))
+      throw new RangeError(`${name}.forwardCoupling_s must be a number within ±1e-9 s, got ${String(k)}`);
   } else {
     throw new RangeError(`${name}.kind must be "next" or "fext", got ${String((model as { kind: unknown }).kind)}`);
   }
@@ -81,7 +83,10 @@ export function pulseFromCoupling(model: CouplingModel, grid: PulseGrid): Freque
   const delay = model.line.delay_s ?? 0;
   const window_s = Math.max(1024 * grid.ui_s, 4 * delay + 512 * grid.ui_s);
   const size = nextPowerOfTwo(Math.ceil(window_s / dt));
-  if (size > MAX_CHANNEL_FFT) throw new RangeError(`the line's delay_s and samplesPerUi need an FFT of ${size} points (at most ${MAX_CHANNEL_FFT})`);
+  if (size > MAX_CHANNEL_FFT)
+    throw new RangeError(
+      `the line's delay_s and samplesPerUi need an FFT of ${size} points (at most ${MAX_CHANNEL_FFT})`,
+    );
   const half = size / 2 + 1;
   const freqs = Float64Array.from({ length: half }, (_, k) => k / (size * dt));
   const x = couplingTransfer(model, freqs, nyquist);

@@ -51,7 +51,11 @@ export interface SampledCursors {
  * @param modulation - the link's modulation (the aggressors use the same).
  * @param noiseRms_V - the Gaussian noise at the sampler (0: nothing is lumped).
  */
-export function crosstalkParts(aggressors: readonly SampledAggressor[], modulation: Modulation, noiseRms_V = 0): CrosstalkParts {
+export function crosstalkParts(
+  aggressors: readonly SampledAggressor[],
+  modulation: Modulation,
+  noiseRms_V = 0,
+): CrosstalkParts {
   if (!Array.isArray(aggressors)) throw new TypeError("aggressors must be an array");
   return combineCrosstalk(
     aggressors.map((a, i) => {
@@ -68,8 +72,13 @@ export function crosstalkParts(aggressors: readonly SampledAggressor[], modulati
  * {@link crosstalkParts} from aggressors already sampled at their worst phases: their parts, those
  * below `noiseRms_V / LUMP_DIVISOR` lumped by variance, and each one's rms `√(E[a²]·Σx²)`.
  */
-export function combineCrosstalk(sampled: readonly SampledCursors[], modulation: Modulation, noiseRms_V = 0): CrosstalkParts {
-  if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0)) throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${String(noiseRms_V)}`);
+export function combineCrosstalk(
+  sampled: readonly SampledCursors[],
+  modulation: Modulation,
+  noiseRms_V = 0,
+): CrosstalkParts {
+  if (!(Number.isFinite(noiseRms_V) && noiseRms_V >= 0))
+    throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${String(noiseRms_V)}`);
   const threshold = noiseRms_V / LUMP_DIVISOR;
   const kept: number[] = [];
   let lumpedVariance_V2 = 0;

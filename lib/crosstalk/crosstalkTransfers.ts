@@ -34,8 +34,15 @@ export interface CrosstalkTransfers {
  * @see Bockelman & Eisenstadt, "Combined differential and common-mode scattering parameters",
  *   IEEE Trans. Microwave Theory Tech. 43(7), 1995 (differential-mode terms between any two pairs).
  */
-export function crosstalkTransfers(net: NetworkData, victim: PortPairs, aggressors: readonly AggressorPorts[]): CrosstalkTransfers {
-  if (net.ports < 6) throw new RangeError(`a victim with aggressors needs a file of 6 or more ports (8, 12, 16 …), this one has ${net.ports}`);
+export function crosstalkTransfers(
+  net: NetworkData,
+  victim: PortPairs,
+  aggressors: readonly AggressorPorts[],
+): CrosstalkTransfers {
+  if (net.ports < 6)
+    throw new RangeError(
+      `a victim with aggressors needs a file of 6 or more ports (8, 12, 16 …), this one has ${net.ports}`,
+    );
   if (!Array.isArray(aggressors)) throw new TypeError("aggressors must be an array");
   aggressors.forEach((a, i) => checkAggressorKind(a.kind, `aggressors[${i}].kind`));
   const pairs = [

@@ -51,7 +51,11 @@ const sinc = (x: number) => (x === 0 ? 1 : Math.sin(Math.PI * x) / (Math.PI * x)
  *   σ_fx, σ_x) and the same form in Annex 69B.4.6 (backplane) [memory: recalled, not re-read — the
  *   sub-clause numbers and the default corners f_nt = f_ft = f_b/4, f_r = 0.75·f_b are from memory].
  */
-export function integratedCrosstalkNoise(freqs_Hz: Float64Array, aggressors: readonly IcnAggressor[], options: IcnOptions): IcnResult {
+export function integratedCrosstalkNoise(
+  freqs_Hz: Float64Array,
+  aggressors: readonly IcnAggressor[],
+  options: IcnOptions,
+): IcnResult {
   const count = freqs_Hz.length;
   if (count < 2) throw new RangeError(`freqs_Hz must hold at least 2 frequencies, got ${count}`);
   const df = (freqs_Hz[count - 1] - freqs_Hz[0]) / (count - 1);
@@ -59,18 +63,22 @@ export function integratedCrosstalkNoise(freqs_Hz: Float64Array, aggressors: rea
   for (let k = 0; k < count; k++) {
     const want = freqs_Hz[0] + k * df;
     if (!(Number.isFinite(freqs_Hz[k]) && freqs_Hz[k] >= 0) || Math.abs(freqs_Hz[k] - want) > 1e-3 * df) {
-      throw new RangeError(`freqs_Hz must be a uniform grid ≥ 0 (step ${df} Hz); freqs_Hz[${k}] = ${freqs_Hz[k]} is off it — resample first`);
+      throw new RangeError(
+        `freqs_Hz must be a uniform grid ≥ 0 (step ${df} Hz); freqs_Hz[${k}] = ${freqs_Hz[k]} is off it — resample first`,
+      );
     }
   }
   const fb = checkBaud(options.baud_Hz);
   const shaped = aggressors.map((a, i) => {
     checkAggressorKind(a.kind, `aggressors[${i}].kind`);
-    if (a.transfer.re.length !== count || a.transfer.im.length !== count) throw new RangeError(`aggressors[${i}].transfer must hold ${count} values`);
+    if (a.transfer.re.length !== count || a.transfer.im.length !== count)
+      throw new RangeError(`aggressors[${i}].transfer must hold ${count} values`);
     const power = new Float64Array(count);
     for (let k = 0; k < count; k++) {
       const s = sinc(freqs_Hz[k] / fb);
       power[k] = s * s * (a.transfer.re[k] * a.transfer.re[k] + a.transfer.im[k] * a.transfer.im[k]);
-      if (!Number.isFinite(power[k])) throw new RangeError(`aggressors[${i}].transfer holds a value that is not finite`);
+      if (!Number.isFinite(power[k]))
+        throw new RangeError(`aggressors[${i}].transfer holds a value that is not finite`);
     }
     return { kind: a.kind, amplitude_V: a.amplitude_V, power };
   });
@@ -94,7 +102,10 @@ export interface IcnPulseAggressor {
  * @param aggressors - kinds, crosstalk pulses (same UI and samples per UI) and amplitudes.
  * @param options - the filters' corners (`baud_Hz` must be `1/ui_s` of the pulses, within 1 %).
  */
-export function integratedCrosstalkNoiseOfPulses(aggressors: readonly IcnPulseAggressor[], options: IcnOptions): IcnResult {
+export function integratedCrosstalkNoiseOfPulses(
+  aggressors: readonly IcnPulseAggressor[],
+  options: IcnOptions,
+): IcnResult {
   const fb = checkBaud(options.baud_Hz);
   if (aggressors.length === 0) return { rms_V: 0, next_V: 0, fext_V: 0, perAggressor_V: [] };
   aggressors.forEach((a, i) => {
@@ -105,7 +116,8 @@ export function integratedCrosstalkNoiseOfPulses(aggressors: readonly IcnPulseAg
   if (Math.abs(ui_s * fb - 1) > 0.01) throw new RangeError(`baud_Hz ${fb} does not match the pulses' UI (${ui_s} s)`);
   let longest = 0;
   aggressors.forEach((a, i) => {
-    if (a.pulse.ui_s !== ui_s || a.pulse.samplesPerUi !== samplesPerUi) throw new RangeError(`aggressors[${i}].pulse must share the first pulse's UI and samples per UI`);
+    if (a.pulse.ui_s !== ui_s || a.pulse.samplesPerUi !== samplesPerUi)
+      throw new RangeError(`aggressors[${i}].pulse must share the first pulse's UI and samples per UI`);
     longest = Math.max(longest, a.pulse.values_V.length);
   });
   const size = nextPowerOfTwo(Math.max(longest, 64 * samplesPerUi));
@@ -146,7 +158,8 @@ function icnOfShapedPower(
   const fft = corner(options.fextEdge_Hz, fb / 4, "fextEdge_Hz");
   const fr = corner(options.receiver_Hz, 0.75 * fb, "receiver_Hz");
   const per = aggressors.map((a, i) => {
-    if (!(Number.isFinite(a.amplitude_V) && a.amplitude_V >= 0)) throw new RangeError(`aggressors[${i}].amplitude_V must be a finite number ≥ 0`);
+    if (!(Number.isFinite(a.amplitude_V) && a.amplitude_V >= 0))
+      throw new RangeError(`aggressors[${i}].amplitude_V must be a finite number ≥ 0`);
     const ft = a.kind === "next" ? fnt : fft;
     let sum = 0;
     for (let k = 0; k < freqs_Hz.length; k++) {
@@ -161,5 +174,10 @@ function icnOfShapedPower(
     if (aggressors[i].kind === "next") next += v;
     else fext += v;
   });
-  return { rms_V: Math.sqrt(next + fext), next_V: Math.sqrt(next), fext_V: Math.sqrt(fext), perAggressor_V: per.map(Math.sqrt) };
+  return {
+    rms_V: Math.sqrt(next + fext),
+    next_V: Math.sqrt(next),
+    fext_V: Math.sqrt(fext),
+    perAggressor_V: per.map(Math.sqrt),
+  };
 }

@@ -31,7 +31,8 @@ export function checkLinkAggressors(aggressors: readonly LinkAggressor[], pulse:
       throw new RangeError(`${at}.txSwing_Vppd must be a finite number > 0, got ${String(a.txSwing_Vppd)}`);
     }
     if (a.txTaps !== undefined) {
-      if (a.txTaps.length === 0 || a.txTaps.some((c: number) => !Number.isFinite(c))) throw new RangeError(`${at}.txTaps must be finite numbers, at least one`);
+      if (a.txTaps.length === 0 || a.txTaps.some((c: number) => !Number.isFinite(c)))
+        throw new RangeError(`${at}.txTaps must be finite numbers, at least one`);
     }
   });
 }

@@ -34,14 +34,26 @@ export interface LinkPulses {
  */
 export function linkFromTouchstone(
   text: string,
-  options: S21PulseOptions & { readonly ports?: number; readonly victim: PortPairs; readonly aggressors: readonly AggressorPorts[] },
+  options: S21PulseOptions & {
+    readonly ports?: number;
+    readonly victim: PortPairs;
+    readonly aggressors: readonly AggressorPorts[];
+  },
 ): LinkPulses {
   const net = renormalizeNetwork(parseTouchstone(text, { ports: options.ports }));
   const t = crosstalkTransfers(net, options.victim, options.aggressors);
   const victim = pulseFromS21(t.freqs_Hz, t.victim, options);
   return {
     victim,
-    quality: inputQuality(net, t.victim, victim, { ui_s: options.ui_s, samplesPerUi: options.samplesPerUi, pairs: options.victim }),
-    aggressors: t.aggressors.map((a) => ({ name: a.name, kind: a.kind, ...pulseFromS21(t.freqs_Hz, a.transfer, options) })),
+    quality: inputQuality(net, t.victim, victim, {
+      ui_s: options.ui_s,
+      samplesPerUi: options.samplesPerUi,
+      pairs: options.victim,
+    }),
+    aggressors: t.aggressors.map((a) => ({
+      name: a.name,
+      kind: a.kind,
+      ...pulseFromS21(t.freqs_Hz, a.transfer, options),
+    })),
   };
 }

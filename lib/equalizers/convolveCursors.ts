@@ -12,7 +12,8 @@ import { checkTaps } from "./checkTaps.ts";
  */
 export function convolveCursors(cursors: Cursors, taps: ArrayLike<number>, pre: number): Cursors {
   const { h, main } = cursors;
-  if (!(h instanceof Float64Array) || h.length === 0) throw new RangeError("cursors.h must be a non-empty Float64Array");
+  if (!(h instanceof Float64Array) || h.length === 0)
+    throw new RangeError("cursors.h must be a non-empty Float64Array");
   if (!Number.isInteger(main) || main < 0 || main >= h.length) {
     throw new RangeError(`cursors.main must be an integer 0…${h.length - 1}, got ${String(main)}`);
   }

@@ -83,7 +83,8 @@ export function ctleResponse(params: CtleParams, freqs_Hz: ArrayLike<number>): C
   const tmp = new Float64Array(2);
   for (let k = 0; k < freqs_Hz.length; k++) {
     const f = freqs_Hz[k];
-    if (!Number.isFinite(f) || f < 0) throw new RangeError(`freqs_Hz[${k}] must be a finite number ≥ 0, got ${String(f)}`);
+    if (!Number.isFinite(f) || f < 0)
+      throw new RangeError(`freqs_Hz[${k}] must be a finite number ≥ 0, got ${String(f)}`);
     ctleAt(params, g1, g2, f, tmp);
     re[k] = tmp[0];
     im[k] = tmp[1];

@@ -25,7 +25,8 @@ export interface DfeResult {
  */
 export function dfeTaps(cursors: Cursors, count: number, limits_V?: number | ArrayLike<number>): DfeResult {
   const { h, main } = cursors;
-  if (!(h instanceof Float64Array) || h.length === 0) throw new RangeError("cursors.h must be a non-empty Float64Array");
+  if (!(h instanceof Float64Array) || h.length === 0)
+    throw new RangeError("cursors.h must be a non-empty Float64Array");
   if (!Number.isInteger(main) || main < 0 || main >= h.length) {
     throw new RangeError(`cursors.main must be an integer 0…${h.length - 1}, got ${String(main)}`);
   }
@@ -46,7 +47,8 @@ export function dfeTaps(cursors: Cursors, count: number, limits_V?: number | Arr
   const after = Float64Array.from(h);
   for (let k = 0; k < count; k++) {
     const lim = limitOf(k);
-    if (!(lim >= 0) || Number.isNaN(lim)) throw new RangeError(`limits_V[${k}] must be a number ≥ 0, got ${String(lim)}`);
+    if (!(lim >= 0) || Number.isNaN(lim))
+      throw new RangeError(`limits_V[${k}] must be a number ≥ 0, got ${String(lim)}`);
     const i = main + 1 + k;
     const v = i < h.length ? h[i] : 0;
     const t = Math.max(-lim, Math.min(lim, v));

@@ -32,7 +32,9 @@ export function firLevels(taps: ArrayLike<number>, pre: number): FirLevels {
   checkTaps(taps, pre);
   const post = taps.length - 1 - pre;
   if (pre > 1 || post > 1) {
-    throw new RangeError(`taps must have at most one pre- and one post-cursor tap for levels (pre ${pre}, post ${post})`);
+    throw new RangeError(
+      `taps must have at most one pre- and one post-cursor tap for levels (pre ${pre}, post ${post})`,
+    );
   }
   const cm = pre === 1 ? Math.abs(taps[0]) : 0;
   const c0 = taps[pre];

@@ -26,7 +26,8 @@ export function firResponse(
   freqs_Hz: ArrayLike<number>,
 ): FrequencyResponse {
   checkTaps(taps, pre);
-  if (!(ui_s > 0) || !Number.isFinite(ui_s)) throw new RangeError(`ui_s must be a finite number > 0, got ${String(ui_s)}`);
+  if (!(ui_s > 0) || !Number.isFinite(ui_s))
+    throw new RangeError(`ui_s must be a finite number > 0, got ${String(ui_s)}`);
   const n = freqs_Hz.length;
   const re = new Float64Array(n);
   const im = new Float64Array(n);

@@ -31,7 +31,8 @@ export const TAP_TOLERANCE = 1e-9;
 export function resolveTapRanges(spec: TxFirSpec): TapRange[] {
   if (spec === null || typeof spec !== "object") throw new TypeError("spec must be an object");
   const { pre, post, step } = spec;
-  if (!Number.isInteger(pre) || pre < 0 || pre > 64) throw new RangeError(`spec.pre must be an integer 0…64, got ${String(pre)}`);
+  if (!Number.isInteger(pre) || pre < 0 || pre > 64)
+    throw new RangeError(`spec.pre must be an integer 0…64, got ${String(pre)}`);
   if (!Number.isInteger(post) || post < 0 || post > 64) {
     throw new RangeError(`spec.post must be an integer 0…64, got ${String(post)}`);
   }
@@ -74,7 +75,8 @@ export function normalizePeakSwing(taps: ArrayLike<number>): Float64Array {
 /** Each tap rounded to the nearest multiple of `step` (> 0). */
 export function quantizeTaps(taps: ArrayLike<number>, step: number): Float64Array {
   checkTaps(taps, 0);
-  if (!(step > 0) || !Number.isFinite(step)) throw new RangeError(`step must be a finite number > 0, got ${String(step)}`);
+  if (!(step > 0) || !Number.isFinite(step))
+    throw new RangeError(`step must be a finite number > 0, got ${String(step)}`);
   return Float64Array.from(taps, (c) => Math.round(c / step) * step);
 }
 

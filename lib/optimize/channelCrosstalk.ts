@@ -5,7 +5,12 @@
 import { worstPhaseSampling } from "../crosstalk/aggressorSampling.ts";
 import type { AggressorKind } from "../crosstalk/aggressorKind.ts";
 import { PAM4_INNER_LEVEL } from "../analysis/isiParts.ts";
-import { combineCrosstalk, type CrosstalkParts, LUMP_DIVISOR, type SampledCursors } from "../crosstalk/crosstalkParts.ts";
+import {
+  combineCrosstalk,
+  type CrosstalkParts,
+  LUMP_DIVISOR,
+  type SampledCursors,
+} from "../crosstalk/crosstalkParts.ts";
 import { applyFir } from "../equalizers/applyFir.ts";
 import { scalePulse } from "../pulse/scalePulse.ts";
 import type { Modulation, Pulse } from "../types.ts";
@@ -62,14 +67,22 @@ export interface ChannelCrosstalk {
 const MAX_FIR_TAPS = 16;
 
 /** The crosstalk of a channel whose aggressors are already at the sampler. */
-export function channelCrosstalk(aggressors: readonly ReceivedAggressor[], modulation: Modulation, noiseRms_V: number): ChannelCrosstalk {
+export function channelCrosstalk(
+  aggressors: readonly ReceivedAggressor[],
+  modulation: Modulation,
+  noiseRms_V: number,
+): ChannelCrosstalk {
   const fixedSampled: (SampledCursors | null)[] = aggressors.map((a) => {
     if (a.followsVictimFir) return null;
     const s = worstPhaseSampling(a.pulse);
     return { name: a.name, cursors: s.cursors, phase_UI: s.phase_UI };
   });
   const followers = aggressors.flatMap((a, index) => (a.followsVictimFir ? [follower(a, index)] : []));
-  const fixed = combineCrosstalk(fixedSampled.filter((x): x is SampledCursors => x !== null), modulation, noiseRms_V);
+  const fixed = combineCrosstalk(
+    fixedSampled.filter((x): x is SampledCursors => x !== null),
+    modulation,
+    noiseRms_V,
+  );
   const perCursor = modulation === "pam4" ? 2 : 1;
   const room = fixed.parts_V.length + followers.reduce((n, f) => n + perCursor * f.scratch.length, 0);
   return {
@@ -103,7 +116,14 @@ function follower(a: ReceivedAggressor, index: number): Follower {
     correlation.push(r);
   }
   const longest = Math.max(...cursors.map((f) => f.length));
-  return { index, name: a.name, cursors, correlation, peak: mainIndex, scratch: new Float64Array(longest + MAX_FIR_TAPS - 1) };
+  return {
+    index,
+    name: a.name,
+    cursors,
+    correlation,
+    peak: mainIndex,
+    scratch: new Float64Array(longest + MAX_FIR_TAPS - 1),
+  };
 }
 
 /**
@@ -145,7 +165,8 @@ function followerAt(f: Follower, taps: ArrayLike<number>, out: Float64Array): { 
  */
 export function crosstalkFor(x: ChannelCrosstalk, taps: ArrayLike<number>): CrosstalkParts {
   if (x.followers.length === 0) return x.fixed;
-  if (taps.length > MAX_FIR_TAPS) throw new RangeError(`taps must hold at most ${MAX_FIR_TAPS} values, got ${taps.length}`);
+  if (taps.length > MAX_FIR_TAPS)
+    throw new RangeError(`taps must hold at most ${MAX_FIR_TAPS} values, got ${taps.length}`);
   const key = Array.prototype.join.call(taps, ",");
   if (x.last !== null && x.last.key === key) return x.last.parts;
   const sampled = [...x.fixedSampled];
@@ -166,7 +187,8 @@ export function crosstalkFor(x: ChannelCrosstalk, taps: ArrayLike<number>): Cros
  */
 export function sortedCrosstalkParts(x: ChannelCrosstalk, taps: ArrayLike<number>): Float64Array | null {
   if (x.followers.length === 0) return null;
-  if (taps.length > MAX_FIR_TAPS) throw new RangeError(`taps must hold at most ${MAX_FIR_TAPS} values, got ${taps.length}`);
+  if (taps.length > MAX_FIR_TAPS)
+    throw new RangeError(`taps must hold at most ${MAX_FIR_TAPS} values, got ${taps.length}`);
   const key = Array.prototype.join.call(taps, ",");
   if (x.leaf !== null && x.leaf.key === key) return x.leaf.sorted;
   // The same parts as crosstalkFor's, without building them per aggressor: the fixed ones are kept
@@ -206,7 +228,12 @@ export function sortedCrosstalkParts(x: ChannelCrosstalk, taps: ArrayLike<number
  * @param swing_V - the aggressor transmitter's symbol amplitude (half its peak-to-peak swing).
  */
 export function receivedAggressor(
-  a: { readonly name: string; readonly kind: AggressorKind; readonly pulse: Pulse; readonly txTaps?: readonly number[] },
+  a: {
+    readonly name: string;
+    readonly kind: AggressorKind;
+    readonly pulse: Pulse;
+    readonly txTaps?: readonly number[];
+  },
   receive: (p: Pulse) => Pulse,
   swing_V: number,
 ): ReceivedAggressor {

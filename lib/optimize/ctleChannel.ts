@@ -51,7 +51,12 @@ export function phaseReach(space: SearchSpace, samplesPerUi: number): number {
  * One CTLE channel of `pulse` (and its aggressors) for any setting (e.g. gains rounded to register
  * codes): through the budget's front end and the CTLE, then {@link receiverChannel}.
  */
-export function channelFor(pulse: Pulse, space: SearchSpace, setting: CtleSetting, aggressors: readonly LinkAggressor[] = []): CtleChannel {
+export function channelFor(
+  pulse: Pulse,
+  space: SearchSpace,
+  setting: CtleSetting,
+  aggressors: readonly LinkAggressor[] = [],
+): CtleChannel {
   const params: CtleParams = { ...space.ctleCorners, gDc_dB: setting.gDc_dB, gDc2_dB: setting.gDc2_dB };
   const through = (p: Pulse) => createCtlePlan(applyFrontEnd(p, space.frontEnd)).apply(params);
   const atCtle = aggressors.map((a) => ({ ...a, pulse: through(a.pulse) }));
@@ -79,20 +84,30 @@ export function receiverChannel(
   maxPhase: number,
   aggressors: readonly LinkAggressor[] = [],
 ): CtleChannel {
-  if (!Number.isInteger(maxPhase) || maxPhase < 0) throw new RangeError(`maxPhase must be an integer ≥ 0, got ${maxPhase}`);
+  if (!Number.isInteger(maxPhase) || maxPhase < 0)
+    throw new RangeError(`maxPhase must be an integer ≥ 0, got ${maxPhase}`);
   const params: CtleParams = { ...space.ctleCorners, gDc_dB: setting.gDc_dB, gDc2_dB: setting.gDc2_dB };
   const b = space.budget;
   const ffeSpec = space.ffe;
   const r = receiverNoiseCorrelation(space, params, ffeSpec === null ? 0 : ffeSpec.pre + ffeSpec.post);
   const received = aggressors.map((a, i) =>
-    receivedAggressor({ name: aggressorLabel(a, i), kind: a.kind, pulse: a.pulse, txTaps: a.txTaps }, (p) => p, (a.txSwing_Vppd ?? b.txSwing_Vppd) / 2),
+    receivedAggressor(
+      { name: aggressorLabel(a, i), kind: a.kind, pulse: a.pulse, txTaps: a.txTaps },
+      (p) => p,
+      (a.txSwing_Vppd ?? b.txSwing_Vppd) / 2,
+    ),
   );
   let pulse = filtered;
   let ffe: ReceiveFfe | null = null;
   let inputVariance = r[0];
   let atSampler = received;
   if (ffeSpec !== null) {
-    ffe = designReceiveFfe(filtered, space, r, received.map((a) => a.pulse));
+    ffe = designReceiveFfe(
+      filtered,
+      space,
+      r,
+      received.map((a) => a.pulse),
+    );
     const f = ffe;
     pulse = applyFir(filtered, f.taps, f.pre);
     inputVariance = ffeNoiseVariance(f, r);

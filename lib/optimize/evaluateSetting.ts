@@ -68,7 +68,8 @@ export function prepareEye(
     },
     {
       modulation: space.modulation,
-      noiseRms_V: crosstalk === null ? channel.noiseRms_V : Math.sqrt(channel.noiseRms_V ** 2 + crosstalk.lumpedVariance_V2),
+      noiseRms_V:
+        crosstalk === null ? channel.noiseRms_V : Math.sqrt(channel.noiseRms_V ** 2 + crosstalk.lumpedVariance_V2),
       jitter: jittered ? space.jitter : undefined,
       dfeTaps: dfe.taps,
       kernelFloor: kernelFloorOf(space),
@@ -130,7 +131,11 @@ export function phaseEye(
  * Main cursor of the equalized pulse at phase `t` (samples, fractional allowed by linear
  * interpolation between phases), for the timing criteria.
  */
-export function equalizedMain(channel: CtleChannel, space: SearchSpace, taps: ArrayLike<number>): (t: number) => number {
+export function equalizedMain(
+  channel: CtleChannel,
+  space: SearchSpace,
+  taps: ArrayLike<number>,
+): (t: number) => number {
   const pre = space.firSpec.pre;
   const at = (p: number): number => {
     const h = channel.cursors(p);
@@ -167,7 +172,8 @@ export function evaluateSetting(
   taps: ArrayLike<number>,
   dfeCount: number,
 ): PhaseEye {
-  if (space.policy !== "max-height") return phaseEye(channel, space, taps, dfeCount, criterionPhaseOf(channel, space, taps));
+  if (space.policy !== "max-height")
+    return phaseEye(channel, space, taps, dfeCount, criterionPhaseOf(channel, space, taps));
   const w = defaultPhaseWindow(channel.pulse.samplesPerUi);
   let best = phaseEye(channel, space, taps, dfeCount, 0);
   for (let d = 1; d <= w.hi - w.lo; d++) {

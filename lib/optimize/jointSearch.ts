@@ -121,15 +121,21 @@ export function jointSearch(
     }
   }
   const topCount = options.topCount ?? 5;
-  if (!Number.isInteger(topCount) || topCount < 1) throw new RangeError(`topCount must be an integer ≥ 1, got ${topCount}`);
+  if (!Number.isInteger(topCount) || topCount < 1)
+    throw new RangeError(`topCount must be an integer ≥ 1, got ${topCount}`);
   const target_V = options.target_V;
-  if (target_V !== undefined && !Number.isFinite(target_V)) throw new RangeError(`target_V must be finite, got ${target_V}`);
+  if (target_V !== undefined && !Number.isFinite(target_V))
+    throw new RangeError(`target_V must be finite, got ${target_V}`);
   const members: readonly PreparedChannels[] = Array.isArray(prepared) ? prepared : [prepared as PreparedChannels];
   if (members.length === 0) throw new RangeError("prepared must hold at least one channel");
   for (const [i, m] of members.entries()) {
-    if (m.channels.length !== space.ctleSettings.length) throw new RangeError("prepared channels do not match the CTLE grid");
+    if (m.channels.length !== space.ctleSettings.length)
+      throw new RangeError("prepared channels do not match the CTLE grid");
     const differs = m.space === undefined ? null : sharedGridMismatch(space, m.space);
-    if (differs !== null) throw new RangeError(`prepared[${i}] was prepared under a budget whose ${differs} differs from the search's; members share the grids`);
+    if (differs !== null)
+      throw new RangeError(
+        `prepared[${i}] was prepared under a budget whose ${differs} differs from the search's; members share the grids`,
+      );
     if (m.channels.some((c) => c.pulse.samplesPerUi !== pulse.samplesPerUi)) {
       throw new RangeError("every member must have the same samplesPerUi");
     }
@@ -144,19 +150,26 @@ export function jointSearch(
       }
       hit[ci] = 1;
     }
-    if (given.length !== ctleCount) throw new RangeError(`order must list every CTLE setting index 0…${ctleCount - 1} once`);
+    if (given.length !== ctleCount)
+      throw new RangeError(`order must list every CTLE setting index 0…${ctleCount - 1} once`);
   }
   if (options.seeds !== undefined && options.seeds.length !== ctleCount) {
     throw new RangeError(`seeds must hold one list per CTLE setting (${ctleCount}), got ${options.seeds.length}`);
   }
 
-  const state = createSearchState(space, { dfeCounts, topCount, target_V, seeds: options.seeds }, members, pulse.samplesPerUi);
+  const state = createSearchState(
+    space,
+    { dfeCounts, topCount, target_V, seeds: options.seeds },
+    members,
+    pulse.samplesPerUi,
+  );
   const order = given !== undefined ? [...given] : ctleOrder(state);
   for (let done = 0; done < ctleCount; done++) {
     const ctx = ctleContext(state, order[done]);
     // Optimizing (not a feasibility pass): the warm start's settings set the thresholds first.
     if (done === 0 && target_V === undefined) {
-      for (const taps of warmStart(state, ctx, startsFor(state, ctx.ctleIndex).all)) evaluateLeaf(state, ctx, taps, state.everyone);
+      for (const taps of warmStart(state, ctx, startsFor(state, ctx.ctleIndex).all))
+        evaluateLeaf(state, ctx, taps, state.everyone);
     }
     searchCtleSetting(state, ctx);
     if (state.results.targetReached) break;

@@ -37,7 +37,12 @@ export interface CrosstalkResult {
   /** Rms of all the crosstalk at the sampler (powers add), volts. */
   readonly rms_V: number;
   /** Per aggressor, in the order given: its rms at the sampler and its worst phase (UI from its peak). */
-  readonly perAggressor: { readonly name: string; readonly kind: AggressorKind; readonly rms_V: number; readonly phase_UI: number }[];
+  readonly perAggressor: {
+    readonly name: string;
+    readonly kind: AggressorKind;
+    readonly rms_V: number;
+    readonly phase_UI: number;
+  }[];
   /** The chosen setting's eye height and headroom without the aggressors (same phase). */
   readonly eyeHeightWithoutCrosstalk_V: number;
   readonly limiterHeadroomWithoutCrosstalk_V: number;
@@ -88,7 +93,11 @@ export interface OptimizeResult extends SettingResult {
   /** When the budget's FIR is continuous: what the Nelder–Mead refinement added over the scaffold grid. */
   readonly refinement: { readonly gain_V: number; readonly linearGain_V: number; readonly evaluations: number } | null;
   /** Work done by the search. */
-  readonly search: { readonly exactEvaluations: number; readonly boundedBoxes: number; readonly settingsReached: number };
+  readonly search: {
+    readonly exactEvaluations: number;
+    readonly boundedBoxes: number;
+    readonly settingsReached: number;
+  };
 }
 
 /** A tap value for people and firmware: grid multiples without binary noise (0.6, not 0.6000000000000001). */
@@ -117,9 +126,14 @@ export interface OptimizeDetail {
 }
 
 /** A setting with its figures as plain JSON. */
-function settingResult(space: SearchSpace, s: { taps: Float64Array; channel: CtleChannel; eye: PhaseEye }): SettingResult {
+function settingResult(
+  space: SearchSpace,
+  s: { taps: Float64Array; channel: CtleChannel; eye: PhaseEye },
+): SettingResult {
   const spu = s.channel.pulse.samplesPerUi;
-  const limits = Array.from(space.dfeLimits_V.subarray(0, s.eye.dfeTaps.length), (l) => (Number.isFinite(l) ? l : null));
+  const limits = Array.from(space.dfeLimits_V.subarray(0, s.eye.dfeTaps.length), (l) =>
+    Number.isFinite(l) ? l : null,
+  );
   return {
     tx: { taps: Array.from(s.taps, tidyTap) },
     ctle: { gDc_dB: s.channel.setting.gDc_dB, gDc2_dB: s.channel.setting.gDc2_dB },
@@ -136,7 +150,10 @@ function settingResult(space: SearchSpace, s: { taps: Float64Array; channel: Ctl
 }
 
 /** The crosstalk figures of a setting, and its eye without the aggressors. */
-function crosstalkResult(space: SearchSpace, s: { taps: Float64Array; channel: CtleChannel; eye: PhaseEye }): { result: CrosstalkResult; without: PhaseEye } | null {
+function crosstalkResult(
+  space: SearchSpace,
+  s: { taps: Float64Array; channel: CtleChannel; eye: PhaseEye },
+): { result: CrosstalkResult; without: PhaseEye } | null {
   const x = s.eye.crosstalk;
   const agg = s.channel.crosstalk;
   if (x === null || agg === null) return null;
@@ -144,7 +161,12 @@ function crosstalkResult(space: SearchSpace, s: { taps: Float64Array; channel: C
   return {
     result: {
       rms_V: x.rms_V,
-      perAggressor: x.perAggressor.map((p, i) => ({ name: p.name, kind: agg.aggressors[i].kind, rms_V: p.rms_V, phase_UI: p.phase_UI })),
+      perAggressor: x.perAggressor.map((p, i) => ({
+        name: p.name,
+        kind: agg.aggressors[i].kind,
+        rms_V: p.rms_V,
+        phase_UI: p.phase_UI,
+      })),
       eyeHeightWithoutCrosstalk_V: without.eyeHeight_V,
       limiterHeadroomWithoutCrosstalk_V: without.limiterHeadroom_V,
     },
@@ -172,7 +194,12 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
   const prepared = prepareChannels(pulse, space, options.aggressors ?? []);
   const budgetDfeCount = space.dfeCount;
   const counts = budgetDfeCount > 0 ? [budgetDfeCount, 0] : [0];
-  const main = jointSearch(pulse, space, { dfeCounts: counts, topCount: options.topCount, onProgress: (f) => report(0.75 * f) }, prepared);
+  const main = jointSearch(
+    pulse,
+    space,
+    { dfeCounts: counts, topCount: options.topCount, onProgress: (f) => report(0.75 * f) },
+    prepared,
+  );
   const fullC = main.best[0];
   const linC = main.best[counts.length - 1];
   if (fullC === null || linC === null) {
@@ -182,36 +209,69 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
   report(0.9);
 
   const channelOf = (c: Candidate) => prepared.channels[c.ctleIndex];
-  let full = { taps: fullC.taps, channel: channelOf(fullC), eye: phaseEye(channelOf(fullC), space, fullC.taps, fullC.dfeCount, fullC.phase) };
-  let linear = { taps: linC.taps, channel: channelOf(linC), eye: phaseEye(channelOf(linC), space, linC.taps, 0, linC.phase) };
+  let full = {
+    taps: fullC.taps,
+    channel: channelOf(fullC),
+    eye: phaseEye(channelOf(fullC), space, fullC.taps, fullC.dfeCount, fullC.phase),
+  };
+  let linear = {
+    taps: linC.taps,
+    channel: channelOf(linC),
+    eye: phaseEye(channelOf(linC), space, linC.taps, 0, linC.phase),
+  };
   let refinement: OptimizeResult["refinement"] = null;
   if (space.continuousFir) {
     const rf = refineFir(full.channel, space, budgetDfeCount, [full.taps]);
     const rl = budgetDfeCount > 0 ? refineFir(linear.channel, space, 0, [linear.taps]) : rf;
     const gain = Math.max(0, rf.eye.limiterHeadroom_V - full.eye.limiterHeadroom_V);
     const linearGain = Math.max(0, rl.eye.limiterHeadroom_V - linear.eye.limiterHeadroom_V);
-    if (rf.eye.limiterHeadroom_V > full.eye.limiterHeadroom_V) full = { taps: rf.taps, channel: full.channel, eye: rf.eye };
+    if (rf.eye.limiterHeadroom_V > full.eye.limiterHeadroom_V)
+      full = { taps: rf.taps, channel: full.channel, eye: rf.eye };
     if (rl.eye.limiterHeadroom_V > linear.eye.limiterHeadroom_V) {
       linear = { taps: rl.taps, channel: linear.channel, eye: rl.eye };
     }
-    refinement = { gain_V: gain, linearGain_V: linearGain, evaluations: rf.evaluations + (budgetDfeCount > 0 ? rl.evaluations : 0) };
+    refinement = {
+      gain_V: gain,
+      linearGain_V: linearGain,
+      evaluations: rf.evaluations + (budgetDfeCount > 0 ? rl.evaluations : 0),
+    };
   }
   report(0.97);
 
-  const fullCandidate: Candidate = { ...fullC, taps: full.taps, limiterHeadroom_V: full.eye.limiterHeadroom_V, eyeHeight_V: full.eye.eyeHeight_V };
-  const linCandidate: Candidate = { ...linC, taps: linear.taps, limiterHeadroom_V: linear.eye.limiterHeadroom_V, eyeHeight_V: linear.eye.eyeHeight_V };
+  const fullCandidate: Candidate = {
+    ...fullC,
+    taps: full.taps,
+    limiterHeadroom_V: full.eye.limiterHeadroom_V,
+    eyeHeight_V: full.eye.eyeHeight_V,
+  };
+  const linCandidate: Candidate = {
+    ...linC,
+    taps: linear.taps,
+    limiterHeadroom_V: linear.eye.limiterHeadroom_V,
+    eyeHeight_V: linear.eye.eyeHeight_V,
+  };
   const propagation = full.eye.dfeTaps.length > 0 ? dfeErrorPropagation(full.eye.eye, full.eye.phase) : null;
   const fullXt = crosstalkResult(space, full);
   const linXt = crosstalkResult(space, linear);
   const worst = fullXt === null ? null : fullXt.result.perAggressor.reduce((a, b) => (b.rms_V > a.rms_V ? b : a));
   const v = verdict(
     space,
-    { candidate: linCandidate, mainCursor_V: linear.eye.eye.main(linear.eye.phase), noiseRms_V: linear.channel.noiseRms_V },
+    {
+      candidate: linCandidate,
+      mainCursor_V: linear.eye.eye.main(linear.eye.phase),
+      noiseRms_V: linear.channel.noiseRms_V,
+    },
     { candidate: fullCandidate, noiseRms_V: full.channel.noiseRms_V, errorPropagation: propagation },
     fewest.taps,
     fullXt === null || linXt === null || worst === null
       ? undefined
-      : { linearWithout_V: linXt.without.eyeHeight_V, fullWithout_V: fullXt.without.eyeHeight_V, rms_V: fullXt.result.rms_V, count: fullXt.result.perAggressor.length, worst },
+      : {
+          linearWithout_V: linXt.without.eyeHeight_V,
+          fullWithout_V: fullXt.without.eyeHeight_V,
+          rms_V: fullXt.result.rms_V,
+          count: fullXt.result.perAggressor.length,
+          worst,
+        },
   );
 
   const g1 = space.ctleAxes.gDc_dB;
@@ -233,7 +293,9 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
     surface: {
       gDc_dB: [...g1],
       gDc2_dB: [...g2],
-      headroom_V: g2.map((_, i2) => g1.map((_, i1) => (cell(i2, i1).exact ? (cell(i2, i1).best as Candidate).limiterHeadroom_V : null))),
+      headroom_V: g2.map((_, i2) =>
+        g1.map((_, i1) => (cell(i2, i1).exact ? (cell(i2, i1).best as Candidate).limiterHeadroom_V : null)),
+      ),
       upperBound_V: g2.map((_, i2) =>
         g1.map((_, i1) => (Number.isFinite(cell(i2, i1).upperBound_V) ? cell(i2, i1).upperBound_V : null)),
       ),
@@ -247,7 +309,11 @@ export function optimizeDetailed(pulse: Pulse, budget: BudgetInput, options: Opt
       limiterHeadroom_V: c.limiterHeadroom_V,
     })),
     refinement,
-    search: { exactEvaluations: fewest.stats.exact, boundedBoxes: fewest.stats.boxes, settingsReached: fewest.stats.leaves },
+    search: {
+      exactEvaluations: fewest.stats.exact,
+      boundedBoxes: fewest.stats.boxes,
+      settingsReached: fewest.stats.leaves,
+    },
   };
   report(1);
   return { result, space, prepared, full, linear };

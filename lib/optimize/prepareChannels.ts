@@ -27,7 +27,11 @@ export interface PreparedChannels {
  * @param space - the resolved budget.
  * @param aggressors - its aggressors' crosstalk pulses at the receiver's pins (same grid).
  */
-export function prepareChannels(pulse: Pulse, space: SearchSpace, aggressors: readonly LinkAggressor[] = []): PreparedChannels {
+export function prepareChannels(
+  pulse: Pulse,
+  space: SearchSpace,
+  aggressors: readonly LinkAggressor[] = [],
+): PreparedChannels {
   checkLinkAggressors(aggressors, pulse);
   const maxPhase = phaseReach(space, pulse.samplesPerUi);
   const grid = (p: Pulse) => ctleGridPulses(applyFrontEnd(p, space.frontEnd), space.ctleCorners, space.ctleSettings);
@@ -35,7 +39,13 @@ export function prepareChannels(pulse: Pulse, space: SearchSpace, aggressors: re
   const crosstalk = aggressors.map((a) => grid(a.pulse));
   return {
     channels: space.ctleSettings.map((s, i) =>
-      receiverChannel(pulses[i], space, s, maxPhase, aggressors.map((a, j) => ({ ...a, pulse: crosstalk[j][i] }))),
+      receiverChannel(
+        pulses[i],
+        space,
+        s,
+        maxPhase,
+        aggressors.map((a, j) => ({ ...a, pulse: crosstalk[j][i] })),
+      ),
     ),
     space,
   };

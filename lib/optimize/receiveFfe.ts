@@ -33,7 +33,12 @@ const DESIGN_SPAN = { pre: 16, post: 96 } as const;
  * @see N. Al-Dhahir and J. M. Cioffi, "MMSE decision-feedback equalizers: finite-length results",
  *   IEEE Trans. Inform. Theory 41(4), 1995 [memory: recalled, not re-read].
  */
-export function designReceiveFfe(ctleOut: Pulse, space: SearchSpace, noise_V2: Float64Array, aggressors: readonly Pulse[]): ReceiveFfe {
+export function designReceiveFfe(
+  ctleOut: Pulse,
+  space: SearchSpace,
+  noise_V2: Float64Array,
+  aggressors: readonly Pulse[],
+): ReceiveFfe {
   const spec = space.ffe;
   if (spec === null) throw new RangeError("the budget has no receive FFE");
   const n = spec.pre + 1 + spec.post;
@@ -56,7 +61,10 @@ export function designReceiveFfe(ctleOut: Pulse, space: SearchSpace, noise_V2: F
   const cancelled = new Array<boolean>(N).fill(true);
   try {
     for (let pass = 0; pass <= N; pass++) {
-      const d = mmseDfe({ h, main: cursors.main }, { pre: spec.pre, post: spec.post, feedbackTaps: N, cancelled, noiseCorrelation_V2: r, symbolPower: es });
+      const d = mmseDfe(
+        { h, main: cursors.main },
+        { pre: spec.pre, post: spec.post, feedbackTaps: N, cancelled, noiseCorrelation_V2: r, symbolPower: es },
+      );
       const g = d.equalized;
       const gain = g.h[g.main];
       if (!(Math.abs(gain) > 1e-12 * Math.abs(h[cursors.main]))) return { taps: plain, pre: spec.pre };

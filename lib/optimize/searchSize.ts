@@ -55,11 +55,16 @@ function ctleSettings(b: Budget): number {
  * @param budget - the budget (validated here; RangeError naming the field when invalid).
  * @param o - samples per UI of the channels' pulses, aggressors per channel, channels searched together.
  */
-export function searchSize(budget: BudgetInput | Budget, o: { samplesPerUi: number; aggressors?: number; members?: number }): SearchSize {
+export function searchSize(
+  budget: BudgetInput | Budget,
+  o: { samplesPerUi: number; aggressors?: number; members?: number },
+): SearchSize {
   const b = resolveBudget(budget);
   const { samplesPerUi, aggressors = 0, members = 1 } = o;
-  if (!Number.isInteger(samplesPerUi) || samplesPerUi < 1) throw new RangeError(`samplesPerUi must be an integer ≥ 1, got ${samplesPerUi}`);
-  if (!Number.isInteger(aggressors) || aggressors < 0) throw new RangeError(`aggressors must be an integer ≥ 0, got ${aggressors}`);
+  if (!Number.isInteger(samplesPerUi) || samplesPerUi < 1)
+    throw new RangeError(`samplesPerUi must be an integer ≥ 1, got ${samplesPerUi}`);
+  if (!Number.isInteger(aggressors) || aggressors < 0)
+    throw new RangeError(`aggressors must be an integer ≥ 0, got ${aggressors}`);
   if (!Number.isInteger(members) || members < 1) throw new RangeError(`members must be an integer ≥ 1, got ${members}`);
   const size = {
     ctleSettings: ctleSettings(b),
@@ -77,7 +82,9 @@ function count(n: number): string {
 }
 
 /** Steps people choose for a transmit FIR (fractions of the peak swing), coarsest last. */
-const NICE_STEPS = [0.001, 0.002, 0.0025, 0.005, 0.01, 0.0125, 0.02, 0.025, 0.04, 0.05, 0.0625, 0.1, 0.125, 0.2, 0.25, 0.5];
+const NICE_STEPS = [
+  0.001, 0.002, 0.0025, 0.005, 0.01, 0.0125, 0.02, 0.025, 0.04, 0.05, 0.0625, 0.1, 0.125, 0.2, 0.25, 0.5,
+];
 
 /**
  * Why a search is too large, in words that say what to coarsen (the smallest transmit FIR step that
@@ -87,7 +94,11 @@ const NICE_STEPS = [0.001, 0.002, 0.0025, 0.005, 0.01, 0.0125, 0.02, 0.025, 0.04
  * @param size - its {@link searchSize}.
  * @param limit - the largest size allowed (default {@link MAX_SEARCH_SIZE}).
  */
-export function searchSizeProblem(budget: BudgetInput | Budget, size: SearchSize, limit = MAX_SEARCH_SIZE): string | null {
+export function searchSizeProblem(
+  budget: BudgetInput | Budget,
+  size: SearchSize,
+  limit = MAX_SEARCH_SIZE,
+): string | null {
   if (size.total <= limit) return null;
   const b = resolveBudget(budget);
   const step = b.tx.step ?? CONTINUOUS_SCAFFOLD_STEP;

@@ -134,7 +134,10 @@ export function searchSpace(pulse: Pulse, budget: BudgetInput | Budget): SearchS
     policy: b.clocking.policy,
     edgeTail: edgeTail(b.modulation, b.targetBer),
     frontEnd: { txPackage: b.package?.tx, rxPackage: b.package?.rx, rxBandwidth_Hz: b.frontEnd?.rxBandwidth_Hz },
-    rxNoiseShaping: rxNoiseShaping({ rxPackage: b.package?.rx, rxBandwidth_Hz: b.frontEnd?.rxBandwidth_Hz }, baud_Hz / 2),
+    rxNoiseShaping: rxNoiseShaping(
+      { rxPackage: b.package?.rx, rxBandwidth_Hz: b.frontEnd?.rxBandwidth_Hz },
+      baud_Hz / 2,
+    ),
     ffe: b.ffe ?? null,
   };
 }

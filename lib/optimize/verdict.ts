@@ -36,11 +36,18 @@ export interface EyeBudget {
  * The closure breakdown of a candidate (see {@link EyeBudget}); `withoutCrosstalk_V` is its eye
  * height at the same setting and phase without the aggressors (omit when there are none).
  */
-export function eyeBudget(space: SearchSpace, candidate: Candidate, mainCursor_V: number, noiseRms_V: number, withoutCrosstalk_V?: number): EyeBudget {
+export function eyeBudget(
+  space: SearchSpace,
+  candidate: Candidate,
+  mainCursor_V: number,
+  noiseRms_V: number,
+  withoutCrosstalk_V?: number,
+): EyeBudget {
   const q = qFromBer(space.edgeTail);
   const ideal = space.levelGap * mainCursor_V;
   const noiseClosure_V = 2 * q * noiseRms_V;
-  const crosstalkClosure_V = withoutCrosstalk_V === undefined ? 0 : Math.max(0, withoutCrosstalk_V - candidate.eyeHeight_V);
+  const crosstalkClosure_V =
+    withoutCrosstalk_V === undefined ? 0 : Math.max(0, withoutCrosstalk_V - candidate.eyeHeight_V);
   const isiClosure_V = Math.max(0, ideal - noiseClosure_V - candidate.eyeHeight_V - crosstalkClosure_V);
   let side = 0;
   candidate.taps.forEach((c, j) => {
@@ -89,7 +96,10 @@ export function verdict(
   const ber = space.budget.targetBer.toExponential(0);
   const reasons: string[] = [];
   const b = eyeBudget(space, linear.candidate, linear.mainCursor_V, linear.noiseRms_V, crosstalk?.linearWithout_V);
-  const who = crosstalk === undefined ? "" : `${crosstalk.count === 1 ? "the aggressor" : `${crosstalk.count} aggressors`} (${mV(crosstalk.rms_V)} rms at the sampler, the largest ${crosstalk.worst.name} with ${mV(crosstalk.worst.rms_V)})`;
+  const who =
+    crosstalk === undefined
+      ? ""
+      : `${crosstalk.count === 1 ? "the aggressor" : `${crosstalk.count} aggressors`} (${mV(crosstalk.rms_V)} rms at the sampler, the largest ${crosstalk.worst.name} with ${mV(crosstalk.worst.rms_V)})`;
   const ctle = linear.candidate.ctle;
   if (lin >= required) {
     reasons.push(
@@ -113,7 +123,10 @@ export function verdict(
       },
     ];
     if (crosstalk !== undefined && b.crosstalkClosure_V > 0) {
-      parts.push({ size: b.crosstalkClosure_V, text: `Crosstalk: ${who} closes ${mV(b.crosstalkClosure_V)} of the eye; the CTLE's peaking lifts it with the signal.` });
+      parts.push({
+        size: b.crosstalkClosure_V,
+        text: `Crosstalk: ${who} closes ${mV(b.crosstalkClosure_V)} of the eye; the CTLE's peaking lifts it with the signal.`,
+      });
     }
     parts.sort((x, y) => y.size - x.size);
     for (const p of parts) reasons.push(p.text);
@@ -127,7 +140,9 @@ export function verdict(
         `Crosstalk is what closes the eye: at the best setting ${who} take ${mV(closure)}; without them the headroom would be ${mV(without)}, meeting the required ${mV(required)}. No DFE cancels crosstalk.`,
       );
     } else if (closure > noise) {
-      reasons.push(`Crosstalk costs more headroom than noise: ${who} take ${mV(closure)} of the eye at BER ${ber}, the noise ${mV(noise)}. No DFE cancels crosstalk.`);
+      reasons.push(
+        `Crosstalk costs more headroom than noise: ${who} take ${mV(closure)} of the eye at BER ${ber}, the noise ${mV(noise)}. No DFE cancels crosstalk.`,
+      );
     }
   }
   if (space.dfeCount > 0) {
@@ -138,7 +153,9 @@ export function verdict(
           : `With the DFE (${space.dfeCount} taps) the headroom is ${mV(dfe)}.`,
       );
     } else {
-      reasons.push(`Even with ${space.dfeCount} DFE taps the headroom is ${mV(dfe)}, short of the required ${mV(required)}: the link does not close with this budget.`);
+      reasons.push(
+        `Even with ${space.dfeCount} DFE taps the headroom is ${mV(dfe)}, short of the required ${mV(required)}: the link does not close with this budget.`,
+      );
     }
   }
   const propagation = full.errorPropagation;

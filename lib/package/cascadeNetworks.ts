@@ -11,8 +11,10 @@ export function checkNetwork(net: NetworkData, name = "net"): void {
   if (!Number.isInteger(n) || n < 1) throw new RangeError(`${name}.ports must be an integer ≥ 1, got ${String(n)}`);
   const count = net.freqs_Hz.length;
   if (count < 1) throw new RangeError(`${name} must hold at least one frequency`);
-  if (net.s.length !== 2 * count * n * n) throw new RangeError(`${name}.s must hold ${2 * count * n * n} numbers, got ${net.s.length}`);
-  for (let i = 0; i < net.s.length; i++) if (!Number.isFinite(net.s[i])) throw new RangeError(`${name}.s holds a value that is not finite`);
+  if (net.s.length !== 2 * count * n * n)
+    throw new RangeError(`${name}.s must hold ${2 * count * n * n} numbers, got ${net.s.length}`);
+  for (let i = 0; i < net.s.length; i++)
+    if (!Number.isFinite(net.s[i])) throw new RangeError(`${name}.s holds a value that is not finite`);
   if (net.referenceOhms.length !== n) throw new RangeError(`${name}.referenceOhms must hold one impedance per port`);
 }
 
@@ -48,7 +50,9 @@ export function cascadeNetworks(a: NetworkData, b: NetworkData): NetworkData {
     const ra = a.referenceOhms[N + i];
     const rb = b.referenceOhms[i];
     if (Math.abs(ra - rb) > 1e-9 * ra) {
-      throw new RangeError(`port ${N + i + 1} of a (${ra} Ω) and port ${i + 1} of b (${rb} Ω) have different reference impedances; renormalize first`);
+      throw new RangeError(
+        `port ${N + i + 1} of a (${ra} Ω) and port ${i + 1} of b (${rb} Ω) have different reference impedances; renormalize first`,
+      );
     }
   }
   if (N === 1) return cascadeTwoPorts(a, b);
@@ -90,7 +94,10 @@ function cascadeTwoPorts(a: NetworkData, b: NetworkData): NetworkData {
     const den = dr * dr + di * di;
     const ur = dr / den;
     const ui = -di / den;
-    const mul = (xr: number, xi: number, yr: number, yi: number): [number, number] => [xr * yr - xi * yi, xr * yi + xi * yr];
+    const mul = (xr: number, xi: number, yr: number, yi: number): [number, number] => [
+      xr * yr - xi * yi,
+      xr * yi + xi * yr,
+    ];
     const [t21r, t21i] = mul(...mul(b21r, b21i, ur, ui), a21r, a21i);
     const [t12r, t12i] = mul(...mul(a12r, a12i, ur, ui), b12r, b12i);
     const [r11r, r11i] = mul(...mul(...mul(a12r, a12i, b11r, b11i), ur, ui), a21r, a21i);
@@ -104,5 +111,10 @@ function cascadeTwoPorts(a: NetworkData, b: NetworkData): NetworkData {
     s[o + 6] = b22r + r22r;
     s[o + 7] = b22i + r22i;
   }
-  return { ports: 2, freqs_Hz: Float64Array.from(a.freqs_Hz), s, referenceOhms: Float64Array.of(a.referenceOhms[0], b.referenceOhms[1]) };
+  return {
+    ports: 2,
+    freqs_Hz: Float64Array.from(a.freqs_Hz),
+    s,
+    referenceOhms: Float64Array.of(a.referenceOhms[0], b.referenceOhms[1]),
+  };
 }

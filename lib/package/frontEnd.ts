@@ -17,7 +17,10 @@ export interface FrontEnd {
 
 /** True when `frontEnd` changes nothing (no package, no bandwidth filter). */
 export function isNeutralFrontEnd(frontEnd: FrontEnd | undefined): boolean {
-  return frontEnd === undefined || (frontEnd.txPackage === undefined && frontEnd.rxPackage === undefined && frontEnd.rxBandwidth_Hz === undefined);
+  return (
+    frontEnd === undefined ||
+    (frontEnd.txPackage === undefined && frontEnd.rxPackage === undefined && frontEnd.rxBandwidth_Hz === undefined)
+  );
 }
 
 /** Throws RangeError naming the field unless `frontEnd` is usable. */
@@ -26,7 +29,8 @@ export function checkFrontEnd(frontEnd: FrontEnd, name = "frontEnd"): void {
   if (frontEnd.txPackage !== undefined) checkPackageModel(frontEnd.txPackage, `${name}.txPackage`);
   if (frontEnd.rxPackage !== undefined) checkPackageModel(frontEnd.rxPackage, `${name}.rxPackage`);
   const bw = frontEnd.rxBandwidth_Hz;
-  if (bw !== undefined && !(Number.isFinite(bw) && bw > 0)) throw new RangeError(`${name}.rxBandwidth_Hz must be a finite number > 0, got ${String(bw)}`);
+  if (bw !== undefined && !(Number.isFinite(bw) && bw > 0))
+    throw new RangeError(`${name}.rxBandwidth_Hz must be a finite number > 0, got ${String(bw)}`);
 }
 
 /**

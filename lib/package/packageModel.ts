@@ -49,10 +49,14 @@ export function checkPackageModel(model: PackageModel, name = "package"): void {
       throw new RangeError(`${name}.${key} must be a capacitance 0…1 nF in farads, got ${String(model[key])}`);
     }
   }
-  checkLineSegment({ length_m: model.traceLength_m, impedance_Ohm: model.traceImpedance_Ohm, loss: model.traceLoss }, name);
+  checkLineSegment(
+    { length_m: model.traceLength_m, impedance_Ohm: model.traceImpedance_Ohm, loss: model.traceLoss },
+    name,
+  );
   for (const key of ["termination_Ohm", "reference_Ohm"] as const) {
     const v = model[key];
-    if (v !== undefined && !(Number.isFinite(v) && v > 0)) throw new RangeError(`${name}.${key} must be a finite resistance > 0, got ${String(v)}`);
+    if (v !== undefined && !(Number.isFinite(v) && v > 0))
+      throw new RangeError(`${name}.${key} must be a finite resistance > 0, got ${String(v)}`);
   }
 }
 
@@ -72,7 +76,9 @@ export function packageNetwork(model: PackageModel, freqs_Hz: ArrayLike<number>,
   const die = shuntCapacitance(model.dieCapacitance_F, freqs_Hz, r0);
   const pad = shuntCapacitance(model.padCapacitance_F, freqs_Hz, r0);
   const line = transmissionLine(trace, freqs_Hz, r0);
-  return side === "tx" ? cascadeNetworks(cascadeNetworks(die, line), pad) : cascadeNetworks(cascadeNetworks(pad, line), die);
+  return side === "tx"
+    ? cascadeNetworks(cascadeNetworks(die, line), pad)
+    : cascadeNetworks(cascadeNetworks(pad, line), die);
 }
 
 /** Γ of the die's termination against the reference: `(R_d − R_0)/(R_d + R_0)`. */

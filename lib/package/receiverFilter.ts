@@ -35,7 +35,8 @@ export function receiverFilter(bandwidth_Hz: number, freqs_Hz: ArrayLike<number>
   const h = new Float64Array(2);
   for (let k = 0; k < freqs_Hz.length; k++) {
     const f = freqs_Hz[k];
-    if (!(Number.isFinite(f) && f >= 0)) throw new RangeError(`freqs_Hz[${k}] must be a finite number ≥ 0, got ${String(f)}`);
+    if (!(Number.isFinite(f) && f >= 0))
+      throw new RangeError(`freqs_Hz[${k}] must be a finite number ≥ 0, got ${String(f)}`);
     receiverFilterAt(bandwidth_Hz, f, h);
     re[k] = h[0];
     im[k] = h[1];

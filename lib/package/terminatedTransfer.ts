@@ -14,8 +14,10 @@ import { checkNetwork } from "./cascadeNetworks.ts";
  */
 export function reflectionCoefficient(z_Ohm: readonly [number, number], reference_Ohm: number): [number, number] {
   const [zr, zi] = z_Ohm;
-  if (!(Number.isFinite(zr) && zr >= 0 && Number.isFinite(zi))) throw new RangeError(`z_Ohm must be [re ≥ 0, im] finite, got [${zr}, ${zi}]`);
-  if (!(Number.isFinite(reference_Ohm) && reference_Ohm > 0)) throw new RangeError(`reference_Ohm must be a finite number > 0, got ${reference_Ohm}`);
+  if (!(Number.isFinite(zr) && zr >= 0 && Number.isFinite(zi)))
+    throw new RangeError(`z_Ohm must be [re ≥ 0, im] finite, got [${zr}, ${zi}]`);
+  if (!(Number.isFinite(reference_Ohm) && reference_Ohm > 0))
+    throw new RangeError(`reference_Ohm must be a finite number > 0, got ${reference_Ohm}`);
   const nr = zr - reference_Ohm;
   const dr = zr + reference_Ohm;
   const den = dr * dr + zi * zi;
@@ -37,8 +39,12 @@ export function reflectionCoefficient(z_Ohm: readonly [number, number], referenc
 export function terminatedTransfer(net: NetworkData, sourceGamma: number, loadGamma: number): ComplexArray {
   checkNetwork(net);
   if (net.ports !== 2) throw new RangeError(`net must be a 2-port, it has ${net.ports} ports`);
-  for (const [name, g] of [["sourceGamma", sourceGamma], ["loadGamma", loadGamma]] as const) {
-    if (!(Number.isFinite(g) && Math.abs(g) < 1)) throw new RangeError(`${name} must be a number with |Γ| < 1, got ${String(g)}`);
+  for (const [name, g] of [
+    ["sourceGamma", sourceGamma],
+    ["loadGamma", loadGamma],
+  ] as const) {
+    if (!(Number.isFinite(g) && Math.abs(g) < 1))
+      throw new RangeError(`${name} must be a number with |Γ| < 1, got ${String(g)}`);
   }
   const count = net.freqs_Hz.length;
   const re = new Float64Array(count);

@@ -33,7 +33,8 @@ export function checkLineSegment(line: LineSegment, name = "line"): void {
   const l = line.loss;
   if (l === null || typeof l !== "object") throw new TypeError(`${name}.loss must be an object`);
   for (const key of ["skinAt1GHz_NpPerM", "dielectricAt1GHz_NpPerM"] as const) {
-    if (!(Number.isFinite(l[key]) && l[key] >= 0)) throw new RangeError(`${name}.loss.${key} must be a finite number ≥ 0, got ${String(l[key])}`);
+    if (!(Number.isFinite(l[key]) && l[key] >= 0))
+      throw new RangeError(`${name}.loss.${key} must be a finite number ≥ 0, got ${String(l[key])}`);
   }
   if (!(Number.isFinite(l.delay_sPerM) && l.delay_sPerM > 0)) {
     throw new RangeError(`${name}.loss.delay_sPerM must be a finite number > 0, got ${String(l.delay_sPerM)}`);

@@ -9,7 +9,8 @@ export function checkGrid(freqs_Hz: ArrayLike<number>, reference_Ohm: number): v
   if (freqs_Hz.length < 1) throw new RangeError("freqs_Hz must hold at least one frequency");
   for (let k = 0; k < freqs_Hz.length; k++) {
     const f = freqs_Hz[k];
-    if (!(Number.isFinite(f) && f >= 0)) throw new RangeError(`freqs_Hz[${k}] must be a finite number ≥ 0, got ${String(f)}`);
+    if (!(Number.isFinite(f) && f >= 0))
+      throw new RangeError(`freqs_Hz[${k}] must be a finite number ≥ 0, got ${String(f)}`);
   }
   if (!(Number.isFinite(reference_Ohm) && reference_Ohm > 0)) {
     throw new RangeError(`reference_Ohm must be a finite resistance > 0, got ${String(reference_Ohm)}`);
@@ -20,7 +21,11 @@ export function checkGrid(freqs_Hz: ArrayLike<number>, reference_Ohm: number): v
  * A 2-port on `freqs_Hz` (both ports referred to `reference_Ohm`) whose S-matrix at each frequency
  * `formula` writes; port 1 is the left side, port 2 the right.
  */
-export function twoPortNetwork(freqs_Hz: ArrayLike<number>, reference_Ohm: number, formula: TwoPortFormula): NetworkData {
+export function twoPortNetwork(
+  freqs_Hz: ArrayLike<number>,
+  reference_Ohm: number,
+  formula: TwoPortFormula,
+): NetworkData {
   checkGrid(freqs_Hz, reference_Ohm);
   const count = freqs_Hz.length;
   const s = new Float64Array(8 * count);
@@ -29,7 +34,12 @@ export function twoPortNetwork(freqs_Hz: ArrayLike<number>, reference_Ohm: numbe
     formula(freqs_Hz[k], out);
     s.set(out, 8 * k);
   }
-  return { ports: 2, freqs_Hz: Float64Array.from(freqs_Hz), s, referenceOhms: Float64Array.of(reference_Ohm, reference_Ohm) };
+  return {
+    ports: 2,
+    freqs_Hz: Float64Array.from(freqs_Hz),
+    s,
+    referenceOhms: Float64Array.of(reference_Ohm, reference_Ohm),
+  };
 }
 
 /**
@@ -42,7 +52,11 @@ export function twoPortNetwork(freqs_Hz: ArrayLike<number>, reference_Ohm: numbe
  * @param reference_Ohm - reference impedance in ohms (> 0).
  * @see IEEE 802.3, Annex 93A, eq. 93A-8 (the package's shunt capacitances) [memory: recalled, not re-read].
  */
-export function shuntCapacitance(capacitance_F: number, freqs_Hz: ArrayLike<number>, reference_Ohm: number): NetworkData {
+export function shuntCapacitance(
+  capacitance_F: number,
+  freqs_Hz: ArrayLike<number>,
+  reference_Ohm: number,
+): NetworkData {
   if (!(Number.isFinite(capacitance_F) && capacitance_F >= 0)) {
     throw new RangeError(`capacitance_F must be a finite number ≥ 0, got ${String(capacitance_F)}`);
   }

@@ -42,17 +42,22 @@ export interface DfeAdaptation {
  */
 export function dfeAdaptation(cursors: Cursors, options: DfeAdaptationOptions): DfeAdaptation {
   const { h, main } = cursors;
-  if (!(h instanceof Float64Array) || h.length === 0) throw new RangeError("cursors.h must be a non-empty Float64Array");
-  if (!Number.isInteger(main) || main < 0 || main >= h.length) throw new RangeError(`cursors.main must index cursors.h, got ${main}`);
+  if (!(h instanceof Float64Array) || h.length === 0)
+    throw new RangeError("cursors.h must be a non-empty Float64Array");
+  if (!Number.isInteger(main) || main < 0 || main >= h.length)
+    throw new RangeError(`cursors.main must index cursors.h, got ${main}`);
   const n = options.taps;
   if (!Number.isInteger(n) || n < 1 || n > 64) throw new RangeError(`taps must be an integer 1…64, got ${String(n)}`);
   if (options.limits_V.length < n) throw new RangeError(`limits_V must hold ${n} limits`);
-  if (!(Number.isFinite(options.noiseRms_V) && options.noiseRms_V >= 0)) throw new RangeError("noiseRms_V must be a finite number ≥ 0");
-  if (!(Number.isFinite(options.mu) && options.mu > 0)) throw new RangeError(`mu must be a finite number > 0, got ${options.mu}`);
+  if (!(Number.isFinite(options.noiseRms_V) && options.noiseRms_V >= 0))
+    throw new RangeError("noiseRms_V must be a finite number ≥ 0");
+  if (!(Number.isFinite(options.mu) && options.mu > 0))
+    throw new RangeError(`mu must be a finite number > 0, got ${options.mu}`);
   if (!Number.isInteger(options.iterations) || options.iterations < 1 || options.iterations > 1e7) {
     throw new RangeError(`iterations must be an integer 1…1e7, got ${String(options.iterations)}`);
   }
-  if (options.variant !== "lms" && options.variant !== "sign-sign") throw new RangeError(`variant must be "lms" or "sign-sign"`);
+  if (options.variant !== "lms" && options.variant !== "sign-sign")
+    throw new RangeError(`variant must be "lms" or "sign-sign"`);
   const every = options.every ?? Math.max(1, Math.ceil(options.iterations / 100));
   if (!Number.isInteger(every) || every < 1) throw new RangeError(`every must be an integer ≥ 1, got ${String(every)}`);
   const rng = seededRandom(options.seed);

@@ -126,7 +126,11 @@ function eyeFigure(pulse: Pulse, eye: StatisticalEye, phase: number, space: Sear
   // the statistical eye's noise and jitter folded in, so the picture closes where the contours do.
   const bare = densityEye(pulse, symbols, { ...IMAGE, phase });
   const top = bare.voltage_V[0] + 0.5 * Math.abs(bare.voltage_V[0] - bare.voltage_V[1]) + 4 * eye.noiseRms_V;
-  const img = noisyDensityEye(densityEye(pulse, symbols, { ...IMAGE, phase, voltageRange_V: [-top, top] }), eye.noiseRms_V, eye.jitter);
+  const img = noisyDensityEye(
+    densityEye(pulse, symbols, { ...IMAGE, phase, voltageRange_V: [-top, top] }),
+    eye.noiseRms_V,
+    eye.jitter,
+  );
   const spu = pulse.samplesPerUi;
   const phases = Float64Array.from(img.time_UI, (t) => phase + t * spu);
   const map = berMap(eye, phases, img.voltage_V);

@@ -14,7 +14,10 @@ import { FftPlan, type ComplexArray } from "./fftPlan.ts";
  * @see Oppenheim & Schafer, *Discrete-Time Signal Processing*, 3rd ed., §13 (homomorphic
  *   deconvolution: the minimum-phase sequence from the folded real cepstrum).
  */
-export function minimumPhaseSpectrum(logMagnitude: Float64Array, size: number): ComplexArray & { readonly phase_rad: Float64Array } {
+export function minimumPhaseSpectrum(
+  logMagnitude: Float64Array,
+  size: number,
+): ComplexArray & { readonly phase_rad: Float64Array } {
   if (!Number.isInteger(size) || size < 4 || (size & (size - 1)) !== 0) {
     throw new RangeError(`size must be a power of two ≥ 4, got ${String(size)}`);
   }

@@ -75,7 +75,8 @@ export function lmsAdapt(cursors: Cursors, pre: number, post: number, options: L
   if (options.initial === undefined) {
     c[pre] = 1;
   } else {
-    if (options.initial.length !== n) throw new RangeError(`initial must hold ${n} taps, got ${options.initial.length}`);
+    if (options.initial.length !== n)
+      throw new RangeError(`initial must hold ${n} taps, got ${options.initial.length}`);
     for (let j = 0; j < n; j++) {
       if (!Number.isFinite(options.initial[j])) throw new RangeError(`initial[${j}] must be finite`);
       c[j] = options.initial[j];

@@ -59,21 +59,29 @@ export interface MmseDfeResult {
 export function mmseDfe(cursors: Cursors, options: MmseDfeOptions): MmseDfeResult {
   const { pre, post, feedbackTaps } = options;
   checkCursorWindow(cursors, pre, post);
-  if (!Number.isInteger(feedbackTaps) || feedbackTaps < 0) throw new RangeError(`feedbackTaps must be an integer ≥ 0, got ${String(feedbackTaps)}`);
+  if (!Number.isInteger(feedbackTaps) || feedbackTaps < 0)
+    throw new RangeError(`feedbackTaps must be an integer ≥ 0, got ${String(feedbackTaps)}`);
   const cancelled = options.cancelled;
-  if (cancelled !== undefined && cancelled.length !== feedbackTaps) throw new RangeError(`cancelled must hold ${feedbackTaps} flags, one per feedback tap`);
+  if (cancelled !== undefined && cancelled.length !== feedbackTaps)
+    throw new RangeError(`cancelled must hold ${feedbackTaps} flags, one per feedback tap`);
   const es = options.symbolPower ?? 1;
-  if (!(Number.isFinite(es) && es > 0)) throw new RangeError(`symbolPower must be a finite number > 0, got ${String(es)}`);
+  if (!(Number.isFinite(es) && es > 0))
+    throw new RangeError(`symbolPower must be a finite number > 0, got ${String(es)}`);
   const r = options.noiseCorrelation_V2;
   if (r.length === 0) throw new RangeError("noiseCorrelation_V2 must hold at least r[0]");
-  for (let m = 0; m < r.length; m++) if (!Number.isFinite(r[m])) throw new RangeError(`noiseCorrelation_V2[${m}] is not finite`);
+  for (let m = 0; m < r.length; m++)
+    if (!Number.isFinite(r[m])) throw new RangeError(`noiseCorrelation_V2[${m}] is not finite`);
   if (!(r[0] >= 0)) throw new RangeError(`noiseCorrelation_V2[0] is a variance and must be ≥ 0, got ${r[0]}`);
   const n = pre + 1 + post;
   const H = convolutionMatrix(cursors.h, n);
   const d = cursors.main + pre;
   const kept: number[] = [];
-  for (let i = 0; i < H.rows; i++) if (i <= d || i > d + feedbackTaps || (cancelled !== undefined && !cancelled[i - d - 1])) kept.push(i);
-  const Ht = H.selection(kept, Array.from({ length: n }, (_, j) => j));
+  for (let i = 0; i < H.rows; i++)
+    if (i <= d || i > d + feedbackTaps || (cancelled !== undefined && !cancelled[i - d - 1])) kept.push(i);
+  const Ht = H.selection(
+    kept,
+    Array.from({ length: n }, (_, j) => j),
+  );
   const Rn = noiseToeplitz(r, n);
   const R = Ht.transpose().mmul(Ht).mul(es).add(Rn);
   const row = kept.indexOf(d);
@@ -96,7 +104,8 @@ export function mmseDfe(cursors: Cursors, options: MmseDfeOptions): MmseDfeResul
 /** The n × n Toeplitz matrix `R[i][j] = r[|i − j|]` (0 beyond the given lags). */
 export function noiseToeplitz(r: ArrayLike<number>, n: number): Matrix {
   const m = new Matrix(n, n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) m.set(i, j, Math.abs(i - j) < r.length ? r[Math.abs(i - j)] : 0);
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++) m.set(i, j, Math.abs(i - j) < r.length ? r[Math.abs(i - j)] : 0);
   return m;
 }
 

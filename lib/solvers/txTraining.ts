@@ -158,7 +158,12 @@ function brokenLimit(link: TrainingLink, next: Int32Array, j: number, dir: numbe
 }
 
 /** Per tap, the limit that refuses an improving change of it (alone or paired), at the end of training. */
-function saturationOf(link: TrainingLink, moves: readonly Move[], steps: Int32Array, improves: (value: number) => boolean): TapSaturation[] {
+function saturationOf(
+  link: TrainingLink,
+  moves: readonly Move[],
+  steps: Int32Array,
+  improves: (value: number) => boolean,
+): TapSaturation[] {
   const saturation: TapSaturation[] = new Array(steps.length).fill("none");
   for (const move of moves) {
     const next = applyMove(link, steps, move);
@@ -191,7 +196,8 @@ export function txTraining(cursors: Cursors, options: TxTrainingOptions): TxTrai
   const ranges = resolveTapRanges(spec);
   checkCursorWindow(cursors, spec.pre, spec.post);
   const noise = options.noiseRms_V ?? 0;
-  if (!(noise >= 0) || !Number.isFinite(noise)) throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${String(noise)}`);
+  if (!(noise >= 0) || !Number.isFinite(noise))
+    throw new RangeError(`noiseRms_V must be a finite number ≥ 0, got ${String(noise)}`);
   const dfe = options.dfeTaps ?? 0;
   if (!Number.isInteger(dfe) || dfe < 0) throw new RangeError(`dfeTaps must be an integer ≥ 0, got ${String(dfe)}`);
   const maxRounds = options.maxRounds ?? 10_000;

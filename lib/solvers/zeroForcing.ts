@@ -80,12 +80,18 @@ export function zeroForcing(
   let taps = Float64Array.from(x.getColumn(0));
   let equalized = convolveCursors(cursors, taps, pre);
   const scale =
-    normalize === "peak-swing" ? 1 / taps.reduce((s, c) => s + Math.abs(c), 0) : rows === n ? 1 : 1 / equalized.h[equalized.main];
-  if (!Number.isFinite(scale)) throw new RangeError("zero-forcing taps cannot be normalized (zero main cursor or taps)");
+    normalize === "peak-swing"
+      ? 1 / taps.reduce((s, c) => s + Math.abs(c), 0)
+      : rows === n
+        ? 1
+        : 1 / equalized.h[equalized.main];
+  if (!Number.isFinite(scale))
+    throw new RangeError("zero-forcing taps cannot be normalized (zero main cursor or taps)");
   if (scale !== 1) {
     taps = taps.map((c) => c * scale);
     equalized = convolveCursors(cursors, taps, pre);
   }
-  for (const v of taps) if (!Number.isFinite(v)) throw new RangeError("cursors give an ill-conditioned zero-forcing system");
+  for (const v of taps)
+    if (!Number.isFinite(v)) throw new RangeError("cursors give an ill-conditioned zero-forcing system");
   return { taps, equalized };
 }

@@ -60,7 +60,8 @@ function checkCandidate(a: ArchitectureCandidate, i: number): void {
   };
   counts(a.tx, "tx", 12);
   counts(a.ffe, "ffe", 24);
-  if (!Number.isInteger(a.dfeTaps) || a.dfeTaps < 0 || a.dfeTaps > 32) throw new RangeError(`${name}.dfeTaps must be an integer 0…32`);
+  if (!Number.isInteger(a.dfeTaps) || a.dfeTaps < 0 || a.dfeTaps > 32)
+    throw new RangeError(`${name}.dfeTaps must be an integer 0…32`);
   if (typeof a.ctle !== "boolean") throw new RangeError(`${name}.ctle must be true or false`);
 }
 
@@ -93,10 +94,12 @@ export function evaluateArchitectures(
 ): ArchitectureOutcome[] {
   const members = commonGrid(pulses);
   const memberAggressors = aggressorsOnGrid(members, aggressors);
-  if (!Array.isArray(candidates) || candidates.length === 0) throw new RangeError("candidates must hold at least one architecture");
+  if (!Array.isArray(candidates) || candidates.length === 0)
+    throw new RangeError("candidates must hold at least one architecture");
   candidates.forEach(checkCandidate);
   const b = resolveBudget(budget);
-  const groupKey = (c: ArchitectureCandidate) => JSON.stringify([c.tx, c.ctle, c.ffe, c.ffe === null ? null : c.dfeTaps]);
+  const groupKey = (c: ArchitectureCandidate) =>
+    JSON.stringify([c.tx, c.ctle, c.ffe, c.ffe === null ? null : c.dfeTaps]);
   const groups = new Map<string, { cand: ArchitectureCandidate; counts: Set<number> }>();
   for (const c of candidates) {
     const key = groupKey(c);
@@ -131,7 +134,12 @@ export function evaluateArchitectures(
     const per = list.map(() => [] as number[]);
     members.forEach((pulse, i) => {
       const space = searchSpace(pulse, derived);
-      const r = jointSearch(pulse, space, { dfeCounts: list, topCount: 1 }, prepareChannels(pulse, space, memberAggressors[i]));
+      const r = jointSearch(
+        pulse,
+        space,
+        { dfeCounts: list, topCount: 1 },
+        prepareChannels(pulse, space, memberAggressors[i]),
+      );
       r.best.forEach((c, j) => per[j].push(c === null ? Number.NEGATIVE_INFINITY : c.limiterHeadroom_V));
       done++;
       onProgress(done / total);

@@ -26,8 +26,18 @@ export interface OwnOptimum {
  */
 export function ownOptimum(pulse: Pulse, budget: BudgetInput, prepared?: PreparedChannels): OwnOptimum {
   const space = searchSpace(pulse, budget);
-  const r = jointSearch(pulse, space, { dfeCounts: [space.dfeCount], topCount: 1 }, prepared ?? prepareChannels(pulse, space));
+  const r = jointSearch(
+    pulse,
+    space,
+    { dfeCounts: [space.dfeCount], topCount: 1 },
+    prepared ?? prepareChannels(pulse, space),
+  );
   const best = r.best[0];
-  if (best === null) throw new RangeError("budget.tx: no transmit FIR setting satisfies the tap ranges, the step and Σ|c| ≤ 1");
-  return { taps: Array.from(best.taps), ctle: { gDc_dB: best.ctle.gDc_dB, gDc2_dB: best.ctle.gDc2_dB }, limiterHeadroom_V: best.limiterHeadroom_V };
+  if (best === null)
+    throw new RangeError("budget.tx: no transmit FIR setting satisfies the tap ranges, the step and Σ|c| ≤ 1");
+  return {
+    taps: Array.from(best.taps),
+    ctle: { gDc_dB: best.ctle.gDc_dB, gDc2_dB: best.ctle.gDc2_dB },
+    limiterHeadroom_V: best.limiterHeadroom_V,
+  };
 }

@@ -29,7 +29,10 @@ export interface ChannelUnderDefault {
   /** The channel's adapted receive FFE taps with the default (null: the budget has no FFE). */
   readonly ffeTaps: number[] | null;
   /** Its aggressors with the default: crosstalk rms at the sampler, per aggressor (null: none). */
-  readonly crosstalk: { readonly rms_V: number; readonly perAggressor: { readonly name: string; readonly rms_V: number; readonly phase_UI: number }[] } | null;
+  readonly crosstalk: {
+    readonly rms_V: number;
+    readonly perAggressor: { readonly name: string; readonly rms_V: number; readonly phase_UI: number }[];
+  } | null;
   /** The channel's own optimum on the budget's grid (its best setting alone). */
   readonly ownHeadroom_V: number;
   readonly own: { readonly tx: number[]; readonly ctle: { readonly gDc_dB: number; readonly gDc2_dB: number } };
@@ -86,7 +89,9 @@ export function commonGrid(pulses: readonly Pulse[]): Pulse[] {
   const ref = pulses[0];
   return pulses.map((p, i) => {
     if (Math.abs(p.ui_s / ref.ui_s - 1) > 0.01) {
-      throw new RangeError(`pulses[${i}].ui_s ${p.ui_s} s differs from pulses[0] (${ref.ui_s} s): one class has one bit rate`);
+      throw new RangeError(
+        `pulses[${i}].ui_s ${p.ui_s} s differs from pulses[0] (${ref.ui_s} s): one class has one bit rate`,
+      );
     }
     if (p.samplesPerUi === ref.samplesPerUi) return p;
     const dtIn = p.ui_s / p.samplesPerUi;
@@ -102,7 +107,10 @@ export function commonGrid(pulses: readonly Pulse[]): Pulse[] {
  * empty lists when none are given.
  * @throws RangeError unless there is one list per member.
  */
-export function aggressorsOnGrid(members: readonly Pulse[], given: readonly (readonly LinkAggressor[])[] | undefined): LinkAggressor[][] {
+export function aggressorsOnGrid(
+  members: readonly Pulse[],
+  given: readonly (readonly LinkAggressor[])[] | undefined,
+): LinkAggressor[][] {
   if (given !== undefined && given.length !== members.length) {
     throw new RangeError(`aggressors must hold one list per pulse (${members.length}), got ${given.length}`);
   }
@@ -138,22 +146,30 @@ interface Evaluated {
  * @param options - register map, progress, the members' budgets, their own optima when known, each
  *   member's aggressors.
  */
-export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput, options: PopulationOptions = {}): PopulationResult {
+export function populationDefault(
+  pulses: readonly Pulse[],
+  budget: BudgetInput,
+  options: PopulationOptions = {},
+): PopulationResult {
   const members = commonGrid(pulses);
   const space = searchSpace(members[0], budget);
   const report = options.onProgress ?? (() => {});
   const dfeCount = space.dfeCount;
   const memberCount = members.length;
   if (options.memberBudgets !== undefined && options.memberBudgets.length !== memberCount) {
-    throw new RangeError(`memberBudgets must hold one budget per pulse (${memberCount}), got ${options.memberBudgets.length}`);
+    throw new RangeError(
+      `memberBudgets must hold one budget per pulse (${memberCount}), got ${options.memberBudgets.length}`,
+    );
   }
-  if (options.own !== undefined && options.own.length !== memberCount) throw new RangeError(`own must hold one optimum per pulse (${memberCount}), got ${options.own.length}`);
+  if (options.own !== undefined && options.own.length !== memberCount)
+    throw new RangeError(`own must hold one optimum per pulse (${memberCount}), got ${options.own.length}`);
   const spaces = members.map((p, i) => {
     const given = options.memberBudgets?.[i];
     if (given === undefined) return space;
     const s = searchSpace(p, given);
     const differs = sharedGridMismatch(space, s);
-    if (differs !== null) throw new RangeError(`memberBudgets[${i}].${differs} differs from budget's; a class's members share the grids`);
+    if (differs !== null)
+      throw new RangeError(`memberBudgets[${i}].${differs} differs from budget's; a class's members share the grids`);
     return s;
   });
   const aggressors = aggressorsOnGrid(members, options.aggressors);
@@ -166,7 +182,12 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
       report(0.05 + (0.45 * (i + 1)) / memberCount);
       return o;
     });
-  const pop = jointSearch(members[0], space, { dfeCounts: [dfeCount], topCount: 1, onProgress: (f) => report(0.5 + 0.4 * f) }, prepared);
+  const pop = jointSearch(
+    members[0],
+    space,
+    { dfeCounts: [dfeCount], topCount: 1, onProgress: (f) => report(0.5 + 0.4 * f) },
+    prepared,
+  );
   const best = pop.best[0] as Candidate;
 
   const asSetting = (c: { taps: ArrayLike<number>; ctle: { gDc_dB: number; gDc2_dB: number } }): EqualizerSetting => ({
@@ -178,7 +199,9 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
   const map = options.registerMap;
   const evaluate = (s: EqualizerSetting): Evaluated => {
     const onGrid = space.ctleSettings.findIndex((x) => x.gDc_dB === s.ctle.gDc_dB && x.gDc2_dB === s.ctle.gDc2_dB);
-    const channels = members.map((p, i) => (onGrid >= 0 ? prepared[i].channels[onGrid] : channelFor(p, spaces[i], s.ctle, aggressors[i])));
+    const channels = members.map((p, i) =>
+      onGrid >= 0 ? prepared[i].channels[onGrid] : channelFor(p, spaces[i], s.ctle, aggressors[i]),
+    );
     const eyes = channels.map((ch, i) => evaluateSetting(ch, spaces[i], s.tx, dfeCount));
     let worstIndex = 0;
     eyes.forEach((e, i) => {
@@ -212,7 +235,11 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
   const dfeStart = Array.from({ length: dfeCount }, (_, k) => centre(chosen.eyes.map((e) => e.dfeTaps[k])));
   const ffeSpec = space.ffe;
   const ffeStart =
-    ffeSpec === null ? null : Array.from({ length: ffeSpec.pre + 1 + ffeSpec.post }, (_, k) => centre(chosen.channels.map((c) => (c.ffe as ReceiveFfe).taps[k])));
+    ffeSpec === null
+      ? null
+      : Array.from({ length: ffeSpec.pre + 1 + ffeSpec.post }, (_, k) =>
+          centre(chosen.channels.map((c) => (c.ffe as ReceiveFfe).taps[k])),
+        );
   if (map !== undefined && codes !== null && values !== null) {
     for (const f of map) {
       const d = /^dfe\[(\d+)\]$/.exec(f.parameter);
@@ -246,7 +273,10 @@ export function populationDefault(pulses: readonly Pulse[], budget: BudgetInput,
       samplingPhase_UI: e.phase / spu,
       dfeTaps: Array.from(e.dfeTaps),
       ffeTaps: chosen.channels[i].ffe === null ? null : Array.from((chosen.channels[i].ffe as ReceiveFfe).taps),
-      crosstalk: e.crosstalk === null ? null : { rms_V: e.crosstalk.rms_V, perAggressor: e.crosstalk.perAggressor.map((x) => ({ ...x })) },
+      crosstalk:
+        e.crosstalk === null
+          ? null
+          : { rms_V: e.crosstalk.rms_V, perAggressor: e.crosstalk.perAggressor.map((x) => ({ ...x })) },
       ownHeadroom_V: own[i].limiterHeadroom_V,
       own: { tx: Array.from(own[i].taps, tidyTap), ctle: { gDc_dB: own[i].ctle.gDc_dB, gDc2_dB: own[i].ctle.gDc2_dB } },
     })),

@@ -51,7 +51,8 @@ export function quantizeSetting(setting: EqualizerSetting, map: readonly Registe
   const ffe = setting.ffe === undefined ? undefined : [...setting.ffe];
   const ctle = { ...setting.ctle };
   for (const f of map) {
-    if (seen.has(f.parameter)) throw new RangeError(`field ${f.name}: parameter ${f.parameter} appears twice in the map`);
+    if (seen.has(f.parameter))
+      throw new RangeError(`field ${f.name}: parameter ${f.parameter} appears twice in the map`);
     seen.add(f.parameter);
     const v = settingValue(setting, f.parameter);
     if (v === undefined) continue;

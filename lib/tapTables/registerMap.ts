@@ -43,7 +43,9 @@ export function codeRange(field: RegisterField): { lo: number; hi: number } {
   const lo = Math.max(repLo, Math.ceil(field.min / field.lsb - 1e-9));
   const hi = Math.min(repHi, Math.floor(field.max / field.lsb + 1e-9));
   if (lo > hi) {
-    throw new RangeError(`field ${field.name}: no ${field.bits}-bit code at LSB ${field.lsb} lies in [${field.min}, ${field.max}]`);
+    throw new RangeError(
+      `field ${field.name}: no ${field.bits}-bit code at LSB ${field.lsb} lies in [${field.min}, ${field.max}]`,
+    );
   }
   return { lo, hi };
 }
@@ -60,7 +62,9 @@ export function encodeField(field: RegisterField, value: number): number {
   if (!Number.isFinite(value)) throw new RangeError(`field ${field.name}: value must be finite, got ${value}`);
   const half = field.lsb / 2;
   if (value < lo * field.lsb - half - 1e-12 || value > hi * field.lsb + half + 1e-12) {
-    throw new RangeError(`field ${field.name}: ${value} ${field.unit} is outside [${lo * field.lsb}, ${hi * field.lsb}]`);
+    throw new RangeError(
+      `field ${field.name}: ${value} ${field.unit} is outside [${lo * field.lsb}, ${hi * field.lsb}]`,
+    );
   }
   return Math.min(hi, Math.max(lo, Math.round(value / field.lsb)));
 }
@@ -92,12 +96,15 @@ export function assertField(field: RegisterField): void {
   const name = typeof field.name === "string" ? field.name : "?";
   if (!/^[A-Za-z_][A-Za-z0-9_]*$/.test(name)) throw new RangeError(`field ${name}: name must be a C identifier`);
   if (typeof field.parameter !== "string" || !PARAMETER_PATTERN.test(field.parameter)) {
-    throw new RangeError(`field ${name}: parameter must be tx[k], ctle.gDc_dB, ctle.gDc2_dB, dfe[n] or ffe[k], got ${String(field.parameter)}`);
+    throw new RangeError(
+      `field ${name}: parameter must be tx[k], ctle.gDc_dB, ctle.gDc2_dB, dfe[n] or ffe[k], got ${String(field.parameter)}`,
+    );
   }
   if (!Number.isInteger(field.bits) || field.bits < 1 || field.bits > 32) {
     throw new RangeError(`field ${name}: bits must be an integer 1…32, got ${String(field.bits)}`);
   }
-  if (!(Number.isFinite(field.lsb) && field.lsb > 0)) throw new RangeError(`field ${name}: lsb must be a finite number > 0`);
+  if (!(Number.isFinite(field.lsb) && field.lsb > 0))
+    throw new RangeError(`field ${name}: lsb must be a finite number > 0`);
   if (!(Number.isFinite(field.min) && Number.isFinite(field.max) && field.min <= field.max)) {
     throw new RangeError(`field ${name}: min and max must be finite with min ≤ max`);
   }

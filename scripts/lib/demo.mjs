@@ -19,7 +19,10 @@ export function demoWanted(env) {
   const host = env.HOST ?? "127.0.0.1";
   return isLoopback(host)
     ? { seed: true, why: `HOST ${host} is loopback` }
-    : { seed: false, why: `HOST ${host} is reachable from other machines; set TAPWRIGHT_DEMO=1 to seed the demo anyway` };
+    : {
+        seed: false,
+        why: `HOST ${host} is reachable from other machines; set TAPWRIGHT_DEMO=1 to seed the demo anyway`,
+      };
 }
 
 /** Demo accounts that can still sign in (not deactivated), by e-mail. */
@@ -27,7 +30,9 @@ export async function activeDemoAccounts(databaseUrl) {
   const mysql = await import("mysql2/promise");
   const c = await mysql.createConnection({ uri: databaseUrl });
   try {
-    const [rows] = await c.query("SELECT email FROM users WHERE email IN (?) AND deactivated_at IS NULL", [DEMO_PEOPLE.map((p) => p.email)]);
+    const [rows] = await c.query("SELECT email FROM users WHERE email IN (?) AND deactivated_at IS NULL", [
+      DEMO_PEOPLE.map((p) => p.email),
+    ]);
     return rows.map((r) => r.email);
   } finally {
     await c.end();

@@ -10,7 +10,9 @@ import { log } from "./log.mjs";
 const stamp = join(root, "node_modules", ".tapwright-lock-sha256");
 
 function lockHash() {
-  return createHash("sha256").update(readFileSync(join(root, "package-lock.json"))).digest("hex");
+  return createHash("sha256")
+    .update(readFileSync(join(root, "package-lock.json")))
+    .digest("hex");
 }
 
 /** Runs `npm ci` when node_modules is missing or was installed from another package-lock.json. */

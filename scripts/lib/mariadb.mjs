@@ -140,7 +140,9 @@ async function rootConnection(db) {
 
 /** Root only as root@localhost (the socket) with the checkout's password; no anonymous accounts. */
 async function secureRoot(c) {
-  const [rows] = await c.query("SELECT User AS user, Host AS host FROM mysql.user WHERE (User = 'root' AND Host <> 'localhost') OR User = ''");
+  const [rows] = await c.query(
+    "SELECT User AS user, Host AS host FROM mysql.user WHERE (User = 'root' AND Host <> 'localhost') OR User = ''",
+  );
   for (const r of rows) await c.query(`DROP USER ${c.escape(r.user)}@${c.escape(r.host)}`);
   await c.query(`ALTER USER 'root'@'localhost' IDENTIFIED BY ${c.escape(rootPassword())}`);
   log("MariaDB: root now needs the password in .data/db-root-password and the socket; root over TCP is gone.");
@@ -231,8 +233,13 @@ export function placeFolder(dir, who, label = "MariaDB") {
   const linked = existsSync(dir) && lstatSync(dir).isSymbolicLink();
   const blocked = linked ? null : blockingAncestor(dir, who);
   if (blocked) {
-    const target = join("/var/lib/tapwright", `${label.toLowerCase()}-${createHash("sha256").update(resolve(dir)).digest("hex").slice(0, 12)}`);
-    log(`${label}: ${blocked} is closed to the ${who.name} account, so the server's files live in ${target} (linked from ${dir}).`);
+    const target = join(
+      "/var/lib/tapwright",
+      `${label.toLowerCase()}-${createHash("sha256").update(resolve(dir)).digest("hex").slice(0, 12)}`,
+    );
+    log(
+      `${label}: ${blocked} is closed to the ${who.name} account, so the server's files live in ${target} (linked from ${dir}).`,
+    );
     mkdirSync(dirname(target), { recursive: true, mode: 0o755 });
     if (existsSync(dir)) {
       rmSync(target, { recursive: true, force: true });
@@ -270,7 +277,8 @@ async function withLock(db, fn) {
     } catch {
       const holder = Number(readFileSync(lock, "utf8").trim() || 0);
       if (holder && !alive(holder)) rmSync(lock, { force: true });
-      else if (Date.now() > until) throw new Error(`MariaDB start lock ${lock} is held; remove it if no start is running.`);
+      else if (Date.now() > until)
+        throw new Error(`MariaDB start lock ${lock} is held; remove it if no start is running.`);
       await sleep(100);
     }
   }
@@ -326,16 +334,29 @@ export async function startMariadb(db) {
       if (who) chownSync(p.data, who.uid, who.gid);
       execFileSync(
         which("mariadb-install-db"),
-        ["--no-defaults", ...user, `--datadir=${p.data}`, "--auth-root-authentication-method=normal", "--skip-test-db", "--skip-name-resolve"],
+        [
+          "--no-defaults",
+          ...user,
+          `--datadir=${p.data}`,
+          "--auth-root-authentication-method=normal",
+          "--skip-test-db",
+          "--skip-name-resolve",
+        ],
         { stdio: ["ignore", "ignore", "inherit"] },
       );
       // A new server secures root before it takes its first connection.
       writeFileSync(p.init, initStatements(), { mode: 0o600 });
       if (who) chownSync(p.init, who.uid, who.gid);
     }
-    const testSpeed = process.env.TAPWRIGHT_DB_FAST === "1"
-      ? ["--innodb-buffer-pool-size=16M", "--innodb-log-file-size=8M", "--innodb-flush-log-at-trx-commit=0", "--innodb-doublewrite=0"]
-      : [];
+    const testSpeed =
+      process.env.TAPWRIGHT_DB_FAST === "1"
+        ? [
+            "--innodb-buffer-pool-size=16M",
+            "--innodb-log-file-size=8M",
+            "--innodb-flush-log-at-trx-commit=0",
+            "--innodb-doublewrite=0",
+          ]
+        : [];
     const child = spawn(
       which("mariadbd"),
       [
@@ -364,7 +385,9 @@ export async function startMariadb(db) {
     } finally {
       rmSync(p.init, { force: true });
     }
-    log(`MariaDB: started (pid ${child.pid}${who ? `, as ${who.name}` : ""}) on 127.0.0.1:${db.port}, data in ${p.data}.`);
+    log(
+      `MariaDB: started (pid ${child.pid}${who ? `, as ${who.name}` : ""}) on 127.0.0.1:${db.port}, data in ${p.data}.`,
+    );
     return { pid: child.pid, reused: false };
   });
 }

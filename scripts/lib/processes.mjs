@@ -35,7 +35,8 @@ export async function withLockFile(lock, what, fn) {
     } catch {
       const holder = Number(readFileSync(lock, "utf8").trim() || 0);
       if (holder && !alive(holder)) rmSync(lock, { force: true });
-      else if (Date.now() > until) throw new Error(`${what} start lock ${lock} is held; remove it if no start is running.`);
+      else if (Date.now() > until)
+        throw new Error(`${what} start lock ${lock} is held; remove it if no start is running.`);
       await sleep(100);
     }
   }

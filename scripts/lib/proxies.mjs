@@ -13,7 +13,10 @@ export function plainAddress(address) {
 /** Parses the list; throws with the entry at fault, so a typo does not silently trust nobody (or everybody). */
 export function parseProxies(list) {
   const trusted = new BlockList();
-  for (const raw of String(list).split(",").map((s) => s.trim()).filter(Boolean)) {
+  for (const raw of String(list)
+    .split(",")
+    .map((s) => s.trim())
+    .filter(Boolean)) {
     const [address, bits] = raw.split("/");
     const family = isIP(plainAddress(address));
     if (family === 0) throw new Error(`TAPWRIGHT_TRUSTED_PROXIES: "${raw}" is not an IP address or CIDR range.`);

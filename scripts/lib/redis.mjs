@@ -86,7 +86,8 @@ export function redisCommand(redis, args, timeout_ms = 2000) {
         lines.push(buffer.slice(0, end));
         buffer = buffer.slice(end + 2);
       }
-      if (lines.length >= expected || (redis.password && lines[0] !== undefined && lines[0] !== "+OK")) done(() => resolve(answer()));
+      if (lines.length >= expected || (redis.password && lines[0] !== undefined && lines[0] !== "+OK"))
+        done(() => resolve(answer()));
     });
     socket.on("close", () => done(() => resolve(answer())));
     socket.on("error", (e) => done(() => reject(e)));
@@ -112,14 +113,17 @@ async function waitUntilReady(redis, timeout_ms) {
       // A server still replaying its append-only file answers -LOADING; wait for +PONG.
       last = await redisCommand(redis, ["PING"]);
       if (last === "+PONG") return;
-      if (/^-(WRONGPASS|ERR AUTH|NOAUTH)/.test(last)) throw new Error(`Redis refuses the checkout's password (${last}).`);
+      if (/^-(WRONGPASS|ERR AUTH|NOAUTH)/.test(last))
+        throw new Error(`Redis refuses the checkout's password (${last}).`);
     } catch (e) {
       if (e.message.startsWith("Redis refuses")) throw e;
       last = e.message;
     }
     await sleep(50);
   }
-  const tail = existsSync(paths(redis).log) ? readFileSync(paths(redis).log, "utf8").split("\n").slice(-15).join("\n") : "";
+  const tail = existsSync(paths(redis).log)
+    ? readFileSync(paths(redis).log, "utf8").split("\n").slice(-15).join("\n")
+    : "";
   throw new Error(`Redis did not become ready on 127.0.0.1:${redis.port} in ${timeout_ms} ms (${last}).\n${tail}`);
 }
 
@@ -156,20 +160,31 @@ export async function startRedis(redis, { fresh = false } = {}) {
     const child = spawn(
       which("redis-server"),
       [
-        "--port", String(redis.port),
-        "--bind", "127.0.0.1",
-        "--protected-mode", "yes",
-        "--dir", p.data,
+        "--port",
+        String(redis.port),
+        "--bind",
+        "127.0.0.1",
+        "--protected-mode",
+        "yes",
+        "--dir",
+        p.data,
         // Every write goes to the append-only file, flushed to disk every second; no RDB snapshots.
-        "--appendonly", "yes",
-        "--appendfsync", "everysec",
-        "--save", "",
+        "--appendonly",
+        "yes",
+        "--appendfsync",
+        "everysec",
+        "--save",
+        "",
         // BullMQ needs every key kept: refuse writes rather than evict when memory is full.
-        "--maxmemory-policy", "noeviction",
+        "--maxmemory-policy",
+        "noeviction",
         ...(redis.password ? ["--requirepass", redis.password] : []),
-        "--daemonize", "no",
-        "--pidfile", p.pid,
-        "--logfile", p.log,
+        "--daemonize",
+        "no",
+        "--pidfile",
+        p.pid,
+        "--logfile",
+        p.log,
       ],
       { detached: true, stdio: "ignore", ...(who ? { uid: who.uid, gid: who.gid } : {}) },
     );
@@ -183,7 +198,9 @@ export async function startRedis(redis, { fresh = false } = {}) {
     }
     // redis-server writes its pid file itself; write it too so a fast stop after start finds it.
     writeFileSync(p.pid, String(child.pid));
-    log(`Redis: started (pid ${child.pid}${who ? `, as ${who.name}` : ""}) on 127.0.0.1:${redis.port}, data in ${p.data}.`);
+    log(
+      `Redis: started (pid ${child.pid}${who ? `, as ${who.name}` : ""}) on 127.0.0.1:${redis.port}, data in ${p.data}.`,
+    );
     return { pid: child.pid, reused: false };
   });
   if (fresh) {

@@ -18,11 +18,17 @@ function newestMtime(dir) {
 /** Builds dist/worker.mjs (and the engine worker beside it) unless it is newer than src/ and lib/. */
 export function ensureWorkerBuilt(env) {
   const bundle = join(distDir, "worker.mjs");
-  const fresh = existsSync(bundle) && statSync(bundle).mtimeMs > Math.max(newestMtime(join(root, "src")), newestMtime(join(root, "lib")));
+  const fresh =
+    existsSync(bundle) &&
+    statSync(bundle).mtimeMs > Math.max(newestMtime(join(root, "src")), newestMtime(join(root, "lib")));
   if (!fresh) runStep("Worker build", process.execPath, ["scripts/build-worker.mjs"], env);
 }
 
 /** Starts one worker process; its output goes to this console with a prefix-free pass-through. */
 export function startWorker(env) {
-  return spawn(process.execPath, [join(distDir, "worker.mjs")], { cwd: root, env: { ...process.env, ...env, TAPWRIGHT_QUEUE: "bullmq" }, stdio: "inherit" });
+  return spawn(process.execPath, [join(distDir, "worker.mjs")], {
+    cwd: root,
+    env: { ...process.env, ...env, TAPWRIGHT_QUEUE: "bullmq" },
+    stdio: "inherit",
+  });
 }

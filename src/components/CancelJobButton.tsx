@@ -20,7 +20,14 @@ export default function CancelJobButton(props: { url: string; what: string }) {
   }
   return (
     <div className="flex flex-col items-end gap-1">
-      <button type="button" className="btn" onClick={cancel} disabled={busy} data-testid="cancel-job" title={`Stops the ${props.what}; it ends failed and keeps its inputs`}>
+      <button
+        type="button"
+        className="btn"
+        onClick={cancel}
+        disabled={busy}
+        data-testid="cancel-job"
+        title={`Stops the ${props.what}; it ends failed and keeps its inputs`}
+      >
         {busy ? "Cancelling…" : `Cancel ${props.what}`}
       </button>
       {error && <span className="text-xs text-bad">{error}</span>}

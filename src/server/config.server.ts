@@ -20,7 +20,9 @@ const envSchema = z.object({
   PORT: port("PORT", 4321),
   DATABASE_URL: optionalText,
   BETTER_AUTH_SECRET: optionalText,
-  BETTER_AUTH_URL: optionalText.pipe(z.url({ error: "BETTER_AUTH_URL must be a URL, e.g. https://tapwright.example.com" }).optional()),
+  BETTER_AUTH_URL: optionalText.pipe(
+    z.url({ error: "BETTER_AUTH_URL must be a URL, e.g. https://tapwright.example.com" }).optional(),
+  ),
   TAPWRIGHT_SIGN_IN_LIMIT: z
     .string()
     .regex(/^\d+\/\d+$/, "TAPWRIGHT_SIGN_IN_LIMIT must be attempts/window_s, e.g. 5/60")
@@ -36,9 +38,18 @@ const envSchema = z.object({
   TAPWRIGHT_DERIVE_THREADS: optionalText,
   TAPWRIGHT_WORKER: optionalText,
   TAPWRIGHT_DATA_DIR: optionalText,
-  TAPWRIGHT_QUEUE: z.preprocess((v) => (v === "" ? undefined : v), z.enum(["embedded", "bullmq"], { error: 'TAPWRIGHT_QUEUE must be "embedded" or "bullmq"' }).default("embedded")),
-  REDIS_URL: optionalText.pipe(z.url({ error: "REDIS_URL must be a URL, e.g. redis://:password@10.0.0.5:6379" }).optional()),
-  TAPWRIGHT_JOB_LOCK_S: z.coerce.number({ error: "TAPWRIGHT_JOB_LOCK_S must be a number of seconds" }).min(2, "TAPWRIGHT_JOB_LOCK_S must be at least 2 s").max(3600).default(30),
+  TAPWRIGHT_QUEUE: z.preprocess(
+    (v) => (v === "" ? undefined : v),
+    z.enum(["embedded", "bullmq"], { error: 'TAPWRIGHT_QUEUE must be "embedded" or "bullmq"' }).default("embedded"),
+  ),
+  REDIS_URL: optionalText.pipe(
+    z.url({ error: "REDIS_URL must be a URL, e.g. redis://:password@10.0.0.5:6379" }).optional(),
+  ),
+  TAPWRIGHT_JOB_LOCK_S: z.coerce
+    .number({ error: "TAPWRIGHT_JOB_LOCK_S must be a number of seconds" })
+    .min(2, "TAPWRIGHT_JOB_LOCK_S must be at least 2 s")
+    .max(3600)
+    .default(30),
   TAPWRIGHT_WORKER_NAME: optionalText,
   TAPWRIGHT_JOB_TIME_LIMIT_S: z.coerce
     .number({ error: "TAPWRIGHT_JOB_TIME_LIMIT_S must be a number of seconds" })
@@ -53,7 +64,11 @@ const envSchema = z.object({
     .min(10, "TAPWRIGHT_WORKER_MEMORY_MB must be at least 10 (the engine needs that much to load)")
     .max(65_536)
     .default(2048),
-  TAPWRIGHT_QUEUE_POLL_S: z.coerce.number({ error: "TAPWRIGHT_QUEUE_POLL_S must be a number of seconds" }).min(0.1).max(86_400).default(2),
+  TAPWRIGHT_QUEUE_POLL_S: z.coerce
+    .number({ error: "TAPWRIGHT_QUEUE_POLL_S must be a number of seconds" })
+    .min(0.1)
+    .max(86_400)
+    .default(2),
   TAPWRIGHT_INVITE_LIMIT: z
     .string()
     .regex(/^\d+\/\d+$/, "TAPWRIGHT_INVITE_LIMIT must be attempts/window_s, e.g. 10/600")
@@ -70,11 +85,15 @@ export function defaultPublicUrl(host: string, port: number): string {
 export function parseConfig(env: Record<string, string | undefined>, cwd: string) {
   const parsed = envSchema.safeParse(env);
   if (!parsed.success) {
-    throw new Error(`The server's configuration is not usable: ${parsed.error.issues.map((i) => i.message).join("; ")}.`);
+    throw new Error(
+      `The server's configuration is not usable: ${parsed.error.issues.map((i) => i.message).join("; ")}.`,
+    );
   }
   const e = parsed.data;
   if (e.TAPWRIGHT_QUEUE === "bullmq" && !e.REDIS_URL) {
-    throw new Error("The server's configuration is not usable: TAPWRIGHT_QUEUE=bullmq needs REDIS_URL (npm start sets it for the private Redis).");
+    throw new Error(
+      "The server's configuration is not usable: TAPWRIGHT_QUEUE=bullmq needs REDIS_URL (npm start sets it for the private Redis).",
+    );
   }
   const [max, window] = e.TAPWRIGHT_SIGN_IN_LIMIT.split("/").map(Number);
   const [inviteMax, inviteWindow] = e.TAPWRIGHT_INVITE_LIMIT.split("/").map(Number);
@@ -112,7 +131,13 @@ export function parseConfig(env: Record<string, string | undefined>, cwd: string
      * Who runs long work: the embedded queue (MariaDB plus this process's worker pool) or BullMQ on
      * Redis (standalone workers started with `npm run worker`).
      */
-    queue: { backend: e.TAPWRIGHT_QUEUE, redisUrl: e.REDIS_URL, lock_s: e.TAPWRIGHT_JOB_LOCK_S, workerName: e.TAPWRIGHT_WORKER_NAME, poll_s: e.TAPWRIGHT_QUEUE_POLL_S },
+    queue: {
+      backend: e.TAPWRIGHT_QUEUE,
+      redisUrl: e.REDIS_URL,
+      lock_s: e.TAPWRIGHT_JOB_LOCK_S,
+      workerName: e.TAPWRIGHT_WORKER_NAME,
+      poll_s: e.TAPWRIGHT_QUEUE_POLL_S,
+    },
     /**
      * Bounds of one attempt at a job, whichever backend runs it: its wall time (past it the worker
      * thread is terminated and the job failed) and each engine worker thread's heap.

@@ -42,7 +42,10 @@ export function parseBudget(params: unknown, name: string): Budget {
   const parsed = budgetSchema.safeParse(params);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
-    throw unprocessable(`The budget “${name}” is not usable: ${issue.path.join(".")}: ${issue.message}. Fix it on the Budgets page.`, "budgetId");
+    throw unprocessable(
+      `The budget “${name}” is not usable: ${issue.path.join(".")}: ${issue.message}. Fix it on the Budgets page.`,
+      "budgetId",
+    );
   }
   return parsed.data;
 }
@@ -51,11 +54,23 @@ export function parseBudget(params: unknown, name: string): Budget {
 export async function findChannels(tx: DbOrTx, ids: readonly number[]): Promise<ChannelCopy[]> {
   if (ids.length === 0) return [];
   const rows = await tx
-    .select({ id: channels.id, name: channels.name, lossAtNyquist_dB: channels.lossAtNyquist_dB, pulse: channels.pulse, kind: channels.kind, derivation: channels.derivation })
+    .select({
+      id: channels.id,
+      name: channels.name,
+      lossAtNyquist_dB: channels.lossAtNyquist_dB,
+      pulse: channels.pulse,
+      kind: channels.kind,
+      derivation: channels.derivation,
+    })
     .from(channels)
     .where(inArray(channels.id, [...ids]));
   const aggressors = await tx
-    .select({ channelId: channelAggressors.channelId, name: channelAggressors.name, kind: channelAggressors.kind, pulse: channelAggressors.pulse })
+    .select({
+      channelId: channelAggressors.channelId,
+      name: channelAggressors.name,
+      kind: channelAggressors.kind,
+      pulse: channelAggressors.pulse,
+    })
     .from(channelAggressors)
     .where(inArray(channelAggressors.channelId, [...ids]))
     .orderBy(channelAggressors.channelId, channelAggressors.position);
@@ -71,7 +86,10 @@ export function checkOneRate(list: readonly ChannelCopy[], path: string): void {
   const ui = list[0].pulse.ui_s;
   const other = list.find((c) => Math.abs(c.pulse.ui_s - ui) > ui * 1e-9);
   if (other) {
-    throw unprocessable(`“${other.name}” runs at another symbol rate than “${list[0].name}”; choose channels of one bit rate.`, path);
+    throw unprocessable(
+      `“${other.name}” runs at another symbol rate than “${list[0].name}”; choose channels of one bit rate.`,
+      path,
+    );
   }
 }
 
@@ -91,7 +109,13 @@ export async function channelCopies(tx: DbOrTx, ids: readonly number[], path = "
  * channels searched together, a tap-table class): 422 with the engine's message otherwise, before
  * any job is queued.
  */
-export function checkBudgetFits(budget: BudgetInput, name: string, list: readonly ChannelCopy[], path = "budgetId", { members = 1 } = {}): void {
+export function checkBudgetFits(
+  budget: BudgetInput,
+  name: string,
+  list: readonly ChannelCopy[],
+  path = "budgetId",
+  { members = 1 } = {},
+): void {
   if (list.length === 0) return;
   try {
     searchSpace(pulseFromJson(list[0].pulse), budget);
@@ -105,18 +129,29 @@ export function checkBudgetFits(budget: BudgetInput, name: string, list: readonl
 }
 
 /** 422 saying what to coarsen when the budget's search (see `searchSize`) is past the limit. */
-export function checkSearchSize(budget: BudgetInput, samplesPerUi: number, members: number, path: string, name?: string): void {
+export function checkSearchSize(
+  budget: BudgetInput,
+  samplesPerUi: number,
+  members: number,
+  path: string,
+  name?: string,
+): void {
   const problem = searchSizeProblem(budget, searchSize(budget, { samplesPerUi, members }));
   if (problem !== null) throw unprocessable(name === undefined ? problem : `The budget “${name}”: ${problem}`, path);
 }
 
 /** The channels without their pulses (for API answers: pulses are large). */
-export function withoutPulses<T extends { pulse: StoredPulse; aggressors?: RunAggressor[] }>(list: readonly T[]): Omit<T, "pulse" | "aggressors">[] {
+export function withoutPulses<T extends { pulse: StoredPulse; aggressors?: RunAggressor[] }>(
+  list: readonly T[],
+): Omit<T, "pulse" | "aggressors">[] {
   return list.map(({ pulse: _pulse, aggressors: _aggressors, ...rest }) => rest);
 }
 
 /** The text of a channel's uploaded file (its Touchstone file), or null when it has none any more. */
 export async function channelSourceText(tx: DbOrTx, channelId: number): Promise<string | null> {
-  const [src] = await tx.select({ bytes: channelSources.bytes }).from(channelSources).where(eq(channelSources.channelId, channelId));
+  const [src] = await tx
+    .select({ bytes: channelSources.bytes })
+    .from(channelSources)
+    .where(eq(channelSources.channelId, channelId));
   return src ? new TextDecoder("utf-8").decode(src.bytes) : null;
 }

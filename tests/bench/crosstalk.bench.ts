@@ -36,15 +36,32 @@ function coupling(k: number): CouplingModel {
     : { kind: "fext", forwardCoupling_s: 0.6e-12 * (1 + k / 8), line: { lossAtNyquist_dB: 25, delay_s: 3.5e-9 } };
 }
 const crosstalkPulse = (k: number): Pulse => trimPulse(pulseFromCoupling(coupling(k), grid).pulse, 16, 48);
-const four: LinkAggressor[] = [0, 1, 2, 3].map((k) => ({ kind: coupling(k).kind, name: `aggressor ${k + 1}`, pulse: crosstalkPulse(k) }));
+const four: LinkAggressor[] = [0, 1, 2, 3].map((k) => ({
+  kind: coupling(k).kind,
+  name: `aggressor ${k + 1}`,
+  pulse: crosstalkPulse(k),
+}));
 
 // The eye: the benchmark's equalized pulse with DFE taps equal to its first post-cursors (an open
 // eye), and 8 aggressors through the same CTLE at the same swing.
 const ctleSetting = { ...ctle, gDc_dB: -6, gDc2_dB: -2 };
-const equalized = trimPulse(scalePulse(applyFir(createCtlePlan(channel).apply(ctleSetting), [-0.06, 0.82, -0.12, 0], 1), 0.45), 8, 56);
+const equalized = trimPulse(
+  scalePulse(applyFir(createCtlePlan(channel).apply(ctleSetting), [-0.06, 0.82, -0.12, 0], 1), 0.45),
+  8,
+  56,
+);
 const dfeTaps = [1, 2, 3, 4, 5, 6].map((k) => equalized.values_V[equalized.mainIndex + 32 * k]);
-const eyeOptions = { modulation: "nrz" as const, noiseRms_V: 0.002, targetBer: 1e-12, jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 }, dfeTaps };
-const eight = Array.from({ length: 8 }, (_, k) => ({ name: `a${k}`, pulse: scalePulse(createCtlePlan(crosstalkPulse(k)).apply(ctleSetting), 0.45) }));
+const eyeOptions = {
+  modulation: "nrz" as const,
+  noiseRms_V: 0.002,
+  targetBer: 1e-12,
+  jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 },
+  dfeTaps,
+};
+const eight = Array.from({ length: 8 }, (_, k) => ({
+  name: `a${k}`,
+  pulse: scalePulse(createCtlePlan(crosstalkPulse(k)).apply(ctleSetting), 0.45),
+}));
 
 const slow = { iterations: 3, warmupIterations: 1, time: 0, warmupTime: 0 };
 
@@ -54,15 +71,27 @@ describe("statistical eye of the 64-UI equalized pulse, NRZ, jitter, 6 DFE taps:
   });
   bench("8 aggressors (each at its worst phase, small parts lumped into the noise)", () => {
     const x = crosstalkParts(eight, "nrz", eyeOptions.noiseRms_V);
-    statisticalEye(equalized, { ...eyeOptions, noiseRms_V: Math.sqrt(eyeOptions.noiseRms_V ** 2 + x.lumpedVariance_V2), extraParts_V: x.parts_V }).eyeHeight(0, 1e-12);
+    statisticalEye(equalized, {
+      ...eyeOptions,
+      noiseRms_V: Math.sqrt(eyeOptions.noiseRms_V ** 2 + x.lumpedVariance_V2),
+      extraParts_V: x.parts_V,
+    }).eyeHeight(0, 1e-12);
   });
 });
 
 describe("joint optimizer: 16 × 5 CTLE × FIR 1 pre / 2 post at step 0.02 × 8 DFE taps, with jitter", () => {
-  bench("no aggressors", () => {
-    optimize(channel, budget);
-  }, slow);
-  bench("4 aggressors (2 NEXT, 2 FEXT)", () => {
-    optimize(channel, budget, { aggressors: four });
-  }, slow);
+  bench(
+    "no aggressors",
+    () => {
+      optimize(channel, budget);
+    },
+    slow,
+  );
+  bench(
+    "4 aggressors (2 NEXT, 2 FEXT)",
+    () => {
+      optimize(channel, budget, { aggressors: four });
+    },
+    slow,
+  );
 });

@@ -44,16 +44,28 @@ function backplane4000(): string {
     }
   }
   const net: NetworkData = { ports: 4, freqs_Hz: freqs, s, referenceOhms: new Float64Array(4).fill(50) };
-  return formatTouchstone(net, { version: 1, format: "RI", unit: "GHz", comments: ["benchmark backplane, 24 dB at Nyquist"] });
+  return formatTouchstone(net, {
+    version: 1,
+    format: "RI",
+    unit: "GHz",
+    comments: ["benchmark backplane, 24 dB at Nyquist"],
+  });
 }
 
 const s4p = backplane4000();
-const pulseRequest = JSON.stringify({ source: { kind: "touchstone", text: s4p, format: "s4p" }, ui_s: UI, samplesPerUi: 32 });
+const pulseRequest = JSON.stringify({
+  source: { kind: "touchstone", text: s4p, format: "s4p" },
+  ui_s: UI,
+  samplesPerUi: 32,
+});
 const net = parseTouchstone(s4p, { ports: 4 });
 const sdd = channelTransfer(net);
 
 const rng = seededRandom(7);
-const cursors = Float64Array.from({ length: 200 }, (_, i) => (i === 20 ? 1 : i > 20 ? 0.45 * Math.exp(-(i - 20) / 6) : 0.02 * rng.normal()) + 0.002 * rng.normal());
+const cursors = Float64Array.from(
+  { length: 200 },
+  (_, i) => (i === 20 ? 1 : i > 20 ? 0.45 * Math.exp(-(i - 20) / 6) : 0.02 * rng.normal()) + 0.002 * rng.normal(),
+);
 const solverRequest = { cursors: Array.from(cursors), main: 20, pre: 4, post: 10 };
 
 /** Spawns the command line exactly as a user would and checks it answered. */
@@ -89,6 +101,14 @@ describe("ZF and MMSE, 15 taps over 200 cursors", () => {
     mmseEqualizer(h, 4, 10, 0.01);
   });
   bench("whole process: npm run --silent engine -- zf", () => engine("zf", JSON.stringify(solverRequest)), whole);
-  bench("whole process: npm run --silent engine -- mmse", () => engine("mmse", JSON.stringify({ ...solverRequest, noiseRms_V: 0.01 })), whole);
-  bench("whole process baseline: npm run --silent engine -- ber (start-up cost)", () => engine("ber", '{"q": 7}'), whole);
+  bench(
+    "whole process: npm run --silent engine -- mmse",
+    () => engine("mmse", JSON.stringify({ ...solverRequest, noiseRms_V: 0.01 })),
+    whole,
+  );
+  bench(
+    "whole process baseline: npm run --silent engine -- ber (start-up cost)",
+    () => engine("ber", '{"q": 7}'),
+    whole,
+  );
 });

@@ -52,7 +52,12 @@ const equalized = (() => {
   const p = createCtlePlan(channel).apply({ ...ctle, gDc_dB: -6, gDc2_dB: -2 });
   return trimPulse(scalePulse(applyFir(p, [-0.06, 0.82, -0.12, 0], 1), 0.45), 8, 56);
 })();
-const eyeOptions = { noiseRms_V: 0.002, targetBer: 1e-12, jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 }, dfeTaps: [0.05, 0.02] };
+const eyeOptions = {
+  noiseRms_V: 0.002,
+  targetBer: 1e-12,
+  jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 },
+  dfeTaps: [0.05, 0.02],
+};
 
 const prbs15 = symbolStream("nrz", { kind: "prbs", order: 15 });
 
@@ -96,27 +101,51 @@ describe("statistical eye of a 64-UI pulse at 32 samples/UI (jitter RJ 0.01 / DJ
 });
 
 describe("joint optimizer: 16 × 5 CTLE × FIR 1 pre / 2 post at step 0.02 × 8 DFE taps (verdict included)", () => {
-  bench("in-process: optimize (jitter RJ 0.01 / DJ 0.05 UI)", () => {
-    optimize(channel, budget);
-  }, slow);
-  bench("in-process: optimize (no jitter)", () => {
-    optimize(channel, noJitter);
-  }, slow);
-  bench("in-process: runCommand('optimize') incl. JSON", () => {
-    runCommand("optimize", optimizeRequest);
-  }, slow);
+  bench(
+    "in-process: optimize (jitter RJ 0.01 / DJ 0.05 UI)",
+    () => {
+      optimize(channel, budget);
+    },
+    slow,
+  );
+  bench(
+    "in-process: optimize (no jitter)",
+    () => {
+      optimize(channel, noJitter);
+    },
+    slow,
+  );
+  bench(
+    "in-process: runCommand('optimize') incl. JSON",
+    () => {
+      runCommand("optimize", optimizeRequest);
+    },
+    slow,
+  );
   bench("whole process: npm run --silent engine -- optimize (jitter)", () => engine("optimize", optimizeRequest), slow);
-  bench("whole process: npm run --silent engine -- optimize (no jitter)", () => engine("optimize", optimizeNoJitterRequest), slow);
+  bench(
+    "whole process: npm run --silent engine -- optimize (no jitter)",
+    () => engine("optimize", optimizeNoJitterRequest),
+    slow,
+  );
 });
 
 describe("time-domain eye: PRBS15 (32767 symbols) through a 64-UI pulse at 32 samples/UI", () => {
-  bench("density eye 128 × 96", () => {
-    densityEye(equalized, prbs15, { width: 128, height: 96 });
-  }, slow);
+  bench(
+    "density eye 128 × 96",
+    () => {
+      densityEye(equalized, prbs15, { width: 128, height: 96 });
+    },
+    slow,
+  );
 });
 
 describe("population default (minimax) over 24 channels, 8 … 30 dB (4 × 2 CTLE × FIR 1/1 at 0.05 × 4 DFE taps)", () => {
-  bench("in-process: populationDefault incl. each channel's own optimum", () => {
-    populationDefault(population, populationBudget);
-  }, once);
+  bench(
+    "in-process: populationDefault incl. each channel's own optimum",
+    () => {
+      populationDefault(population, populationBudget);
+    },
+    once,
+  );
 });

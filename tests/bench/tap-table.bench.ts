@@ -21,7 +21,9 @@ const classes: VersionClass[] = [null, ...edges_dB].map((lo, k) => {
   return {
     name: `class ${k + 1}`,
     lossRange_dB: [lo, hi],
-    channels: lanes.filter((l) => (lo === null || l.lossAtNyquist_dB >= lo) && (hi === null || l.lossAtNyquist_dB < hi)),
+    channels: lanes.filter(
+      (l) => (lo === null || l.lossAtNyquist_dB >= lo) && (hi === null || l.lossAtNyquist_dB < hi),
+    ),
   };
 });
 
@@ -36,10 +38,32 @@ function inputs(architecture: Architecture): VersionInputs {
   };
 }
 
-const own: Architecture = { key: "tx12-ctle-dfe5", label: "TX FIR 1/2 + CTLE + DFE 5", tx: { pre: 1, post: 2 }, ctle: true, dfeTaps: 5, ffe: null };
-const lighter: Architecture = { key: "tx11-ctle-dfe3", label: "TX FIR 1/1 + CTLE + DFE 3", tx: { pre: 1, post: 1 }, ctle: true, dfeTaps: 3, ffe: null };
+const own: Architecture = {
+  key: "tx12-ctle-dfe5",
+  label: "TX FIR 1/2 + CTLE + DFE 5",
+  tx: { pre: 1, post: 2 },
+  ctle: true,
+  dfeTaps: 5,
+  ffe: null,
+};
+const lighter: Architecture = {
+  key: "tx11-ctle-dfe3",
+  label: "TX FIR 1/1 + CTLE + DFE 3",
+  tx: { pre: 1, post: 1 },
+  ctle: true,
+  dfeTaps: 3,
+  ffe: null,
+};
 
 describe("tap table: 4 classes over 24 channels (28 Gb/s NRZ backplane budget)", () => {
-  bench("the budget's own architecture: TX FIR 1/2 at 1/40 + CTLE + DFE 5", () => void computeTapTableVersion(inputs(own), () => {}), { iterations: 1, warmupIterations: 0, time: 0 });
-  bench("TX FIR 1/1 + CTLE + DFE 3", () => void computeTapTableVersion(inputs(lighter), () => {}), { iterations: 1, warmupIterations: 0, time: 0 });
+  bench(
+    "the budget's own architecture: TX FIR 1/2 at 1/40 + CTLE + DFE 5",
+    () => void computeTapTableVersion(inputs(own), () => {}),
+    { iterations: 1, warmupIterations: 0, time: 0 },
+  );
+  bench("TX FIR 1/1 + CTLE + DFE 3", () => void computeTapTableVersion(inputs(lighter), () => {}), {
+    iterations: 1,
+    warmupIterations: 0,
+    time: 0,
+  });
 });

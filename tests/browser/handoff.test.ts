@@ -9,7 +9,14 @@ import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launch, screenshotDir, signedInPage } from "../support/browser";
 import { baseUrl, signIn, type Client } from "../support/http";
-import { computedTable, decideSignOff, population, requestSignOff, unique, type Population } from "../integration/handoff.fixture";
+import {
+  computedTable,
+  decideSignOff,
+  population,
+  requestSignOff,
+  unique,
+  type Population,
+} from "../integration/handoff.fixture";
 
 let browser: Browser;
 
@@ -64,10 +71,18 @@ describe("the hand-off from designer to reviewer to firmware", () => {
 
   it("the reviewer sees headroom against the requirement, comments, and approves", async () => {
     const table = await computedTable(designer, pop, unique("Quillfeather review"));
-    const signOffId = await requestSignOff(designer, reviewer, table.id, "Two classes split at 16 dB; please check the 25 dB lane.");
+    const signOffId = await requestSignOff(
+      designer,
+      reviewer,
+      table.id,
+      "Two classes split at 16 dB; please check the 25 dB lane.",
+    );
     const page = await signedInPage(browser, "reviewer");
     await page.goto(`${baseUrl}/sign-off`);
-    await page.getByTestId("waiting-for-me").getByRole("link", { name: `${table.name} v1` }).click();
+    await page
+      .getByTestId("waiting-for-me")
+      .getByRole("link", { name: `${table.name} v1` })
+      .click();
     await page.waitForURL(`${baseUrl}/sign-off/${signOffId}`);
     await hydrated(page);
     expect(await page.getByTestId("caution").textContent()).toMatch(/lab confirmation on real hardware/);
@@ -77,7 +92,10 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     await comment.getByRole("button", { name: "Comment" }).click();
     await page.getByRole("list", { name: "Comments" }).getByText("fine by me.").waitFor();
     await page.screenshot({ path: join(screenshotDir, "signoff-review.png"), fullPage: true });
-    await page.getByRole("form", { name: "Decision" }).getByLabel(/Comment/).fill("Checked every lane against the required headroom.");
+    await page
+      .getByRole("form", { name: "Decision" })
+      .getByLabel(/Comment/)
+      .fill("Checked every lane against the required headroom.");
     await page.getByRole("button", { name: "Approve and freeze v1" }).click();
     await page.getByTestId("signoff-state").filter({ hasText: "Approved" }).waitFor();
     await page.context().close();
@@ -85,7 +103,12 @@ describe("the hand-off from designer to reviewer to firmware", () => {
 
   it("the version shows as signed off, and firmware downloads the C header", async () => {
     const table = await computedTable(designer, pop, unique("Quillfeather signed"));
-    await decideSignOff(reviewer, await requestSignOff(designer, reviewer, table.id), "approve", "Checked every lane against the required headroom.");
+    await decideSignOff(
+      reviewer,
+      await requestSignOff(designer, reviewer, table.id),
+      "approve",
+      "Checked every lane against the required headroom.",
+    );
     const tableUrl = `${baseUrl}/tables/${table.id}`;
     const page = await signedInPage(browser, "firmware");
     await page.goto(tableUrl);
@@ -93,7 +116,10 @@ describe("the hand-off from designer to reviewer to firmware", () => {
     expect(await page.getByTestId("version-state").textContent()).toBe("Signed off");
     expect(await page.getByText("this version is frozen").count()).toBe(1);
     expect(await page.getByRole("form", { name: "Request sign-off" }).count()).toBe(0);
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("exports").getByRole("link", { name: "C header" }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByTestId("exports").getByRole("link", { name: "C header" }).click(),
+    ]);
     expect(download.suggestedFilename()).toMatch(/_v1\.h$/);
     const text = readFileSync((await download.path())!, "utf8");
     expect(text).toMatch(/signed off/);

@@ -24,11 +24,19 @@ describe("input warnings in the browser", () => {
   it("shows the findings on the preview, the channel page and a run's page", async () => {
     await page.goto(`${baseUrl}/channels`);
     await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
-    await page.getByLabel("Channel file", { exact: true }).setInputFiles({ name: `hot-${stamp}.s2p`, mimeType: "application/octet-stream", buffer: Buffer.from(files.hotShortS2p()) });
+    await page
+      .getByLabel("Channel file", { exact: true })
+      .setInputFiles({
+        name: `hot-${stamp}.s2p`,
+        mimeType: "application/octet-stream",
+        buffer: Buffer.from(files.hotShortS2p()),
+      });
     // A Touchstone file is previewed as soon as it is chosen.
     const warnings = page.getByTestId("upload-preview").getByTestId("input-warnings");
     await warnings.waitFor();
-    await expect(warnings.textContent()).resolves.toMatch(/not passive: the largest singular value of S reaches 1\.0800/);
+    await expect(warnings.textContent()).resolves.toMatch(
+      /not passive: the largest singular value of S reaches 1\.0800/,
+    );
     await expect(warnings.textContent()).resolves.toMatch(/0\.71× the baud rate/);
     await page.getByTestId("upload-preview").screenshot({ path: join(screenshotDir, "input-warnings-preview.png") });
 
@@ -38,11 +46,16 @@ describe("input warnings in the browser", () => {
     const channelId = Number(page.url().split("/").pop());
     const onChannel = page.getByTestId("input-quality");
     await expect(onChannel.textContent()).resolves.toMatch(/not passive \(largest singular value 1\.0800\)/);
-    await expect(onChannel.locator("li[data-code]").evaluateAll((els) => els.map((e) => e.getAttribute("data-code")))).resolves.toEqual(["not-passive", "band-below-baud"]);
+    await expect(
+      onChannel.locator("li[data-code]").evaluateAll((els) => els.map((e) => e.getAttribute("data-code"))),
+    ).resolves.toEqual(["not-passive", "band-below-baud"]);
     await page.screenshot({ path: join(screenshotDir, "input-warnings-channel.png"), fullPage: true });
 
     const designer = await signIn("designer");
-    const budgets = (await (await designer.get("/api/v1/budgets?limit=50")).json()).items as { id: number; modulation: string }[];
+    const budgets = (await (await designer.get("/api/v1/budgets?limit=50")).json()).items as {
+      id: number;
+      modulation: string;
+    }[];
     const budget = budgets.find((b) => b.modulation === "nrz") ?? budgets[0];
     const run = await (await designer.send("POST", "/api/v1/runs", { channelId, budgetId: budget.id })).json();
     await page.goto(`${baseUrl}/runs/${run.id}`);

@@ -29,7 +29,10 @@ describe("sweeps in the browser", () => {
     const boxes = page.locator("fieldset", { hasText: "Channels" }).getByRole("checkbox");
     await boxes.nth(0).check();
     await boxes.nth(1).check();
-    const preset = page.getByRole("list", { name: "Corner presets" }).getByRole("listitem").filter({ hasText: "Loss ±10 %" });
+    const preset = page
+      .getByRole("list", { name: "Corner presets" })
+      .getByRole("listitem")
+      .filter({ hasText: "Loss ±10 %" });
     await expect(preset.textContent()).resolves.toMatch(/common practice/);
     await page.getByRole("button", { name: "Add the preset Loss ±10 %" }).click();
     await expect(page.getByTestId("pair-count").textContent()).resolves.toMatch(/2 channels × 3 corners = 6 pairs/);
@@ -43,11 +46,24 @@ describe("sweeps in the browser", () => {
 
     const heatmap = page.getByRole("img", { name: "Limiter headroom per channel and corner" });
     await heatmap.waitFor({ timeout: 120_000 });
-    await page.waitForFunction(() => document.querySelectorAll("[data-testid=sweep-heatmap] [data-headroom-mv]").length === 6 && !document.querySelector("[data-testid=sweep-progress]"), undefined, { timeout: 120_000 });
-    await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
-    const cells = await page.locator("[data-testid=sweep-heatmap] [data-headroom-mv]").evaluateAll((els) =>
-      els.map((e) => ({ channel: e.getAttribute("data-channel"), corner: e.getAttribute("data-corner"), mV: Number(e.getAttribute("data-headroom-mv")), binding: e.getAttribute("data-binding") === "true" })),
+    await page.waitForFunction(
+      () =>
+        document.querySelectorAll("[data-testid=sweep-heatmap] [data-headroom-mv]").length === 6 &&
+        !document.querySelector("[data-testid=sweep-progress]"),
+      undefined,
+      { timeout: 120_000 },
     );
+    await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
+    const cells = await page
+      .locator("[data-testid=sweep-heatmap] [data-headroom-mv]")
+      .evaluateAll((els) =>
+        els.map((e) => ({
+          channel: e.getAttribute("data-channel"),
+          corner: e.getAttribute("data-corner"),
+          mV: Number(e.getAttribute("data-headroom-mv")),
+          binding: e.getAttribute("data-binding") === "true",
+        })),
+      );
     expect(cells).toHaveLength(6);
     expect(new Set(cells.map((c) => c.corner))).toEqual(new Set(["nominal", "loss −10 %", "loss +10 %"]));
     // One binding corner per channel, at its lowest headroom.

@@ -26,7 +26,12 @@ describe("the run page over the wire", () => {
     page.on("requestfinished", async (request) => {
       const response = await request.response();
       const s = await request.sizes();
-      sizes.push({ url: request.url(), type: request.resourceType(), bytes: s.responseBodySize, encoding: (await response?.allHeaders())?.["content-encoding"] ?? null });
+      sizes.push({
+        url: request.url(),
+        type: request.resourceType(),
+        bytes: s.responseBodySize,
+        encoding: (await response?.allHeaders())?.["content-encoding"] ?? null,
+      });
     });
     await page.goto(`${baseUrl}/runs/${run.id}`, { waitUntil: "networkidle" });
     // Islands below the fold load when they come into view: scroll through the page first.
@@ -35,10 +40,15 @@ describe("the run page over the wire", () => {
     await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
     const byType: Record<string, number> = {};
     for (const s of sizes) byType[s.type] = (byType[s.type] ?? 0) + s.bytes;
-    writeFileSync(join(screenshotDir, "run-page-transfer.json"), JSON.stringify({ run: run.id, byType, requests: sizes }, null, 2));
+    writeFileSync(
+      join(screenshotDir, "run-page-transfer.json"),
+      JSON.stringify({ run: run.id, byType, requests: sizes }, null, 2),
+    );
     expect(byType.script).toBeGreaterThan(0);
     expect(byType.script).toBeLessThan(200_000);
-    for (const s of sizes.filter((x) => (x.type === "script" || x.type === "stylesheet" || x.type === "document") && x.bytes > 1024)) {
+    for (const s of sizes.filter(
+      (x) => (x.type === "script" || x.type === "stylesheet" || x.type === "document") && x.bytes > 1024,
+    )) {
       expect(s.encoding, s.url).toMatch(/^(br|gzip)$/);
     }
   });

@@ -22,7 +22,11 @@ afterAll(async () => {
 });
 
 const stamp = Date.now().toString(36);
-const file = (name: string, text: string | Uint8Array) => ({ name, mimeType: "application/octet-stream", buffer: Buffer.from(text) });
+const file = (name: string, text: string | Uint8Array) => ({
+  name,
+  mimeType: "application/octet-stream",
+  buffer: Buffer.from(text),
+});
 
 /** Opens a page and waits until every island on it has hydrated. */
 async function open(path: string) {
@@ -33,14 +37,20 @@ async function open(path: string) {
 describe("channels in the browser", () => {
   it("uploads a 4-port Touchstone file after previewing SDD21 for two pairings", async () => {
     await open("/channels");
-    await page.getByLabel("Channel file", { exact: true }).setInputFiles(file(`browser-lane-${stamp}.s4p`, files.s4p(20)));
+    await page
+      .getByLabel("Channel file", { exact: true })
+      .setInputFiles(file(`browser-lane-${stamp}.s4p`, files.s4p(20)));
     const preview = page.getByTestId("upload-preview");
     await preview.waitFor();
     await expect(preview.textContent()).resolves.toMatch(/loss at Nyquist 20\.\d dB/);
     await page.getByLabel("Port pairing").selectOption({ label: "1,3 → 2,4 (thrus 1→2 and 3→4)" });
-    await page.waitForFunction(() => /loss at Nyquist [4-9]\d\.\d dB/.test(document.querySelector("[data-testid=upload-preview]")?.textContent ?? ""));
+    await page.waitForFunction(() =>
+      /loss at Nyquist [4-9]\d\.\d dB/.test(document.querySelector("[data-testid=upload-preview]")?.textContent ?? ""),
+    );
     await page.getByLabel("Port pairing").selectOption({ label: "1,2 → 3,4 (inputs on 1 and 2)" });
-    await page.waitForFunction(() => /loss at Nyquist 20\.\d dB/.test(document.querySelector("[data-testid=upload-preview]")?.textContent ?? ""));
+    await page.waitForFunction(() =>
+      /loss at Nyquist 20\.\d dB/.test(document.querySelector("[data-testid=upload-preview]")?.textContent ?? ""),
+    );
     await page.getByLabel("Name", { exact: true }).fill(`Browser lane ${stamp}`);
     await page.getByRole("button", { name: "Upload and derive the pulse" }).click();
     await page.waitForURL(/\/channels\/\d+$/);
@@ -55,7 +65,9 @@ describe("channels in the browser", () => {
   it("shows a broken file's error inline, naming the line", async () => {
     await open("/channels");
     const descending = badFiles.find((b) => b.what === "descending frequencies")!;
-    await page.getByLabel("Channel file", { exact: true }).setInputFiles(file(descending.filename, descending.body() as string));
+    await page
+      .getByLabel("Channel file", { exact: true })
+      .setInputFiles(file(descending.filename, descending.body() as string));
     const error = page.getByTestId("upload-error");
     await error.waitFor();
     await expect(error.textContent()).resolves.toMatch(/line 4: frequencies must ascend/);
@@ -63,7 +75,9 @@ describe("channels in the browser", () => {
     const nan = badFiles.find((b) => b.what === "NaN")!;
     await page.getByLabel("Channel file", { exact: true }).setInputFiles(file(nan.filename, nan.body() as string));
     await page.getByRole("button", { name: "Upload and derive the pulse" }).click();
-    await page.waitForFunction(() => /line 3/.test(document.querySelector("[data-testid=upload-error]")?.textContent ?? ""));
+    await page.waitForFunction(() =>
+      /line 3/.test(document.querySelector("[data-testid=upload-error]")?.textContent ?? ""),
+    );
     await page.screenshot({ path: join(screenshotDir, "channel-upload-error.png") });
     expect(page.url()).toBe(`${baseUrl}/channels`);
   });
@@ -91,7 +105,8 @@ function paintedPixels(testId: string): Promise<number> {
     if (!canvas || canvas.width === 0) return 0;
     const data = canvas.getContext("2d")!.getImageData(0, 0, canvas.width, canvas.height).data;
     let n = 0;
-    for (let i = 0; i < data.length; i += 4) if (data[i + 3] > 0 && (data[i] < 250 || data[i + 1] < 250 || data[i + 2] < 250)) n++;
+    for (let i = 0; i < data.length; i += 4)
+      if (data[i + 3] > 0 && (data[i] < 250 || data[i + 1] < 250 || data[i + 2] < 250)) n++;
     return n;
   }, testId);
 }
@@ -101,7 +116,11 @@ describe("a tuning run in the browser", () => {
     // Its own channel (the 20 dB four-port file) and budget (the NRZ backplane starting point), made through the API.
     const designer = await signIn("designer");
     const laneName = `Run lane ${stamp}`;
-    const channel = await upload(designer, "/api/v1/channels", `run-lane-${stamp}.s4p`, files.s4p(20), { name: laneName, bitRate_bps: "28e9", pairs: "1,2,3,4" });
+    const channel = await upload(designer, "/api/v1/channels", `run-lane-${stamp}.s4p`, files.s4p(20), {
+      name: laneName,
+      bitRate_bps: "28e9",
+      pairs: "1,2,3,4",
+    });
     expect(channel.status, await channel.clone().text()).toBe(201);
     const backplane = budgetPresets.find((p) => p.key === "nrz28-backplane")!;
     const made = await designer.send("POST", "/api/v1/budgets", { name: `Run budget ${stamp}`, ...backplane.budget });
@@ -112,14 +131,25 @@ describe("a tuning run in the browser", () => {
     await page.getByRole("button", { name: "Start tuning run" }).click();
     await page.waitForURL(/\/runs\/\d+$/);
     // The run takes seconds, so the page opens on the progress bar and then reloads onto the result.
-    if ((await page.getByTestId("run-status").textContent()) !== "Done") await page.getByRole("progressbar", { name: "Run progress" }).waitFor();
+    if ((await page.getByTestId("run-status").textContent()) !== "Done")
+      await page.getByRole("progressbar", { name: "Run progress" }).waitFor();
     await page.getByTestId("verdict").waitFor({ timeout: 60_000 });
     await expect(page.getByTestId("run-status").textContent()).resolves.toBe("Done");
     await expect.poll(() => paintedPixels("eye-before")).toBeGreaterThan(1000);
     await expect.poll(() => paintedPixels("eye-after")).toBeGreaterThan(1000);
-    await expect(page.getByTestId("verdict").textContent()).resolves.toMatch(/All clear|Linear reach exhausted|does not close/);
+    await expect(page.getByTestId("verdict").textContent()).resolves.toMatch(
+      /All clear|Linear reach exhausted|does not close/,
+    );
     const metrics = await page.getByTestId("metrics").textContent();
-    for (const words of ["Eye height", "Eye width", "Limiter headroom", "Residual ISI", "CTLE noise gain", "Transmit FIR"]) expect(metrics).toContain(words);
+    for (const words of [
+      "Eye height",
+      "Eye width",
+      "Limiter headroom",
+      "Residual ISI",
+      "CTLE noise gain",
+      "Transmit FIR",
+    ])
+      expect(metrics).toContain(words);
     expect(await page.getByTestId("dfe-taps").locator("tbody tr").count()).toBe(5);
     // Each sampling policy explains itself in a tooltip, the one used is marked; DFE error propagation
     // has its row and its sentence in the verdict; the eyes say which noise and jitter they carry.
@@ -128,7 +158,9 @@ describe("a tuning run in the browser", () => {
       await expect(policyRow.locator(`[data-policy="${key}"]`).getAttribute("title")).resolves.toMatch(/^.{60,}$/);
     }
     expect(await policyRow.locator('[aria-current="true"]').count()).toBe(1);
-    await expect(page.getByTestId("error-propagation").textContent()).resolves.toMatch(/BER ×\d|not modelled|not measured/);
+    await expect(page.getByTestId("error-propagation").textContent()).resolves.toMatch(
+      /BER ×\d|not modelled|not measured/,
+    );
     await expect(page.getByTestId("verdict").textContent()).resolves.toMatch(/error propagation/i);
     await expect(page.getByRole("region", { name: "Eyes" }).textContent()).resolves.toMatch(/mV rms noise/);
     await page.getByRole("img", { name: "Bathtub" }).waitFor();
@@ -140,7 +172,11 @@ describe("a tuning run in the browser", () => {
   it("the demo's long lane shows Linear reach exhausted with the fewest DFE taps; its short lane the all-clear", async () => {
     await open("/runs");
     const rows = page.getByTestId("run-table").locator("tbody tr");
-    await rows.filter({ hasText: "Slot 11 lane 2" }).first().getByRole("link", { name: /^#\d+$/ }).click();
+    await rows
+      .filter({ hasText: "Slot 11 lane 2" })
+      .first()
+      .getByRole("link", { name: /^#\d+$/ })
+      .click();
     await page.waitForURL(/\/runs\/\d+$/);
     const verdict = page.getByTestId("verdict");
     await expect(verdict.getAttribute("data-verdict")).resolves.toBe("exhausted");
@@ -149,7 +185,11 @@ describe("a tuning run in the browser", () => {
     await page.screenshot({ path: join(screenshotDir, "run-linear-reach-exhausted.png"), fullPage: true });
 
     await open("/runs");
-    await rows.filter({ hasText: "Slot 2 lane 0" }).last().getByRole("link", { name: /^#\d+$/ }).click();
+    await rows
+      .filter({ hasText: "Slot 2 lane 0" })
+      .last()
+      .getByRole("link", { name: /^#\d+$/ })
+      .click();
     await page.waitForURL(/\/runs\/\d+$/);
     await expect(verdict.getAttribute("data-verdict")).resolves.toBe("clear");
     await expect(verdict.locator("h2").textContent()).resolves.toMatch(/^All clear/);

@@ -10,7 +10,10 @@ const libDir = join(root, "lib");
 
 const FORBIDDEN: [RegExp, string][] = [
   [/^node:/, "Node built-ins (node:*)"],
-  [/^(fs|path|child_process|os|http|https|net|url|util|stream|worker_threads|process|buffer|crypto)(\/|$)/, "Node built-ins"],
+  [
+    /^(fs|path|child_process|os|http|https|net|url|util|stream|worker_threads|process|buffer|crypto)(\/|$)/,
+    "Node built-ins",
+  ],
   [/^astro(:|\/|$)/, "Astro"],
   [/^@astrojs\//, "Astro integrations"],
   [/^react(-dom)?(\/|$)/, "React"],
@@ -24,12 +27,11 @@ describe("lib/ dependency rule (shared/style.md, habit 14)", () => {
 
   it("finds the engine's files and reads their imports", () => {
     expect(files.length).toBeGreaterThan(40);
-    expect(specifiers('import { a } from "x";\nexport * from "./y.ts";\nimport type { T } from "node:fs";\nconst m = await import("react");')).toEqual([
-      "x",
-      "./y.ts",
-      "node:fs",
-      "react",
-    ]);
+    expect(
+      specifiers(
+        'import { a } from "x";\nexport * from "./y.ts";\nimport type { T } from "node:fs";\nconst m = await import("react");',
+      ),
+    ).toEqual(["x", "./y.ts", "node:fs", "react"]);
   });
 
   it("nothing in lib/ imports src/, astro:*, React, Drizzle or node:* (only lib/cli/main.ts may use node:*)", () => {
@@ -40,7 +42,9 @@ describe("lib/ dependency rule (shared/style.md, habit 14)", () => {
         if (rel === "lib/cli/main.ts" && /^node:/.test(spec)) continue;
         for (const [re, what] of FORBIDDEN) if (re.test(spec)) offences.push(`${rel} imports ${spec} (${what})`);
         if (spec.startsWith(".")) {
-          const target = relative(root, join(file, "..", spec)).split("\\").join("/");
+          const target = relative(root, join(file, "..", spec))
+            .split("\\")
+            .join("/");
           if (!target.startsWith("lib/")) offences.push(`${rel} imports ${spec}, outside lib/`);
         }
       }

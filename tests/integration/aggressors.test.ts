@@ -41,7 +41,11 @@ describe("a victim with its aggressors", () => {
     expect(sum).toBe(sha256(body));
     const detail = await (await designer.get(`/api/v1/channels/${id}`)).json();
     expect(detail.lossAtNyquist_dB).toBeCloseTo(18, 1);
-    expect(detail.derivation).toMatchObject({ transfer: "SDD21", ports: 12, pairs: { inP: 1, inN: 2, outP: 7, outN: 8 } });
+    expect(detail.derivation).toMatchObject({
+      transfer: "SDD21",
+      ports: 12,
+      pairs: { inP: 1, inN: 2, outP: 7, outN: 8 },
+    });
     const list = detail.aggressors as Aggressor[];
     expect(list.map((a) => [a.position, a.name, a.kind, a.source])).toEqual([
       [0, "Lane 2, driven at the receiver's end", "next", "ports"],
@@ -86,7 +90,10 @@ describe("a victim with its aggressors", () => {
       ["fext", "coupling", null],
     ]);
     expect(list[1].coupling).toBeNull(); // a time-domain record has no coupling curve
-    for (const [i, body] of [[0, path], [1, csv]] as const) {
+    for (const [i, body] of [
+      [0, path],
+      [1, csv],
+    ] as const) {
       const r = await designer.get(`/api/v1/channels/${id}/aggressors/${i}/original`);
       expect(r.status).toBe(200);
       expect(Buffer.from(new Uint8Array(await r.arrayBuffer())).equals(Buffer.from(body))).toBe(true);
@@ -101,10 +108,17 @@ describe("a victim with its aggressors", () => {
       name: unique("Synthetic with NEXT"),
       bitRate_bps: BIT_RATE,
       lossModel: { lossAtNyquist_dB: 20, delay_s: 2e-9 },
-      aggressors: [{ source: "coupling", kind: "next", coupling: { backwardCoefficient: 0.015, lossAtNyquist_dB: 1, delay_s: 2e-10 } }],
+      aggressors: [
+        {
+          source: "coupling",
+          kind: "next",
+          coupling: { backwardCoefficient: 0.015, lossAtNyquist_dB: 1, delay_s: 2e-10 },
+        },
+      ],
     });
     expect(res.status, await res.clone().text()).toBe(201);
-    const list = (await (await designer.get(`/api/v1/channels/${(await res.json()).id}`)).json()).aggressors as Aggressor[];
+    const list = (await (await designer.get(`/api/v1/channels/${(await res.json()).id}`)).json())
+      .aggressors as Aggressor[];
     expect(list).toHaveLength(1);
     expect(list[0]).toMatchObject({ kind: "next", source: "coupling", name: "NEXT 1" });
   });
@@ -116,8 +130,18 @@ describe("a victim with its aggressors", () => {
       bitRate_bps: BIT_RATE,
       lossModel: { lossAtNyquist_dB: 16, delay_s: 2e-9 },
       aggressors: [
-        { source: "coupling", kind: "next", name: "Lane 3 NEXT", coupling: { backwardCoefficient: 0.02, lossAtNyquist_dB: 1, delay_s: 2e-10 } },
-        { source: "coupling", kind: "fext", name: "Lane 1 FEXT", coupling: { forwardCoupling_s: 3e-12, lossAtNyquist_dB: 16, delay_s: 2e-9 } },
+        {
+          source: "coupling",
+          kind: "next",
+          name: "Lane 3 NEXT",
+          coupling: { backwardCoefficient: 0.02, lossAtNyquist_dB: 1, delay_s: 2e-10 },
+        },
+        {
+          source: "coupling",
+          kind: "fext",
+          name: "Lane 1 FEXT",
+          coupling: { forwardCoupling_s: 3e-12, lossAtNyquist_dB: 16, delay_s: 2e-9 },
+        },
       ],
     });
     expect(channel.status, await channel.clone().text()).toBe(201);
@@ -151,7 +175,12 @@ describe("a victim with its aggressors", () => {
     expect(run.result.loss.channelAtNyquist_dB).toBeCloseTo(16, 0);
     expect(run.result.loss.packageShare).toBeGreaterThan(0);
     const page = await (await designer.get(`/runs/${id}`)).text();
-    for (const marker of ['data-testid="eye-without-crosstalk"', 'data-testid="crosstalk-aggressors"', "Lane 1 FEXT", 'data-testid="package-share"']) {
+    for (const marker of [
+      'data-testid="eye-without-crosstalk"',
+      'data-testid="crosstalk-aggressors"',
+      "Lane 1 FEXT",
+      'data-testid="package-share"',
+    ]) {
       expect(page).toContain(marker);
     }
   }, 150_000);
@@ -179,13 +208,44 @@ describe("a victim with its aggressors", () => {
   it("aggressors that do not fit are refused with a message naming them, and nothing is stored", async () => {
     const designer = await signIn("designer");
     const before = await rowCounts();
-    const cases: { file: [string, string]; aggressors: unknown; status: number; says: RegExp; more?: Record<string, { filename: string; body: string }> }[] = [
-      { file: ["lane.s4p", files.s4p(12)], aggressors: [{ source: "ports", kind: "next", p: 5, n: 6 }], status: 422, says: /multi-port Touchstone/ },
-      { file: ["lane.s4p", files.s4p(12)], aggressors: [{ source: "file", kind: "next", field: "aggressor3" }], status: 400, says: /no file came/ },
+    const cases: {
+      file: [string, string];
+      aggressors: unknown;
+      status: number;
+      says: RegExp;
+      more?: Record<string, { filename: string; body: string }>;
+    }[] = [
+      {
+        file: ["lane.s4p", files.s4p(12)],
+        aggressors: [{ source: "ports", kind: "next", p: 5, n: 6 }],
+        status: 422,
+        says: /multi-port Touchstone/,
+      },
+      {
+        file: ["lane.s4p", files.s4p(12)],
+        aggressors: [{ source: "file", kind: "next", field: "aggressor3" }],
+        status: 400,
+        says: /no file came/,
+      },
       { file: ["lane.s4p", files.s4p(12)], aggressors: "not json", status: 400, says: /JSON array/ },
-      { file: ["lane.s4p", files.s4p(12)], aggressors: [{ source: "coupling", kind: "next", coupling: { lossAtNyquist_dB: 1 } }], status: 400, says: /backwardCoefficient/ },
-      { file: ["bundle.s12p", files.s12p(18)], aggressors: [{ source: "ports", kind: "next", p: 7, n: 8 }], status: 422, says: /port 7 appears in more than one pair/ },
-      { file: ["bundle.s12p", files.s12p(18)], aggressors: [{ source: "ports", kind: "fext", p: 13, n: 14 }], status: 422, says: /port 1…12/ },
+      {
+        file: ["lane.s4p", files.s4p(12)],
+        aggressors: [{ source: "coupling", kind: "next", coupling: { lossAtNyquist_dB: 1 } }],
+        status: 400,
+        says: /backwardCoefficient/,
+      },
+      {
+        file: ["bundle.s12p", files.s12p(18)],
+        aggressors: [{ source: "ports", kind: "next", p: 7, n: 8 }],
+        status: 422,
+        says: /port 7 appears in more than one pair/,
+      },
+      {
+        file: ["bundle.s12p", files.s12p(18)],
+        aggressors: [{ source: "ports", kind: "fext", p: 13, n: 14 }],
+        status: 422,
+        says: /port 1…12/,
+      },
       {
         file: ["lane.s4p", files.s4p(12)],
         aggressors: [{ source: "file", kind: "fext", field: "aggressor0" }],
@@ -200,7 +260,11 @@ describe("a victim with its aggressors", () => {
         "/api/v1/channels",
         c.file[0],
         c.file[1],
-        { name: unique("Refused"), bitRate_bps: String(BIT_RATE), aggressors: typeof c.aggressors === "string" ? c.aggressors : JSON.stringify(c.aggressors) },
+        {
+          name: unique("Refused"),
+          bitRate_bps: String(BIT_RATE),
+          aggressors: typeof c.aggressors === "string" ? c.aggressors : JSON.stringify(c.aggressors),
+        },
         c.more,
       );
       const text = await res.text();

@@ -66,11 +66,34 @@ describe("unauthenticated requests", () => {
 describe("the role matrix (api.md), one representative route per row", () => {
   const rows: { row: string; method: string; path: string; body?: unknown; allowed: DemoRole[] }[] = [
     { row: "read channels, budgets, runs, studies, tables", method: "GET", path: "/api/v1/channels", allowed: ROLES },
-    { row: "upload / edit / start / build", method: "POST", path: "/api/v1/budgets", body: {}, allowed: ["admin", "designer"] },
-    { row: "request a sign-off", method: "POST", path: "/api/v1/tap-tables/999999/versions/1/sign-off", body: {}, allowed: ["admin", "designer"] },
-    { row: "decide a sign-off", method: "POST", path: "/api/v1/sign-offs/999999/decision", body: {}, allowed: ["admin", "reviewer"] },
+    {
+      row: "upload / edit / start / build",
+      method: "POST",
+      path: "/api/v1/budgets",
+      body: {},
+      allowed: ["admin", "designer"],
+    },
+    {
+      row: "request a sign-off",
+      method: "POST",
+      path: "/api/v1/tap-tables/999999/versions/1/sign-off",
+      body: {},
+      allowed: ["admin", "designer"],
+    },
+    {
+      row: "decide a sign-off",
+      method: "POST",
+      path: "/api/v1/sign-offs/999999/decision",
+      body: {},
+      allowed: ["admin", "reviewer"],
+    },
     { row: "export tap tables, own API tokens", method: "GET", path: "/api/v1/tokens", allowed: ROLES },
-    { row: "invite, set roles, revoke anyone's tokens, audit", method: "GET", path: "/api/v1/audit", allowed: ["admin"] },
+    {
+      row: "invite, set roles, revoke anyone's tokens, audit",
+      method: "GET",
+      path: "/api/v1/audit",
+      allowed: ["admin"],
+    },
   ];
   const clients = new Map<DemoRole, Awaited<ReturnType<typeof signIn>>>();
 
@@ -101,7 +124,11 @@ describe("the role matrix (api.md), one representative route per row", () => {
 describe("the API's error shape", () => {
   it("answers malformed JSON with 400 and a message a person can act on", async () => {
     const admin = await signIn("admin");
-    const res = await admin.fetch("/api/v1/invitations", { method: "POST", headers: { "content-type": "application/json" }, body: "{not json" });
+    const res = await admin.fetch("/api/v1/invitations", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: "{not json",
+    });
     expect(res.status).toBe(400);
     expect((await res.json()).error.message).toMatch(/JSON/);
   });

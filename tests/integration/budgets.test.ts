@@ -24,8 +24,20 @@ describe("budgets", () => {
     const res = await designer.send("POST", "/api/v1/budgets", body);
     expect(res.status).toBe(201);
     const b = await res.json();
-    expect(b).toMatchObject({ ...body, targetBer: 1e-12, inputNoiseRms_V: 0, requiredHeadroom_V: 0, tx: { pre: 1, post: 1 }, clocking: { scheme: "recovered", policy: "centre" }, createdBy: "Tomas Ekwueme" });
-    expect(await (await designer.get(`/api/v1/budgets/${b.id}`)).json()).toMatchObject({ id: b.id, name: body.name, runCount: 0 });
+    expect(b).toMatchObject({
+      ...body,
+      targetBer: 1e-12,
+      inputNoiseRms_V: 0,
+      requiredHeadroom_V: 0,
+      tx: { pre: 1, post: 1 },
+      clocking: { scheme: "recovered", policy: "centre" },
+      createdBy: "Tomas Ekwueme",
+    });
+    expect(await (await designer.get(`/api/v1/budgets/${b.id}`)).json()).toMatchObject({
+      id: b.id,
+      name: body.name,
+      runCount: 0,
+    });
     const list = await (await designer.get("/api/v1/budgets")).json();
     expect(list.items.some((x: { id: number }) => x.id === b.id)).toBe(true);
     expect(list).toHaveProperty("nextCursor");
@@ -49,7 +61,11 @@ describe("budgets", () => {
       expect(error.path).toBe(path);
       expect(error.message).toMatch(says);
     }
-    const notJson = await designer.fetch("/api/v1/budgets", { method: "POST", headers: { "content-type": "application/json" }, body: "{oops" });
+    const notJson = await designer.fetch("/api/v1/budgets", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: "{oops",
+    });
     expect(notJson.status).toBe(400);
     expect(await rowCounts()).toEqual(before);
   });
@@ -65,7 +81,12 @@ describe("budgets", () => {
     const putClash = await designer.send("PUT", `/api/v1/budgets/${bRes.id}`, { ...b, name: a.name });
     expect(putClash.status).toBe(409);
 
-    const put = await designer.send("PUT", `/api/v1/budgets/${a.id}`, { ...base(), name: a.name, modulation: "pam4", description: "now PAM4" });
+    const put = await designer.send("PUT", `/api/v1/budgets/${a.id}`, {
+      ...base(),
+      name: a.name,
+      modulation: "pam4",
+      description: "now PAM4",
+    });
     expect(put.status).toBe(200);
     expect(await put.json()).toMatchObject({ id: a.id, modulation: "pam4", description: "now PAM4" });
     expect((await designer.send("PUT", "/api/v1/budgets/999999", base())).status).toBe(404);
@@ -98,7 +119,10 @@ describe("budgets", () => {
       ["PUT", `/api/v1/budgets/${made.id}`],
       ["DELETE", `/api/v1/budgets/${made.id}`],
     ]) {
-      expect((await anonymous().send(method, path, method === "GET" ? undefined : base())).status, `anonymous ${method} ${path}`).toBe(401);
+      expect(
+        (await anonymous().send(method, path, method === "GET" ? undefined : base())).status,
+        `anonymous ${method} ${path}`,
+      ).toBe(401);
     }
   });
 });

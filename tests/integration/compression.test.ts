@@ -13,15 +13,19 @@ let designer: Client;
 async function raw(path: string, encoding: string, cookie = "") {
   const { request } = await import("node:http");
   const url = new URL(path, baseUrl);
-  return new Promise<{ status: number; headers: Record<string, string | string[] | undefined>; body: Buffer }>((resolve, reject) => {
-    const req = request(url, { headers: { "accept-encoding": encoding, cookie } }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on("data", (c: Buffer) => chunks.push(c));
-      res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks) }));
-    });
-    req.on("error", reject);
-    req.end();
-  });
+  return new Promise<{ status: number; headers: Record<string, string | string[] | undefined>; body: Buffer }>(
+    (resolve, reject) => {
+      const req = request(url, { headers: { "accept-encoding": encoding, cookie } }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () =>
+          resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks) }),
+        );
+      });
+      req.on("error", reject);
+      req.end();
+    },
+  );
 }
 
 beforeAll(async () => {
@@ -52,7 +56,9 @@ describe("compression", () => {
   it("hashed assets come precompressed from the build, keep their immutable year, and decode to the file", async () => {
     const js = readdirSync(assets).filter((f) => f.endsWith(".js") && readdirSync(assets).includes(`${f}.br`));
     expect(js.length).toBeGreaterThan(5);
-    const largest = js.map((f) => ({ f, size: readFileSync(join(assets, f)).length })).sort((a, b) => b.size - a.size)[0].f;
+    const largest = js
+      .map((f) => ({ f, size: readFileSync(join(assets, f)).length }))
+      .sort((a, b) => b.size - a.size)[0].f;
     const br = await raw(`/_astro/${largest}`, "gzip, deflate, br");
     expect(br.headers["content-encoding"]).toBe("br");
     expect(br.headers["cache-control"]).toBe("public, max-age=31536000, immutable");

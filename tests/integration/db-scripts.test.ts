@@ -14,8 +14,15 @@ const dataDir = mkdtempSync(join(tmpdir(), "tapwright-db-"));
 chmodSync(dataDir, 0o755); // a checkout's folder is open to other accounts; the closed case is tested below
 // A port derived from the web port, so parallel test runs (other PORTs) do not collide.
 const port = 20000 + (Number(process.env.PORT ?? 4399) % 1000);
-const env = { ...process.env, TAPWRIGHT_DATA_DIR: dataDir, DB_PORT: String(port), DB_NAME: "scripts_check", TAPWRIGHT_DB_FAST: "0" };
-const db = (command: string) => execFileSync(process.execPath, [join(root, "scripts", "db.mjs"), command], { env, encoding: "utf8" });
+const env = {
+  ...process.env,
+  TAPWRIGHT_DATA_DIR: dataDir,
+  DB_PORT: String(port),
+  DB_NAME: "scripts_check",
+  TAPWRIGHT_DB_FAST: "0",
+};
+const db = (command: string) =>
+  execFileSync(process.execPath, [join(root, "scripts", "db.mjs"), command], { env, encoding: "utf8" });
 const pid = () => Number(readFileSync(join(dataDir, "mariadb", "mariadbd.pid"), "utf8").trim());
 const alive = (p: number) => {
   try {
@@ -26,10 +33,19 @@ const alive = (p: number) => {
   }
 };
 const appPassword = () => readFileSync(join(dataDir, "db-password"), "utf8").trim();
-const connect = () => mysql.createConnection({ host: "127.0.0.1", port, user: "tapwright", password: appPassword(), database: "scripts_check" });
+const connect = () =>
+  mysql.createConnection({
+    host: "127.0.0.1",
+    port,
+    user: "tapwright",
+    password: appPassword(),
+    database: "scripts_check",
+  });
 const isRoot = process.getuid?.() === 0;
 /** The error a connection attempt fails with (null when it succeeds). */
-async function refusal(options: Parameters<typeof mysql.createConnection>[0]): Promise<{ errno?: number; message: string } | null> {
+async function refusal(
+  options: Parameters<typeof mysql.createConnection>[0],
+): Promise<{ errno?: number; message: string } | null> {
   try {
     const c = await mysql.createConnection(options);
     await c.end();
@@ -99,7 +115,12 @@ describe("scripts/db.mjs", () => {
 
   it.runIf(isRoot)("run as root, the server process runs as the unprivileged mysql account", () => {
     const uid = Number(/^Uid:\s+(\d+)/m.exec(readFileSync(`/proc/${pid()}/status`, "utf8"))![1]);
-    const mysqlUid = Number(readFileSync("/etc/passwd", "utf8").split("\n").find((l) => l.startsWith("mysql:"))!.split(":")[2]);
+    const mysqlUid = Number(
+      readFileSync("/etc/passwd", "utf8")
+        .split("\n")
+        .find((l) => l.startsWith("mysql:"))!
+        .split(":")[2],
+    );
     expect(uid).toBe(mysqlUid);
     expect(statSync(join(dataDir, "mariadb", "data")).uid).toBe(mysqlUid);
   });
@@ -117,7 +138,8 @@ describe("scripts/db.mjs in a checkout the mysql account cannot enter", () => {
     const closed = mkdtempSync(join(tmpdir(), "tapwright-closed-")); // mode 0700, owned by root
     const data = join(closed, "checkout", ".data");
     const env2 = { ...env, TAPWRIGHT_DATA_DIR: data, DB_PORT: String(port + 1) };
-    const run = (command: string) => execFileSync(process.execPath, [join(root, "scripts", "db.mjs"), command], { env: env2, encoding: "utf8" });
+    const run = (command: string) =>
+      execFileSync(process.execPath, [join(root, "scripts", "db.mjs"), command], { env: env2, encoding: "utf8" });
     let target = "";
     try {
       expect(run("start")).toMatch(/is closed to the mysql account/);

@@ -37,7 +37,12 @@ interface Pair {
   linearReachExhausted: boolean | null;
 }
 
-const progressOf = async (client: Client, id: number) => (await (await client.get(`/api/v1/sweeps/${id}?fields=status`)).json()) as { status: string; done: number; total: number };
+const progressOf = async (client: Client, id: number) =>
+  (await (await client.get(`/api/v1/sweeps/${id}?fields=status`)).json()) as {
+    status: string;
+    done: number;
+    total: number;
+  };
 const sweepDone = (client: Client, id: number, timeout_ms = 300_000) =>
   eventually(
     async () => {
@@ -48,22 +53,37 @@ const sweepDone = (client: Client, id: number, timeout_ms = 300_000) =>
     `sweep ${id} to finish`,
   );
 const startSweep = async (client: Client, name: string) => {
-  const r = await client.send("POST", "/api/v1/sweeps", { name: unique(name), channelIds: pop.channelIds, budgetId: pop.budgetId, corners: CORNERS });
+  const r = await client.send("POST", "/api/v1/sweeps", {
+    name: unique(name),
+    channelIds: pop.channelIds,
+    budgetId: pop.budgetId,
+    corners: CORNERS,
+  });
   expect(r.status).toBe(202);
   return (await r.json()).id as number;
 };
 /** Result rows per pair, straight from MariaDB: every pair must have exactly one. */
 async function rowsPerPair(sweepId: number): Promise<number[]> {
-  const [rows] = await db.query("SELECT COUNT(*) AS n FROM sweep_results WHERE sweep_id = ? GROUP BY channel_id, corner_index", [sweepId]);
+  const [rows] = await db.query(
+    "SELECT COUNT(*) AS n FROM sweep_results WHERE sweep_id = ? GROUP BY channel_id, corner_index",
+    [sweepId],
+  );
   return (rows as { n: number }[]).map((r) => Number(r.n));
 }
 
 beforeAll(async () => {
   db = mysql.createPool({ uri: process.env.DATABASE_URL!, connectionLimit: 2 });
   const port = await freePort();
-  server = await startServer(port, { TAPWRIGHT_QUEUE: "bullmq", REDIS_URL: process.env.REDIS_URL!, TAPWRIGHT_JOB_LOCK_S: "3" });
+  server = await startServer(port, {
+    TAPWRIGHT_QUEUE: "bullmq",
+    REDIS_URL: process.env.REDIS_URL!,
+    TAPWRIGHT_JOB_LOCK_S: "3",
+  });
   workers = await Promise.all([startWorker("worker-a"), startWorker("worker-b")]);
-  [bullDesigner, embeddedDesigner] = await Promise.all([signIn("designer", undefined, server.base), signIn("designer")]);
+  [bullDesigner, embeddedDesigner] = await Promise.all([
+    signIn("designer", undefined, server.base),
+    signIn("designer"),
+  ]);
   pop = await population(bullDesigner, LOSSES, { tx: { pre: 1, post: 1, step: 0.05 } });
 }, 120_000);
 
@@ -79,9 +99,15 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
 
   it("a worker killed with SIGKILL mid-sweep: the sweep completes and each of the 52 pairs is stored exactly once", async () => {
     bullSweep = await startSweep(bullDesigner, "Distributed");
-    await eventually(async () => ((await progressOf(bullDesigner, bullSweep)).done >= 6 ? true : undefined), 120_000, "the first pairs");
+    await eventually(
+      async () => ((await progressOf(bullDesigner, bullSweep)).done >= 6 ? true : undefined),
+      120_000,
+      "the first pairs",
+    );
     const victim = workers[0];
-    const [held] = await db.query("SELECT COUNT(*) AS n FROM jobs WHERE status = 'running' AND locked_by = ?", [victim.name]);
+    const [held] = await db.query("SELECT COUNT(*) AS n FROM jobs WHERE status = 'running' AND locked_by = ?", [
+      victim.name,
+    ]);
     await victim.kill("SIGKILL");
     const mid = await progressOf(bullDesigner, bullSweep);
     expect(mid.done).toBeLessThan(52);
@@ -93,7 +119,10 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
     expect(counts.every((n) => n === 1)).toBe(true);
     // The batch the dead worker held was taken over by a new attempt (when it held one at the kill).
     if (Number((held as { n: number }[])[0].n) > 0) {
-      const [retried] = await db.query("SELECT COUNT(*) AS n FROM jobs WHERE parent_id = (SELECT job_id FROM sweeps WHERE id = ?) AND attempts > 1", [bullSweep]);
+      const [retried] = await db.query(
+        "SELECT COUNT(*) AS n FROM jobs WHERE parent_id = (SELECT job_id FROM sweeps WHERE id = ?) AND attempts > 1",
+        [bullSweep],
+      );
       expect(Number((retried as { n: number }[])[0].n)).toBeGreaterThanOrEqual(1);
     }
     workers[0] = await startWorker("worker-c");
@@ -101,7 +130,11 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
 
   it("Redis restarted mid-sweep: nothing is lost", async () => {
     const id = await startSweep(bullDesigner, "Through a Redis restart");
-    await eventually(async () => ((await progressOf(bullDesigner, id)).done >= 6 ? true : undefined), 120_000, "the first pairs");
+    await eventually(
+      async () => ((await progressOf(bullDesigner, id)).done >= 6 ? true : undefined),
+      120_000,
+      "the first pairs",
+    );
     await restartRedis(1500);
     const s = await sweepDone(bullDesigner, id);
     expect(s.status).toBe("done");
@@ -111,12 +144,20 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
   });
 
   it("a worker frozen past its lock (SIGSTOP): the other takes its batch over, and the frozen one's result is refused when it wakes", async () => {
-    const r = await bullDesigner.send("POST", "/api/v1/sweeps", { name: unique("Frozen worker"), channelIds: pop.channelIds.slice(0, 4), budgetId: pop.budgetId, corners: CORNERS });
+    const r = await bullDesigner.send("POST", "/api/v1/sweeps", {
+      name: unique("Frozen worker"),
+      channelIds: pop.channelIds.slice(0, 4),
+      budgetId: pop.budgetId,
+      corners: CORNERS,
+    });
     expect(r.status).toBe(202);
     const id = (await r.json()).id as number;
     const victim = workers[1];
     const runningOn = async (who: string) => {
-      const [rows] = await db.query("SELECT j.id, j.attempts FROM jobs j JOIN sweeps s ON j.parent_id = s.job_id WHERE s.id = ? AND j.status = 'running' AND j.locked_by = ?", [id, who]);
+      const [rows] = await db.query(
+        "SELECT j.id, j.attempts FROM jobs j JOIN sweeps s ON j.parent_id = s.job_id WHERE s.id = ? AND j.status = 'running' AND j.locked_by = ?",
+        [id, who],
+      );
       return (rows as { id: number; attempts: number }[])[0];
     };
     // Freeze the victim while it holds a batch (if it finished that batch in the instant before, wake it and wait for its next).
@@ -139,7 +180,11 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
     } finally {
       process.kill(victim.pid, "SIGCONT");
     }
-    await eventually(async () => (victim.output().includes(`job ${held.id} was taken over by a newer attempt`) ? true : undefined), 60_000, "the woken worker to drop its result");
+    await eventually(
+      async () => (victim.output().includes(`job ${held.id} was taken over by a newer attempt`) ? true : undefined),
+      60_000,
+      "the woken worker to drop its result",
+    );
     const s = await sweepDone(bullDesigner, id);
     expect(s.status).toBe("done");
     const counts = await rowsPerPair(id);
@@ -147,13 +192,21 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
     expect(counts.every((n) => n === 1)).toBe(true);
   });
 
-  it.runIf(process.getuid?.() === 0)("run as root, the private Redis runs as the unprivileged redis account, which owns its data (after the restart too)", () => {
-    const pid = Number(readFileSync(join(process.env.TAPWRIGHT_REDIS_DIR!, "redis.pid"), "utf8").trim());
-    const uid = Number(/^Uid:\s+(\d+)/m.exec(readFileSync(`/proc/${pid}/status`, "utf8"))![1]);
-    const redisUid = Number(readFileSync("/etc/passwd", "utf8").split("\n").find((l) => l.startsWith("redis:"))!.split(":")[2]);
-    expect(uid).toBe(redisUid);
-    expect(statSync(join(process.env.TAPWRIGHT_REDIS_DIR!, "data")).uid).toBe(redisUid);
-  });
+  it.runIf(process.getuid?.() === 0)(
+    "run as root, the private Redis runs as the unprivileged redis account, which owns its data (after the restart too)",
+    () => {
+      const pid = Number(readFileSync(join(process.env.TAPWRIGHT_REDIS_DIR!, "redis.pid"), "utf8").trim());
+      const uid = Number(/^Uid:\s+(\d+)/m.exec(readFileSync(`/proc/${pid}/status`, "utf8"))![1]);
+      const redisUid = Number(
+        readFileSync("/etc/passwd", "utf8")
+          .split("\n")
+          .find((l) => l.startsWith("redis:"))!
+          .split(":")[2],
+      );
+      expect(uid).toBe(redisUid);
+      expect(statSync(join(process.env.TAPWRIGHT_REDIS_DIR!, "data")).uid).toBe(redisUid);
+    },
+  );
 
   it("the same sweep on the embedded queue gives the same numbers", async () => {
     const embedded = await startSweep(embeddedDesigner, "Embedded twin");
@@ -172,7 +225,14 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
     const request = (name: string) => ({
       name: unique(name),
       budgetId: pop.budgetId,
-      architecture: { key: "tx1-1-ctle-dfe2", label: "TX FIR 1/1 · CTLE · DFE 2", tx: { pre: 1, post: 1 }, ctle: true, dfeTaps: 2, ffe: null },
+      architecture: {
+        key: "tx1-1-ctle-dfe2",
+        label: "TX FIR 1/1 · CTLE · DFE 2",
+        tx: { pre: 1, post: 1 },
+        ctle: true,
+        dfeTaps: 2,
+        ffe: null,
+      },
       grouping: { mode: "loss-bins", channelIds: pop.channelIds.slice(0, 6), edges_dB: [12] },
     });
     const computed = async (client: Client, name: string) => {
@@ -186,11 +246,20 @@ describe("the distributed queue (BullMQ on Redis, two worker processes)", () => 
         `tap table ${id}`,
       );
     };
-    const [a, b] = await Promise.all([computed(bullDesigner, "Distributed table"), computed(embeddedDesigner, "Embedded table")]);
+    const [a, b] = await Promise.all([
+      computed(bullDesigner, "Distributed table"),
+      computed(embeddedDesigner, "Embedded table"),
+    ]);
     expect(a.job.status, a.job.error?.message).toBe("done");
     expect(a.result.classes).toEqual(b.result.classes);
-    const [parts] = await db.query("SELECT kind, COUNT(*) AS n, SUM(status = 'done') AS ok FROM jobs WHERE parent_id = (SELECT job_id FROM tap_table_versions WHERE id = ?) OR parent_id IN (SELECT id FROM jobs WHERE parent_id = (SELECT job_id FROM tap_table_versions WHERE id = ?)) GROUP BY kind", [a.id, a.id]);
-    expect(Object.fromEntries((parts as { kind: string; n: number }[]).map((p) => [p.kind, Number(p.n)]))).toEqual({ "table-class": 2, "table-member": 6 });
+    const [parts] = await db.query(
+      "SELECT kind, COUNT(*) AS n, SUM(status = 'done') AS ok FROM jobs WHERE parent_id = (SELECT job_id FROM tap_table_versions WHERE id = ?) OR parent_id IN (SELECT id FROM jobs WHERE parent_id = (SELECT job_id FROM tap_table_versions WHERE id = ?)) GROUP BY kind",
+      [a.id, a.id],
+    );
+    expect(Object.fromEntries((parts as { kind: string; n: number }[]).map((p) => [p.kind, Number(p.n)]))).toEqual({
+      "table-class": 2,
+      "table-member": 6,
+    });
   });
 
   it("the admin page shows the distributed backend, its workers and the queue's depth", async () => {

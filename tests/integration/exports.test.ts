@@ -36,9 +36,16 @@ beforeAll(async () => {
   [designer, admin, firmware] = await Promise.all([signIn("designer"), signIn("admin"), signIn("firmware")]);
   const pop = await population(designer, [5, 9, 13, 17, 21, 25, 29]);
   const res = await designer.send("POST", "/api/v1/tap-tables", {
-    name: unique("Export, \"quoted\" table"),
+    name: unique('Export, "quoted" table'),
     budgetId: pop.budgetId,
-    architecture: { key: "tx-ctle-dfe2", label: "TX FIR + CTLE + DFE 2", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 2, ffe: null },
+    architecture: {
+      key: "tx-ctle-dfe2",
+      label: "TX FIR + CTLE + DFE 2",
+      tx: { pre: 0, post: 1 },
+      ctle: true,
+      dfeTaps: 2,
+      ffe: null,
+    },
     grouping: { mode: "loss-bins", edges_dB: [10, 20], channelIds: pop.channelIds },
   });
   const { id } = await res.json();
@@ -59,7 +66,12 @@ describe("exports", () => {
     const rows = parse(await res.text(), { columns: true, skip_empty_lines: true }) as Record<string, string>[];
     expect(rows).toHaveLength(table.classes.length);
     expect(Object.keys(rows[0])).toEqual([
-      "class_index", "class_name", "loss_min_dB", "loss_max_dB", "channel_count", "worst_headroom_mV",
+      "class_index",
+      "class_name",
+      "loss_min_dB",
+      "loss_max_dB",
+      "channel_count",
+      "worst_headroom_mV",
       ...table.registerMap.map((f) => f.name),
     ]);
     table.classes.forEach((c, i) => {
@@ -78,7 +90,12 @@ describe("exports", () => {
     expect(res.status).toBe(200);
     const doc = await res.json();
     expect(doc.format).toBe("tapwright.tap-table/1");
-    expect(doc).toMatchObject({ table: { id: table.id, name: table.name }, version: 1, state: "ready", approval: null });
+    expect(doc).toMatchObject({
+      table: { id: table.id, name: table.name },
+      version: 1,
+      state: "ready",
+      approval: null,
+    });
     expect(doc.registerMap).toEqual(table.registerMap);
     expect(doc.classes.map((c: ClassResult) => c.codes)).toEqual(table.classes.map((c) => c.codes));
     expect(doc.classes.map((c: ClassResult) => c.values)).toEqual(table.classes.map((c) => c.values));
@@ -97,7 +114,7 @@ describe("exports", () => {
     const prefix = header.match(/typedef struct \{[\s\S]*?\} (\w+)_setting_t;/)![1];
     const P = prefix.toUpperCase();
     const prog = [
-      '#include <stdio.h>',
+      "#include <stdio.h>",
       '#include "table.h"',
       "int main(void) {",
       `  unsigned i;`,
@@ -109,17 +126,24 @@ describe("exports", () => {
       "}",
     ].join("\n");
     writeFileSync(join(dir, "main.c"), prog);
-    execFileSync("cc", ["-std=c99", "-Wall", "-Wextra", "-pedantic", "-Werror", "-o", join(dir, "main"), join(dir, "main.c")], { cwd: dir });
+    execFileSync(
+      "cc",
+      ["-std=c99", "-Wall", "-Wextra", "-pedantic", "-Werror", "-o", join(dir, "main"), join(dir, "main.c")],
+      { cwd: dir },
+    );
     const lines = execFileSync(join(dir, "main")).toString().trim().split("\n");
     expect(lines).toHaveLength(table.classes.length + 1);
-    table.classes.forEach((c, i) => expect(lines[i].split(" ").map(Number)).toEqual(table.registerMap.map((f) => c.codes[f.name])));
+    table.classes.forEach((c, i) =>
+      expect(lines[i].split(" ").map(Number)).toEqual(table.registerMap.map((f) => c.codes[f.name])),
+    );
     expect(lines[table.classes.length]).toBe(`1 ${table.registerMap.length}`);
     for (const f of table.registerMap) {
       expect(header).toContain(`#define ${P}_${f.name.toUpperCase()}_BITS ${f.bits}u`);
       expect(header).toContain(`#define ${P}_${f.name.toUpperCase()}_SIGNED ${f.signed ? 1 : 0}`);
     }
     expect(header).toMatch(/NOT SIGNED OFF \(ready\)/);
-    for (const id of ["CLASS_LOSS_LT_10_DB = 0", "CLASS_LOSS_10_TO_20_DB = 1", "CLASS_LOSS_GE_20_DB = 2"]) expect(header).toContain(`${P}_${id}`);
+    for (const id of ["CLASS_LOSS_LT_10_DB = 0", "CLASS_LOSS_10_TO_20_DB = 1", "CLASS_LOSS_GE_20_DB = 2"])
+      expect(header).toContain(`${P}_${id}`);
     expect(header).toContain(`#define ${P}_SIGNED_OFF 0`);
   });
 
@@ -149,13 +173,27 @@ describe("API tokens", () => {
       ["POST", "/api/v1/sign-offs/1/comments", { body: "x" }],
     ];
     for (const [method, path, body] of writes) {
-      const res = await fetch(baseUrl + path, { method, headers: { ...bearer, "content-type": "application/json", origin: baseUrl }, body: JSON.stringify(body) });
+      const res = await fetch(baseUrl + path, {
+        method,
+        headers: { ...bearer, "content-type": "application/json", origin: baseUrl },
+        body: JSON.stringify(body),
+      });
       expect(res.status, `${method} ${path}`).toBe(401);
     }
 
     const events = await auditEvents(admin, "table.export");
-    expect(events.some((e) => e.targetId === String(table.id) && e.actorEmail === "firmware@tapwright.test" && e.detail?.via === "token" && e.detail?.format === "c")).toBe(true);
-    expect(events.some((e) => e.targetId === String(table.id) && e.detail?.via === "session" && e.detail?.format === "csv")).toBe(true);
+    expect(
+      events.some(
+        (e) =>
+          e.targetId === String(table.id) &&
+          e.actorEmail === "firmware@tapwright.test" &&
+          e.detail?.via === "token" &&
+          e.detail?.format === "c",
+      ),
+    ).toBe(true);
+    expect(
+      events.some((e) => e.targetId === String(table.id) && e.detail?.via === "session" && e.detail?.format === "csv"),
+    ).toBe(true);
 
     expect((await firmware.send("DELETE", `/api/v1/tokens/${created.id}`)).status).toBe(200);
     const revoked = await fetch(baseUrl + exportPath("c"), { headers: bearer });

@@ -43,7 +43,10 @@ describe("fenced results", () => {
     expect(row).toMatchObject({ status: "done", attempts: 2, lockedBy: null });
     expect(await claimJob(id, "worker-third")).toBeNull();
     // Put the demo run's own result back.
-    await db.update(runs).set({ result: before, summary: run.summary, engineVersion: run.engineVersion }).where(eq(runs.id, run.id));
+    await db
+      .update(runs)
+      .set({ result: before, summary: run.summary, engineVersion: run.engineVersion })
+      .where(eq(runs.id, run.id));
   });
 
   it("a late job for a signed-off (frozen) version finishes without touching it", async () => {
@@ -51,7 +54,13 @@ describe("fenced results", () => {
     expect(frozen).toBeDefined();
     const id = await distributedJob("table-version", frozen.id);
     const claim = await claimJob(id, "worker-late");
-    const out = await runClaimed(claim!, async () => ({ engineVersion: "late", requiredHeadroom_V: 0, targetBer: 1e-12, classes: [], worstEye: null }));
+    const out = await runClaimed(claim!, async () => ({
+      engineVersion: "late",
+      requiredHeadroom_V: 0,
+      targetBer: 1e-12,
+      classes: [],
+      worstEye: null,
+    }));
     expect(out.kind).toBe("done");
     const [after] = await db.select().from(tapTableVersions).where(eq(tapTableVersions.id, frozen.id));
     expect(after.state).toBe("approved");

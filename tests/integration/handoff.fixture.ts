@@ -18,7 +18,11 @@ export interface Population {
 }
 
 /** Synthetic 28 Gb/s channels with these losses at Nyquist, and the test budget (with `changes`), all uniquely named. */
-export async function population(designer: Client, losses: readonly number[], changes: BudgetChanges = {}): Promise<Population> {
+export async function population(
+  designer: Client,
+  losses: readonly number[],
+  changes: BudgetChanges = {},
+): Promise<Population> {
   const tag = unique("Hand-off");
   const budgetName = `${tag} budget`;
   const b = await designer.send("POST", "/api/v1/budgets", budgetBody(budgetName, changes));
@@ -28,7 +32,11 @@ export async function population(designer: Client, losses: readonly number[], ch
   const names: string[] = [];
   for (const loss of losses) {
     const name = `${tag} ${loss} dB`;
-    const r = await designer.send("POST", "/api/v1/channels", { name, bitRate_bps: 28e9, lossModel: { lossAtNyquist_dB: loss } });
+    const r = await designer.send("POST", "/api/v1/channels", {
+      name,
+      bitRate_bps: 28e9,
+      lossModel: { lossAtNyquist_dB: loss },
+    });
     if (r.status !== 201) throw new Error(`channel: ${r.status} ${await r.text()}`);
     byLoss.set(loss, (await r.json()).id);
     names.push(name);
@@ -68,10 +76,21 @@ export function versionComputed(client: Client, tableId: number, v: number, time
 }
 
 /** TX FIR + CTLE + one DFE tap, given by hand (no study). */
-export const txCtleDfe1 = { key: "tx-ctle-dfe1", label: "TX FIR + CTLE + DFE 1", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 1, ffe: null } as const;
+export const txCtleDfe1 = {
+  key: "tx-ctle-dfe1",
+  label: "TX FIR + CTLE + DFE 1",
+  tx: { pre: 0, post: 1 },
+  ctle: true,
+  dfeTaps: 1,
+  ffe: null,
+} as const;
 
 /** A new tap table over the population, split into loss bins at 16 dB, with v1 computed. */
-export async function computedTable(designer: Client, pop: Population, name: string): Promise<{ id: number; name: string }> {
+export async function computedTable(
+  designer: Client,
+  pop: Population,
+  name: string,
+): Promise<{ id: number; name: string }> {
   const res = await designer.send("POST", "/api/v1/tap-tables", {
     name,
     budgetId: pop.budgetId,
@@ -86,7 +105,12 @@ export async function computedTable(designer: Client, pop: Population, name: str
 }
 
 /** The designer asks the demo reviewer to sign off v1 of a table; the sign-off's id. */
-export async function requestSignOff(designer: Client, reviewer: Client, tableId: number, message?: string): Promise<number> {
+export async function requestSignOff(
+  designer: Client,
+  reviewer: Client,
+  tableId: number,
+  message?: string,
+): Promise<number> {
   const reviewerId = (await (await reviewer.get("/api/v1/me")).json()).id;
   const res = await designer.send("POST", `/api/v1/tap-tables/${tableId}/versions/1/sign-off`, { reviewerId, message });
   if (res.status !== 201) throw new Error(`sign-off request: ${res.status} ${await res.text()}`);
@@ -94,7 +118,12 @@ export async function requestSignOff(designer: Client, reviewer: Client, tableId
 }
 
 /** The reviewer decides a sign-off. */
-export async function decideSignOff(reviewer: Client, signOffId: number, decision: "approve" | "reject", comment: string): Promise<void> {
+export async function decideSignOff(
+  reviewer: Client,
+  signOffId: number,
+  decision: "approve" | "reject",
+  comment: string,
+): Promise<void> {
   const res = await reviewer.send("POST", `/api/v1/sign-offs/${signOffId}/decision`, { decision, comment });
   if (res.status !== 200) throw new Error(`decision: ${res.status} ${await res.text()}`);
 }
@@ -121,5 +150,11 @@ export function mailArrives(admin: Client, to: string, subject: string, timeout_
 /** Audit events of one kind of action, newest first. */
 export async function auditEvents(admin: Client, action: string) {
   const r = await (await admin.get(`/api/v1/audit?action=${encodeURIComponent(action)}&limit=200`)).json();
-  return r.items as { action: string; targetType: string; targetId: string; actorEmail: string; detail: Record<string, unknown> | null }[];
+  return r.items as {
+    action: string;
+    targetType: string;
+    targetId: string;
+    actorEmail: string;
+    detail: Record<string, unknown> | null;
+  }[];
 }

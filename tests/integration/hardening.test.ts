@@ -36,7 +36,12 @@ async function sendLarge(path: string, client: Client, o: { bytes: number; chunk
         },
       })
     : new Uint8Array(o.bytes).fill(0x20);
-  const res = await client.fetch(path, { method: "POST", body, headers: { "content-type": o.type ?? "application/json" }, duplex: "half" } as RequestInit);
+  const res = await client.fetch(path, {
+    method: "POST",
+    body,
+    headers: { "content-type": o.type ?? "application/json" },
+    duplex: "half",
+  } as RequestInit);
   return { status: res.status, body: await res.json() };
 }
 
@@ -51,12 +56,17 @@ describe("request bodies are capped before they are buffered", () => {
 
   it("the public routes too: sign-in and accepting an invitation", async () => {
     expect((await sendLarge("/api/auth/sign-in/email", anonymous(), { bytes: MB100 })).status).toBe(413);
-    expect((await sendLarge("/api/auth/sign-in/email", anonymous(), { bytes: 1024 * 1024, chunked: true })).status).toBe(413);
+    expect(
+      (await sendLarge("/api/auth/sign-in/email", anonymous(), { bytes: 1024 * 1024, chunked: true })).status,
+    ).toBe(413);
     expect((await sendLarge("/api/v1/invitations/abc/accept", anonymous(), { bytes: MB100 })).status).toBe(413);
   });
 
   it("an upload above the upload limit gets 413 naming the limit", async () => {
-    const big = await sendLarge("/api/v1/channels", designer, { bytes: MB100, type: "multipart/form-data; boundary=x" });
+    const big = await sendLarge("/api/v1/channels", designer, {
+      bytes: MB100,
+      type: "multipart/form-data; boundary=x",
+    });
     expect(big.status).toBe(413);
     expect(big.body.error.message).toMatch(/50(\.0)? MiB/);
   });
@@ -64,7 +74,14 @@ describe("request bodies are capped before they are buffered", () => {
 
 describe("the sign-in redirect stays on this site", () => {
   it("next that leaves the origin (backslash, scheme-relative, absolute) goes to the overview instead", async () => {
-    for (const next of ["/%5Cevil.example", "/%5C%5Cevil.example", "//evil.example", "https://evil.example/x", "javascript:alert(1)", "/\t/evil.example"]) {
+    for (const next of [
+      "/%5Cevil.example",
+      "/%5C%5Cevil.example",
+      "//evil.example",
+      "https://evil.example/x",
+      "javascript:alert(1)",
+      "/\t/evil.example",
+    ]) {
       const res = await designer.get(`/sign-in?next=${next}`);
       expect(res.status, next).toBe(302);
       const location = res.headers.get("location")!;
@@ -84,24 +101,44 @@ describe("four eyes on sign-off", () => {
     const res = await admin.send("POST", "/api/v1/tap-tables", {
       name: unique("Four eyes"),
       budgetId: pop.budgetId,
-      architecture: { key: "tx-ctle", label: "TX FIR + CTLE", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 0, ffe: null },
+      architecture: {
+        key: "tx-ctle",
+        label: "TX FIR + CTLE",
+        tx: { pre: 0, post: 1 },
+        ctle: true,
+        dfeTaps: 0,
+        ffe: null,
+      },
       grouping: { mode: "manual", classes: [{ name: "All", channelIds: pop.channelIds }] },
     });
     const { id } = await res.json();
     expect((await versionComputed(admin, id, 1)).job.status).toBe("done");
     const reviewerId = (await (await reviewer.get("/api/v1/me")).json()).id;
     const so = await (await admin.send("POST", `/api/v1/tap-tables/${id}/versions/1/sign-off`, { reviewerId })).json();
-    const own = await admin.send("POST", `/api/v1/sign-offs/${so.id}/decision`, { decision: "approve", comment: "fine by me" });
+    const own = await admin.send("POST", `/api/v1/sign-offs/${so.id}/decision`, {
+      decision: "approve",
+      comment: "fine by me",
+    });
     expect(own.status).toBe(403);
     expect((await own.json()).error.message).toMatch(/you asked for this sign-off.*someone else/i);
-    expect((await reviewer.send("POST", `/api/v1/sign-offs/${so.id}/decision`, { decision: "approve", comment: "checked" })).status).toBe(200);
+    expect(
+      (await reviewer.send("POST", `/api/v1/sign-offs/${so.id}/decision`, { decision: "approve", comment: "checked" }))
+        .status,
+    ).toBe(200);
   });
 
   it("the version's author may not be asked to decide it", async () => {
     const res = await admin.send("POST", "/api/v1/tap-tables", {
       name: unique("Author"),
       budgetId: pop.budgetId,
-      architecture: { key: "tx-ctle", label: "TX FIR + CTLE", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 0, ffe: null },
+      architecture: {
+        key: "tx-ctle",
+        label: "TX FIR + CTLE",
+        tx: { pre: 0, post: 1 },
+        ctle: true,
+        dfeTaps: 0,
+        ffe: null,
+      },
       grouping: { mode: "manual", classes: [{ name: "All", channelIds: pop.channelIds }] },
     });
     const { id } = await res.json();
@@ -109,14 +146,20 @@ describe("four eyes on sign-off", () => {
     const adminId = (await (await admin.get("/api/v1/me")).json()).id;
     const ask = await designer.send("POST", `/api/v1/tap-tables/${id}/versions/1/sign-off`, { reviewerId: adminId });
     expect(ask.status).toBe(422);
-    expect((await ask.json()).error).toMatchObject({ path: "reviewerId", message: expect.stringMatching(/built this version/) });
+    expect((await ask.json()).error).toMatchObject({
+      path: "reviewerId",
+      message: expect.stringMatching(/built this version/),
+    });
   });
 });
 
 describe("original-file downloads", () => {
   it("通道.s2p uploads and downloads: octet-stream, nosniff, an ASCII filename and the exact one as filename*", async () => {
     const body = files.s2p(12);
-    const created = await upload(designer, "/api/v1/channels", "通道.s2p", body, { name: unique("Non-Latin"), bitRate_bps: String(BIT_RATE) });
+    const created = await upload(designer, "/api/v1/channels", "通道.s2p", body, {
+      name: unique("Non-Latin"),
+      bitRate_bps: String(BIT_RATE),
+    });
     expect(created.status).toBe(201);
     const { id } = await created.json();
     const res = await designer.get(`/api/v1/channels/${id}/original`);
@@ -125,7 +168,11 @@ describe("original-file downloads", () => {
     expect(res.headers.get("x-content-type-options")).toBe("nosniff");
     const disposition = res.headers.get("content-disposition")!;
     expect(disposition).toMatch(/^attachment; filename="[\x20-\x7e]+"; filename\*=UTF-8''%E9%80%9A%E9%81%93\.s2p$/);
-    expect(createHash("sha256").update(Buffer.from(await res.arrayBuffer())).digest("hex")).toBe(createHash("sha256").update(body).digest("hex"));
+    expect(
+      createHash("sha256")
+        .update(Buffer.from(await res.arrayBuffer()))
+        .digest("hex"),
+    ).toBe(createHash("sha256").update(body).digest("hex"));
   });
 });
 
@@ -134,7 +181,14 @@ describe("guessing", () => {
     const email = `${unique("guess").replace(/\W+/g, "-")}@tapwright.test`;
     const inv = await (await admin.send("POST", "/api/v1/invitations", { email, role: "firmware" })).json();
     const token = inv.link.split("/invite/")[1];
-    expect((await anonymous().send("POST", `/api/v1/invitations/${token}/accept`, { name: "Guess Target", password: "the-right-password" })).status).toBe(201);
+    expect(
+      (
+        await anonymous().send("POST", `/api/v1/invitations/${token}/accept`, {
+          name: "Guess Target",
+          password: "the-right-password",
+        })
+      ).status,
+    ).toBe(201);
     for (let i = 0; i < 5; i++) expect((await signInRaw(email, `wrong-password-${i}`)).status).toBe(401);
     const right = await signInRaw(email, "the-right-password");
     expect(right.status).toBe(429);
@@ -172,7 +226,9 @@ describe("the outbox", () => {
     const db = await import("mysql2/promise").then((m) => m.createConnection({ uri: process.env.DATABASE_URL! }));
     try {
       const row = await eventually(async () => {
-        const [rows] = (await db.query("SELECT status, body_text AS body FROM mail_outbox WHERE to_address = ?", [email])) as unknown as [{ status: string; body: string }[]];
+        const [rows] = (await db.query("SELECT status, body_text AS body FROM mail_outbox WHERE to_address = ?", [
+          email,
+        ])) as unknown as [{ status: string; body: string }[]];
         return rows[0]?.status === "sent" ? rows[0] : undefined;
       });
       expect(row.body).not.toContain(secret);
@@ -181,7 +237,14 @@ describe("the outbox", () => {
       await db.end();
     }
     // The link itself still works: it was delivered, and the invitation keeps only its hash.
-    expect((await anonymous().send("POST", `/api/v1/invitations/${secret}/accept`, { name: "Outbox Reader", password: "a-long-password-1" })).status).toBe(201);
+    expect(
+      (
+        await anonymous().send("POST", `/api/v1/invitations/${secret}/accept`, {
+          name: "Outbox Reader",
+          password: "a-long-password-1",
+        })
+      ).status,
+    ).toBe(201);
   });
 });
 
@@ -190,7 +253,12 @@ describe("offboarding", () => {
   async function newcomer(role = "designer") {
     const email = `${unique("leaver").replace(/\W+/g, "-")}@tapwright.test`;
     const { link } = await (await admin.send("POST", "/api/v1/invitations", { email, role })).json();
-    const person = await (await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, { name: "Leaving Person", password: "a-long-password-1" })).json();
+    const person = await (
+      await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, {
+        name: "Leaving Person",
+        password: "a-long-password-1",
+      })
+    ).json();
     return { id: person.id as string, email, client: await signIn(email, "a-long-password-1") };
   }
 
@@ -226,7 +294,10 @@ describe("offboarding", () => {
     const open = (await (await admin.get("/api/v1/invitations")).json()).items as { id: number; email: string }[];
     const inv = open.find((i) => i.email === email)!;
     expect((await admin.send("DELETE", `/api/v1/invitations/${inv.id}`)).status).toBe(200);
-    const accept = await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, { name: "Too Late", password: "a-long-password-1" });
+    const accept = await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, {
+      name: "Too Late",
+      password: "a-long-password-1",
+    });
     expect(accept.status).toBe(404);
   });
 
@@ -247,7 +318,12 @@ describe("offboarding", () => {
 
 describe("demo accounts", () => {
   it("production refuses to start while a demo account can sign in", async () => {
-    await expect(startServer(await freePort(), { NODE_ENV: "production", BETTER_AUTH_SECRET: "a-production-secret-of-forty-characters!!" })).rejects.toThrow(/exited with 1/);
+    await expect(
+      startServer(await freePort(), {
+        NODE_ENV: "production",
+        BETTER_AUTH_SECRET: "a-production-secret-of-forty-characters!!",
+      }),
+    ).rejects.toThrow(/exited with 1/);
   });
 });
 
@@ -258,7 +334,14 @@ describe("lists read only what they show", () => {
       const res = await designer.send("POST", "/api/v1/tap-tables", {
         name: unique("Listed"),
         budgetId: pop.budgetId,
-        architecture: { key: "tx-ctle", label: "TX FIR + CTLE", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 0, ffe: null },
+        architecture: {
+          key: "tx-ctle",
+          label: "TX FIR + CTLE",
+          tx: { pre: 0, post: 1 },
+          ctle: true,
+          dfeTaps: 0,
+          ffe: null,
+        },
         grouping: { mode: "manual", classes: [{ name: "All", channelIds: pop.channelIds }] },
       });
       expect(res.status).toBe(202);
@@ -267,14 +350,19 @@ describe("lists read only what they show", () => {
     // Their jobs (a tree per version) read the database too: let them finish before counting.
     for (const id of listed) await versionComputed(designer, id, 1);
     const db = await import("mysql2/promise").then((m) => m.createConnection({ uri: process.env.DATABASE_URL! }));
-    const selects = async () => Number(((await db.query("SHOW GLOBAL STATUS LIKE 'Com_select'"))[0] as { Value: string }[])[0].Value);
+    const selects = async () =>
+      Number(((await db.query("SHOW GLOBAL STATUS LIKE 'Com_select'"))[0] as { Value: string }[])[0].Value);
     try {
       const before = await selects();
       const res = await designer.get("/api/v1/tap-tables?limit=50");
       const after = await selects();
       const { items } = await res.json();
       expect(items.length).toBeGreaterThanOrEqual(4);
-      expect(items.find((t: { name: string }) => t.name.startsWith("Listed"))).toMatchObject({ architecture: "TX FIR + CTLE", classCount: 1, latestVersion: 1 });
+      expect(items.find((t: { name: string }) => t.name.startsWith("Listed"))).toMatchObject({
+        architecture: "TX FIR + CTLE",
+        classCount: 1,
+        latestVersion: 1,
+      });
       // The session's own lookups and a background poll may land in the window; a query per table may not.
       expect(after - before).toBeLessThan(items.length);
     } finally {
@@ -284,15 +372,22 @@ describe("lists read only what they show", () => {
 
   it("the studies list and a study's detail never load the studies' inputs (every channel's pulse)", async () => {
     for (let i = 0; i < 2; i++) {
-      const res = await designer.send("POST", "/api/v1/studies", { name: unique("Listed study"), channelIds: pop.channelIds, budgetId: pop.budgetId });
+      const res = await designer.send("POST", "/api/v1/studies", {
+        name: unique("Listed study"),
+        channelIds: pop.channelIds,
+        budgetId: pop.budgetId,
+      });
       expect(res.status).toBe(202);
       await studyFinished(designer, (await res.json()).id);
     }
     const db = await import("mysql2/promise").then((m) => m.createConnection({ uri: process.env.DATABASE_URL! }));
     // What MariaDB sent to all its clients: the list's share must be far below the inputs' size.
-    const sent = async () => Number(((await db.query("SHOW GLOBAL STATUS LIKE 'Bytes_sent'"))[0] as { Value: string }[])[0].Value);
+    const sent = async () =>
+      Number(((await db.query("SHOW GLOBAL STATUS LIKE 'Bytes_sent'"))[0] as { Value: string }[])[0].Value);
     try {
-      const [[{ inputs_B, newest }]] = (await db.query("SELECT SUM(LENGTH(inputs)) AS inputs_B, MAX(id) AS newest FROM architecture_studies")) as unknown as [{ inputs_B: number; newest: number }[]];
+      const [[{ inputs_B, newest }]] = (await db.query(
+        "SELECT SUM(LENGTH(inputs)) AS inputs_B, MAX(id) AS newest FROM architecture_studies",
+      )) as unknown as [{ inputs_B: number; newest: number }[]];
       expect(Number(inputs_B)).toBeGreaterThan(400_000);
       const before = await sent();
       const list = await designer.get("/api/v1/studies?limit=50");
@@ -300,7 +395,10 @@ describe("lists read only what they show", () => {
       const detail = await designer.get(`/api/v1/studies/${newest}`);
       const after = await sent();
       const { items } = await list.json();
-      expect(items.find((s: { name: string }) => s.name.startsWith("Listed study"))).toMatchObject({ channelCount: 2, status: "done" });
+      expect(items.find((s: { name: string }) => s.name.startsWith("Listed study"))).toMatchObject({
+        channelCount: 2,
+        status: "done",
+      });
       const study = await detail.json();
       expect(study.channels.map((c: { id: number }) => c.id)).toEqual(pop.channelIds);
       expect(study.channels[0]).not.toHaveProperty("pulse");

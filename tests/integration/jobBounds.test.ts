@@ -21,7 +21,8 @@ let designer: Client;
 let pop: Population;
 const servers: TestServer[] = [];
 
-const query = async <T = Record<string, unknown>>(sql: string, params: unknown[] = []) => (await db.query(sql, params))[0] as T[];
+const query = async <T = Record<string, unknown>>(sql: string, params: unknown[] = []) =>
+  (await db.query(sql, params))[0] as T[];
 
 /** A search past the limit for any channel: 2 pre, 4 post taps at 0.01 (1.8e10 FIR settings). */
 const hugeTx = { pre: 2, post: 4, step: 0.01 };
@@ -51,14 +52,23 @@ async function privateQueue(): Promise<PrivateQueue> {
   const own = await mysql.createConnection({ uri: url.toString() });
   return {
     async queueRun(inputs, attempts = 0) {
-      const [job] = await own.query("INSERT INTO jobs (kind, target_id, status, attempts) VALUES ('run', 0, 'queued', ?)", [attempts]);
+      const [job] = await own.query(
+        "INSERT INTO jobs (kind, target_id, status, attempts) VALUES ('run', 0, 'queued', ?)",
+        [attempts],
+      );
       const jobId = (job as { insertId: number }).insertId;
       const [r] = await own.query("INSERT INTO runs (job_id, inputs) VALUES (?, ?)", [jobId, JSON.stringify(inputs)]);
       await own.query("UPDATE jobs SET target_id = ? WHERE id = ?", [(r as { insertId: number }).insertId, jobId]);
       return jobId;
     },
     async status(jobId) {
-      return ((await own.query("SELECT status, error, attempts FROM jobs WHERE id = ?", [jobId]))[0] as { status: string; error: string | null; attempts: number }[])[0];
+      return (
+        (await own.query("SELECT status, error, attempts FROM jobs WHERE id = ?", [jobId]))[0] as {
+          status: string;
+          error: string | null;
+          attempts: number;
+        }[]
+      )[0];
     },
     query: (sql) => own.query(sql),
     async start(env) {
@@ -75,10 +85,14 @@ async function privateQueue(): Promise<PrivateQueue> {
 }
 
 const settled = (q: PrivateQueue, jobId: number) =>
-  eventually(async () => {
-    const s = await q.status(jobId);
-    return s.status === "done" || s.status === "failed" ? s : undefined;
-  }, 90_000, `job ${jobId} to finish`);
+  eventually(
+    async () => {
+      const s = await q.status(jobId);
+      return s.status === "done" || s.status === "failed" ? s : undefined;
+    },
+    90_000,
+    `job ${jobId} to finish`,
+  );
 
 /** The inputs of a run of the quick budget, computed by the suite's server (a real copy of a channel and a budget). */
 let quickInputs: { channel: unknown; budget: { id: number; name: string; params: Record<string, unknown> } };
@@ -104,7 +118,9 @@ describe("the search size", () => {
     expect(res.status).toBe(422);
     const body = await res.json();
     expect(body.error.path).toBe("tx");
-    expect(body.error.message).toMatch(/^The search is too large: 4 CTLE settings × 1\.8e10 transmit FIR settings \(2 pre, 4 post taps at step 0\.01\) × 32 sampling phases = 2\.3e12, above the limit of 1\.0e10\./);
+    expect(body.error.message).toMatch(
+      /^The search is too large: 4 CTLE settings × 1\.8e10 transmit FIR settings \(2 pre, 4 post taps at step 0\.01\) × 32 sampling phases = 2\.3e12, above the limit of 1\.0e10\./,
+    );
     expect(body.error.message).toMatch(/Coarsen it: a transmit FIR step of 0\.04 or more/);
     expect((await rowCounts()).budgets).toBe(before.budgets);
   });
@@ -112,7 +128,10 @@ describe("the search size", () => {
   it("is checked again when a run, a study or a sweep starts (a budget stored before the limit): 422, nothing queued", async () => {
     const b = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Grown")));
     const budgetId = (await b.json()).id;
-    await query("UPDATE budgets SET params = JSON_SET(params, '$.tx', JSON_OBJECT('pre', 2, 'post', 4, 'step', 0.01)) WHERE id = ?", [budgetId]);
+    await query(
+      "UPDATE budgets SET params = JSON_SET(params, '$.tx', JSON_OBJECT('pre', 2, 'post', 4, 'step', 0.01)) WHERE id = ?",
+      [budgetId],
+    );
     const before = await rowCounts();
     const channelIds = pop.channelIds.slice(0, 1);
     for (const [path, body] of [
@@ -124,7 +143,9 @@ describe("the search size", () => {
       expect(res.status, path).toBe(422);
       const { error } = await res.json();
       expect(error.path, path).toBe("budgetId");
-      expect(error.message, path).toMatch(/The search is too large: .* Coarsen it: a transmit FIR step of 0\.04 or more/);
+      expect(error.message, path).toMatch(
+        /The search is too large: .* Coarsen it: a transmit FIR step of 0\.04 or more/,
+      );
     }
     const after = await rowCounts();
     expect([after.runs, after.jobs]).toEqual([before.runs, before.jobs]);
@@ -133,18 +154,31 @@ describe("the search size", () => {
   it("counts a tap-table class's channels together: each channel alone fits, the class of three does not", async () => {
     // 13 CTLE settings × 26⁵ FIR settings × 32 phases = 4.9e9 for one channel (saved), × 3 = 1.5e10 for the class.
     const tx = { pre: 1, post: 4, step: 0.02 };
-    const b = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Wide FIR"), { tx, ctle: { gDc_dB: [-12, 0, 1] } }));
+    const b = await designer.send(
+      "POST",
+      "/api/v1/budgets",
+      budgetBody(unique("Wide FIR"), { tx, ctle: { gDc_dB: [-12, 0, 1] } }),
+    );
     expect(b.status, await b.clone().text()).toBe(201);
     const budgetId = (await b.json()).id;
     const [before] = await query<{ n: number }>("SELECT COUNT(*) AS n FROM tap_tables");
     const res = await designer.send("POST", "/api/v1/tap-tables", {
       name: unique("Too wide"),
       budgetId,
-      architecture: { key: "tx-ctle", label: "TX FIR + CTLE", tx: { pre: 1, post: 4 }, ctle: true, dfeTaps: 0, ffe: null },
+      architecture: {
+        key: "tx-ctle",
+        label: "TX FIR + CTLE",
+        tx: { pre: 1, post: 4 },
+        ctle: true,
+        dfeTaps: 0,
+        ffe: null,
+      },
       grouping: { mode: "manual", classes: [{ name: "All", channelIds: pop.channelIds }] },
     });
     expect(res.status, await res.clone().text()).toBe(422);
-    expect((await res.json()).error.message).toMatch(/× 3 channels together = 1\.5e10, above the limit of 1\.0e10\. Coarsen it: .*fewer channels per class/);
+    expect((await res.json()).error.message).toMatch(
+      /× 3 channels together = 1\.5e10, above the limit of 1\.0e10\. Coarsen it: .*fewer channels per class/,
+    );
     const [after] = await query<{ n: number }>("SELECT COUNT(*) AS n FROM tap_tables");
     expect(after.n).toBe(before.n);
   });
@@ -153,15 +187,24 @@ describe("the search size", () => {
 describe("a job past its bounds", () => {
   it("past its wall-time limit is stopped and failed with the reason; the pool takes the next job in a fresh worker", async () => {
     // A search of minutes or more (2 pre, 4 post taps at 0.01 over 13 CTLE settings) against a limit of 1 s.
-    const params = { ...quickInputs.budget.params, tx: { pre: 2, post: 4, step: 0.01 }, ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] } };
+    const params = {
+      ...quickInputs.budget.params,
+      tx: { pre: 2, post: 4, step: 0.01 },
+      ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] },
+    };
     const q = await privateQueue();
     try {
-      const ids = [await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } }), await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } })];
+      const ids = [
+        await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } }),
+        await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } }),
+      ];
       const s = await q.start({ TAPWRIGHT_JOB_TIME_LIMIT_S: "1", TAPWRIGHT_WORKERS: "1" });
       for (const id of ids) {
         const end = await settled(q, id);
         expect(end.status).toBe("failed");
-        expect(end.error).toMatch(/^The job ran longer than its limit of 1 s and was stopped\. Coarsen the budget's grids/);
+        expect(end.error).toMatch(
+          /^The job ran longer than its limit of 1 s and was stopped\. Coarsen the budget's grids/,
+        );
       }
       await s.stop();
     } finally {
@@ -178,7 +221,9 @@ describe("a job past its bounds", () => {
       for (const id of ids) {
         const end = await settled(q, id);
         expect(end.status).toBe("failed");
-        expect(end.error).toMatch(/^The engine ran out of memory \(each worker may use 11 MB of heap\) and its worker was stopped and replaced\./);
+        expect(end.error).toMatch(
+          /^The engine ran out of memory \(each worker may use 11 MB of heap\) and its worker was stopped and replaced\./,
+        );
       }
       await s.stop();
     } finally {
@@ -191,16 +236,28 @@ describe("a heartbeat that fails", () => {
   it("is logged and ends the attempt (its worker stopped), and the job is taken again once the lease lapses", async () => {
     // A search of minutes; leases of 2 s renewed every ⅔ s. While the column the heartbeat writes
     // is renamed away, renewals fail; two in a row end the attempt, which frees the only worker.
-    const params = { ...quickInputs.budget.params, tx: { pre: 2, post: 4, step: 0.01 }, ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] } };
+    const params = {
+      ...quickInputs.budget.params,
+      tx: { pre: 2, post: 4, step: 0.01 },
+      ctle: { ...budget().ctle, gDc_dB: [-12, 0, 1] },
+    };
     const q = await privateQueue();
     try {
       const id = await q.queueRun({ ...quickInputs, budget: { ...quickInputs.budget, params } });
       const s = await q.start({ TAPWRIGHT_JOB_LOCK_S: "2", TAPWRIGHT_WORKERS: "1", TAPWRIGHT_JOB_TIME_LIMIT_S: "120" });
-      await eventually(async () => ((await q.status(id)).status === "running" ? true : undefined), 30_000, "the run to start");
+      await eventually(
+        async () => ((await q.status(id)).status === "running" ? true : undefined),
+        30_000,
+        "the run to start",
+      );
       await q.query("ALTER TABLE jobs RENAME COLUMN locked_until TO locked_until_away");
       await new Promise((r) => setTimeout(r, 3000));
       await q.query("ALTER TABLE jobs RENAME COLUMN locked_until_away TO locked_until");
-      await eventually(async () => ((await q.status(id)).attempts >= 2 ? true : undefined), 30_000, "the run to be taken again");
+      await eventually(
+        async () => ((await q.status(id)).attempts >= 2 ? true : undefined),
+        30_000,
+        "the run to be taken again",
+      );
       expect(s.stderr()).toMatch(new RegExp(`job ${id} \\(run\\): heartbeat failed, ending the attempt`));
       await s.stop();
     } finally {

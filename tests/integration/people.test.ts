@@ -14,10 +14,14 @@ describe("invitations", () => {
     const { link } = await res.json();
     expect(link).toMatch(/\/invite\/[A-Za-z0-9_-]+$/);
 
-    const mail = await eventually(async () => {
-      const box = await (await admin.get("/api/v1/dev/mail")).json();
-      return box.items.find((m: { to: string[] }) => m.to.includes(email));
-    }, 15_000, "the invitation e-mail");
+    const mail = await eventually(
+      async () => {
+        const box = await (await admin.get("/api/v1/dev/mail")).json();
+        return box.items.find((m: { to: string[] }) => m.to.includes(email));
+      },
+      15_000,
+      "the invitation e-mail",
+    );
     expect(mail.subject).toMatch(/invited to Tapwright as reviewer/);
     expect(mail.text).toContain(link);
 
@@ -26,20 +30,34 @@ describe("invitations", () => {
     expect(page.status).toBe(200);
     expect(await page.text()).toContain(email);
 
-    const short = await anonymous().send("POST", `/api/v1/invitations/${token}/accept`, { name: "Kit Varga", password: "short" });
+    const short = await anonymous().send("POST", `/api/v1/invitations/${token}/accept`, {
+      name: "Kit Varga",
+      password: "short",
+    });
     expect(short.status).toBe(400);
     expect((await short.json()).error.path).toBe("password");
 
-    const accept = await anonymous().send("POST", `/api/v1/invitations/${token}/accept`, { name: "Kit Varga", password: "a-long-password-1" });
+    const accept = await anonymous().send("POST", `/api/v1/invitations/${token}/accept`, {
+      name: "Kit Varga",
+      password: "a-long-password-1",
+    });
     expect(accept.status).toBe(201);
-    const again = await anonymous().send("POST", `/api/v1/invitations/${token}/accept`, { name: "Kit Varga", password: "a-long-password-1" });
+    const again = await anonymous().send("POST", `/api/v1/invitations/${token}/accept`, {
+      name: "Kit Varga",
+      password: "a-long-password-1",
+    });
     expect(again.status).toBe(404);
 
     const kit = await signIn(email, "a-long-password-1");
     expect(await (await kit.get("/api/v1/me")).json()).toMatchObject({ email, role: "reviewer", name: "Kit Varga" });
 
     const audit = await (await admin.get(`/api/v1/audit?action=user.`)).json();
-    const actions = audit.items.filter((e: { detail: { email?: string } | null; actorEmail: string }) => e.detail?.email === email || e.actorEmail === email).map((e: { action: string }) => e.action);
+    const actions = audit.items
+      .filter(
+        (e: { detail: { email?: string } | null; actorEmail: string }) =>
+          e.detail?.email === email || e.actorEmail === email,
+      )
+      .map((e: { action: string }) => e.action);
     expect(actions).toEqual(expect.arrayContaining(["user.invite", "user.join"]));
   });
 
@@ -55,7 +73,10 @@ describe("roles", () => {
     const admin = await signIn("admin");
     const email = `sol.${unique()}@tapwright.test`;
     const { link } = await (await admin.send("POST", "/api/v1/invitations", { email, role: "firmware" })).json();
-    await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, { name: "Sol Ito", password: "another-password" });
+    await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, {
+      name: "Sol Ito",
+      password: "another-password",
+    });
     const sol = await signIn(email, "another-password");
     const me = await (await sol.get("/api/v1/me")).json();
     expect(me.role).toBe("firmware");
@@ -67,7 +88,11 @@ describe("roles", () => {
     expect((await (await sol.get("/api/v1/me")).json()).role).toBe("designer");
 
     const audit = await (await admin.get(`/api/v1/audit?action=user.role`)).json();
-    expect(audit.items.some((e: { targetId: string; detail: { to: string } }) => e.targetId === me.id && e.detail.to === "designer")).toBe(true);
+    expect(
+      audit.items.some(
+        (e: { targetId: string; detail: { to: string } }) => e.targetId === me.id && e.detail.to === "designer",
+      ),
+    ).toBe(true);
   });
 
   it("will not remove the last admin", async () => {
@@ -83,13 +108,18 @@ describe("roles", () => {
     const me = (await (await admin.get("/api/v1/me")).json()) as { id: string };
     const email = `ada.${unique()}@tapwright.test`;
     const { link } = await (await admin.send("POST", "/api/v1/invitations", { email, role: "designer" })).json();
-    await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, { name: "Ada Mbeki", password: "third-password-1" });
+    await anonymous().send("POST", `/api/v1/invitations/${link.split("/invite/")[1]}/accept`, {
+      name: "Ada Mbeki",
+      password: "third-password-1",
+    });
     const ada = await signIn(email, "third-password-1");
     const adaId = ((await (await ada.get("/api/v1/me")).json()) as { id: string }).id;
     const activeAdmins = async (client: typeof admin) =>
-      ((await (await client.get("/api/v1/users")).json()) as { items: { id: string; role: string; deactivatedAt: string | null }[] }).items.filter(
-        (u) => u.role === "admin" && u.deactivatedAt === null,
-      );
+      (
+        (await (await client.get("/api/v1/users")).json()) as {
+          items: { id: string; role: string; deactivatedAt: string | null }[];
+        }
+      ).items.filter((u) => u.role === "admin" && u.deactivatedAt === null);
     expect((await activeAdmins(admin)).map((u) => u.id)).toEqual([me.id]);
     // Several rounds, each demotion by the admin it does not demote, so that the two requests overlap.
     for (let round = 0; round < 6; round++) {
@@ -101,7 +131,10 @@ describe("roles", () => {
       // One passes; the other is refused: 409 from the guard, or 403 when it arrives after its sender
       // was already demoted. Never both, never a 500 (two guards waiting for each other's rows).
       const statuses = answers.map((a) => a.status);
-      expect(statuses.filter((x) => x === 200), `round ${round}: ${statuses}`).toHaveLength(1);
+      expect(
+        statuses.filter((x) => x === 200),
+        `round ${round}: ${statuses}`,
+      ).toHaveLength(1);
       expect([403, 409], `round ${round}: ${statuses}`).toContain(statuses.find((x) => x !== 200));
       const left = answers[0].status === 200 ? admin : ada;
       const admins = await activeAdmins(left);
@@ -127,7 +160,11 @@ describe("API tokens", () => {
     const bearer = (path: string, init: RequestInit = {}) =>
       anonymous().fetch(path, { ...init, headers: { ...(init.headers ?? {}), authorization: `Bearer ${secret}` } });
     expect((await (await bearer("/api/v1/me")).json()).email).toBe("firmware@tapwright.test");
-    const write = await bearer("/api/v1/tokens", { method: "POST", headers: { "content-type": "application/json" }, body: '{"name":"x"}' });
+    const write = await bearer("/api/v1/tokens", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: '{"name":"x"}',
+    });
     expect(write.status).toBe(401);
 
     const list = await (await fw.get("/api/v1/tokens")).json();

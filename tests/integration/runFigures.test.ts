@@ -41,7 +41,9 @@ beforeAll(async () => {
       dfe: { taps: 3, limits_V: [0.1, 0.05, 0.02] },
     })
   ).json();
-  const start = await (await designer.send("POST", "/api/v1/runs", { channelId: lanes.items[0].id, budgetId: budget.id })).json();
+  const start = await (
+    await designer.send("POST", "/api/v1/runs", { channelId: lanes.items[0].id, budgetId: budget.id })
+  ).json();
   expect((await finished(designer, start.id, 240_000)).status).toBe("done");
   run = await (await designer.get(`/api/v1/runs/${start.id}`)).json();
 }, 300_000);
@@ -52,7 +54,13 @@ describe("a run's figures, recomputed independently", () => {
     const r = run.result;
     const m = r.metrics;
     const pulse = pulseFromJson(run.inputs.channel.pulse);
-    const ctle = createCtlePlan(pulse).apply({ fz_Hz: b.ctle.fz_Hz, fp1_Hz: b.ctle.fp1_Hz, fp2_Hz: b.ctle.fp2_Hz, gDc_dB: m.ctle.gDc_dB, gDc2_dB: m.ctle.gDc2_dB });
+    const ctle = createCtlePlan(pulse).apply({
+      fz_Hz: b.ctle.fz_Hz,
+      fp1_Hz: b.ctle.fp1_Hz,
+      fp2_Hz: b.ctle.fp2_Hz,
+      gDc_dB: m.ctle.gDc_dB,
+      gDc2_dB: m.ctle.gDc2_dB,
+    });
     const eq = applyFir(ctle, Float64Array.from(m.txTaps), b.tx.pre);
     const spu = eq.samplesPerUi;
     const swing = b.txSwing_Vppd / 2;

@@ -17,7 +17,13 @@ let firstRun: { id: number; result: Record<string, unknown> };
 
 /** The test budget without a bit rate or jitter, one transmit pre-cursor tap and a finer CTLE grid. */
 const nrzBudgetBody = (name: string, changes: BudgetChanges = {}) =>
-  budgetBody(name, { bitRate_bps: undefined, jitter: undefined, tx: { pre: 1 }, ctle: { gDc_dB: [-8, 0, 2] }, ...changes });
+  budgetBody(name, {
+    bitRate_bps: undefined,
+    jitter: undefined,
+    tx: { pre: 1 },
+    ctle: { gDc_dB: [-8, 0, 2] },
+    ...changes,
+  });
 
 async function channelNamed(prefix: string): Promise<number> {
   const r = await (await designer.get(`/api/v1/channels?q=${encodeURIComponent(prefix)}`)).json();
@@ -29,7 +35,8 @@ beforeAll(async () => {
   designer = await signIn("designer");
   shortLane = await channelNamed("Slot 2 lane 0");
   longLane = await channelNamed("Slot 11 lane 2");
-  nrzBudget = (await (await designer.send("POST", "/api/v1/budgets", nrzBudgetBody(unique("Runs test NRZ")))).json()).id;
+  nrzBudget = (await (await designer.send("POST", "/api/v1/budgets", nrzBudgetBody(unique("Runs test NRZ")))).json())
+    .id;
 });
 
 describe("a tuning run", () => {
@@ -53,7 +60,12 @@ describe("a tuning run", () => {
     expect(run.result.bathtub.phase_UI.length).toBeGreaterThan(10);
     expect(run.result.adaptation.dfe.taps[0]).toHaveLength(2);
     expect(run.result.adaptation.txTraining.taps.length).toBeGreaterThan(0);
-    expect(run.result.metrics).toMatchObject({ eyeHeight_V: expect.any(Number), limiterHeadroom_V: expect.any(Number), residualIsiRms_V: expect.any(Number), noiseGain_dB: expect.any(Number) });
+    expect(run.result.metrics).toMatchObject({
+      eyeHeight_V: expect.any(Number),
+      limiterHeadroom_V: expect.any(Number),
+      residualIsiRms_V: expect.any(Number),
+      noiseGain_dB: expect.any(Number),
+    });
     expect(run.result.verdict).toMatchObject({ linearReachExhausted: false });
     expect(run.summary).toEqual({
       limiterHeadroom_V: run.result.metrics.limiterHeadroom_V,
@@ -71,7 +83,10 @@ describe("a tuning run", () => {
     firstRun = run;
 
     const list = await (await designer.get(`/api/v1/runs?channelId=${shortLane}`)).json();
-    expect(list.items.find((r: { id: number }) => r.id === queued.id)).toMatchObject({ status: "done", channel: { id: shortLane, name: channel.name } });
+    expect(list.items.find((r: { id: number }) => r.id === queued.id)).toMatchObject({
+      status: "done",
+      channel: { id: shortLane, name: channel.name },
+    });
   });
 
   it("run again reproduces it from its own copy of the inputs", async () => {
@@ -86,13 +101,19 @@ describe("a tuning run", () => {
 
   it("whose budget's bit rate does not match the channel's is refused up front (422), in rounded units, leaving nothing behind", async () => {
     // The budget states 10 Gb/s; the channel was derived for 28 Gb/s.
-    const mismatched = (await (await designer.send("POST", "/api/v1/budgets", nrzBudgetBody(unique("Wrong rate"), { bitRate_bps: 10e9 }))).json()).id;
+    const mismatched = (
+      await (
+        await designer.send("POST", "/api/v1/budgets", nrzBudgetBody(unique("Wrong rate"), { bitRate_bps: 10e9 }))
+      ).json()
+    ).id;
     const before = await rowCounts();
     const res = await designer.send("POST", "/api/v1/runs", { channelId: shortLane, budgetId: mismatched });
     expect(res.status).toBe(422);
     const { error } = await res.json();
     expect(error.path).toBe("budgetId");
-    expect(error.message).toMatch(/bitRate_bps: 10\.0 Gb\/s does not match the channel's 28\.0 Gb\/s \(NRZ, UI 35\.7 ps\)/);
+    expect(error.message).toMatch(
+      /bitRate_bps: 10\.0 Gb\/s does not match the channel's 28\.0 Gb\/s \(NRZ, UI 35\.7 ps\)/,
+    );
     expect(error.message).not.toMatch(/\d{7,}/);
     const after = await rowCounts();
     expect([after.runs, after.jobs, after.audit_events]).toEqual([before.runs, before.jobs, before.audit_events]);
@@ -100,8 +121,19 @@ describe("a tuning run", () => {
 
   it("that is cancelled ends failed, says why on its page, and keeps its inputs", async () => {
     // A search of minutes (1 pre, 3 post taps at 0.02 over 13 CTLE settings): still computing when cancelled.
-    const slow = await (await designer.send("POST", "/api/v1/budgets", nrzBudgetBody(unique("Runs test slow"), { tx: { pre: 1, post: 3, step: 0.02 }, ctle: { gDc_dB: [-12, 0, 1], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 } }))).json();
-    const { id } = await (await designer.send("POST", "/api/v1/runs", { channelId: longLane, budgetId: slow.id })).json();
+    const slow = await (
+      await designer.send(
+        "POST",
+        "/api/v1/budgets",
+        nrzBudgetBody(unique("Runs test slow"), {
+          tx: { pre: 1, post: 3, step: 0.02 },
+          ctle: { gDc_dB: [-12, 0, 1], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 },
+        }),
+      )
+    ).json();
+    const { id } = await (
+      await designer.send("POST", "/api/v1/runs", { channelId: longLane, budgetId: slow.id })
+    ).json();
     const cancelled = await designer.send("POST", `/api/v1/runs/${id}/cancel`);
     expect(cancelled.status, await cancelled.clone().text()).toBe(200);
     const end = await finished(designer, id);
@@ -132,7 +164,10 @@ describe("a tuning run", () => {
 describe("two runs at once", () => {
   it("both finish, and the health route answers while they compute", async () => {
     const ids = await Promise.all(
-      [longLane, shortLane].map(async (channelId) => (await (await designer.send("POST", "/api/v1/runs", { channelId, budgetId: nrzBudget })).json()).id as number),
+      [longLane, shortLane].map(
+        async (channelId) =>
+          (await (await designer.send("POST", "/api/v1/runs", { channelId, budgetId: nrzBudget })).json()).id as number,
+      ),
     );
     const health: number[] = [];
     let sawRunning = false;
@@ -156,7 +191,9 @@ describe("two runs at once", () => {
 
 describe("a finished run's detail", () => {
   it("is serialized and compressed once: the same bytes each time with an ETag, 304 when the client has them, brotli and gzip decoding to the JSON", async () => {
-    const { id } = await (await designer.send("POST", "/api/v1/runs", { channelId: shortLane, budgetId: nrzBudget })).json();
+    const { id } = await (
+      await designer.send("POST", "/api/v1/runs", { channelId: shortLane, budgetId: nrzBudget })
+    ).json();
     await finished(designer, id);
     const plain = await designer.fetch(`/api/v1/runs/${id}`, { headers: { "accept-encoding": "identity" } });
     expect(plain.status).toBe(200);
@@ -171,11 +208,17 @@ describe("a finished run's detail", () => {
     const { brotliDecompressSync, gunzipSync } = await import("node:zlib");
     const raw = (encoding: string, extra: Record<string, string> = {}) =>
       new Promise<{ status: number; headers: Record<string, unknown>; bytes: Buffer }>((resolve, reject) => {
-        const req = request(`${baseUrl}/api/v1/runs/${id}`, { headers: { cookie: designer.cookie, "accept-encoding": encoding, ...extra } }, (res) => {
-          const chunks: Buffer[] = [];
-          res.on("data", (c: Buffer) => chunks.push(c));
-          res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, bytes: Buffer.concat(chunks) }));
-        });
+        const req = request(
+          `${baseUrl}/api/v1/runs/${id}`,
+          { headers: { cookie: designer.cookie, "accept-encoding": encoding, ...extra } },
+          (res) => {
+            const chunks: Buffer[] = [];
+            res.on("data", (c: Buffer) => chunks.push(c));
+            res.on("end", () =>
+              resolve({ status: res.statusCode ?? 0, headers: res.headers, bytes: Buffer.concat(chunks) }),
+            );
+          },
+        );
         req.on("error", reject);
         req.end();
       });
@@ -195,11 +238,22 @@ describe("a finished run's detail", () => {
 
 describe("deleting a channel that runs used", () => {
   it("asks first (409), then deletes; the runs keep their copy and can run again", async () => {
-    const made = await (await designer.send("POST", "/api/v1/channels", { name: unique("Doomed lane"), bitRate_bps: 28e9, lossModel: { lossAtNyquist_dB: 8 } })).json();
-    const { id: runId } = await (await designer.send("POST", "/api/v1/runs", { channelId: made.id, budgetId: nrzBudget })).json();
+    const made = await (
+      await designer.send("POST", "/api/v1/channels", {
+        name: unique("Doomed lane"),
+        bitRate_bps: 28e9,
+        lossModel: { lossAtNyquist_dB: 8 },
+      })
+    ).json();
+    const { id: runId } = await (
+      await designer.send("POST", "/api/v1/runs", { channelId: made.id, budgetId: nrzBudget })
+    ).json();
     await finished(designer, runId);
     // Read once before the delete: a detail served from stored bytes must not keep the old link.
-    expect((await (await designer.get(`/api/v1/runs/${runId}`)).json()).channel).toEqual({ id: made.id, name: made.name });
+    expect((await (await designer.get(`/api/v1/runs/${runId}`)).json()).channel).toEqual({
+      id: made.id,
+      name: made.name,
+    });
     const refused = await designer.send("DELETE", `/api/v1/channels/${made.id}`);
     expect(refused.status).toBe(409);
     expect((await refused.json()).error.message).toMatch(/used by 1 tuning run.*confirm=true/);
@@ -232,7 +286,10 @@ describe("roles on the run routes", () => {
       expect(start.status, `${role} POST`).toBe(writes ? 202 : 403);
       const again = await c.send("POST", `/api/v1/runs/${firstRun.id}/rerun`);
       expect(again.status, `${role} rerun`).toBe(writes ? 202 : 403);
-      if (writes) await Promise.all([(await start.json()).id, (await again.json()).id].map((id: number) => finished(designer, id)));
+      if (writes)
+        await Promise.all(
+          [(await start.json()).id, (await again.json()).id].map((id: number) => finished(designer, id)),
+        );
     }
     for (const [method, path] of [
       ["GET", "/api/v1/runs"],
@@ -244,7 +301,9 @@ describe("roles on the run routes", () => {
     }
     const reviewer = await signIn("reviewer");
     const { secret } = await (await reviewer.send("POST", "/api/v1/tokens", { name: unique("run reader") })).json();
-    const read = await fetch(`${baseUrl}/api/v1/runs/${firstRun.id}`, { headers: { authorization: `Bearer ${secret}` } });
+    const read = await fetch(`${baseUrl}/api/v1/runs/${firstRun.id}`, {
+      headers: { authorization: `Bearer ${secret}` },
+    });
     expect(read.status).toBe(200);
     const write = await fetch(`${baseUrl}/api/v1/runs`, {
       method: "POST",

@@ -31,8 +31,12 @@ describe("architecture studies", () => {
     for (const role of ["firmware", "reviewer"] as const) {
       const c = await signIn(role);
       expect((await c.get("/api/v1/studies")).status).toBe(200);
-      expect((await c.send("POST", "/api/v1/studies", { channelIds: pop.channelIds, budgetId: pop.budgetId })).status).toBe(403);
-      expect((await c.send("PUT", "/api/v1/studies/1/decision", { candidateKey: "ctle", rationale: "x".repeat(30) })).status).toBe(403);
+      expect(
+        (await c.send("POST", "/api/v1/studies", { channelIds: pop.channelIds, budgetId: pop.budgetId })).status,
+      ).toBe(403);
+      expect(
+        (await c.send("PUT", "/api/v1/studies/1/decision", { candidateKey: "ctle", rationale: "x".repeat(30) })).status,
+      ).toBe(403);
     }
   });
 
@@ -40,7 +44,9 @@ describe("architecture studies", () => {
     const empty = await designer.send("POST", "/api/v1/studies", { channelIds: [], budgetId: pop.budgetId });
     expect(empty.status).toBe(400);
     expect((await empty.json()).error.path).toBe("channelIds");
-    expect((await designer.send("POST", "/api/v1/studies", { channelIds: pop.channelIds, budgetId: 999999 })).status).toBe(404);
+    expect(
+      (await designer.send("POST", "/api/v1/studies", { channelIds: pop.channelIds, budgetId: 999999 })).status,
+    ).toBe(404);
     const twice = await designer.send("POST", "/api/v1/studies", {
       channelIds: pop.channelIds,
       budgetId: pop.budgetId,
@@ -55,7 +61,11 @@ describe("architecture studies", () => {
 
   it("a study compares the usual candidates; the decision is recorded, audited and carried into a tap table", async () => {
     const name = unique("Backplane study");
-    const res = await designer.send("POST", "/api/v1/studies", { name, channelIds: pop.channelIds, budgetId: pop.budgetId });
+    const res = await designer.send("POST", "/api/v1/studies", {
+      name,
+      channelIds: pop.channelIds,
+      budgetId: pop.budgetId,
+    });
     expect(res.status).toBe(202);
     const { id, status } = await res.json();
     expect(status).toBe("queued");
@@ -79,19 +89,37 @@ describe("architecture studies", () => {
     // The longest channel is the worst one for a linear-only candidate.
     expect(by["tx-ctle"].worstChannel.id).toBe(pop.byLoss.get(32));
 
-    const unknown = await designer.send("PUT", `/api/v1/studies/${id}/decision`, { candidateKey: "nope", rationale: "A long enough rationale for the test." });
+    const unknown = await designer.send("PUT", `/api/v1/studies/${id}/decision`, {
+      candidateKey: "nope",
+      rationale: "A long enough rationale for the test.",
+    });
     expect(unknown.status).toBe(422);
-    const short = await designer.send("PUT", `/api/v1/studies/${id}/decision`, { candidateKey: "tx-ctle-dfe2", rationale: "cheap" });
+    const short = await designer.send("PUT", `/api/v1/studies/${id}/decision`, {
+      candidateKey: "tx-ctle-dfe2",
+      rationale: "cheap",
+    });
     expect(short.status).toBe(400);
     expect((await short.json()).error.path).toBe("rationale");
     const rationale = "Two DFE taps keep the 32 dB lane above the required headroom; a third buys under a millivolt.";
-    const decided = await designer.send("PUT", `/api/v1/studies/${id}/decision`, { candidateKey: "tx-ctle-dfe2", rationale });
+    const decided = await designer.send("PUT", `/api/v1/studies/${id}/decision`, {
+      candidateKey: "tx-ctle-dfe2",
+      rationale,
+    });
     expect(decided.status).toBe(200);
     const view = await decided.json();
-    expect(view.decision).toMatchObject({ candidateKey: "tx-ctle-dfe2", candidateLabel: "TX FIR + CTLE + DFE 2", rationale, decidedBy: "Tomas Ekwueme" });
+    expect(view.decision).toMatchObject({
+      candidateKey: "tx-ctle-dfe2",
+      candidateLabel: "TX FIR + CTLE + DFE 2",
+      rationale,
+      decidedBy: "Tomas Ekwueme",
+    });
 
     const list = await (await designer.get("/api/v1/studies")).json();
-    expect(list.items.find((x: { id: number }) => x.id === id)).toMatchObject({ name, status: "done", decision: { candidateKey: "tx-ctle-dfe2" } });
+    expect(list.items.find((x: { id: number }) => x.id === id)).toMatchObject({
+      name,
+      status: "done",
+      decision: { candidateKey: "tx-ctle-dfe2" },
+    });
 
     const t = await designer.send("POST", "/api/v1/tap-tables", {
       name: unique("From the study"),
@@ -103,15 +131,32 @@ describe("architecture studies", () => {
     const tableId = (await t.json()).id;
     const v1 = await versionComputed(designer, tableId, 1);
     expect(v1.inputs.architecture.key).toBe("tx-ctle-dfe2");
-    expect(v1.inputs.study).toMatchObject({ id, decision: { candidateKey: "tx-ctle-dfe2", rationale, decidedBy: "Tomas Ekwueme" } });
-    expect(v1.inputs.registerMap.map((f: { name: string }) => f.name)).toEqual(["tx_main", "tx_post1", "ctle_gdc", "dfe_tap1", "dfe_tap2"]);
+    expect(v1.inputs.study).toMatchObject({
+      id,
+      decision: { candidateKey: "tx-ctle-dfe2", rationale, decidedBy: "Tomas Ekwueme" },
+    });
+    expect(v1.inputs.registerMap.map((f: { name: string }) => f.name)).toEqual([
+      "tx_main",
+      "tx_post1",
+      "ctle_gdc",
+      "dfe_tap1",
+      "dfe_tap2",
+    ]);
 
     const events = await auditEvents(admin, "study.");
-    expect(events.filter((e) => e.targetId === String(id)).map((e) => e.action)).toEqual(expect.arrayContaining(["study.start", "study.decide"]));
+    expect(events.filter((e) => e.targetId === String(id)).map((e) => e.action)).toEqual(
+      expect.arrayContaining(["study.start", "study.decide"]),
+    );
   });
 
   it("a table cannot follow a study that has no decision yet (422)", async () => {
-    const { id } = await (await designer.send("POST", "/api/v1/studies", { channelIds: pop.channelIds.slice(0, 2), budgetId: pop.budgetId, candidates: [{ key: "ctle", label: "CTLE only", tx: null, ctle: true, dfeTaps: 0, ffe: null }] })).json();
+    const { id } = await (
+      await designer.send("POST", "/api/v1/studies", {
+        channelIds: pop.channelIds.slice(0, 2),
+        budgetId: pop.budgetId,
+        candidates: [{ key: "ctle", label: "CTLE only", tx: null, ctle: true, dfeTaps: 0, ffe: null }],
+      })
+    ).json();
     const res = await designer.send("POST", "/api/v1/tap-tables", {
       name: unique("Too early"),
       budgetId: pop.budgetId,

@@ -39,7 +39,8 @@ async function sweepDone(client: Client, id: number, timeout_ms = 180_000) {
   );
 }
 
-const count = async (sql: string, args: unknown[] = []) => Number(((await db.query(sql, args))[0] as { n: number }[])[0].n);
+const count = async (sql: string, args: unknown[] = []) =>
+  Number(((await db.query(sql, args))[0] as { n: number }[])[0].n);
 
 beforeAll(async () => {
   designer = await signIn("designer");
@@ -57,14 +58,30 @@ describe("corner sweeps", () => {
     for (const role of ["firmware", "reviewer"] as const) {
       const c = await signIn(role);
       expect((await c.get("/api/v1/sweeps")).status).toBe(200);
-      expect((await c.send("POST", "/api/v1/sweeps", { name: "x", channelIds: pop.channelIds, budgetId: pop.budgetId, corners })).status).toBe(403);
+      expect(
+        (
+          await c.send("POST", "/api/v1/sweeps", {
+            name: "x",
+            channelIds: pop.channelIds,
+            budgetId: pop.budgetId,
+            corners,
+          })
+        ).status,
+      ).toBe(403);
     }
   });
 
   it("refuses what it cannot sweep, naming the field, and writes nothing", async () => {
     const before = await count("SELECT COUNT(*) AS n FROM sweeps");
     const jobsBefore = await count("SELECT COUNT(*) AS n FROM jobs");
-    const send = (body: Record<string, unknown>) => designer.send("POST", "/api/v1/sweeps", { name: unique("Refused"), channelIds: pop.channelIds, budgetId: pop.budgetId, corners, ...body });
+    const send = (body: Record<string, unknown>) =>
+      designer.send("POST", "/api/v1/sweeps", {
+        name: unique("Refused"),
+        channelIds: pop.channelIds,
+        budgetId: pop.budgetId,
+        corners,
+        ...body,
+      });
     const noCorners = await send({ corners: [] });
     expect(noCorners.status).toBe(400);
     expect((await noCorners.json()).error.path).toBe("corners");
@@ -80,17 +97,44 @@ describe("corner sweeps", () => {
     await sweepDone(designer, (await wild.json()).id);
     const both = await send({ programId: 1 });
     expect(both.status).toBe(400);
-    expect((await designer.send("POST", "/api/v1/sweeps", { name: "x", channelIds: [999999], budgetId: pop.budgetId, corners })).status).toBe(404);
-    expect((await designer.send("POST", "/api/v1/sweeps", { name: "x", channelIds: pop.channelIds, budgetId: 999999, corners })).status).toBe(404);
+    expect(
+      (
+        await designer.send("POST", "/api/v1/sweeps", {
+          name: "x",
+          channelIds: [999999],
+          budgetId: pop.budgetId,
+          corners,
+        })
+      ).status,
+    ).toBe(404);
+    expect(
+      (
+        await designer.send("POST", "/api/v1/sweeps", {
+          name: "x",
+          channelIds: pop.channelIds,
+          budgetId: 999999,
+          corners,
+        })
+      ).status,
+    ).toBe(404);
     // Only the accepted "wild" sweep was written: one sweep, its parent and its batches.
     expect(await count("SELECT COUNT(*) AS n FROM sweeps")).toBe(before + 1);
     expect(await count("SELECT COUNT(*) AS n FROM jobs")).toBe(jobsBefore + 1 + pop.channelIds.length);
   });
 
   it("a corner that takes the budget out of range is refused with 422 naming the corner", async () => {
-    const narrow = await designer.send("POST", "/api/v1/budgets", budgetBody(unique("Narrow"), { jitter: { rjRms_UI: 0.2, djPp_UI: 0.05 } }));
+    const narrow = await designer.send(
+      "POST",
+      "/api/v1/budgets",
+      budgetBody(unique("Narrow"), { jitter: { rjRms_UI: 0.2, djPp_UI: 0.05 } }),
+    );
     const budgetId = (await narrow.json()).id;
-    const r = await designer.send("POST", "/api/v1/sweeps", { name: unique("Too shaky"), channelIds: pop.channelIds, budgetId, corners: [{ name: "nominal" }, { name: "shaky", jitterScale: 3 }] });
+    const r = await designer.send("POST", "/api/v1/sweeps", {
+      name: unique("Too shaky"),
+      channelIds: pop.channelIds,
+      budgetId,
+      corners: [{ name: "nominal" }, { name: "shaky", jitterScale: 3 }],
+    });
     expect(r.status).toBe(422);
     const body = await r.json();
     expect(body.error.path).toBe("corners.1");
@@ -99,7 +143,12 @@ describe("corner sweeps", () => {
 
   it("computes every pair once; the figures agree with independent tuning runs; the binding corner is the worst; CSV matches", async () => {
     const name = unique("Backplane corners");
-    const res = await designer.send("POST", "/api/v1/sweeps", { name, channelIds: pop.channelIds, budgetId: pop.budgetId, corners });
+    const res = await designer.send("POST", "/api/v1/sweeps", {
+      name,
+      channelIds: pop.channelIds,
+      budgetId: pop.budgetId,
+      corners,
+    });
     expect(res.status).toBe(202);
     const { id, status } = await res.json();
     expect(status).toBe("queued");
@@ -124,9 +173,18 @@ describe("corner sweeps", () => {
     expect(at(ch20, 0).limiterHeadroom_V).toBe(runView.result.metrics.limiterHeadroom_V);
 
     // Loss × 1.2 on a 20 dB synthetic line is the run of a 24 dB line.
-    const line24 = await designer.send("POST", "/api/v1/channels", { name: unique("Line 24 dB"), bitRate_bps: 28e9, lossModel: { lossAtNyquist_dB: 24 } });
-    const run24 = await designer.send("POST", "/api/v1/runs", { channelId: (await line24.json()).id, budgetId: pop.budgetId });
-    const view24 = await (await designer.get(`/api/v1/runs/${(await finished(designer, (await run24.json()).id, 120_000)).id}`)).json();
+    const line24 = await designer.send("POST", "/api/v1/channels", {
+      name: unique("Line 24 dB"),
+      bitRate_bps: 28e9,
+      lossModel: { lossAtNyquist_dB: 24 },
+    });
+    const run24 = await designer.send("POST", "/api/v1/runs", {
+      channelId: (await line24.json()).id,
+      budgetId: pop.budgetId,
+    });
+    const view24 = await (
+      await designer.get(`/api/v1/runs/${(await finished(designer, (await run24.json()).id, 120_000)).id}`)
+    ).json();
     expect(at(ch20, 1).limiterHeadroom_V).toBe(view24.result.metrics.limiterHeadroom_V);
 
     // The binding corner of each channel is its lowest headroom.
@@ -134,7 +192,9 @@ describe("corner sweeps", () => {
     for (const w of s.worst as { channelId: number; corner: string; limiterHeadroom_V: number }[]) {
       const mine = pairs.filter((p) => p.channelId === w.channelId).map((p) => p.limiterHeadroom_V as number);
       expect(w.limiterHeadroom_V).toBe(Math.min(...mine));
-      expect(pairs.find((p) => p.channelId === w.channelId && p.corner === w.corner)!.limiterHeadroom_V).toBe(w.limiterHeadroom_V);
+      expect(pairs.find((p) => p.channelId === w.channelId && p.corner === w.corner)!.limiterHeadroom_V).toBe(
+        w.limiterHeadroom_V,
+      );
     }
     // More loss, less headroom (the 28 dB line's slow corner and loss corner sit below its nominal).
     const ch28 = pop.byLoss.get(28)!;
@@ -151,15 +211,28 @@ describe("corner sweeps", () => {
     expect(Number(row.split(",")[9])).toBeCloseTo(at(ch20, 1).limiterHeadroom_V! * 1e3, 3);
 
     const list = await (await designer.get("/api/v1/sweeps")).json();
-    expect(list.items.find((x: { id: number }) => x.id === id)).toMatchObject({ status: "done", done: 9, total: 9, channelCount: 3, cornerCount: 3 });
-    const audit = await count("SELECT COUNT(*) AS n FROM audit_events WHERE action = 'sweep.start' AND target_id = ?", [String(id)]);
+    expect(list.items.find((x: { id: number }) => x.id === id)).toMatchObject({
+      status: "done",
+      done: 9,
+      total: 9,
+      channelCount: 3,
+      cornerCount: 3,
+    });
+    const audit = await count("SELECT COUNT(*) AS n FROM audit_events WHERE action = 'sweep.start' AND target_id = ?", [
+      String(id),
+    ]);
     expect(audit).toBe(1);
   });
 
   it("sweeps all channels of a program", async () => {
     const r = await designer.get(`/api/v1/channels/${pop.channelIds[0]}`);
     const programId = (await r.json()).programId as number;
-    const res = await designer.send("POST", "/api/v1/sweeps", { name: unique("Program"), programId, budgetId: pop.budgetId, corners: [{ name: "nominal" }] });
+    const res = await designer.send("POST", "/api/v1/sweeps", {
+      name: unique("Program"),
+      programId,
+      budgetId: pop.budgetId,
+      corners: [{ name: "nominal" }],
+    });
     if (res.status === 422) {
       // The program also holds channels at other bit rates (the demo's PAM4 lane): one rate per sweep.
       expect((await res.json()).error.path).toBe("programId");

@@ -11,7 +11,10 @@ import { budget } from "../support/budget";
 let designer: Client;
 let pop: Population;
 let sweepId: number;
-let sweep: { corners: { name: string }[]; results: { channelId: number; cornerIndex: number; limiterHeadroom_V: number }[] };
+let sweep: {
+  corners: { name: string }[];
+  results: { channelId: number; cornerIndex: number; limiterHeadroom_V: number }[];
+};
 
 const corners = [
   { name: "nominal" },
@@ -19,7 +22,14 @@ const corners = [
   { name: "slow", txSwingScale: 0.9, noiseScale: 1.2, sensitivityScale: 1.2 },
 ];
 // The budget's own architecture, so the table's own optima are the sweep's pairs.
-const architecture = { key: "tx0-1-ctle-dfe2", label: "TX FIR 0/1 · CTLE · DFE 2", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 2, ffe: null };
+const architecture = {
+  key: "tx0-1-ctle-dfe2",
+  label: "TX FIR 0/1 · CTLE · DFE 2",
+  tx: { pre: 0, post: 1 },
+  ctle: true,
+  dfeTaps: 2,
+  ffe: null,
+};
 
 interface Channel {
   id: number;
@@ -33,7 +43,12 @@ interface Channel {
 beforeAll(async () => {
   designer = await signIn("designer");
   pop = await population(designer, [10, 20, 28]);
-  const r = await designer.send("POST", "/api/v1/sweeps", { name: unique("Corners for a table"), channelIds: pop.channelIds, budgetId: pop.budgetId, corners });
+  const r = await designer.send("POST", "/api/v1/sweeps", {
+    name: unique("Corners for a table"),
+    channelIds: pop.channelIds,
+    budgetId: pop.budgetId,
+    corners,
+  });
   sweepId = (await r.json()).id;
   sweep = await eventually(
     async () => {
@@ -86,23 +101,46 @@ describe("tap tables at a sweep's corners", () => {
     expect(corners.map((c) => c.name)).toContain(worstEye.corner);
 
     // A new version without corners is computed at nominal only.
-    const v2res = await designer.send("POST", `/api/v1/tap-tables/${id}/versions`, { sweepId: null, note: "nominal only" });
+    const v2res = await designer.send("POST", `/api/v1/tap-tables/${id}/versions`, {
+      sweepId: null,
+      note: "nominal only",
+    });
     expect(v2res.status).toBe(202);
     const v2 = await versionComputed(designer, id, 2, 240_000);
     expect(v2.inputs.corners).toBeNull();
     expect(v2.result.classes[0].channels[0].worstCorner).toBeUndefined();
     // At nominal alone the defaults leave at least as much on the worst channel as over every corner.
-    const worst = (v: { result: { classes: { worstHeadroom_V: number }[] } }) => Math.min(...v.result.classes.map((c) => c.worstHeadroom_V));
+    const worst = (v: { result: { classes: { worstHeadroom_V: number }[] } }) =>
+      Math.min(...v.result.classes.map((c) => c.worstHeadroom_V));
     expect(worst(v2)).toBeGreaterThanOrEqual(worst(v1));
   });
 
   it("refuses a sweep that does not exist, and corners that take this budget out of range", async () => {
-    const base = { name: unique("Refused"), budgetId: pop.budgetId, architecture, grouping: { mode: "loss-bins", channelIds: pop.channelIds, edges_dB: [15] } };
+    const base = {
+      name: unique("Refused"),
+      budgetId: pop.budgetId,
+      architecture,
+      grouping: { mode: "loss-bins", channelIds: pop.channelIds, edges_dB: [15] },
+    };
     expect((await designer.send("POST", "/api/v1/tap-tables", { ...base, sweepId: 999999 })).status).toBe(404);
-    const shaky = await designer.send("POST", "/api/v1/budgets", { ...budget(), name: unique("Shaky"), jitter: { rjRms_UI: 0.2, djPp_UI: 0.05 } });
-    const wild = await designer.send("POST", "/api/v1/sweeps", { name: unique("Wild"), channelIds: pop.channelIds, budgetId: pop.budgetId, corners: [{ name: "nominal" }, { name: "jittery", jitterScale: 3 }] });
+    const shaky = await designer.send("POST", "/api/v1/budgets", {
+      ...budget(),
+      name: unique("Shaky"),
+      jitter: { rjRms_UI: 0.2, djPp_UI: 0.05 },
+    });
+    const wild = await designer.send("POST", "/api/v1/sweeps", {
+      name: unique("Wild"),
+      channelIds: pop.channelIds,
+      budgetId: pop.budgetId,
+      corners: [{ name: "nominal" }, { name: "jittery", jitterScale: 3 }],
+    });
     const wildId = (await wild.json()).id;
-    const r = await designer.send("POST", "/api/v1/tap-tables", { ...base, name: unique("Too shaky"), budgetId: (await shaky.json()).id, sweepId: wildId });
+    const r = await designer.send("POST", "/api/v1/tap-tables", {
+      ...base,
+      name: unique("Too shaky"),
+      budgetId: (await shaky.json()).id,
+      sweepId: wildId,
+    });
     expect(r.status).toBe(422);
     expect((await r.json()).error.path).toBe("sweepId");
   });

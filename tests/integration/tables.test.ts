@@ -22,7 +22,14 @@ beforeAll(async () => {
 });
 afterAll(closeDb);
 
-const manualArchitecture = { key: "tx-ctle-dfe2", label: "TX FIR + CTLE + DFE 2", tx: { pre: 0, post: 1 }, ctle: true, dfeTaps: 2, ffe: null };
+const manualArchitecture = {
+  key: "tx-ctle-dfe2",
+  label: "TX FIR + CTLE + DFE 2",
+  tx: { pre: 0, post: 1 },
+  ctle: true,
+  dfeTaps: 2,
+  ffe: null,
+};
 
 function tableRequest(extra: Record<string, unknown> = {}) {
   return {
@@ -54,14 +61,52 @@ describe("tap tables: who may do what", () => {
 describe("tap tables: refusals change nothing", () => {
   const cases: [string, () => Record<string, unknown>, number, string | RegExp][] = [
     ["a missing name", () => tableRequest({ name: "" }), 400, "name"],
-    ["descending bin edges", () => tableRequest({ grouping: { mode: "loss-bins", edges_dB: [20, 10], channelIds: pop.channelIds } }), 400, "grouping.edges_dB"],
-    ["a channel in two classes", () => tableRequest({ grouping: { mode: "manual", classes: [{ name: "A", channelIds: [pop.channelIds[0]] }, { name: "B", channelIds: [pop.channelIds[0]] }] } }), 400, "grouping.classes"],
+    [
+      "descending bin edges",
+      () => tableRequest({ grouping: { mode: "loss-bins", edges_dB: [20, 10], channelIds: pop.channelIds } }),
+      400,
+      "grouping.edges_dB",
+    ],
+    [
+      "a channel in two classes",
+      () =>
+        tableRequest({
+          grouping: {
+            mode: "manual",
+            classes: [
+              { name: "A", channelIds: [pop.channelIds[0]] },
+              { name: "B", channelIds: [pop.channelIds[0]] },
+            ],
+          },
+        }),
+      400,
+      "grouping.classes",
+    ],
     ["neither architecture nor study", () => tableRequest({ architecture: undefined }), 400, "architecture"],
     ["an unknown budget", () => tableRequest({ budgetId: 999999 }), 404, /Budget 999999/],
-    ["an unknown channel", () => tableRequest({ grouping: { mode: "loss-bins", edges_dB: [], channelIds: [999999] } }), 404, /Channel 999999/],
+    [
+      "an unknown channel",
+      () => tableRequest({ grouping: { mode: "loss-bins", edges_dB: [], channelIds: [999999] } }),
+      404,
+      /Channel 999999/,
+    ],
     [
       "a register map without the CTLE field",
-      () => tableRequest({ registerMap: [{ name: "tx_main", parameter: "tx[0]", bits: 6, signed: false, lsb: 0.05, unit: "fraction", min: 0.5, max: 1 }] }),
+      () =>
+        tableRequest({
+          registerMap: [
+            {
+              name: "tx_main",
+              parameter: "tx[0]",
+              bits: 6,
+              signed: false,
+              lsb: 0.05,
+              unit: "fraction",
+              min: 0.5,
+              max: 1,
+            },
+          ],
+        }),
       422,
       "registerMap",
     ],
@@ -115,7 +160,10 @@ describe("tap tables: computing versions", () => {
     expect(v1.result.classes.map((c: { name: string }) => c.name)).toEqual(["Loss < 15 dB", "Loss ≥ 15 dB"]);
     for (const c of v1.result.classes) {
       expect(c.channels).toHaveLength(3);
-      expect(c.worstHeadroom_V).toBeCloseTo(Math.min(...c.channels.map((ch: { defaultHeadroom_V: number }) => ch.defaultHeadroom_V)), 12);
+      expect(c.worstHeadroom_V).toBeCloseTo(
+        Math.min(...c.channels.map((ch: { defaultHeadroom_V: number }) => ch.defaultHeadroom_V)),
+        12,
+      );
       for (const f of v1.inputs.registerMap) {
         const code = c.codes[f.name];
         const value = c.values[f.name];
@@ -132,7 +180,9 @@ describe("tap tables: computing versions", () => {
     }
     // The eyes of the worst channel come from the engine's tuning run of its class default: same headroom.
     const all = v1.result.classes.flatMap((c: { channels: { id: number; defaultHeadroom_V: number }[] }) => c.channels);
-    const worst = all.reduce((a: { defaultHeadroom_V: number }, b: { defaultHeadroom_V: number }) => (b.defaultHeadroom_V < a.defaultHeadroom_V ? b : a));
+    const worst = all.reduce((a: { defaultHeadroom_V: number }, b: { defaultHeadroom_V: number }) =>
+      b.defaultHeadroom_V < a.defaultHeadroom_V ? b : a,
+    );
     expect(v1.result.worstEye.channelId).toBe(worst.id);
     expect(v1.result.worstEye.headroom_V).toBeCloseTo(worst.defaultHeadroom_V, 6);
     for (const eye of [v1.result.worstEye.before, v1.result.worstEye.after]) {
@@ -141,7 +191,9 @@ describe("tap tables: computing versions", () => {
     }
     const events = await auditEvents(admin, "table.");
     expect(events.some((e) => e.action === "table.create" && e.targetId === String(id))).toBe(true);
-    expect(events.some((e) => e.action === "table.version" && e.targetId === String(id) && e.detail?.version === 1)).toBe(true);
+    expect(
+      events.some((e) => e.action === "table.version" && e.targetId === String(id) && e.detail?.version === 1),
+    ).toBe(true);
   });
 
   it("quantization round trips: codes → values → codes for every code of every field, and the stored defaults agree", async () => {
@@ -152,7 +204,8 @@ describe("tap tables: computing versions", () => {
       const { lo, hi } = codeRange(f);
       expect(lo * f.lsb).toBeGreaterThanOrEqual(f.min - 1e-12);
       expect(hi * f.lsb).toBeLessThanOrEqual(f.max + 1e-12);
-      for (let code = lo; code <= hi; code++) expect(encodeField(f, decodeField(f, code)), `${f.name} ${code}`).toBe(code);
+      for (let code = lo; code <= hi; code++)
+        expect(encodeField(f, decodeField(f, code)), `${f.name} ${code}`).toBe(code);
       for (const c of v1.result.classes) {
         expect(encodeField(f, c.values[f.name])).toBe(c.codes[f.name]);
         expect(decodeField(f, c.codes[f.name])).toBeCloseTo(c.values[f.name], 15);
@@ -173,15 +226,32 @@ describe("tap tables: computing versions", () => {
           return { pulse, space: searchSpace(pulse, budget) };
         }),
       );
-      for (const ch of cls.channels as { name: string; own: { tx: number[]; ctle: { gDc_dB: number; gDc2_dB: number } } }[]) {
-        const worstWithOwn = Math.min(...members.map((m) => evaluateSetting(channelFor(m.pulse, m.space, ch.own.ctle), m.space, ch.own.tx, dfe).limiterHeadroom_V));
-        expect(cls.worstHeadroom_V, `${cls.name}: ${ch.name}'s optimum on the whole class`).toBeGreaterThanOrEqual(worstWithOwn - 1e-9);
+      for (const ch of cls.channels as {
+        name: string;
+        own: { tx: number[]; ctle: { gDc_dB: number; gDc2_dB: number } };
+      }[]) {
+        const worstWithOwn = Math.min(
+          ...members.map(
+            (m) =>
+              evaluateSetting(channelFor(m.pulse, m.space, ch.own.ctle), m.space, ch.own.tx, dfe).limiterHeadroom_V,
+          ),
+        );
+        expect(cls.worstHeadroom_V, `${cls.name}: ${ch.name}'s optimum on the whole class`).toBeGreaterThanOrEqual(
+          worstWithOwn - 1e-9,
+        );
       }
     }
   });
 
   it("an architecture with a receive FFE: the map holds its taps, the version computes, and it exports with them", async () => {
-    const withFfe = { key: "ctle-ffe1-2-dfe1", label: "CTLE + RX FFE + DFE 1", tx: null, ctle: true, dfeTaps: 1, ffe: { pre: 1, post: 2 } };
+    const withFfe = {
+      key: "ctle-ffe1-2-dfe1",
+      label: "CTLE + RX FFE + DFE 1",
+      tx: null,
+      ctle: true,
+      dfeTaps: 1,
+      ffe: { pre: 1, post: 2 },
+    };
     const res = await designer.send("POST", "/api/v1/tap-tables", tableRequest({ architecture: withFfe }));
     expect(res.status, await res.clone().text()).toBe(202);
     const { id } = await res.json();
@@ -215,7 +285,9 @@ describe("tap tables: computing versions", () => {
     const res = await designer.send(
       "POST",
       "/api/v1/tap-tables",
-      tableRequest({ grouping: { mode: "manual", classes: [{ name: "Long lanes", channelIds: [bundleLane, other] }] } }),
+      tableRequest({
+        grouping: { mode: "manual", classes: [{ name: "Long lanes", channelIds: [bundleLane, other] }] },
+      }),
     );
     expect(res.status, await res.clone().text()).toBe(202);
     const { id } = await res.json();
@@ -230,7 +302,11 @@ describe("tap tables: computing versions", () => {
     const pulse = pulseFromJson(detail.pulse);
     const budget = budgetForArchitecture(resolveBudget(v1.inputs.budget.params), v1.inputs.architecture);
     const space = searchSpace(pulse, budget);
-    const aggressors = detail.aggressors.map((a: { name: string; kind: "next" | "fext"; pulse: never }) => ({ name: a.name, kind: a.kind, pulse: pulseFromJson(a.pulse) }));
+    const aggressors = detail.aggressors.map((a: { name: string; kind: "next" | "fext"; pulse: never }) => ({
+      name: a.name,
+      kind: a.kind,
+      pulse: pulseFromJson(a.pulse),
+    }));
     const ctle = { gDc_dB: cls.values.ctle_gdc, gDc2_dB: 0 };
     const tx = [cls.values.tx_main, cls.values.tx_post1];
     const withXt = evaluateSetting(channelFor(pulse, space, ctle, aggressors), space, tx, 2).limiterHeadroom_V;
@@ -247,27 +323,53 @@ describe("tap tables: computing versions", () => {
   it("a new version with other bin edges shows the diff against the previous one", async () => {
     const { id } = await (await designer.send("POST", "/api/v1/tap-tables", tableRequest())).json();
     await versionComputed(designer, id, 1);
-    const res = await designer.send("POST", `/api/v1/tap-tables/${id}/versions`, { edges_dB: [12, 20], note: "three classes" });
+    const res = await designer.send("POST", `/api/v1/tap-tables/${id}/versions`, {
+      edges_dB: [12, 20],
+      note: "three classes",
+    });
     expect(res.status).toBe(202);
     expect((await res.json()).version).toBe(2);
     const v2 = await versionComputed(designer, id, 2);
     expect(v2.job.status, v2.job.error?.message).toBe("done");
     expect(v2.note).toBe("three classes");
-    expect(v2.result.classes.map((c: { name: string }) => c.name)).toEqual(["Loss < 12 dB", "Loss 12–20 dB", "Loss ≥ 20 dB"]);
+    expect(v2.result.classes.map((c: { name: string }) => c.name)).toEqual([
+      "Loss < 12 dB",
+      "Loss 12–20 dB",
+      "Loss ≥ 20 dB",
+    ]);
     expect(v2.diff.fromVersion).toBe(1);
-    const statuses = Object.fromEntries(v2.diff.classes.map((c: { name: string; status: string }) => [c.name, c.status]));
-    expect(statuses).toMatchObject({ "Loss < 12 dB": "added", "Loss 12–20 dB": "added", "Loss ≥ 20 dB": "added", "Loss < 15 dB": "removed", "Loss ≥ 15 dB": "removed" });
+    const statuses = Object.fromEntries(
+      v2.diff.classes.map((c: { name: string; status: string }) => [c.name, c.status]),
+    );
+    expect(statuses).toMatchObject({
+      "Loss < 12 dB": "added",
+      "Loss 12–20 dB": "added",
+      "Loss ≥ 20 dB": "added",
+      "Loss < 15 dB": "removed",
+      "Loss ≥ 15 dB": "removed",
+    });
     expect(v2.diff.channels).toHaveLength(6);
     const moved = v2.diff.channels.find((c: { id: number }) => c.id === pop.byLoss.get(14));
     expect(moved).toMatchObject({ fromClass: "Loss < 15 dB", toClass: "Loss 12–20 dB" });
     // Per channel, the codes it gets change exactly where its old and new class defaults differ.
-    const codesOf = (v: { result: { classes: { name: string; codes: Record<string, number> }[] } }, name: string) => v.result.classes.find((c) => c.name === name)!.codes;
+    const codesOf = (v: { result: { classes: { name: string; codes: Record<string, number> }[] } }, name: string) =>
+      v.result.classes.find((c) => c.name === name)!.codes;
     const v1 = await (await designer.get(`/api/v1/tap-tables/${id}/versions/1`)).json();
-    const changed = Object.keys(codesOf(v2, "Loss 12–20 dB")).filter((f) => codesOf(v2, "Loss 12–20 dB")[f] !== codesOf(v1, "Loss < 15 dB")[f]);
+    const changed = Object.keys(codesOf(v2, "Loss 12–20 dB")).filter(
+      (f) => codesOf(v2, "Loss 12–20 dB")[f] !== codesOf(v1, "Loss < 15 dB")[f],
+    );
     expect(moved.codes.map((c: { field: string }) => c.field).sort()).toEqual(changed.sort());
 
     // Same channels under a new name: matched, so its code changes show.
-    const v3res = await designer.send("POST", `/api/v1/tap-tables/${id}/versions`, { grouping: { mode: "manual", classes: [{ name: "Short", channelIds: [pop.byLoss.get(6), pop.byLoss.get(10)] }, { name: "Long", channelIds: [14, 18, 22, 26].map((l) => pop.byLoss.get(l)) }] } });
+    const v3res = await designer.send("POST", `/api/v1/tap-tables/${id}/versions`, {
+      grouping: {
+        mode: "manual",
+        classes: [
+          { name: "Short", channelIds: [pop.byLoss.get(6), pop.byLoss.get(10)] },
+          { name: "Long", channelIds: [14, 18, 22, 26].map((l) => pop.byLoss.get(l)) },
+        ],
+      },
+    });
     expect(v3res.status).toBe(202);
     const v3 = await versionComputed(designer, id, 3);
     const short = v3.diff.classes.find((c: { name: string }) => c.name === "Short");
@@ -279,14 +381,21 @@ describe("tap tables: computing versions", () => {
   it("an edited register map recomputes the version; the edit is audited", async () => {
     const { id } = await (await designer.send("POST", "/api/v1/tap-tables", tableRequest())).json();
     const v1 = await versionComputed(designer, id, 1);
-    const map = v1.inputs.registerMap.map((f: { name: string }) => (f.name === "ctle_gdc" ? { ...f, name: "rx_ctle_boost" } : f));
-    const res = await designer.send("PUT", `/api/v1/tap-tables/${id}/versions/1`, { registerMap: map, note: "silicon names" });
+    const map = v1.inputs.registerMap.map((f: { name: string }) =>
+      f.name === "ctle_gdc" ? { ...f, name: "rx_ctle_boost" } : f,
+    );
+    const res = await designer.send("PUT", `/api/v1/tap-tables/${id}/versions/1`, {
+      registerMap: map,
+      note: "silicon names",
+    });
     expect(res.status).toBe(200);
     const again = await versionComputed(designer, id, 1);
     expect(again.state).toBe("ready");
     expect(again.note).toBe("silicon names");
     expect(Object.keys(again.result.classes[0].codes)).toContain("rx_ctle_boost");
     const events = await auditEvents(admin, "table.version-edit");
-    expect(events.some((e) => e.targetId === String(id) && (e.detail?.registerMap as string[])?.includes("rx_ctle_boost"))).toBe(true);
+    expect(
+      events.some((e) => e.targetId === String(id) && (e.detail?.registerMap as string[])?.includes("rx_ctle_boost")),
+    ).toBe(true);
   });
 });

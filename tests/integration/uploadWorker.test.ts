@@ -11,9 +11,18 @@ afterAll(closeDb);
 it("a health request sent during a large .s4p preview is answered before the preview", async () => {
   const designer = await signIn("designer");
   // 20 000 frequency points of four ports: seconds of derivation on this machine.
-  const big = backplaneTouchstone({ model: { lossAtNyquist_dB: 18, delay_s: 1.5e-9 }, nyquist_Hz: NYQUIST_HZ, step_Hz: 2e6, stop_Hz: 40e9, comments: ["large test lane"] });
+  const big = backplaneTouchstone({
+    model: { lossAtNyquist_dB: 18, delay_s: 1.5e-9 },
+    nyquist_Hz: NYQUIST_HZ,
+    step_Hz: 2e6,
+    stop_Hz: 40e9,
+    comments: ["large test lane"],
+  });
   const order: string[] = [];
-  const preview = upload(designer, "/api/v1/channels/preview", "big.s4p", big, { bitRate_bps: String(BIT_RATE), pairs: "1,2,3,4" }).then(async (r) => {
+  const preview = upload(designer, "/api/v1/channels/preview", "big.s4p", big, {
+    bitRate_bps: String(BIT_RATE),
+    pairs: "1,2,3,4",
+  }).then(async (r) => {
     order.push("preview");
     return r;
   });

@@ -55,7 +55,11 @@ export async function signIn(emailOrRole: string, password = demoPassword, base 
 export const anonymous = () => new Client("");
 
 /** Polls until `check` returns a value (not undefined), or fails after `timeout_ms`. */
-export async function eventually<T>(check: () => Promise<T | undefined>, timeout_ms = 10_000, what = "condition"): Promise<T> {
+export async function eventually<T>(
+  check: () => Promise<T | undefined>,
+  timeout_ms = 10_000,
+  what = "condition",
+): Promise<T> {
   const until = Date.now() + timeout_ms;
   for (;;) {
     const v = await check();

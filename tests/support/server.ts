@@ -61,7 +61,9 @@ export function freePort(): Promise<number> {
     probe.once("error", reject);
     probe.listen(0, "127.0.0.1", () => {
       const address = probe.address();
-      probe.close(() => (address && typeof address === "object" ? resolve(address.port) : reject(new Error("no free port"))));
+      probe.close(() =>
+        address && typeof address === "object" ? resolve(address.port) : reject(new Error("no free port")),
+      );
     });
   });
 }

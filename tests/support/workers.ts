@@ -21,11 +21,22 @@ export interface TestWorker {
  * worker's job is handed on within seconds; resolves once it takes jobs.
  */
 export async function startWorker(name: string, env: Record<string, string> = {}): Promise<TestWorker> {
-  const child: ChildProcess = spawn(process.execPath, [join(root, process.env.TAPWRIGHT_OUT_DIR ?? "dist", "worker.mjs")], {
-    cwd: root,
-    env: { ...process.env, TAPWRIGHT_QUEUE: "bullmq", TAPWRIGHT_WORKERS: "1", TAPWRIGHT_JOB_LOCK_S: "3", TAPWRIGHT_WORKER_NAME: name, ...env },
-    stdio: ["ignore", "pipe", "inherit"],
-  });
+  const child: ChildProcess = spawn(
+    process.execPath,
+    [join(root, process.env.TAPWRIGHT_OUT_DIR ?? "dist", "worker.mjs")],
+    {
+      cwd: root,
+      env: {
+        ...process.env,
+        TAPWRIGHT_QUEUE: "bullmq",
+        TAPWRIGHT_WORKERS: "1",
+        TAPWRIGHT_JOB_LOCK_S: "3",
+        TAPWRIGHT_WORKER_NAME: name,
+        ...env,
+      },
+      stdio: ["ignore", "pipe", "inherit"],
+    },
+  );
   let out = "";
   await new Promise<void>((resolve, reject) => {
     const timer = setTimeout(() => reject(new Error(`worker ${name} did not start: ${out}`)), 30_000);
@@ -58,7 +69,11 @@ export async function startWorker(name: string, env: Record<string, string> = {}
 /** The test run's private Redis (see scripts/test.mjs): its folder, port and password. */
 function testRedis() {
   const url = new URL(process.env.REDIS_URL!);
-  return { dir: process.env.TAPWRIGHT_REDIS_DIR!, port: Number(url.port), password: decodeURIComponent(url.password) || null };
+  return {
+    dir: process.env.TAPWRIGHT_REDIS_DIR!,
+    port: Number(url.port),
+    password: decodeURIComponent(url.password) || null,
+  };
 }
 
 /** Stops Redis (SHUTDOWN: the append-only file is flushed) and starts it again on the same data. */

@@ -17,7 +17,11 @@ const pureFiles = ["src/features", "src/components"]
 
 /** Why a specifier may not appear in an island or a pure module, or null when it may. */
 function offence(rel: string, spec: string): string | null {
-  const target = spec.startsWith(".") ? relative(root, resolve(root, rel, "..", spec)).split("\\").join("/") : spec;
+  const target = spec.startsWith(".")
+    ? relative(root, resolve(root, rel, "..", spec))
+        .split("\\")
+        .join("/")
+    : spec;
   if (/^(@\/|src\/)db(\/|$)/.test(target)) return "the database schema";
   if (/^(@\/|src\/)server(\/|$)/.test(target)) return "server code";
   if (/\.server(\.ts)?$/.test(target)) return "a *.server module";

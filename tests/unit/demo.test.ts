@@ -5,7 +5,8 @@ import { demoWanted } from "../../scripts/lib/demo.mjs";
 
 describe("demoWanted", () => {
   it("seeds on a loopback HOST unless TAPWRIGHT_DEMO=0", () => {
-    for (const HOST of [undefined, "127.0.0.1", "localhost", "::1", "127.0.1.1"]) expect(demoWanted({ HOST }).seed, String(HOST)).toBe(true);
+    for (const HOST of [undefined, "127.0.0.1", "localhost", "::1", "127.0.1.1"])
+      expect(demoWanted({ HOST }).seed, String(HOST)).toBe(true);
     expect(demoWanted({ HOST: "127.0.0.1", TAPWRIGHT_DEMO: "0" }).seed).toBe(false);
   });
   it("does not seed on a HOST others can reach unless TAPWRIGHT_DEMO=1, and says how", () => {

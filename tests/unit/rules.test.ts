@@ -6,10 +6,12 @@ import { safeNextPath } from "@/server/http/pages";
 
 describe("public paths", () => {
   it("assets and the icon are public", () => {
-    for (const p of ["/_astro/client.js", "/fonts/inter.woff2", "/favicon.svg"]) expect(ruleFor("GET", p).access, p).toBe("public");
+    for (const p of ["/_astro/client.js", "/fonts/inter.woff2", "/favicon.svg"])
+      expect(ruleFor("GET", p).access, p).toBe("public");
   });
   it("paths that only start like them are not", () => {
-    for (const p of ["/_astronaut", "/fontsecret", "/favicon-admin", "/favicons/x", "/_astro"]) expect(ruleFor("GET", p).access, p).not.toBe("public");
+    for (const p of ["/_astronaut", "/fontsecret", "/favicon-admin", "/favicons/x", "/_astro"])
+      expect(ruleFor("GET", p).access, p).not.toBe("public");
   });
 });
 
@@ -19,7 +21,16 @@ describe("sign-in's next", () => {
     expect(safeNextPath("/runs/4?fields=status", origin)).toBe("/runs/4?fields=status");
   });
   it("drops what resolves to another origin: a backslash, two slashes, a tab, an absolute URL, a scheme", () => {
-    for (const next of ["/\\evil.example", "/\\\\evil.example", "//evil.example", "/\t/evil.example", "https://evil.example/", "javascript:alert(1)", "", null]) {
+    for (const next of [
+      "/\\evil.example",
+      "/\\\\evil.example",
+      "//evil.example",
+      "/\t/evil.example",
+      "https://evil.example/",
+      "javascript:alert(1)",
+      "",
+      null,
+    ]) {
       expect(safeNextPath(next, origin), String(next)).toBe("/");
     }
   });

@@ -3,10 +3,23 @@
 // every preset says where its numbers come from.
 import { describe, expect, it } from "vitest";
 import { cornerSchema } from "@lib/contract/corner";
-import { CORNERS_PER_BATCH, headroomHistogram, sweepBatches, sweepCsv, timeLeft_s, worstPerChannel, type PairResult } from "@/features/sweeps/sweeps";
+import {
+  CORNERS_PER_BATCH,
+  headroomHistogram,
+  sweepBatches,
+  sweepCsv,
+  timeLeft_s,
+  worstPerChannel,
+  type PairResult,
+} from "@/features/sweeps/sweeps";
 import { cornerPresets, sourceLabel } from "@/features/sweeps/presets";
 
-const pair = (channelId: number, cornerIndex: number, limiterHeadroom_V: number | null, error: string | null = null): PairResult => ({
+const pair = (
+  channelId: number,
+  cornerIndex: number,
+  limiterHeadroom_V: number | null,
+  error: string | null = null,
+): PairResult => ({
   channelId,
   cornerIndex,
   limiterHeadroom_V,
@@ -20,7 +33,13 @@ const pair = (channelId: number, cornerIndex: number, limiterHeadroom_V: number 
 
 describe("sweep batches", () => {
   it("cover every channel × corner pair exactly once, one channel per batch, at most CORNERS_PER_BATCH corners", () => {
-    for (const [channels, corners] of [[1, 1], [3, 4], [5, 9], [13, 4], [2, 24]]) {
+    for (const [channels, corners] of [
+      [1, 1],
+      [3, 4],
+      [5, 9],
+      [13, 4],
+      [2, 24],
+    ]) {
       const seen = new Set<string>();
       for (const b of sweepBatches(channels, corners)) {
         expect(b.cornerIndices.length).toBeGreaterThan(0);
@@ -45,7 +64,14 @@ describe("worst corner per channel and the CSV", () => {
   const corners = [{ name: "nominal" }, { name: "hot", lossScale: 1.1 }, { name: "slow", txSwingScale: 0.9 }];
 
   it("is the lowest headroom; a tie goes to the first corner; refused pairs and channels without results are left out", () => {
-    const w = worstPerChannel(channels, corners, [pair(7, 0, 0.05), pair(7, 1, 0.03), pair(7, 2, 0.04), pair(9, 0, 0.02), pair(9, 1, 0.02), pair(9, 2, null, "refused")]);
+    const w = worstPerChannel(channels, corners, [
+      pair(7, 0, 0.05),
+      pair(7, 1, 0.03),
+      pair(7, 2, 0.04),
+      pair(9, 0, 0.02),
+      pair(9, 1, 0.02),
+      pair(9, 2, null, "refused"),
+    ]);
     expect(w).toEqual([
       { channelId: 7, channelName: "A", corner: "hot", cornerIndex: 1, limiterHeadroom_V: 0.03 },
       { channelId: 9, channelName: "B", corner: "nominal", cornerIndex: 0, limiterHeadroom_V: 0.02 },
@@ -53,7 +79,11 @@ describe("worst corner per channel and the CSV", () => {
   });
 
   it("CSV: one row per pair in channel then corner order, quoted where needed, mV, empty for no value", () => {
-    const inputs = { budget: { id: 1, name: "b", params: {} as never }, corners, channels: [{ id: 7, name: 'Lane "7", rear', lossAtNyquist_dB: 10 }] };
+    const inputs = {
+      budget: { id: 1, name: "b", params: {} as never },
+      corners,
+      channels: [{ id: 7, name: 'Lane "7", rear', lossAtNyquist_dB: 10 }],
+    };
     const lines = sweepCsv(inputs, [pair(7, 1, 0.0123456), pair(7, 0, -0.001)]).split("\r\n");
     expect(lines).toHaveLength(5);
     expect(lines[4]).toBe("");
@@ -61,7 +91,10 @@ describe("worst corner per channel and the CSV", () => {
     expect(lines[2]).toBe('7,"Lane ""7"", rear",10,hot,1.1,1,1,1,1,12.346,12.346,12.346,false,0,');
     expect(lines[3]).toBe('7,"Lane ""7"", rear",10,slow,1,0.9,1,1,1,,,,,,');
     // A name a spreadsheet would run as a formula is shown as text.
-    const evil = sweepCsv({ ...inputs, channels: [{ id: 8, name: "=HYPERLINK(1)", lossAtNyquist_dB: null }] }, []).split("\r\n");
+    const evil = sweepCsv(
+      { ...inputs, channels: [{ id: 8, name: "=HYPERLINK(1)", lossAtNyquist_dB: null }] },
+      [],
+    ).split("\r\n");
     expect(evil[1].startsWith("8,'=HYPERLINK(1),,nominal")).toBe(true);
   });
 });

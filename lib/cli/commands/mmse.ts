@@ -9,7 +9,12 @@ export const mmseCommand = defineCommand({
   schema: mmseRequestSchema,
   errorPaths: { aliases: { "cursors.h": "cursors", cursors: "cursors" }, fallback: "cursors" },
   run: (r) => {
-    const { taps, mse, equalized } = mmseEqualizer({ h: Float64Array.from(r.cursors), main: r.main }, r.pre, r.post, r.noiseRms_V);
+    const { taps, mse, equalized } = mmseEqualizer(
+      { h: Float64Array.from(r.cursors), main: r.main },
+      r.pre,
+      r.post,
+      r.noiseRms_V,
+    );
     return { taps, mse, equalized: equalized.h, equalizedMain: equalized.main };
   },
 });

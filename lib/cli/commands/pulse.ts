@@ -24,7 +24,10 @@ export const pulseCommand = defineCommand({
     let built: PulseWithTime | FrequencyPulse;
     try {
       if (src.kind === "samples") {
-        built = pulseFromSamples({ response: src.response, values: Float64Array.from(src.values), dt_s: src.dt_s }, grid);
+        built = pulseFromSamples(
+          { response: src.response, values: Float64Array.from(src.values), dt_s: src.dt_s },
+          grid,
+        );
       } else if (src.kind === "csv") {
         const rec = readCsvResponse(src.text);
         built = pulseFromSamples({ response: src.response, values: rec.values, time_s: rec.time_s }, grid);

@@ -75,7 +75,9 @@ export function boundSetup(space: SearchSpace, channel: CtleChannel, maxDfe: num
   const ber = space.edgeTail; // the conditional tail of one eye edge at the target BER
   const kernel = jitterKernel(space.jitter, channel.pulse.samplesPerUi, 0, kernelFloorOf(space));
   // Phases whose weight gives a bound, outermost first: their worse eyes usually bound lowest.
-  const usable = Array.from(kernel.weights, (w, i) => ({ shift: kernel.first + i, w })).filter((x) => ber / x.w <= 0.25);
+  const usable = Array.from(kernel.weights, (w, i) => ({ shift: kernel.first + i, w })).filter(
+    (x) => ber / x.w <= 0.25,
+  );
   usable.sort((a, b) => Math.abs(b.shift) - Math.abs(a.shift) || a.shift - b.shift);
   const shifts = usable.map((x) => x.shift);
   const weights = usable.map((x) => x.w);
@@ -89,7 +91,9 @@ export function boundSetup(space: SearchSpace, channel: CtleChannel, maxDfe: num
       qSigma[j * watchedCount + k] = arg <= 0.25 ? sigma * qFromBer(arg) : Number.NaN;
     }
   });
-  const slack = Float64Array.from({ length: watchedCount }, (_, k) => (levelsPerCursor === 2 ? 2 * (k + 1) : 4 * k + 2));
+  const slack = Float64Array.from({ length: watchedCount }, (_, k) =>
+    levelsPerCursor === 2 ? 2 * (k + 1) : 4 * k + 2,
+  );
   return {
     tapCount,
     offsets: Int32Array.from(offsets),
@@ -114,7 +118,12 @@ export function boundSetup(space: SearchSpace, channel: CtleChannel, maxDfe: num
  * `Σx² ≤ max_t Σ_k f(t + k·UI)²` (Minkowski): these bound its share of the law's span and of the
  * lumped Gaussian from above, and 0 bounds them from below.
  */
-function crosstalkBounds(channel: CtleChannel): { parts_V: Float64Array; span_V: number; noiseLow_V: number; noiseHigh_V: number } {
+function crosstalkBounds(channel: CtleChannel): {
+  parts_V: Float64Array;
+  span_V: number;
+  noiseLow_V: number;
+  noiseHigh_V: number;
+} {
   const sigma = channel.noiseRms_V;
   const x = channel.crosstalk;
   if (x === null) return { parts_V: new Float64Array(0), span_V: 0, noiseLow_V: sigma, noiseHigh_V: sigma };

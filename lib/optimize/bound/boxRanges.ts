@@ -59,7 +59,9 @@ export class BoxRanges {
   at(p: number): number {
     const slot = p - this.#minPhase;
     if (!(slot >= 0 && slot < this.#phaseCount)) {
-      throw new RangeError(`phase ${p} is outside the box table's ${this.#minPhase} … ${this.#minPhase + this.#phaseCount - 1}`);
+      throw new RangeError(
+        `phase ${p} is outside the box table's ${this.#minPhase} … ${this.#minPhase + this.#phaseCount - 1}`,
+      );
     }
     const watchedCount = this.#setup.offsets.length;
     const tapCount = this.#setup.tapCount;

@@ -19,7 +19,12 @@ export type CoefficientSource = (p: number) => PhaseCoefficients;
  * Coefficients of the watched cursors at phase `p` (samples from the main cursor), scaled by the
  * symbol amplitude `space.scale_V`.
  */
-export function phaseCoefficients(setup: BoundSetup, space: SearchSpace, channel: CtleChannel, p: number): PhaseCoefficients {
+export function phaseCoefficients(
+  setup: BoundSetup,
+  space: SearchSpace,
+  channel: CtleChannel,
+  p: number,
+): PhaseCoefficients {
   const h = channel.cursors(p);
   const tapCount = setup.tapCount;
   const watchedCount = setup.offsets.length;

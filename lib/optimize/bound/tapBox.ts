@@ -40,7 +40,13 @@ export function createTapBox(tapCount: number, main: number): TapBox {
  * Exact range over the box of `Σ_j c_j·coefficients[offset + j]` (j over the box's taps), written to
  * `out[at]` (least) and `out[at + 1]` (largest), for tables of ranges filled in place.
  */
-export function affineRangeInto(box: TapBox, coefficients: Float64Array, offset: number, out: Float64Array, at: number): void {
+export function affineRangeInto(
+  box: TapBox,
+  coefficients: Float64Array,
+  offset: number,
+  out: Float64Array,
+  at: number,
+): void {
   const tapCount = box.base.length;
   let c = 0;
   for (let j = 0; j < tapCount; j++) c += box.base[j] * coefficients[offset + j];

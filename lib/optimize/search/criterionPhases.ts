@@ -32,7 +32,12 @@ function criterionCoefficients(state: SearchState, member: MemberContext, t: num
     const b = Math.floor(u);
     const f = u - b;
     const out = new Float64Array(grid.tapCount);
-    for (const [p, w] of f === 0 ? [[b, 1]] : [[b, 1 - f], [b + 1, f]]) {
+    for (const [p, w] of f === 0
+      ? [[b, 1]]
+      : [
+          [b, 1 - f],
+          [b + 1, f],
+        ]) {
       const h = member.channel.cursors(p);
       for (let j = 0; j < grid.tapCount; j++) {
         const i = member.channel.pre + grid.mainIndex - j;

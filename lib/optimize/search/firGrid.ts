@@ -41,7 +41,8 @@ export function firGrid(spec: TxFirSpec): FirGrid {
     sideSteps,
     mainMin,
     mainMax,
-    exactGrid: Math.abs(1 / step - Math.round(1 / step)) < 1e-9 && Math.abs(mainMax / step - Math.round(mainMax / step)) < 1e-9,
+    exactGrid:
+      Math.abs(1 / step - Math.round(1 / step)) < 1e-9 && Math.abs(mainMax / step - Math.round(mainMax / step)) < 1e-9,
     empty: sideSteps.some((g) => g.length === 0),
   };
 }

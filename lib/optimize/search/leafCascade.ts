@@ -3,7 +3,14 @@
 // and only then the exact eye.
 import { leafBound } from "../bound/leafBound.ts";
 import { sortedCrosstalkParts } from "../channelCrosstalk.ts";
-import { criterionPhaseOf, finishEye, heavyPhaseBound, lightPhaseBound, type PhaseEye, prepareEye } from "../evaluateSetting.ts";
+import {
+  criterionPhaseOf,
+  finishEye,
+  heavyPhaseBound,
+  lightPhaseBound,
+  type PhaseEye,
+  prepareEye,
+} from "../evaluateSetting.ts";
 import type { CtleContext, MemberContext } from "./ctleContext.ts";
 import type { SearchState } from "./searchState.ts";
 
@@ -22,7 +29,8 @@ function memberFigure(state: SearchState, member: MemberContext, taps: Float64Ar
   const { space, results } = state;
   const dfeCount = state.dfeCounts[o];
   if (member.leafSerial !== state.leafSerial) {
-    member.leafPhases = space.policy === "max-height" ? state.allPhases : [criterionPhaseOf(member.channel, member.space, taps)];
+    member.leafPhases =
+      space.policy === "max-height" ? state.allPhases : [criterionPhaseOf(member.channel, member.space, taps)];
     member.leafSerial = state.leafSerial;
   }
   const setup = member.setup;
@@ -57,7 +65,8 @@ function memberFigure(state: SearchState, member: MemberContext, taps: Float64Ar
     const e = finishEye(member.space, prepared);
     if (bestEye === null || e.limiterHeadroom_V > bestEye.limiterHeadroom_V) bestEye = e;
   }
-  if (bestEye !== null && bestEye.limiterHeadroom_V >= worstPruned) return { eye: bestEye, bound_V: bestEye.limiterHeadroom_V };
+  if (bestEye !== null && bestEye.limiterHeadroom_V >= worstPruned)
+    return { eye: bestEye, bound_V: bestEye.limiterHeadroom_V };
   return { eye: null, bound_V: Math.max(worstPruned, bestEye?.limiterHeadroom_V ?? Number.NEGATIVE_INFINITY) };
 }
 
@@ -66,7 +75,12 @@ function memberFigure(state: SearchState, member: MemberContext, taps: Float64Ar
  * enter the result: the worst member counts, and a member that cannot pass the threshold ends the
  * evaluation early (it is evaluated first next time). A setting is evaluated once per CTLE setting.
  */
-export function evaluateLeaf(state: SearchState, ctx: CtleContext, taps: Float64Array, alive: readonly boolean[]): void {
+export function evaluateLeaf(
+  state: SearchState,
+  ctx: CtleContext,
+  taps: Float64Array,
+  alive: readonly boolean[],
+): void {
   const key = Array.from(taps, (c) => Math.round(c / state.grid.step)).join(",");
   if (ctx.seen.has(key)) return;
   ctx.seen.add(key);

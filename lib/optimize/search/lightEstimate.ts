@@ -21,6 +21,11 @@ export function lightEstimate(
   const light =
     setup.shifts.length === 0
       ? leaf.bound_V
-      : lightPhaseBound(space, prepareEye(member.channel, space, taps, dfeCount, phase), setup.shifts[leaf.shiftIndex], setup.weights[leaf.shiftIndex]);
+      : lightPhaseBound(
+          space,
+          prepareEye(member.channel, space, taps, dfeCount, phase),
+          setup.shifts[leaf.shiftIndex],
+          setup.weights[leaf.shiftIndex],
+        );
   return Math.min(leaf.bound_V, light);
 }

@@ -79,7 +79,14 @@ export class SearchResults {
   }
 
   /** Records the exact figure of a setting for objective `o` (its worst member's eye). */
-  record(ctleIndex: number, ctle: CtleSetting, o: number, taps: Float64Array, eye: EyeFigures, worstMember: number): void {
+  record(
+    ctleIndex: number,
+    ctle: CtleSetting,
+    o: number,
+    taps: Float64Array,
+    eye: EyeFigures,
+    worstMember: number,
+  ): void {
     const cand: Candidate = {
       ctleIndex,
       ctle,

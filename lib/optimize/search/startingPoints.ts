@@ -18,7 +18,11 @@ import type { SearchState } from "./searchState.ts";
  * @param space - the resolved budget (FIR spec, noise, swing).
  * @param grid - the FIR grid of `space.firSpec` (made here when not given).
  */
-export function startingPoints(channel: CtleChannel, space: SearchSpace, grid: FirGrid = firGrid(space.firSpec)): Float64Array[] {
+export function startingPoints(
+  channel: CtleChannel,
+  space: SearchSpace,
+  grid: FirGrid = firGrid(space.firSpec),
+): Float64Array[] {
   const spec = space.firSpec;
   const cursors = { h: channel.cursors(0), main: channel.pre };
   const raw: Float64Array[] = [Float64Array.from({ length: grid.tapCount }, (_, j) => (j === grid.mainIndex ? 1 : 0))];

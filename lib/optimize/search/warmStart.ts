@@ -23,7 +23,8 @@ function estimate(state: SearchState, ctx: CtleContext, taps: Float64Array, o: n
   const dfeCount = state.dfeCounts[o];
   let least = Number.POSITIVE_INFINITY;
   for (const member of ctx.members) {
-    const phases = space.policy === "max-height" ? state.allPhases : [criterionPhaseOf(member.channel, member.space, taps)];
+    const phases =
+      space.policy === "max-height" ? state.allPhases : [criterionPhaseOf(member.channel, member.space, taps)];
     let best = Number.NEGATIVE_INFINITY;
     for (const t of phases) {
       const leaf = leafBound(member.setup, member.coefficients, t, taps, dfeCount, member.scratch);

@@ -26,12 +26,26 @@ const common = (p: AxisProps) => ({
 
 /** The value axis on the left. */
 export function ChartAxisLeft(props: AxisProps) {
-  return <AxisLeft {...common(props)} numTicks={props.numTicks ?? 6} tickLabelProps={() => axisStyle.leftTickLabelProps} labelOffset={36} />;
+  return (
+    <AxisLeft
+      {...common(props)}
+      numTicks={props.numTicks ?? 6}
+      tickLabelProps={() => axisStyle.leftTickLabelProps}
+      labelOffset={36}
+    />
+  );
 }
 
 /** The horizontal axis at the bottom of a plot `top` pixels high. */
 export function ChartAxisBottom(props: AxisProps & { top: number }) {
-  return <AxisBottom {...common(props)} top={props.top} tickLabelProps={() => axisStyle.bottomTickLabelProps} labelOffset={14} />;
+  return (
+    <AxisBottom
+      {...common(props)}
+      top={props.top}
+      tickLabelProps={() => axisStyle.bottomTickLabelProps}
+      labelOffset={14}
+    />
+  );
 }
 
 /** A horizontal axis along the top (a mirror of the bottom one on tall charts). */

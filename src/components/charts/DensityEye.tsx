@@ -100,7 +100,15 @@ export default function DensityEye(props: DensityEyeProps) {
     off.height = image.height;
     const octx = off.getContext("2d");
     if (!octx) return;
-    octx.putImageData(new ImageData(densityPixels(image.counts, image.width, image.height) as Uint8ClampedArray<ArrayBuffer>, image.width, image.height), 0, 0);
+    octx.putImageData(
+      new ImageData(
+        densityPixels(image.counts, image.width, image.height) as Uint8ClampedArray<ArrayBuffer>,
+        image.width,
+        image.height,
+      ),
+      0,
+      0,
+    );
     ctx.imageSmoothingEnabled = true;
     ctx.imageSmoothingQuality = "high";
     // Row 0's voltage decides whether the image is drawn upright or flipped.
@@ -135,10 +143,13 @@ export default function DensityEye(props: DensityEyeProps) {
         <svg width={width} height={height} className="absolute left-0 top-0" role="img" aria-label={props.ariaLabel}>
           <defs>
             <linearGradient id={gradientId} x1="0" x2="0" y1="1" y2="0">
-              {barTicks.concat([0.125, 0.375, 0.625, 0.875]).sort().map((t) => {
-                const [r, g, b] = densityColor(0.12 + 0.88 * t);
-                return <stop key={t} offset={t} stopColor={`rgb(${r},${g},${b})`} />;
-              })}
+              {barTicks
+                .concat([0.125, 0.375, 0.625, 0.875])
+                .sort()
+                .map((t) => {
+                  const [r, g, b] = densityColor(0.12 + 0.88 * t);
+                  return <stop key={t} offset={t} stopColor={`rgb(${r},${g},${b})`} />;
+                })}
             </linearGradient>
             <clipPath id={`${gradientId}-clip`}>
               <rect width={innerW} height={innerH} />
@@ -153,7 +164,14 @@ export default function DensityEye(props: DensityEyeProps) {
                   {c.paths.map((path, j) => (
                     <path
                       key={j}
-                      d={path.map(([t, v], k) => `${k === 0 ? "M" : "L"}${xScale(t).toFixed(1)},${yScale(v * 1e3).toFixed(1)}`).join("") + "Z"}
+                      d={
+                        path
+                          .map(
+                            ([t, v], k) =>
+                              `${k === 0 ? "M" : "L"}${xScale(t).toFixed(1)},${yScale(v * 1e3).toFixed(1)}`,
+                          )
+                          .join("") + "Z"
+                      }
                       fill="none"
                       stroke={contourColors[i % contourColors.length]}
                       strokeWidth={1.4}
@@ -164,11 +182,37 @@ export default function DensityEye(props: DensityEyeProps) {
               ))}
               {props.openings?.map((o, i) => (
                 <g key={i} stroke={chartColors.ink} fill={chartColors.ink}>
-                  <line x1={xScale(o.time_UI)} x2={xScale(o.time_UI)} y1={yScale(o.high_V * 1e3)} y2={yScale(o.low_V * 1e3)} strokeWidth={1.5} />
-                  <line x1={xScale(o.time_UI) - 5} x2={xScale(o.time_UI) + 5} y1={yScale(o.high_V * 1e3)} y2={yScale(o.high_V * 1e3)} strokeWidth={1.5} />
-                  <line x1={xScale(o.time_UI) - 5} x2={xScale(o.time_UI) + 5} y1={yScale(o.low_V * 1e3)} y2={yScale(o.low_V * 1e3)} strokeWidth={1.5} />
+                  <line
+                    x1={xScale(o.time_UI)}
+                    x2={xScale(o.time_UI)}
+                    y1={yScale(o.high_V * 1e3)}
+                    y2={yScale(o.low_V * 1e3)}
+                    strokeWidth={1.5}
+                  />
+                  <line
+                    x1={xScale(o.time_UI) - 5}
+                    x2={xScale(o.time_UI) + 5}
+                    y1={yScale(o.high_V * 1e3)}
+                    y2={yScale(o.high_V * 1e3)}
+                    strokeWidth={1.5}
+                  />
+                  <line
+                    x1={xScale(o.time_UI) - 5}
+                    x2={xScale(o.time_UI) + 5}
+                    y1={yScale(o.low_V * 1e3)}
+                    y2={yScale(o.low_V * 1e3)}
+                    strokeWidth={1.5}
+                  />
                   {o.label && (
-                    <text x={xScale(o.time_UI) + 8} y={(yScale(o.high_V * 1e3) + yScale(o.low_V * 1e3)) / 2} fontSize={10} fontFamily={axisStyle.font.mono} stroke="none" dominantBaseline="middle" paintOrder="stroke">
+                    <text
+                      x={xScale(o.time_UI) + 8}
+                      y={(yScale(o.high_V * 1e3) + yScale(o.low_V * 1e3)) / 2}
+                      fontSize={10}
+                      fontFamily={axisStyle.font.mono}
+                      stroke="none"
+                      dominantBaseline="middle"
+                      paintOrder="stroke"
+                    >
                       {o.label}
                     </text>
                   )}
@@ -176,13 +220,38 @@ export default function DensityEye(props: DensityEyeProps) {
               ))}
             </g>
             <ChartAxisLeft scale={yScale} label="Voltage (mV)" />
-            <ChartAxisBottom top={innerH} scale={xScale} numTicks={Math.max(2, Math.floor(innerW / 70))} label="Time from the sampling instant (UI)" />
+            <ChartAxisBottom
+              top={innerH}
+              scale={xScale}
+              numTicks={Math.max(2, Math.floor(innerW / 70))}
+              label="Time from the sampling instant (UI)"
+            />
             <g aria-label="Colour scale: hits per cell">
-              <rect x={barX} y={0} width={10} height={innerH} fill={`url(#${gradientId})`} stroke={chartColors.lineStrong} />
+              <rect
+                x={barX}
+                y={0}
+                width={10}
+                height={innerH}
+                fill={`url(#${gradientId})`}
+                stroke={chartColors.lineStrong}
+              />
               {barTicks.map((t) => (
                 <g key={t}>
-                  <line x1={barX + 10} x2={barX + 13} y1={innerH * (1 - t)} y2={innerH * (1 - t)} stroke={chartColors.lineStrong} />
-                  <text x={barX + 15} y={innerH * (1 - t)} fontSize={9} fontFamily={axisStyle.font.mono} fill={chartColors.inkSoft} dominantBaseline="middle">
+                  <line
+                    x1={barX + 10}
+                    x2={barX + 13}
+                    y1={innerH * (1 - t)}
+                    y2={innerH * (1 - t)}
+                    stroke={chartColors.lineStrong}
+                  />
+                  <text
+                    x={barX + 15}
+                    y={innerH * (1 - t)}
+                    fontSize={9}
+                    fontFamily={axisStyle.font.mono}
+                    fill={chartColors.inkSoft}
+                    dominantBaseline="middle"
+                  >
                     {formatTick(Math.round(countAtLevel(t, maxCount)))}
                   </text>
                 </g>
@@ -206,7 +275,15 @@ export default function DensityEye(props: DensityEyeProps) {
           {props.contours.map((c, i) => (
             <span key={c.log10Ber} className="flex items-center gap-1.5">
               <svg width={18} height={8} aria-hidden>
-                <line x1={0} x2={18} y1={4} y2={4} stroke={contourColors[i % contourColors.length]} strokeWidth={2} strokeDasharray={contourDashes[i % contourDashes.length]} />
+                <line
+                  x1={0}
+                  x2={18}
+                  y1={4}
+                  y2={4}
+                  stroke={contourColors[i % contourColors.length]}
+                  strokeWidth={2}
+                  strokeDasharray={contourDashes[i % contourDashes.length]}
+                />
               </svg>
               <span className="num">{berLabel(c.log10Ber)}</span>
             </span>

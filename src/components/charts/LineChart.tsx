@@ -131,7 +131,9 @@ export default function LineChart(props: LineChartProps) {
   const yFmt = props.yTickFormat ?? formatTick;
   const clipId = `clip-${props.ariaLabel.replace(/[^A-Za-z0-9]/g, "")}`;
   const visible = (s: LineSeries) =>
-    s.x.map((x, i) => [x, s.y[i]] as const).filter(([x, y]) => Number.isFinite(y) && x >= xDomain[0] && x <= xDomain[1]);
+    s.x
+      .map((x, i) => [x, s.y[i]] as const)
+      .filter(([x, y]) => Number.isFinite(y) && x >= xDomain[0] && x <= xDomain[1]);
 
   const readout =
     hoverX === null
@@ -166,11 +168,21 @@ export default function LineChart(props: LineChartProps) {
               {props.xGridAt
                 .filter((x) => x >= xDomain[0] && x <= xDomain[1])
                 .map((x) => (
-                  <line key={x} x1={xScale(x)} x2={xScale(x)} y1={0} y2={innerH} stroke={chartColors.line} strokeDasharray="2 3" />
+                  <line
+                    key={x}
+                    x1={xScale(x)}
+                    x2={xScale(x)}
+                    y1={0}
+                    y2={innerH}
+                    stroke={chartColors.line}
+                    strokeDasharray="2 3"
+                  />
                 ))}
             </g>
           )}
-          {yDomain[0] < 0 && yDomain[1] > 0 && <line x1={0} x2={innerW} y1={yScale(0)} y2={yScale(0)} stroke={chartColors.lineStrong} />}
+          {yDomain[0] < 0 && yDomain[1] > 0 && (
+            <line x1={0} x2={innerW} y1={yScale(0)} y2={yScale(0)} stroke={chartColors.lineStrong} />
+          )}
           <g clipPath={`url(#${clipId})`}>
             {props.series.map((s, i) => {
               const color = s.color ?? seriesColor(i);
@@ -191,7 +203,15 @@ export default function LineChart(props: LineChartProps) {
                   )}
                   {kind === "stems" &&
                     pts.map(([x, y]) => (
-                      <line key={x} x1={xScale(x)} x2={xScale(x)} y1={yScale(0)} y2={yScale(y)} stroke={color} strokeWidth={1.25} />
+                      <line
+                        key={x}
+                        x1={xScale(x)}
+                        x2={xScale(x)}
+                        y1={yScale(0)}
+                        y2={yScale(y)}
+                        stroke={color}
+                        strokeWidth={1.25}
+                      />
                     ))}
                   {(kind === "dots" || kind === "stems") &&
                     pts.map(([x, y]) => <circle key={x} cx={xScale(x)} cy={yScale(y)} r={3} fill={color} />)}
@@ -199,20 +219,43 @@ export default function LineChart(props: LineChartProps) {
               );
             })}
           </g>
-          {props.horizontalMarkers?.map((m) => m.y < yDomain[0] || m.y > yDomain[1] ? null : (
-            <g key={`h${m.y}`}>
-              <line x1={0} x2={innerW} y1={yScale(m.y)} y2={yScale(m.y)} stroke={m.color ?? chartColors.bad} strokeDasharray={m.dash ?? "5 4"} />
-              {m.label && (
-                <text x={innerW - 4} y={yScale(m.y) - 4} textAnchor="end" fontSize={10} fontFamily={axisStyle.font.sans} fill={m.color ?? chartColors.bad}>
-                  {m.label}
-                </text>
-              )}
-            </g>
-          ))}
+          {props.horizontalMarkers?.map((m) =>
+            m.y < yDomain[0] || m.y > yDomain[1] ? null : (
+              <g key={`h${m.y}`}>
+                <line
+                  x1={0}
+                  x2={innerW}
+                  y1={yScale(m.y)}
+                  y2={yScale(m.y)}
+                  stroke={m.color ?? chartColors.bad}
+                  strokeDasharray={m.dash ?? "5 4"}
+                />
+                {m.label && (
+                  <text
+                    x={innerW - 4}
+                    y={yScale(m.y) - 4}
+                    textAnchor="end"
+                    fontSize={10}
+                    fontFamily={axisStyle.font.sans}
+                    fill={m.color ?? chartColors.bad}
+                  >
+                    {m.label}
+                  </text>
+                )}
+              </g>
+            ),
+          )}
           {props.verticalMarkers?.map((m) =>
             m.x < xDomain[0] || m.x > xDomain[1] ? null : (
               <g key={`v${m.x}`}>
-                <line x1={xScale(m.x)} x2={xScale(m.x)} y1={0} y2={innerH} stroke={m.color ?? chartColors.accent} strokeDasharray={m.dash ?? "5 4"} />
+                <line
+                  x1={xScale(m.x)}
+                  x2={xScale(m.x)}
+                  y1={0}
+                  y2={innerH}
+                  stroke={m.color ?? chartColors.accent}
+                  strokeDasharray={m.dash ?? "5 4"}
+                />
                 {m.label && (
                   <text
                     x={xScale(m.x) + (xScale(m.x) > innerW * 0.7 ? -4 : 4)}
@@ -229,8 +272,23 @@ export default function LineChart(props: LineChartProps) {
             ),
           )}
           <ChartAxisLeft scale={yScale} tickFormat={yFmt} label={props.yLabel} />
-          <ChartAxisBottom top={innerH} scale={xScale} numTicks={Math.max(2, Math.floor(innerW / 70))} tickFormat={xFmt} label={props.xLabel} />
-          {hoverX !== null && <line x1={xScale(hoverX)} x2={xScale(hoverX)} y1={0} y2={innerH} stroke={chartColors.muted} strokeWidth={0.75} />}
+          <ChartAxisBottom
+            top={innerH}
+            scale={xScale}
+            numTicks={Math.max(2, Math.floor(innerW / 70))}
+            tickFormat={xFmt}
+            label={props.xLabel}
+          />
+          {hoverX !== null && (
+            <line
+              x1={xScale(hoverX)}
+              x2={xScale(hoverX)}
+              y1={0}
+              y2={innerH}
+              stroke={chartColors.muted}
+              strokeWidth={0.75}
+            />
+          )}
           <rect
             width={innerW}
             height={innerH}
@@ -251,25 +309,36 @@ export default function LineChart(props: LineChartProps) {
         >
           {readout.map((r) => (
             <div key={r.key} className="num whitespace-nowrap">
-              <span style={{ color: r.color }}>●</span> {r.label}: {(props.xReadout ?? xFmt)(r.x)} → {(props.yReadout ?? yFmt)(r.y)}
+              <span style={{ color: r.color }}>●</span> {r.label}: {(props.xReadout ?? xFmt)(r.x)} →{" "}
+              {(props.yReadout ?? yFmt)(r.y)}
             </div>
           ))}
         </div>
       )}
       {(props.legend ?? true) && props.series.filter((s) => !s.quiet).length > 1 && (
         <ul className="mt-1 flex flex-wrap gap-x-4 gap-y-1 pl-14 text-xs text-ink-soft" aria-label="Legend">
-          {props.series.map((s, i) => s.quiet ? null : (
-            <li key={s.key} className="flex items-center gap-1.5">
-              <svg width={18} height={8} aria-hidden>
-                {s.kind === "dots" ? (
-                  <circle cx={9} cy={4} r={3} fill={s.color ?? seriesColor(i)} />
-                ) : (
-                  <line x1={0} x2={18} y1={4} y2={4} stroke={s.color ?? seriesColor(i)} strokeWidth={2} strokeDasharray={s.dash} />
-                )}
-              </svg>
-              {s.label}
-            </li>
-          ))}
+          {props.series.map((s, i) =>
+            s.quiet ? null : (
+              <li key={s.key} className="flex items-center gap-1.5">
+                <svg width={18} height={8} aria-hidden>
+                  {s.kind === "dots" ? (
+                    <circle cx={9} cy={4} r={3} fill={s.color ?? seriesColor(i)} />
+                  ) : (
+                    <line
+                      x1={0}
+                      x2={18}
+                      y1={4}
+                      y2={4}
+                      stroke={s.color ?? seriesColor(i)}
+                      strokeWidth={2}
+                      strokeDasharray={s.dash}
+                    />
+                  )}
+                </svg>
+                {s.label}
+              </li>
+            ),
+          )}
         </ul>
       )}
     </div>

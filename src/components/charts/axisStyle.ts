@@ -45,7 +45,12 @@ export const axisStyle = {
   stroke: chartColors.lineStrong,
   tickStroke: chartColors.lineStrong,
   tickLength: 4,
-  bottomTickLabelProps: { fill: chartColors.inkSoft, fontSize: 10, fontFamily: monoFont, textAnchor: "middle" } satisfies Partial<TextProps>,
+  bottomTickLabelProps: {
+    fill: chartColors.inkSoft,
+    fontSize: 10,
+    fontFamily: monoFont,
+    textAnchor: "middle",
+  } satisfies Partial<TextProps>,
   leftTickLabelProps: {
     fill: chartColors.inkSoft,
     fontSize: 10,
@@ -54,7 +59,13 @@ export const axisStyle = {
     verticalAnchor: "middle",
     dx: -4,
   } satisfies Partial<TextProps>,
-  labelProps: { fill: chartColors.ink, fontSize: 11, fontFamily: sansFont, fontWeight: 500, textAnchor: "middle" } satisfies Partial<TextProps>,
+  labelProps: {
+    fill: chartColors.ink,
+    fontSize: 11,
+    fontFamily: sansFont,
+    fontWeight: 500,
+    textAnchor: "middle",
+  } satisfies Partial<TextProps>,
   gridStroke: chartColors.line,
   font: { mono: monoFont, sans: sansFont },
 } as const;

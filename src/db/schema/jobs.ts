@@ -43,7 +43,12 @@ export const jobs = mysqlTable(
     result: json("result").$type<unknown>(),
     ...timestamps,
   },
-  (t) => [index("jobs_status_idx").on(t.status, t.id), index("jobs_queue_idx").on(t.queue, t.status, t.id), index("jobs_target_idx").on(t.kind, t.targetId), index("jobs_parent_idx").on(t.parentId, t.status)],
+  (t) => [
+    index("jobs_status_idx").on(t.status, t.id),
+    index("jobs_queue_idx").on(t.queue, t.status, t.id),
+    index("jobs_target_idx").on(t.kind, t.targetId),
+    index("jobs_parent_idx").on(t.parentId, t.status),
+  ],
 );
 
 export const runs = mysqlTable(

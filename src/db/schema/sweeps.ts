@@ -1,6 +1,18 @@
 // Corner sweeps: a sweep (its budget and corners), the channels it covers (copies of their pulses
 // and of how each was made), and one result row per channel × corner pair.
-import { boolean, double, index, int, json, mysqlEnum, mysqlTable, primaryKey, timestamp, unique, varchar } from "drizzle-orm/mysql-core";
+import {
+  boolean,
+  double,
+  index,
+  int,
+  json,
+  mysqlEnum,
+  mysqlTable,
+  primaryKey,
+  timestamp,
+  unique,
+  varchar,
+} from "drizzle-orm/mysql-core";
 import { channelKinds, type ChannelDerivation, type StoredPulse } from "@/features/channels/channels";
 import type { PairSetting, SweepInputs, SweepSummary } from "@/features/sweeps/sweeps";
 import { timestamps } from "./columns";
@@ -65,7 +77,10 @@ export const sweepResults = mysqlTable(
     jobId: int("job_id").notNull(),
     createdAt: timestamp("created_at", { fsp: 3 }).notNull().defaultNow(),
   },
-  (t) => [unique("sweep_results_pair").on(t.sweepId, t.channelId, t.cornerIndex), index("sweep_results_job_idx").on(t.jobId)],
+  (t) => [
+    unique("sweep_results_pair").on(t.sweepId, t.channelId, t.cornerIndex),
+    index("sweep_results_job_idx").on(t.jobId),
+  ],
 );
 
 export type Sweep = typeof sweeps.$inferSelect;

@@ -1,6 +1,16 @@
 // Tap tables for firmware: a table names the architecture, budget and register map; each version
 // holds the channel classes, the quantized default per class, and every channel's headroom.
-import { double, index, int, json, mysqlEnum, mysqlTable, timestamp, uniqueIndex, varchar } from "drizzle-orm/mysql-core";
+import {
+  double,
+  index,
+  int,
+  json,
+  mysqlEnum,
+  mysqlTable,
+  timestamp,
+  uniqueIndex,
+  varchar,
+} from "drizzle-orm/mysql-core";
 import { versionStates, type VersionInputs, type VersionResult } from "@/features/tapTables/tapTables";
 import { timestamps } from "./columns";
 import { users } from "./auth";

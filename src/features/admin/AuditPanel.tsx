@@ -36,35 +36,81 @@ export default function AuditPanel() {
   // eslint-disable-next-line react-hooks/exhaustive-deps -- on mount only, by design
   useEffect(() => void load(null), []);
 
-  const set = (k: keyof typeof filter) => (e: React.ChangeEvent<HTMLInputElement>) => setFilter({ ...filter, [k]: e.target.value });
+  const set = (k: keyof typeof filter) => (e: React.ChangeEvent<HTMLInputElement>) =>
+    setFilter({ ...filter, [k]: e.target.value });
   return (
     <section className="card">
       <h2>Audit trail</h2>
-      <form className="mt-3 flex flex-wrap items-end gap-3" onSubmit={(e) => { e.preventDefault(); void load(null); }}>
-        <label className="field"><span>Action starts with</span><input className="input w-40" value={filter.action} onChange={set("action")} placeholder="channel." /></label>
-        <label className="field"><span>Person (e-mail)</span><input className="input w-56" value={filter.actor} onChange={set("actor")} /></label>
-        <label className="field"><span>Kind</span><input className="input w-32" value={filter.targetType} onChange={set("targetType")} placeholder="run" /></label>
-        <label className="field"><span>From</span><input className="input" type="date" value={filter.from} onChange={set("from")} /></label>
-        <label className="field"><span>To</span><input className="input" type="date" value={filter.to} onChange={set("to")} /></label>
-        <button className="btn" type="submit">Filter</button>
+      <form
+        className="mt-3 flex flex-wrap items-end gap-3"
+        onSubmit={(e) => {
+          e.preventDefault();
+          void load(null);
+        }}
+      >
+        <label className="field">
+          <span>Action starts with</span>
+          <input className="input w-40" value={filter.action} onChange={set("action")} placeholder="channel." />
+        </label>
+        <label className="field">
+          <span>Person (e-mail)</span>
+          <input className="input w-56" value={filter.actor} onChange={set("actor")} />
+        </label>
+        <label className="field">
+          <span>Kind</span>
+          <input className="input w-32" value={filter.targetType} onChange={set("targetType")} placeholder="run" />
+        </label>
+        <label className="field">
+          <span>From</span>
+          <input className="input" type="date" value={filter.from} onChange={set("from")} />
+        </label>
+        <label className="field">
+          <span>To</span>
+          <input className="input" type="date" value={filter.to} onChange={set("to")} />
+        </label>
+        <button className="btn" type="submit">
+          Filter
+        </button>
       </form>
       {error && <p className="notice notice-bad mt-3">{error}</p>}
       <table className="table mt-4">
-        <thead><tr><th>When</th><th>Who</th><th>Action</th><th>On</th><th>Detail</th></tr></thead>
+        <thead>
+          <tr>
+            <th>When</th>
+            <th>Who</th>
+            <th>Action</th>
+            <th>On</th>
+            <th>Detail</th>
+          </tr>
+        </thead>
         <tbody>
           {items.map((e) => (
             <tr key={e.id}>
               <td className="num whitespace-nowrap">{formatWhen(e.createdAt)}</td>
               <td>{e.actorEmail ?? "—"}</td>
-              <td><code>{e.action}</code></td>
+              <td>
+                <code>{e.action}</code>
+              </td>
               <td>{e.targetType ? `${e.targetType} ${e.targetId ?? ""}` : "—"}</td>
-              <td className="max-w-md truncate text-xs text-muted" title={e.detail ? JSON.stringify(e.detail) : ""}>{e.detail ? JSON.stringify(e.detail) : ""}</td>
+              <td className="max-w-md truncate text-xs text-muted" title={e.detail ? JSON.stringify(e.detail) : ""}>
+                {e.detail ? JSON.stringify(e.detail) : ""}
+              </td>
             </tr>
           ))}
-          {items.length === 0 && <tr><td colSpan={5} className="text-muted">No events match.</td></tr>}
+          {items.length === 0 && (
+            <tr>
+              <td colSpan={5} className="text-muted">
+                No events match.
+              </td>
+            </tr>
+          )}
         </tbody>
       </table>
-      {cursor && <button className="btn mt-3" onClick={() => load(cursor)}>Older events</button>}
+      {cursor && (
+        <button className="btn mt-3" onClick={() => load(cursor)}>
+          Older events
+        </button>
+      )}
     </section>
   );
 }

@@ -5,8 +5,20 @@ import { api } from "@/components/api";
 import { formatWhen } from "@/components/format";
 import { roles, type Role } from "@/features/people/people";
 
-interface Person { id: string; name: string; email: string; role: Role; deactivatedAt: string | Date | null; createdAt: string | Date }
-interface Invitation { id: number; email: string; role: Role; expiresAt: string | Date }
+interface Person {
+  id: string;
+  name: string;
+  email: string;
+  role: Role;
+  deactivatedAt: string | Date | null;
+  createdAt: string | Date;
+}
+interface Invitation {
+  id: number;
+  email: string;
+  role: Role;
+  expiresAt: string | Date;
+}
 
 export default function PeoplePanel(props: { people: Person[]; invitations: Invitation[]; selfId: string }) {
   const [people, setPeople] = useState(props.people);
@@ -65,20 +77,47 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
 
   return (
     <div className="flex flex-col gap-6">
-      {message && <p className={`notice ${message.kind === "good" ? "notice-good" : "notice-bad"}`} role="status">{message.text}</p>}
+      {message && (
+        <p className={`notice ${message.kind === "good" ? "notice-good" : "notice-bad"}`} role="status">
+          {message.text}
+        </p>
+      )}
       <section className="card">
         <h2>Invite a person</h2>
         <form className="mt-3 flex flex-wrap items-end gap-3" onSubmit={invite}>
-          <label className="field"><span>E-mail</span><input className="input w-72" type="email" name="email" required /></label>
-          <label className="field"><span>Role</span>
-            <select className="input" name="role" defaultValue="designer">{roles.map((r) => <option key={r} value={r}>{r}</option>)}</select>
+          <label className="field">
+            <span>E-mail</span>
+            <input className="input w-72" type="email" name="email" required />
           </label>
-          <button className="btn btn-primary" type="submit">Send invitation</button>
+          <label className="field">
+            <span>Role</span>
+            <select className="input" name="role" defaultValue="designer">
+              {roles.map((r) => (
+                <option key={r} value={r}>
+                  {r}
+                </option>
+              ))}
+            </select>
+          </label>
+          <button className="btn btn-primary" type="submit">
+            Send invitation
+          </button>
         </form>
-        {link && <p className="mt-3 text-sm text-ink-soft">Link (also in the e-mail): <code className="break-all">{link}</code></p>}
+        {link && (
+          <p className="mt-3 text-sm text-ink-soft">
+            Link (also in the e-mail): <code className="break-all">{link}</code>
+          </p>
+        )}
         {invitations.length > 0 && (
           <table className="table mt-4">
-            <thead><tr><th>Invited</th><th>Role</th><th>Expires</th><th></th></tr></thead>
+            <thead>
+              <tr>
+                <th>Invited</th>
+                <th>Role</th>
+                <th>Expires</th>
+                <th></th>
+              </tr>
+            </thead>
             <tbody>
               {invitations.map((i) => (
                 <tr key={i.id}>
@@ -86,7 +125,15 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
                   <td>{i.role}</td>
                   <td className="num">{formatWhen(i.expiresAt)}</td>
                   <td>
-                    <button type="button" className="btn py-1" onClick={() => act(`The invitation of ${i.email} is revoked.`, `/api/v1/invitations/${i.id}`, { method: "DELETE" })}>
+                    <button
+                      type="button"
+                      className="btn py-1"
+                      onClick={() =>
+                        act(`The invitation of ${i.email} is revoked.`, `/api/v1/invitations/${i.id}`, {
+                          method: "DELETE",
+                        })
+                      }
+                    >
                       Revoke
                     </button>
                   </td>
@@ -99,7 +146,15 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
       <section className="card">
         <h2>People</h2>
         <table className="table mt-3">
-          <thead><tr><th>Name</th><th>E-mail</th><th>Role</th><th>Joined</th><th>Access</th></tr></thead>
+          <thead>
+            <tr>
+              <th>Name</th>
+              <th>E-mail</th>
+              <th>Role</th>
+              <th>Joined</th>
+              <th>Access</th>
+            </tr>
+          </thead>
           <tbody>
             {people.map((p) => (
               <tr key={p.id}>
@@ -112,7 +167,11 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
                     value={p.role}
                     onChange={(e) => changeRole(p, e.target.value as Role)}
                   >
-                    {roles.map((r) => <option key={r} value={r}>{r}</option>)}
+                    {roles.map((r) => (
+                      <option key={r} value={r}>
+                        {r}
+                      </option>
+                    ))}
                   </select>
                   {p.id === props.selfId && <span className="ml-2 text-xs text-muted">(you)</span>}
                 </td>
@@ -121,22 +180,51 @@ export default function PeoplePanel(props: { people: Person[]; invitations: Invi
                   {p.id !== props.selfId && (
                     <span className="flex gap-2">
                       {p.deactivatedAt ? (
-                        <button type="button" className="btn py-1" onClick={() => act(`${p.email} may sign in again.`, `/api/v1/users/${p.id}/active`, { method: "PUT", json: { active: true } })}>
+                        <button
+                          type="button"
+                          className="btn py-1"
+                          onClick={() =>
+                            act(`${p.email} may sign in again.`, `/api/v1/users/${p.id}/active`, {
+                              method: "PUT",
+                              json: { active: true },
+                            })
+                          }
+                        >
                           Reactivate
                         </button>
                       ) : (
                         <>
-                          <button type="button" className="btn py-1" onClick={() => act(`${p.email} is deactivated; their sessions and API tokens have ended.`, `/api/v1/users/${p.id}/active`, { method: "PUT", json: { active: false } })}>
+                          <button
+                            type="button"
+                            className="btn py-1"
+                            onClick={() =>
+                              act(
+                                `${p.email} is deactivated; their sessions and API tokens have ended.`,
+                                `/api/v1/users/${p.id}/active`,
+                                { method: "PUT", json: { active: false } },
+                              )
+                            }
+                          >
                             Deactivate
                           </button>
-                          <button type="button" className="btn py-1" onClick={() => act(`${p.email} is signed out everywhere.`, `/api/v1/users/${p.id}/sessions`, { method: "DELETE" })}>
+                          <button
+                            type="button"
+                            className="btn py-1"
+                            onClick={() =>
+                              act(`${p.email} is signed out everywhere.`, `/api/v1/users/${p.id}/sessions`, {
+                                method: "DELETE",
+                              })
+                            }
+                          >
                             End sessions
                           </button>
                         </>
                       )}
                     </span>
                   )}
-                  {p.deactivatedAt && <span className="text-xs text-muted">deactivated {formatWhen(p.deactivatedAt)}</span>}
+                  {p.deactivatedAt && (
+                    <span className="text-xs text-muted">deactivated {formatWhen(p.deactivatedAt)}</span>
+                  )}
                 </td>
               </tr>
             ))}

@@ -16,7 +16,19 @@ interface Props {
   readOnly?: boolean;
 }
 
-function Field({ spec, value, error, onChange, readOnly }: { spec: FieldSpec; value: string; error?: string; onChange: (v: string) => void; readOnly?: boolean }) {
+function Field({
+  spec,
+  value,
+  error,
+  onChange,
+  readOnly,
+}: {
+  spec: FieldSpec;
+  value: string;
+  error?: string;
+  onChange: (v: string) => void;
+  readOnly?: boolean;
+}) {
   const id = `budget-${spec.path.replace(/\./g, "-")}`;
   const label = spec.unit ? `${spec.label} (${spec.unit})` : spec.label;
   return (
@@ -25,9 +37,18 @@ function Field({ spec, value, error, onChange, readOnly }: { spec: FieldSpec; va
         <span className="font-medium text-ink-soft">{label}</span>
       </label>
       {spec.kind === "select" ? (
-        <select id={id} className="input" value={value} disabled={readOnly} onChange={(e) => onChange(e.target.value)} aria-invalid={!!error}>
+        <select
+          id={id}
+          className="input"
+          value={value}
+          disabled={readOnly}
+          onChange={(e) => onChange(e.target.value)}
+          aria-invalid={!!error}
+        >
           {spec.options!.map((o) => (
-            <option key={o.value} value={o.value}>{o.label}</option>
+            <option key={o.value} value={o.value}>
+              {o.label}
+            </option>
           ))}
         </select>
       ) : (
@@ -43,14 +64,22 @@ function Field({ spec, value, error, onChange, readOnly }: { spec: FieldSpec; va
           aria-describedby={`${id}-help`}
         />
       )}
-      {error && <span className="text-xs text-bad" role="alert">{error}</span>}
-      <span id={`${id}-help`} className="help">{spec.help}</span>
+      {error && (
+        <span className="text-xs text-bad" role="alert">
+          {error}
+        </span>
+      )}
+      <span id={`${id}-help`} className="help">
+        {spec.help}
+      </span>
     </div>
   );
 }
 
 export default function BudgetForm(props: Props) {
-  const [store] = useState(() => createBudgetFormStore({ id: props.id, name: props.name, description: props.description, budget: props.budget }));
+  const [store] = useState(() =>
+    createBudgetFormStore({ id: props.id, name: props.name, description: props.description, budget: props.budget }),
+  );
   const s = useStore(store);
 
   async function submit(e: React.FormEvent) {
@@ -68,7 +97,12 @@ export default function BudgetForm(props: Props) {
           <p className="help mt-1">Fills every field below; adjust them to your silicon.</p>
           <div className="mt-3 grid gap-3 md:grid-cols-3">
             {budgetPresets.map((p) => (
-              <button key={p.key} type="button" className="rounded-lg border border-line p-3 text-left hover:border-accent hover:bg-accent-soft" onClick={() => s.applyPreset(p)}>
+              <button
+                key={p.key}
+                type="button"
+                className="rounded-lg border border-line p-3 text-left hover:border-accent hover:bg-accent-soft"
+                onClick={() => s.applyPreset(p)}
+              >
                 <div className="font-medium">{p.name}</div>
                 <div className="mt-1 text-xs text-ink-soft">{p.description}</div>
               </button>
@@ -78,14 +112,37 @@ export default function BudgetForm(props: Props) {
       )}
       <section className="card grid gap-4 md:grid-cols-[1fr_2fr]">
         <div className="field">
-          <label htmlFor="budget-name"><span className="font-medium text-ink-soft">Name</span></label>
-          <input id="budget-name" className={`input ${s.errors.name ? "border-bad" : ""}`} value={s.name} readOnly={props.readOnly} onChange={(e) => s.setName(e.target.value)} aria-invalid={!!s.errors.name} maxLength={200} />
-          {s.errors.name && <span className="text-xs text-bad" role="alert">{s.errors.name}</span>}
+          <label htmlFor="budget-name">
+            <span className="font-medium text-ink-soft">Name</span>
+          </label>
+          <input
+            id="budget-name"
+            className={`input ${s.errors.name ? "border-bad" : ""}`}
+            value={s.name}
+            readOnly={props.readOnly}
+            onChange={(e) => s.setName(e.target.value)}
+            aria-invalid={!!s.errors.name}
+            maxLength={200}
+          />
+          {s.errors.name && (
+            <span className="text-xs text-bad" role="alert">
+              {s.errors.name}
+            </span>
+          )}
           <span className="help">Unique; runs show it.</span>
         </div>
         <div className="field">
-          <label htmlFor="budget-description"><span className="font-medium text-ink-soft">Description</span></label>
-          <input id="budget-description" className="input" value={s.description} readOnly={props.readOnly} onChange={(e) => s.setDescription(e.target.value)} maxLength={2000} />
+          <label htmlFor="budget-description">
+            <span className="font-medium text-ink-soft">Description</span>
+          </label>
+          <input
+            id="budget-description"
+            className="input"
+            value={s.description}
+            readOnly={props.readOnly}
+            onChange={(e) => s.setDescription(e.target.value)}
+            maxLength={2000}
+          />
           <span className="help">What link this budget is for, and where its numbers come from.</span>
         </div>
       </section>
@@ -96,19 +153,38 @@ export default function BudgetForm(props: Props) {
           {g.intro && <p className="help mt-1">{g.intro}</p>}
           <div className="mt-3 grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
             {g.fields.map((f) => (
-              <Field key={f.path} spec={f} value={s.draft[f.path] ?? ""} error={s.errors[f.path] || undefined} onChange={(v) => s.setField(f.path, v)} readOnly={props.readOnly} />
+              <Field
+                key={f.path}
+                spec={f}
+                value={s.draft[f.path] ?? ""}
+                error={s.errors[f.path] || undefined}
+                onChange={(v) => s.setField(f.path, v)}
+                readOnly={props.readOnly}
+              />
             ))}
           </div>
         </fieldset>
       ))}
-      {s.errors[""] && <p className="notice notice-bad" role="alert">{s.errors[""]}</p>}
-      {Object.values(s.errors).some(Boolean) && !s.errors[""] && (
-        <p className="notice notice-bad" role="alert">Some fields need attention; see the messages beside them.</p>
+      {s.errors[""] && (
+        <p className="notice notice-bad" role="alert">
+          {s.errors[""]}
+        </p>
       )}
-      {s.saved && <p className="notice notice-good" role="status">{s.saved}</p>}
+      {Object.values(s.errors).some(Boolean) && !s.errors[""] && (
+        <p className="notice notice-bad" role="alert">
+          Some fields need attention; see the messages beside them.
+        </p>
+      )}
+      {s.saved && (
+        <p className="notice notice-good" role="status">
+          {s.saved}
+        </p>
+      )}
       {!props.readOnly && (
         <div className="flex gap-3">
-          <button className="btn btn-primary" type="submit" disabled={s.saving}>{s.saving ? "Saving…" : props.id === null ? "Create budget" : "Save changes"}</button>
+          <button className="btn btn-primary" type="submit" disabled={s.saving}>
+            {s.saving ? "Saving…" : props.id === null ? "Create budget" : "Save changes"}
+          </button>
         </div>
       )}
     </form>

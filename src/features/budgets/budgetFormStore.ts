@@ -26,7 +26,12 @@ export interface BudgetFormState {
   save(): Promise<number | null>;
 }
 
-export function createBudgetFormStore(initial: { id: number | null; name: string; description: string; budget: BudgetInput }) {
+export function createBudgetFormStore(initial: {
+  id: number | null;
+  name: string;
+  description: string;
+  budget: BudgetInput;
+}) {
   return createStore<BudgetFormState>()((set, get) => ({
     id: initial.id,
     name: initial.name,
@@ -37,7 +42,8 @@ export function createBudgetFormStore(initial: { id: number | null; name: string
     saved: null,
     setName: (name) => set((s) => ({ name, saved: null, errors: { ...s.errors, name: "" } })),
     setDescription: (description) => set({ description, saved: null }),
-    setField: (path, text) => set((s) => ({ draft: { ...s.draft, [path]: text }, saved: null, errors: { ...s.errors, [path]: "" } })),
+    setField: (path, text) =>
+      set((s) => ({ draft: { ...s.draft, [path]: text }, saved: null, errors: { ...s.errors, [path]: "" } })),
     applyPreset: (preset) =>
       set((s) => ({
         draft: draftFromBudget(preset.budget),
@@ -69,7 +75,10 @@ export function createBudgetFormStore(initial: { id: number | null; name: string
       const { id } = get();
       set({ saving: true, saved: null });
       try {
-        const r = await api<{ id: number; name: string }>(id ? `/api/v1/budgets/${id}` : "/api/v1/budgets", { method: id ? "PUT" : "POST", json: body });
+        const r = await api<{ id: number; name: string }>(id ? `/api/v1/budgets/${id}` : "/api/v1/budgets", {
+          method: id ? "PUT" : "POST",
+          json: body,
+        });
         set({ saving: false, id: r.id, saved: `Saved “${r.name}”.` });
         return r.id;
       } catch (e) {

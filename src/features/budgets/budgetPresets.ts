@@ -52,7 +52,14 @@ export const budgetPresets: BudgetPreset[] = [
       requiredHeadroom_V: 0.002,
       jitter: { rjRms_UI: 0.01, djPp_UI: 0.03 },
       tx: { pre: 1, post: 1, step: 0.05 },
-      ctle: { gDc_dB: [-15, 0, 1], fz_Hz: 21.25e9, fp1_Hz: 21.25e9, fp2_Hz: 53.125e9, gDc2_dB: [-4, 0, 1], fLf_Hz: 1.328125e9 },
+      ctle: {
+        gDc_dB: [-15, 0, 1],
+        fz_Hz: 21.25e9,
+        fp1_Hz: 21.25e9,
+        fp2_Hz: 53.125e9,
+        gDc2_dB: [-4, 0, 1],
+        fLf_Hz: 1.328125e9,
+      },
       dfe: { taps: 2, limits_V: 0.05 },
       clocking: { scheme: "recovered", policy: "centre" },
     },
@@ -60,7 +67,8 @@ export const budgetPresets: BudgetPreset[] = [
   {
     key: "nrz10-ctle",
     name: "10.3 Gb/s NRZ, CTLE only",
-    description: "A chip-to-chip link with no DFE: transmit de-emphasis and a CTLE must do it all. Handy to see where linear reach ends.",
+    description:
+      "A chip-to-chip link with no DFE: transmit de-emphasis and a CTLE must do it all. Handy to see where linear reach ends.",
     budget: {
       modulation: "nrz",
       bitRate_bps: 10.3125e9,

@@ -21,7 +21,11 @@ const columns = {
   updatedAt: budgets.updatedAt,
 };
 
-function toView(r: Pick<BudgetRow, "id" | "name" | "description" | "params" | "createdAt" | "updatedAt"> & { createdBy: string | null }): BudgetView {
+function toView(
+  r: Pick<BudgetRow, "id" | "name" | "description" | "params" | "createdAt" | "updatedAt"> & {
+    createdBy: string | null;
+  },
+): BudgetView {
   return {
     ...r.params,
     id: r.id,
@@ -42,7 +46,9 @@ function split(body: BudgetRequest): { name: string; description: string | null;
   return { name, description: description || null, params };
 }
 
-const isDuplicate = (e: unknown) => (e as { cause?: { code?: string }; code?: string })?.cause?.code === "ER_DUP_ENTRY" || (e as { code?: string })?.code === "ER_DUP_ENTRY";
+const isDuplicate = (e: unknown) =>
+  (e as { cause?: { code?: string }; code?: string })?.cause?.code === "ER_DUP_ENTRY" ||
+  (e as { code?: string })?.code === "ER_DUP_ENTRY";
 const duplicate = (name: string) => conflict(`A budget named "${name}" already exists; choose another name.`);
 
 /** Budgets by name, with paging. */
@@ -60,7 +66,10 @@ export async function listBudgets(limit: number, offset = 0) {
 
 /** Names and rates for pickers. */
 export async function budgetChoices() {
-  const rows = await db.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).orderBy(asc(budgets.name));
+  const rows = await db
+    .select({ id: budgets.id, name: budgets.name, params: budgets.params })
+    .from(budgets)
+    .orderBy(asc(budgets.name));
   return rows.map((r) => {
     const p = r.params;
     return { id: r.id, name: r.name, modulation: p.modulation, bitRate_bps: p.bitRate_bps ?? null };
@@ -68,7 +77,11 @@ export async function budgetChoices() {
 }
 
 export async function getBudget(id: number): Promise<BudgetView> {
-  const [row] = await db.select(columns).from(budgets).leftJoin(users, eq(users.id, budgets.createdBy)).where(eq(budgets.id, id));
+  const [row] = await db
+    .select(columns)
+    .from(budgets)
+    .leftJoin(users, eq(users.id, budgets.createdBy))
+    .where(eq(budgets.id, id));
   if (!row) throw notFound(`Budget ${id}`);
   const [{ n }] = await db.select({ n: count() }).from(runs).where(eq(runs.budgetId, id));
   return { ...toView(row), runCount: n };
@@ -79,7 +92,10 @@ export async function createBudget(user: SessionUser | null, body: BudgetRequest
   let id: number;
   try {
     id = await db.transaction(async (tx) => {
-      const [{ id }] = await tx.insert(budgets).values({ name, description, params, createdBy: user?.id ?? null }).$returningId();
+      const [{ id }] = await tx
+        .insert(budgets)
+        .values({ name, description, params, createdBy: user?.id ?? null })
+        .$returningId();
       await recordAudit(tx, user, "budget.create", "budget", id, { name });
       return id;
     });
@@ -109,7 +125,11 @@ export async function updateBudget(user: SessionUser, id: number, body: BudgetRe
 /** Deletes a budget; tuning runs keep their own copy of it. */
 export async function deleteBudget(user: SessionUser, id: number) {
   return db.transaction(async (tx) => {
-    const [row] = await tx.select({ id: budgets.id, name: budgets.name }).from(budgets).where(eq(budgets.id, id)).for("update");
+    const [row] = await tx
+      .select({ id: budgets.id, name: budgets.name })
+      .from(budgets)
+      .where(eq(budgets.id, id))
+      .for("update");
     if (!row) throw notFound(`Budget ${id}`);
     const [{ n }] = await tx.select({ n: count() }).from(runs).where(eq(runs.budgetId, id));
     await tx.delete(budgets).where(eq(budgets.id, id));

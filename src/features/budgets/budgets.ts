@@ -6,7 +6,11 @@ import { budgetSchema, type Budget } from "@lib/contract/budget";
 
 /** POST/PUT /api/v1/budgets: the `budget` object of the engine's optimize request, with a name. */
 export const budgetRequest = budgetSchema.extend({
-  name: z.string({ error: "Give the budget a name." }).trim().min(1, "Give the budget a name.").max(200, "Keep the name under 200 characters."),
+  name: z
+    .string({ error: "Give the budget a name." })
+    .trim()
+    .min(1, "Give the budget a name.")
+    .max(200, "Keep the name under 200 characters."),
   description: z.string().trim().max(2000, "Keep the description under 2000 characters.").optional(),
 });
 export type BudgetRequest = z.output<typeof budgetRequest>;
@@ -33,7 +37,10 @@ export type BudgetView = Budget & {
 export function budgetSummary(b: Budget): string {
   const rate = b.bitRate_bps ? ` ${Number((b.bitRate_bps / 1e9).toPrecision(6))} Gb/s` : "";
   const [lo, hi] = b.ctle.gDc_dB;
-  const pkg = b.package?.tx || b.package?.rx ? ` · package${b.package.tx && b.package.rx ? "s" : b.package.tx ? " (Tx)" : " (Rx)"}` : "";
+  const pkg =
+    b.package?.tx || b.package?.rx
+      ? ` · package${b.package.tx && b.package.rx ? "s" : b.package.tx ? " (Tx)" : " (Rx)"}`
+      : "";
   const ffe = b.ffe ? ` · FFE ${b.ffe.pre}+1+${b.ffe.post}` : "";
   return `${b.modulation.toUpperCase()}${rate} · FIR ${b.tx.pre}+1+${b.tx.post} · CTLE ${lo}…${hi} dB${ffe} · ${b.dfe.taps} DFE tap${b.dfe.taps === 1 ? "" : "s"}${pkg} · BER ${b.targetBer.toExponential(0)}`;
 }

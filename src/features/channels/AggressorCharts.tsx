@@ -21,17 +21,38 @@ export default function AggressorCharts(props: Props) {
       props.aggressors.map((a, i) => {
         const span = pulseSpanUi(a.pulse);
         const d = pulseForChart(a.pulse, Math.max(-span.before, -8), Math.min(span.after, 24));
-        return { key: `xt${i}`, label: `${a.name} (${aggressorKindLabels[a.kind]})`, x: d.time_UI, y: d.values_mV, color: seriesColor(i + 1), dash: a.kind === "fext" ? "5 3" : undefined };
+        return {
+          key: `xt${i}`,
+          label: `${a.name} (${aggressorKindLabels[a.kind]})`,
+          x: d.time_UI,
+          y: d.values_mV,
+          color: seriesColor(i + 1),
+          dash: a.kind === "fext" ? "5 3" : undefined,
+        };
       }),
     [props.aggressors],
   );
   const curves = useMemo<LineSeries[]>(() => {
     const out: LineSeries[] = [];
     const il = props.insertionLoss;
-    if (il) out.push({ key: "victim", label: `Victim ${props.transfer ?? "S21"}`, x: il.freqs_Hz.map((f) => f / 1e9), y: il.magnitude_dB, color: chartColors.accent });
+    if (il)
+      out.push({
+        key: "victim",
+        label: `Victim ${props.transfer ?? "S21"}`,
+        x: il.freqs_Hz.map((f) => f / 1e9),
+        y: il.magnitude_dB,
+        color: chartColors.accent,
+      });
     props.aggressors.forEach((a, i) => {
       if (!a.coupling) return;
-      out.push({ key: `c${i}`, label: a.name, x: a.coupling.freqs_Hz.map((f) => f / 1e9), y: a.coupling.magnitude_dB.map((v) => Math.max(v, -120)), color: seriesColor(i + 1), dash: a.kind === "fext" ? "5 3" : undefined });
+      out.push({
+        key: `c${i}`,
+        label: a.name,
+        x: a.coupling.freqs_Hz.map((f) => f / 1e9),
+        y: a.coupling.magnitude_dB.map((v) => Math.max(v, -120)),
+        color: seriesColor(i + 1),
+        dash: a.kind === "fext" ? "5 3" : undefined,
+      });
     });
     return out;
   }, [props.aggressors, props.insertionLoss, props.transfer]);
@@ -50,7 +71,9 @@ export default function AggressorCharts(props: Props) {
           xReadout={(v) => `${v.toFixed(2)} UI`}
           yReadout={(v) => `${v.toFixed(3)} mV`}
         />
-        <p className="help mt-1">NEXT solid, FEXT dashed. Aggressors are asynchronous: each is sampled at its own worst phase.</p>
+        <p className="help mt-1">
+          NEXT solid, FEXT dashed. Aggressors are asynchronous: each is sampled at its own worst phase.
+        </p>
       </section>
       <section aria-label="Coupling">
         <h3 className="mb-2">Coupling against the victim's loss</h3>
@@ -67,7 +90,10 @@ export default function AggressorCharts(props: Props) {
             yReadout={(v) => `${v.toFixed(1)} dB`}
           />
         ) : (
-          <p className="notice notice-warn">These aggressors came from time-domain records, so there is no coupling curve; their pulses are what the engine uses.</p>
+          <p className="notice notice-warn">
+            These aggressors came from time-domain records, so there is no coupling curve; their pulses are what the
+            engine uses.
+          </p>
         )}
       </section>
     </div>

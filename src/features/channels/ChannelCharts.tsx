@@ -62,7 +62,14 @@ export default function ChannelCharts(props: Props) {
           yLabel="Response to a 1 V symbol (mV)"
           series={[
             { key: "pulse", label: "Pulse response", x: data.time_UI, y: data.values_mV, color: chartColors.accent },
-            { key: "cursors", label: "Cursors (one per UI)", x: data.cursorTime_UI, y: data.cursors_mV, color: "#3f6690", kind: "stems" },
+            {
+              key: "cursors",
+              label: "Cursors (one per UI)",
+              x: data.cursorTime_UI,
+              y: data.cursors_mV,
+              color: "#3f6690",
+              kind: "stems",
+            },
           ]}
           xGridAt={uiGrid.length <= 80 ? uiGrid : undefined}
           verticalMarkers={[{ x: 0, label: `main cursor ${main_mV.toFixed(1)} mV`, color: chartColors.inkSoft }]}
@@ -70,7 +77,8 @@ export default function ChannelCharts(props: Props) {
           yReadout={(v) => `${v.toFixed(2)} mV`}
         />
         <p className="help mt-1">
-          1 UI = <span className="num">{ui_ps.toFixed(2)} ps</span>; dots are the symbol-spaced cursors the equalizers act on.
+          1 UI = <span className="num">{ui_ps.toFixed(2)} ps</span>; dots are the symbol-spaced cursors the equalizers
+          act on.
         </p>
       </section>
       <section aria-label="Insertion loss">
@@ -81,7 +89,15 @@ export default function ChannelCharts(props: Props) {
             height={props.height ?? 300}
             xLabel="Frequency (GHz)"
             yLabel={`20·log₁₀|${props.transfer ?? "S21"}| (dB)`}
-            series={[{ key: "il", label: props.transfer ?? "S21", x: il.freqs_Hz.map((f) => f / 1e9), y: il.magnitude_dB, color: chartColors.accent }]}
+            series={[
+              {
+                key: "il",
+                label: props.transfer ?? "S21",
+                x: il.freqs_Hz.map((f) => f / 1e9),
+                y: il.magnitude_dB,
+                color: chartColors.accent,
+              },
+            ]}
             verticalMarkers={[
               {
                 x: nyquist_GHz,
@@ -93,7 +109,8 @@ export default function ChannelCharts(props: Props) {
           />
         ) : (
           <p className="notice notice-warn">
-            This channel came from a time-domain record, so there is no insertion-loss curve; the pulse response is what the engine uses.
+            This channel came from a time-domain record, so there is no insertion-loss curve; the pulse response is what
+            the engine uses.
           </p>
         )}
       </section>

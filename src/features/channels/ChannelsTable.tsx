@@ -38,30 +38,50 @@ export default function ChannelsTable(props: Props) {
       >
         <label className="field">
           <span>Name contains</span>
-          <input className="input w-56" value={q} onChange={(e) => setQ(e.target.value)} onBlur={() => q !== s.filter.q && s.setFilter({ q })} placeholder="e.g. slot 7" />
+          <input
+            className="input w-56"
+            value={q}
+            onChange={(e) => setQ(e.target.value)}
+            onBlur={() => q !== s.filter.q && s.setFilter({ q })}
+            placeholder="e.g. slot 7"
+          />
         </label>
         <label className="field">
           <span>Kind</span>
           <select className="input" value={s.filter.kind} onChange={(e) => s.setFilter({ kind: e.target.value })}>
             <option value="">All kinds</option>
             {Object.entries(kindLabels).map(([k, label]) => (
-              <option key={k} value={k}>{label}</option>
+              <option key={k} value={k}>
+                {label}
+              </option>
             ))}
           </select>
         </label>
         {props.programs.length > 1 && (
           <label className="field">
             <span>Program</span>
-            <select className="input" value={s.filter.program} onChange={(e) => s.setFilter({ program: e.target.value })}>
+            <select
+              className="input"
+              value={s.filter.program}
+              onChange={(e) => s.setFilter({ program: e.target.value })}
+            >
               <option value="">All programs</option>
               {props.programs.map((p) => (
-                <option key={p.id} value={p.id}>{p.name}</option>
+                <option key={p.id} value={p.id}>
+                  {p.name}
+                </option>
               ))}
             </select>
           </label>
         )}
-        <button className="btn" type="submit">Filter</button>
-        {s.loading && <span className="text-xs text-muted" role="status">Loading…</span>}
+        <button className="btn" type="submit">
+          Filter
+        </button>
+        {s.loading && (
+          <span className="text-xs text-muted" role="status">
+            Loading…
+          </span>
+        )}
       </form>
       {s.error && <p className="notice notice-bad mt-3">{s.error}</p>}
       <div className="mt-4 overflow-x-auto">
@@ -69,10 +89,16 @@ export default function ChannelsTable(props: Props) {
           <thead>
             <tr>
               {columns.map((c) => (
-                <th key={c.key} aria-sort={s.sort === c.key ? (s.dir === "asc" ? "ascending" : "descending") : "none"} style={c.numeric ? { textAlign: "right" } : undefined}>
+                <th
+                  key={c.key}
+                  aria-sort={s.sort === c.key ? (s.dir === "asc" ? "ascending" : "descending") : "none"}
+                  style={c.numeric ? { textAlign: "right" } : undefined}
+                >
                   <button type="button" className="uppercase hover:text-ink" onClick={() => s.sortBy(c.key)}>
                     {c.label}
-                    <span aria-hidden className="ml-1 text-accent">{s.sort === c.key ? (s.dir === "asc" ? "▲" : "▼") : ""}</span>
+                    <span aria-hidden className="ml-1 text-accent">
+                      {s.sort === c.key ? (s.dir === "asc" ? "▲" : "▼") : ""}
+                    </span>
                   </button>
                 </th>
               ))}
@@ -82,12 +108,15 @@ export default function ChannelsTable(props: Props) {
             {s.items.map((c) => (
               <tr key={c.id}>
                 <td>
-                  <a href={`/channels/${c.id}`} className="font-medium">{c.name}</a>
+                  <a href={`/channels/${c.id}`} className="font-medium">
+                    {c.name}
+                  </a>
                   {props.programs.length > 1 && <div className="text-xs text-muted">{c.program}</div>}
                 </td>
                 <td className="whitespace-nowrap">{kindLabels[c.kind]}</td>
                 <td className="num whitespace-nowrap text-right">
-                  {formatBitRate(c.bitRate_bps)} <span className="text-xs text-muted">{c.modulation.toUpperCase()}</span>
+                  {formatBitRate(c.bitRate_bps)}{" "}
+                  <span className="text-xs text-muted">{c.modulation.toUpperCase()}</span>
                 </td>
                 <td className="num text-right">{formatDb(c.lossAtNyquist_dB)}</td>
                 <td className="num text-right">{formatMillivolts(c.mainCursor_V)}</td>
@@ -97,14 +126,18 @@ export default function ChannelsTable(props: Props) {
             ))}
             {s.items.length === 0 && (
               <tr>
-                <td colSpan={columns.length} className="text-muted">No channels match.</td>
+                <td colSpan={columns.length} className="text-muted">
+                  No channels match.
+                </td>
               </tr>
             )}
           </tbody>
         </table>
       </div>
       {s.nextCursor && (
-        <button className="btn mt-3" onClick={() => void s.loadMore()} disabled={s.loading}>More channels</button>
+        <button className="btn mt-3" onClick={() => void s.loadMore()} disabled={s.loading}>
+          More channels
+        </button>
       )}
     </section>
   );

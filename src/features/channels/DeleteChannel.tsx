@@ -30,8 +30,12 @@ export default function DeleteChannel(props: { id: number; name: string; runCoun
       </p>
       {error && <p className="mt-2 text-bad">{error}</p>}
       <div className="mt-2 flex gap-2">
-        <button type="button" className="btn btn-danger" disabled={busy} onClick={remove}>Yes, delete</button>
-        <button type="button" className="btn" onClick={() => setAsking(false)}>Keep it</button>
+        <button type="button" className="btn btn-danger" disabled={busy} onClick={remove}>
+          Yes, delete
+        </button>
+        <button type="button" className="btn" onClick={() => setAsking(false)}>
+          Keep it
+        </button>
       </div>
     </div>
   );

@@ -27,7 +27,11 @@ export default function QualityNotes({ quality }: { quality: InputQuality | null
         {qualitySummary(quality).join(" · ")}.
       </p>
       {quality.warnings.length > 0 && (
-        <ul className="notice notice-warn mt-2 list-disc space-y-1 pl-6" aria-label="Input warnings" data-testid="input-warnings">
+        <ul
+          className="notice notice-warn mt-2 list-disc space-y-1 pl-6"
+          aria-label="Input warnings"
+          data-testid="input-warnings"
+        >
           {quality.warnings.map((w) => (
             <li key={w.code} data-code={w.code}>
               {w.message.charAt(0).toUpperCase() + w.message.slice(1)}.

@@ -20,19 +20,39 @@ export const ICN_REFERENCE_AMPLITUDE_V = 0.5;
 export const AGGRESSOR_FILE_FIELD = /^aggressor[0-7]$/;
 
 const kind = z.enum(["next", "fext"], { error: 'kind must be "next" or "fext".' });
-const name = z.string().trim().min(1, "An aggressor's name must not be empty.").max(200, "Keep an aggressor's name under 200 characters.").optional();
+const name = z
+  .string()
+  .trim()
+  .min(1, "An aggressor's name must not be empty.")
+  .max(200, "Keep an aggressor's name under 200 characters.")
+  .optional();
 const port = z.int("Ports are whole numbers.").min(1, "Ports are numbered from 1.").max(64, "Ports go up to 64.");
-const csvKind = z.enum(["pulse-csv", "step-csv", "impulse-csv"], { error: "csvKind must be pulse-csv, step-csv or impulse-csv." });
+const csvKind = z.enum(["pulse-csv", "step-csv", "impulse-csv"], {
+  error: "csvKind must be pulse-csv, step-csv or impulse-csv.",
+});
 const pairs = z
   .object({ inP: port, inN: port, outP: port, outN: port })
-  .refine((p) => new Set([p.inP, p.inN, p.outP, p.outN]).size === 4, { message: "The four ports of a pairing must be different." });
+  .refine((p) => new Set([p.inP, p.inN, p.outP, p.outN]).size === 4, {
+    message: "The four ports of a pairing must be different.",
+  });
 
 /** The synthetic coupling of an aggressor (see lib/crosstalk/couplingModel): NEXT's K_b or FEXT's K_f·T_D, over a line. */
 export const couplingSpec = z.object({
   backwardCoefficient: z.number().min(0, "K_b is at least 0.").max(0.5, "K_b is at most 0.5.").optional(),
-  forwardCoupling_s: z.number().min(-1e-9, "K_f·T_D is at least −1 ns.").max(1e-9, "K_f·T_D is at most 1 ns.").optional(),
-  lossAtNyquist_dB: z.number().min(0, "The line's loss must be at least 0 dB.").max(60, "The line's loss must be at most 60 dB."),
-  delay_s: z.number().min(0, "The line's delay must be ≥ 0.").max(20e-9, "The line's delay must be at most 20 ns.").default(0),
+  forwardCoupling_s: z
+    .number()
+    .min(-1e-9, "K_f·T_D is at least −1 ns.")
+    .max(1e-9, "K_f·T_D is at most 1 ns.")
+    .optional(),
+  lossAtNyquist_dB: z
+    .number()
+    .min(0, "The line's loss must be at least 0 dB.")
+    .max(60, "The line's loss must be at most 60 dB."),
+  delay_s: z
+    .number()
+    .min(0, "The line's delay must be ≥ 0.")
+    .max(20e-9, "The line's delay must be at most 20 ns.")
+    .default(0),
 });
 export type CouplingSpec = z.output<typeof couplingSpec>;
 
@@ -46,25 +66,40 @@ export const aggressorSpec = z
         source: z.literal("file"),
         kind,
         name,
-        field: z.string().regex(AGGRESSOR_FILE_FIELD, "field names the multipart field of the aggressor's file: aggressor0 … aggressor7."),
+        field: z
+          .string()
+          .regex(
+            AGGRESSOR_FILE_FIELD,
+            "field names the multipart field of the aggressor's file: aggressor0 … aggressor7.",
+          ),
         csvKind: csvKind.optional(),
         pairs: pairs.optional(),
       }),
       z.object({ source: z.literal("coupling"), kind, name, coupling: couplingSpec }),
     ],
-    { error: 'An aggressor needs source "ports" (a pair of the victim\'s file), "file" (a file of its own) or "coupling" (the coupling model).' },
+    {
+      error:
+        'An aggressor needs source "ports" (a pair of the victim\'s file), "file" (a file of its own) or "coupling" (the coupling model).',
+    },
   )
   .superRefine((a, ctx) => {
-    if (a.source === "ports" && a.p === a.n) ctx.addIssue({ code: "custom", path: ["n"], message: "An aggressor's pair needs two different ports." });
+    if (a.source === "ports" && a.p === a.n)
+      ctx.addIssue({ code: "custom", path: ["n"], message: "An aggressor's pair needs two different ports." });
     if (a.source !== "coupling") return;
     const want = a.kind === "next" ? "backwardCoefficient" : "forwardCoupling_s";
     if (a.coupling[want] === undefined) {
-      ctx.addIssue({ code: "custom", path: ["coupling", want], message: `A ${a.kind.toUpperCase()} coupling model needs ${want}.` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["coupling", want],
+        message: `A ${a.kind.toUpperCase()} coupling model needs ${want}.`,
+      });
     }
   });
 export type AggressorSpec = z.output<typeof aggressorSpec>;
 
-export const aggressorSpecs = z.array(aggressorSpec).max(MAX_CHANNEL_AGGRESSORS, `At most ${MAX_CHANNEL_AGGRESSORS} aggressors per channel.`);
+export const aggressorSpecs = z
+  .array(aggressorSpec)
+  .max(MAX_CHANNEL_AGGRESSORS, `At most ${MAX_CHANNEL_AGGRESSORS} aggressors per channel.`);
 
 /** `aggressors` in a multipart form: the JSON array of {@link aggressorSpec}. */
 export const aggressorsField = z
@@ -74,7 +109,10 @@ export const aggressorsField = z
     try {
       return JSON.parse(s) as unknown;
     } catch {
-      ctx.addIssue({ code: "custom", message: 'Give aggressors as a JSON array, e.g. [{"source":"ports","kind":"next","p":7,"n":8}].' });
+      ctx.addIssue({
+        code: "custom",
+        message: 'Give aggressors as a JSON array, e.g. [{"source":"ports","kind":"next","p":7,"n":8}].',
+      });
       return z.NEVER;
     }
   })

@@ -61,7 +61,17 @@ export function createChannelListStore(initial: { items: ChannelListItem[]; next
       },
       sortBy(key) {
         const s = get();
-        set({ sort: key, dir: s.sort === key ? (s.dir === "asc" ? "desc" : "asc") : key === "name" || key === "kind" || key === "createdBy" ? "asc" : "desc" });
+        set({
+          sort: key,
+          dir:
+            s.sort === key
+              ? s.dir === "asc"
+                ? "desc"
+                : "asc"
+              : key === "name" || key === "kind" || key === "createdBy"
+                ? "asc"
+                : "desc",
+        });
         void get().reload();
       },
       reload: () => fetchPage(null),

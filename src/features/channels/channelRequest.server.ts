@@ -20,7 +20,12 @@ export type ChannelRequest =
 export async function readChannelRequest(request: Request, { fileOnly = false } = {}): Promise<ChannelRequest> {
   const type = request.headers.get("content-type") ?? "";
   if (!fileOnly && type.startsWith("application/json")) {
-    const raw = await readJsonLimited(request, JSON_BODY_LIMIT, () => bodyTooLarge(JSON_BODY_LIMIT), "The request body must be JSON: { name, bitRate_bps, lossModel: { lossAtNyquist_dB } }.");
+    const raw = await readJsonLimited(
+      request,
+      JSON_BODY_LIMIT,
+      () => bodyTooLarge(JSON_BODY_LIMIT),
+      "The request body must be JSON: { name, bitRate_bps, lossModel: { lossAtNyquist_dB } }.",
+    );
     const parsed = syntheticRequest.safeParse(raw);
     if (!parsed.success) throw zodToApiError(parsed.error);
     return { source: "synthetic", body: parsed.data };

@@ -22,20 +22,29 @@ import type { DeriveInput } from "./derive.job";
 function deriveInput(req: ChannelRequest): DeriveInput {
   if (req.source === "synthetic") {
     const b = req.body;
-    return { source: "synthetic", bitRate_bps: b.bitRate_bps, modulation: b.modulation, lossModel: b.lossModel, aggressors: b.aggressors };
+    return {
+      source: "synthetic",
+      bitRate_bps: b.bitRate_bps,
+      modulation: b.modulation,
+      lossModel: b.lossModel,
+      aggressors: b.aggressors,
+    };
   }
   const f = req.fields;
-  return { source: "file", file: {
-    filename: req.file.filename,
-    bytes: req.file.bytes,
-    bitRate_bps: f.bitRate_bps,
-    modulation: f.modulation,
-    kind: f.kind,
-    pairs: f.pairs,
-    riseTime_s: f.riseTime_s,
-    aggressors: f.aggressors,
-    aggressorFiles: req.aggressorFiles,
-  } };
+  return {
+    source: "file",
+    file: {
+      filename: req.file.filename,
+      bytes: req.file.bytes,
+      bitRate_bps: f.bitRate_bps,
+      modulation: f.modulation,
+      kind: f.kind,
+      pairs: f.pairs,
+      riseTime_s: f.riseTime_s,
+      aggressors: f.aggressors,
+      aggressorFiles: req.aggressorFiles,
+    },
+  };
 }
 
 const inputErrorStatus = { unsupported: 415, unusable: 422, malformed: 400 } as const;
@@ -207,7 +216,12 @@ function toItem(r: ListRow): ChannelListItem {
   };
 }
 
-async function listRows(where: SQL | undefined, order: SQL[], limit: number, offset: number): Promise<ChannelListItem[]> {
+async function listRows(
+  where: SQL | undefined,
+  order: SQL[],
+  limit: number,
+  offset: number,
+): Promise<ChannelListItem[]> {
   const rows = await db
     .select(listColumns)
     .from(channels)
@@ -238,7 +252,12 @@ export async function listChannels(q: ListQuery) {
   if (q.program) where.push(eq(channels.programId, q.program));
   const dir = q.dir === "asc" ? asc : desc;
   const offset = q.cursor ?? 0;
-  const rows = await listRows(where.length ? and(...where) : undefined, [dir(sortColumns[q.sort]), dir(channels.id)], q.limit + 1, offset);
+  const rows = await listRows(
+    where.length ? and(...where) : undefined,
+    [dir(sortColumns[q.sort]), dir(channels.id)],
+    q.limit + 1,
+    offset,
+  );
   const items = rows.slice(0, q.limit);
   return { items, nextCursor: rows.length > q.limit ? String(offset + q.limit) : null };
 }
@@ -250,7 +269,13 @@ export async function listPrograms() {
 /** Channel names and rates for pickers (the run form). */
 export async function channelChoices() {
   const rows = await db
-    .select({ id: channels.id, name: channels.name, bitRate_bps: channels.bitRate_bps, derivation: channels.derivation, lossAtNyquist_dB: channels.lossAtNyquist_dB })
+    .select({
+      id: channels.id,
+      name: channels.name,
+      bitRate_bps: channels.bitRate_bps,
+      derivation: channels.derivation,
+      lossAtNyquist_dB: channels.lossAtNyquist_dB,
+    })
     .from(channels)
     .orderBy(asc(channels.name));
   return rows.map((r) => ({
@@ -272,7 +297,12 @@ export async function getChannel(id: number): Promise<ChannelDetail> {
     .where(eq(channels.id, id));
   if (!row) throw notFound(`Channel ${id}`);
   const [source] = await db
-    .select({ filename: channelSources.filename, contentType: channelSources.contentType, bytes: channelSources.size_bytes, sha256: channelSources.sha256 })
+    .select({
+      filename: channelSources.filename,
+      contentType: channelSources.contentType,
+      bytes: channelSources.size_bytes,
+      sha256: channelSources.sha256,
+    })
     .from(channelSources)
     .where(eq(channelSources.channelId, id));
   const [{ n }] = await db.select({ n: count() }).from(runs).where(eq(runs.channelId, id));
@@ -324,7 +354,12 @@ export async function channelAggressorViews(channelId: number): Promise<Aggresso
 /** GET /api/v1/channels/:id/aggressors/:position/original: an aggressor's own file, byte for byte. */
 export async function aggressorOriginalFile(id: number, position: number): Promise<Download> {
   const [a] = await db
-    .select({ filename: channelAggressors.filename, contentType: channelAggressors.contentType, sha256: channelAggressors.sha256, bytes: channelAggressors.bytes })
+    .select({
+      filename: channelAggressors.filename,
+      contentType: channelAggressors.contentType,
+      sha256: channelAggressors.sha256,
+      bytes: channelAggressors.bytes,
+    })
     .from(channelAggressors)
     .where(and(eq(channelAggressors.channelId, id), eq(channelAggressors.position, position)));
   if (!a?.bytes || !a.filename) throw notFound(`A file of aggressor ${position} of channel ${id}`);
@@ -357,7 +392,11 @@ export async function originalFile(id: number): Promise<Download> {
  */
 export async function deleteChannel(user: SessionUser, id: number, confirm: boolean) {
   return db.transaction(async (tx) => {
-    const [row] = await tx.select({ id: channels.id, name: channels.name }).from(channels).where(eq(channels.id, id)).for("update");
+    const [row] = await tx
+      .select({ id: channels.id, name: channels.name })
+      .from(channels)
+      .where(eq(channels.id, id))
+      .for("update");
     if (!row) throw notFound(`Channel ${id}`);
     const [{ n }] = await tx.select({ n: count() }).from(runs).where(eq(runs.channelId, id));
     if (n > 0 && !confirm) {

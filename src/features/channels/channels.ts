@@ -60,7 +60,9 @@ const name = z
   .min(1, "Give the channel a name.")
   .max(200, "Keep the name under 200 characters.");
 const bitRateRange = (n: z.ZodNumber) =>
-  n.min(1e8, "The bit rate must be at least 0.1 Gb/s (1e8 bit/s).").max(4e11, "The bit rate must be at most 400 Gb/s (4e11 bit/s).");
+  n
+    .min(1e8, "The bit rate must be at least 0.1 Gb/s (1e8 bit/s).")
+    .max(4e11, "The bit rate must be at most 400 Gb/s (4e11 bit/s).");
 const bitRateMessage = { error: "Give the bit rate in bit/s, e.g. 28e9." };
 const program = z.string().trim().min(1).max(200).optional();
 
@@ -95,7 +97,10 @@ const pairsField = z
     } catch {
       /* reported below */
     }
-    ctx.addIssue({ code: "custom", message: 'Give pairs as JSON {"inP":1,"inN":2,"outP":3,"outN":4} or as "1,2,3,4".' });
+    ctx.addIssue({
+      code: "custom",
+      message: 'Give pairs as JSON {"inP":1,"inN":2,"outP":3,"outN":4} or as "1,2,3,4".',
+    });
     return z.NEVER;
   })
   .pipe(portPairsSchema);
@@ -103,7 +108,12 @@ const pairsField = z
 /** The text fields of a multipart upload (`file` is read separately). */
 export const uploadFields = z.object({
   name,
-  bitRate_bps: z.string(bitRateMessage).trim().regex(/^[0-9.eE+-]+$/, "Give the bit rate in bit/s, e.g. 28e9.").pipe(z.coerce.number()).pipe(bitRateRange(z.number(bitRateMessage))),
+  bitRate_bps: z
+    .string(bitRateMessage)
+    .trim()
+    .regex(/^[0-9.eE+-]+$/, "Give the bit rate in bit/s, e.g. 28e9.")
+    .pipe(z.coerce.number())
+    .pipe(bitRateRange(z.number(bitRateMessage))),
   modulation: modulationSchema.default("nrz"),
   kind: z.enum(fileKinds, { error: `kind must be one of ${fileKinds.join(", ")}.` }).optional(),
   pairs: pairsField.optional(),
@@ -125,7 +135,11 @@ export const lossModelSchema = z.object({
     .min(0.5, "The loss at Nyquist must be at least 0.5 dB.")
     .max(60, "The loss at Nyquist must be at most 60 dB."),
   delay_s: z.number().min(0, "delay_s must be ≥ 0.").max(20e-9, "delay_s must be at most 20 ns.").optional(),
-  skinFraction: z.number().min(0, "skinFraction must be between 0 and 1.").max(1, "skinFraction must be between 0 and 1.").optional(),
+  skinFraction: z
+    .number()
+    .min(0, "skinFraction must be between 0 and 1.")
+    .max(1, "skinFraction must be between 0 and 1.")
+    .optional(),
 });
 export type LossModel = z.infer<typeof lossModelSchema>;
 

@@ -12,11 +12,22 @@ import {
   type FrequencyPulse,
   type InputQuality,
 } from "@lib/channel";
-import { integratedCrosstalkNoiseOfPulses, linkFromTouchstone, pulseFromCoupling, type CouplingModel } from "@lib/crosstalk";
+import {
+  integratedCrosstalkNoiseOfPulses,
+  linkFromTouchstone,
+  pulseFromCoupling,
+  type CouplingModel,
+} from "@lib/crosstalk";
 import { pulseFromJson, pulseToJson, trimPulse } from "@lib/pulse";
 import { interpolateLinear } from "@lib/signal";
 import type { Modulation, Pulse } from "@lib/types";
-import { aggressorName, ICN_REFERENCE_AMPLITUDE_V, type AggressorSpec, type CouplingSpec, type DerivedAggressor } from "./aggressors";
+import {
+  aggressorName,
+  ICN_REFERENCE_AMPLITUDE_V,
+  type AggressorSpec,
+  type CouplingSpec,
+  type DerivedAggressor,
+} from "./aggressors";
 import {
   PULSE_KEEP_UI,
   SAMPLES_PER_UI,
@@ -64,7 +75,8 @@ const EXTENSIONS: Record<string, { format: "csv" | "touchstone"; ports?: number 
   s16p: { format: "touchstone", ports: 16 },
 };
 
-const accepted = "Tapwright reads pulse, step or impulse responses as .csv (or .txt) and Touchstone .s2p / .s4p files (.s8p / .s12p / .s16p for a lane with its neighbours)";
+const accepted =
+  "Tapwright reads pulse, step or impulse responses as .csv (or .txt) and Touchstone .s2p / .s4p files (.s8p / .s12p / .s16p for a lane with its neighbours)";
 
 export interface FileOptions {
   filename: string;
@@ -147,7 +159,13 @@ export function storedPulse(pulse: Pulse) {
   return { pulse: json, mainCursor_V: json.values_V[json.mainIndex] };
 }
 
-function fromFrequency(kind: ChannelKind, fp: FrequencyPulse, ui_s: number, derivation: ChannelDerivation, quality: InputQuality | null = null): DerivedChannel {
+function fromFrequency(
+  kind: ChannelKind,
+  fp: FrequencyPulse,
+  ui_s: number,
+  derivation: ChannelDerivation,
+  quality: InputQuality | null = null,
+): DerivedChannel {
   const { pulse, mainCursor_V } = storedPulse(fp.pulse);
   return {
     kind,
@@ -178,11 +196,19 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
   const text = decodeText(o.filename, o.bytes);
   const ui_s = unitInterval_s(o.bitRate_bps, o.modulation);
   const grid = { ui_s, samplesPerUi: SAMPLES_PER_UI, riseTime_s: o.riseTime_s };
-  const common = { modulation: o.modulation, ui_s, samplesPerUi: SAMPLES_PER_UI, ...(o.riseTime_s ? { riseTime_s: o.riseTime_s } : {}) };
+  const common = {
+    modulation: o.modulation,
+    ui_s,
+    samplesPerUi: SAMPLES_PER_UI,
+    ...(o.riseTime_s ? { riseTime_s: o.riseTime_s } : {}),
+  };
   const specs = o.aggressors ?? [];
   const fromPorts = specs.flatMap((a, i) => (a.source === "ports" ? [{ a, i }] : []));
   if (fromPorts.length > 0 && !(format.format === "touchstone" && (format.ports ?? 0) >= 8)) {
-    throw unusable(`Aggressor ${aggressorName(fromPorts[0].a, fromPorts[0].i)} names ports of the victim's file, which needs a multi-port Touchstone file (.s8p, .s12p or .s16p).`, "aggressors");
+    throw unusable(
+      `Aggressor ${aggressorName(fromPorts[0].a, fromPorts[0].i)} names ports of the victim's file, which needs a multi-port Touchstone file (.s8p, .s12p or .s16p).`,
+      "aggressors",
+    );
   }
   let derived: DerivedChannel;
   const multiPort: DerivedAggressor[] = [];
@@ -201,13 +227,22 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
           ...grid,
           ports,
           victim: pairs!,
-          aggressors: fromPorts.map(({ a, i }) => ({ kind: a.kind, p: (a as { p: number }).p, n: (a as { n: number }).n, name: aggressorName(a, i) })),
+          aggressors: fromPorts.map(({ a, i }) => ({
+            kind: a.kind,
+            p: (a as { p: number }).p,
+            n: (a as { n: number }).n,
+            name: aggressorName(a, i),
+          })),
         });
         fp = link.victim;
         quality = link.quality;
         link.aggressors.forEach((x, j) => {
           const { a } = fromPorts[j];
-          multiPort.push(storedAggressor(x.name, x.kind, "ports", x.pulse, x.insertionLoss, { ports: { p: (a as { p: number }).p, n: (a as { n: number }).n } }));
+          multiPort.push(
+            storedAggressor(x.name, x.kind, "ports", x.pulse, x.insertionLoss, {
+              ports: { p: (a as { p: number }).p, n: (a as { n: number }).n },
+            }),
+          );
         });
       } else {
         const tp = pulseFromTouchstone(text, { ...grid, ports, pairs });
@@ -216,12 +251,18 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
     } catch (e) {
       readerError(o.filename, e);
     }
-    derived = fromFrequency("touchstone", fp, ui_s, {
-      ...common,
-      source: "touchstone",
-      ports,
-      ...(pairs ? { pairs, transfer: "SDD21" } : { transfer: "S21" }),
-    }, quality);
+    derived = fromFrequency(
+      "touchstone",
+      fp,
+      ui_s,
+      {
+        ...common,
+        source: "touchstone",
+        ports,
+        ...(pairs ? { pairs, transfer: "SDD21" } : { transfer: "S21" }),
+      },
+      quality,
+    );
   } else {
     const kind = o.kind ?? "pulse-csv";
     const response = kind === "step-csv" ? "step" : kind === "impulse-csv" ? "impulse" : "pulse";
@@ -235,7 +276,16 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
       readerError(o.filename, e);
     }
     const s = storedPulse(pulse);
-    derived = { kind, pulse: s.pulse, insertionLoss: null, lossAtNyquist_dB: null, mainCursor_V: s.mainCursor_V, derivation: { ...common, source: kind, response, rows }, quality: null, aggressors: [] };
+    derived = {
+      kind,
+      pulse: s.pulse,
+      insertionLoss: null,
+      lossAtNyquist_dB: null,
+      mainCursor_V: s.mainCursor_V,
+      derivation: { ...common, source: kind, response, rows },
+      quality: null,
+      aggressors: [],
+    };
   }
   // The aggressors in the order given: pairs of this file, files of their own, coupling models.
   let nextPort = 0;
@@ -243,7 +293,11 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
     if (a.source === "ports") return multiPort[nextPort++];
     if (a.source === "coupling") return couplingAggressor(a, i, grid);
     const file = o.aggressorFiles?.[a.field];
-    if (!file) throw malformed(`Aggressor ${aggressorName(a, i)} names the file field '${a.field}', but no file came in it.`, "aggressors");
+    if (!file)
+      throw malformed(
+        `Aggressor ${aggressorName(a, i)} names the file field '${a.field}', but no file came in it.`,
+        "aggressors",
+      );
     const own = deriveFromFile({
       filename: file.filename,
       bytes: file.bytes,
@@ -253,7 +307,9 @@ export function deriveFromFile(o: FileOptions): DerivedChannel {
       pairs: a.pairs,
       riseTime_s: o.riseTime_s,
     });
-    return storedAggressor(aggressorName(a, i), a.kind, "file", pulseFromJson(own.pulse), own.insertionLoss, { file: own.derivation });
+    return storedAggressor(aggressorName(a, i), a.kind, "file", pulseFromJson(own.pulse), own.insertionLoss, {
+      file: own.derivation,
+    });
   });
   return { ...derived, aggressors: withIcn(aggressors, ui_s) };
 }
@@ -282,16 +338,23 @@ function storedAggressor(
 }
 
 /** The coupling model's pulse on the channel's grid. */
-function couplingAggressor(a: AggressorSpec & { source: "coupling" }, i: number, grid: { ui_s: number; samplesPerUi: number }): DerivedAggressor {
+function couplingAggressor(
+  a: AggressorSpec & { source: "coupling" },
+  i: number,
+  grid: { ui_s: number; samplesPerUi: number },
+): DerivedAggressor {
   const c: CouplingSpec = a.coupling;
   const line = { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s };
   const model: CouplingModel =
-    a.kind === "next" ? { kind: "next", backwardCoefficient: c.backwardCoefficient ?? 0, line } : { kind: "fext", forwardCoupling_s: c.forwardCoupling_s ?? 0, line };
+    a.kind === "next"
+      ? { kind: "next", backwardCoefficient: c.backwardCoefficient ?? 0, line }
+      : { kind: "fext", forwardCoupling_s: c.forwardCoupling_s ?? 0, line };
   let fp: FrequencyPulse;
   try {
     fp = pulseFromCoupling(model, grid);
   } catch (e) {
-    if (e instanceof RangeError || e instanceof TypeError) throw unusable(`Aggressor ${aggressorName(a, i)}: ${e.message}`, "aggressors");
+    if (e instanceof RangeError || e instanceof TypeError)
+      throw unusable(`Aggressor ${aggressorName(a, i)}: ${e.message}`, "aggressors");
     throw e;
   }
   return storedAggressor(aggressorName(a, i), a.kind, "coupling", fp.pulse, fp.insertionLoss, { coupling: model });
@@ -308,7 +371,12 @@ function withIcn(aggressors: DerivedAggressor[], ui_s: number): DerivedAggressor
 }
 
 /** Derives a synthetic channel from the loss model, with coupling-model aggressors. */
-export function deriveSynthetic(bitRate_bps: number, modulation: Modulation, model: LossModel, aggressors: AggressorSpec[] = []): DerivedChannel {
+export function deriveSynthetic(
+  bitRate_bps: number,
+  modulation: Modulation,
+  model: LossModel,
+  aggressors: AggressorSpec[] = [],
+): DerivedChannel {
   const ui_s = unitInterval_s(bitRate_bps, modulation);
   let fp: FrequencyPulse;
   try {
@@ -317,10 +385,20 @@ export function deriveSynthetic(bitRate_bps: number, modulation: Modulation, mod
     if (e instanceof RangeError || e instanceof TypeError) throw unusable(e.message, "lossModel");
     throw e;
   }
-  const derived = fromFrequency("synthetic", fp, ui_s, { modulation, ui_s, samplesPerUi: SAMPLES_PER_UI, source: "loss-model", lossModel: model });
+  const derived = fromFrequency("synthetic", fp, ui_s, {
+    modulation,
+    ui_s,
+    samplesPerUi: SAMPLES_PER_UI,
+    source: "loss-model",
+    lossModel: model,
+  });
   const grid = { ui_s, samplesPerUi: SAMPLES_PER_UI };
   const own = aggressors.map((a, i) => {
-    if (a.source !== "coupling") throw malformed(`Aggressor ${aggressorName(a, i)}: a synthetic channel's aggressors come from the coupling model (source "coupling").`, "aggressors");
+    if (a.source !== "coupling")
+      throw malformed(
+        `Aggressor ${aggressorName(a, i)}: a synthetic channel's aggressors come from the coupling model (source "coupling").`,
+        "aggressors",
+      );
     return couplingAggressor(a, i, grid);
   });
   return { ...derived, aggressors: withIcn(own, ui_s) };

@@ -27,12 +27,22 @@ export function needsTouchstone(kind: ChannelKind | undefined, corners: readonly
 
 function cornerSource(ch: CornerChannel, nominal: Pulse): CornerSource {
   const d = ch.derivation;
-  const grid = { ui_s: nominal.ui_s, samplesPerUi: nominal.samplesPerUi, ...(typeof d.riseTime_s === "number" ? { riseTime_s: d.riseTime_s } : {}) };
+  const grid = {
+    ui_s: nominal.ui_s,
+    samplesPerUi: nominal.samplesPerUi,
+    ...(typeof d.riseTime_s === "number" ? { riseTime_s: d.riseTime_s } : {}),
+  };
   if (d.source === "loss-model" && d.lossModel && typeof d.lossModel === "object") {
     return { kind: "loss-model", model: d.lossModel as { lossAtNyquist_dB: number }, grid };
   }
   if (d.source === "touchstone" && ch.touchstone !== null) {
-    return { kind: "touchstone", text: ch.touchstone, ports: typeof d.ports === "number" ? d.ports : undefined, pairs: d.pairs as PortPairs | undefined, grid };
+    return {
+      kind: "touchstone",
+      text: ch.touchstone,
+      ports: typeof d.ports === "number" ? d.ports : undefined,
+      pairs: d.pairs as PortPairs | undefined,
+      grid,
+    };
   }
   return { kind: "pulse", pulse: nominal };
 }

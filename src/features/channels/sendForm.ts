@@ -15,7 +15,8 @@ export function sendForm<T>(url: string, form: FormData, onProgress: (p: SendPro
     const xhr = new XMLHttpRequest();
     xhr.open("POST", url);
     xhr.responseType = "text";
-    xhr.upload.onprogress = (e) => onProgress({ sent: e.loaded, total: e.lengthComputable ? e.total : 0, uploaded: false });
+    xhr.upload.onprogress = (e) =>
+      onProgress({ sent: e.loaded, total: e.lengthComputable ? e.total : 0, uploaded: false });
     xhr.upload.onload = () => onProgress({ sent: 1, total: 1, uploaded: true });
     xhr.onerror = () => reject(new ApiCallError("The upload was interrupted; check the connection and try again.", 0));
     xhr.onload = () => {
@@ -26,7 +27,10 @@ export function sendForm<T>(url: string, form: FormData, onProgress: (p: SendPro
         body = null;
       }
       if (xhr.status >= 200 && xhr.status < 300) resolve(body as T);
-      else reject(new ApiCallError(body?.error?.message ?? `The server answered ${xhr.status}.`, xhr.status, body?.error?.path));
+      else
+        reject(
+          new ApiCallError(body?.error?.message ?? `The server answered ${xhr.status}.`, xhr.status, body?.error?.path),
+        );
     };
     xhr.send(form);
   });

@@ -79,7 +79,13 @@ export function aggressorSpecsOf(rows: readonly AggressorRow[]): unknown[] {
   return rows.map((r, i) => {
     const common = { kind: r.kind, ...(r.name.trim() ? { name: r.name.trim() } : {}) };
     if (r.source === "ports") return { source: "ports", ...common, p: Number(r.p), n: Number(r.n) };
-    if (r.source === "file") return { source: "file", ...common, field: `aggressor${i}`, ...(r.file && formatOf(r.file.name) === "csv" ? { csvKind: r.csvKind } : {}) };
+    if (r.source === "file")
+      return {
+        source: "file",
+        ...common,
+        field: `aggressor${i}`,
+        ...(r.file && formatOf(r.file.name) === "csv" ? { csvKind: r.csvKind } : {}),
+      };
     const c = Number(r.coefficient);
     return {
       source: "coupling",
@@ -120,7 +126,12 @@ export function createUploadStore() {
         return false;
       }
       if (file.size > MAX_UPLOAD_BYTES) {
-        set({ error: { message: `${file.name} is ${formatBytes(file.size)}; the limit is ${formatBytes(MAX_UPLOAD_BYTES)}.`, path: "file" } });
+        set({
+          error: {
+            message: `${file.name} is ${formatBytes(file.size)}; the limit is ${formatBytes(MAX_UPLOAD_BYTES)}.`,
+            path: "file",
+          },
+        });
         return false;
       }
       const rate = Number(fields.bitRate_Gbps);
@@ -141,7 +152,15 @@ export function createUploadStore() {
       file: null,
       format: "other",
       ports: 0,
-      fields: { name: "", bitRate_Gbps: "28", modulation: "nrz", csvKind: "pulse-csv", pairs: commonPairings[0].pairs, riseTime_ps: "", aggressors: [] },
+      fields: {
+        name: "",
+        bitRate_Gbps: "28",
+        modulation: "nrz",
+        csvKind: "pulse-csv",
+        pairs: commonPairings[0].pairs,
+        riseTime_ps: "",
+        aggressors: [],
+      },
       phase: "idle",
       progress: 0,
       error: null,
@@ -156,14 +175,23 @@ export function createUploadStore() {
           preview: null,
           error:
             file && format === "other"
-              ? { message: `${file.name}: Tapwright reads .csv / .txt responses and .s2p / .s4p Touchstone files (.s8p / .s12p / .s16p with neighbours).`, path: "file" }
+              ? {
+                  message: `${file.name}: Tapwright reads .csv / .txt responses and .s2p / .s4p Touchstone files (.s8p / .s12p / .s16p with neighbours).`,
+                  path: "file",
+                }
               : null,
           fields: {
             ...s.fields,
             name: s.fields.name || (file ? file.name.replace(/\.[^.]+$/, "") : ""),
             // A multi-port file's victim defaults to the first pair on each side; pairs of another file do not apply.
-            pairs: format === "multiport" ? { inP: 1, inN: 2, outP: ports / 2 + 1, outN: ports / 2 + 2 } : format === "s4p" ? s.fields.pairs : commonPairings[0].pairs,
-            aggressors: format === "multiport" ? s.fields.aggressors : s.fields.aggressors.filter((r) => r.source !== "ports"),
+            pairs:
+              format === "multiport"
+                ? { inP: 1, inN: 2, outP: ports / 2 + 1, outN: ports / 2 + 2 }
+                : format === "s4p"
+                  ? s.fields.pairs
+                  : commonPairings[0].pairs,
+            aggressors:
+              format === "multiport" ? s.fields.aggressors : s.fields.aggressors.filter((r) => r.source !== "ports"),
           },
         }));
         if (file && (format === "s2p" || format === "s4p" || format === "multiport")) void get().runPreview();
@@ -186,10 +214,16 @@ export function createUploadStore() {
         set((s) => ({ fields: { ...s.fields, aggressors: [...s.fields.aggressors, row] }, preview: null }));
       },
       updateAggressor(id, patch) {
-        set((s) => ({ fields: { ...s.fields, aggressors: s.fields.aggressors.map((r) => (r.id === id ? { ...r, ...patch } : r)) }, preview: null }));
+        set((s) => ({
+          fields: { ...s.fields, aggressors: s.fields.aggressors.map((r) => (r.id === id ? { ...r, ...patch } : r)) },
+          preview: null,
+        }));
       },
       removeAggressor(id) {
-        set((s) => ({ fields: { ...s.fields, aggressors: s.fields.aggressors.filter((r) => r.id !== id) }, preview: null }));
+        set((s) => ({
+          fields: { ...s.fields, aggressors: s.fields.aggressors.filter((r) => r.id !== id) },
+          preview: null,
+        }));
       },
       setFields(patch) {
         set((s) => ({ fields: { ...s.fields, ...patch } }));
@@ -207,7 +241,8 @@ export function createUploadStore() {
           if (mine === previewSeq) set({ preview, phase: "idle" });
         } catch (e) {
           const err = e as Error & { path?: string };
-          if (mine === previewSeq) set({ error: { message: err.message, path: err.path }, phase: "idle", preview: null });
+          if (mine === previewSeq)
+            set({ error: { message: err.message, path: err.path }, phase: "idle", preview: null });
         }
       },
       async upload() {

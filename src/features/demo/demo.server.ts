@@ -22,7 +22,10 @@ import { laneBundleTouchstone } from "./laneBundleTouchstone";
 import { DEMO_BUDGETS, DEMO_CHANNELS, DEMO_PROGRAM, DEMO_RUNS, type DemoChannel } from "./demo";
 
 async function demoDesigner(): Promise<SessionUser | null> {
-  const [u] = await db.select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, "designer@tapwright.test"));
+  const [u] = await db
+    .select({ id: users.id, email: users.email, name: users.name, role: users.role })
+    .from(users)
+    .where(eq(users.email, "designer@tapwright.test"));
   return u ?? null;
 }
 
@@ -35,27 +38,48 @@ function deriveDemoChannel(c: DemoChannel) {
       step_Hz: 25e6,
       stop_Hz: 1.5 * baud,
       neighbours: c.bundle.neighbours,
-      comments: [`Quillfeather Systems, Brackenridge backplane: ${c.name}, with its neighbours`, "Generated for the Tapwright demo workspace (not a measurement)."],
+      comments: [
+        `Quillfeather Systems, Brackenridge backplane: ${c.name}, with its neighbours`,
+        "Generated for the Tapwright demo workspace (not a measurement).",
+      ],
     });
     const bytes = new TextEncoder().encode(text);
     const file = { filename: c.bundle.filename, contentType: "application/octet-stream", bytes };
     const pairs = { inP: 1, inN: 2, outP: 7, outN: 8 };
-    const derived = deriveFromFile({ filename: file.filename, bytes, bitRate_bps: c.bitRate_bps, modulation: c.modulation, pairs, aggressors: c.bundle.aggressors });
+    const derived = deriveFromFile({
+      filename: file.filename,
+      bytes,
+      bitRate_bps: c.bitRate_bps,
+      modulation: c.modulation,
+      pairs,
+      aggressors: c.bundle.aggressors,
+    });
     return { derived, file, aggressors: c.bundle.aggressors };
   }
   if (!c.touchstone) {
-    return { derived: deriveSynthetic(c.bitRate_bps, c.modulation, { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s }) };
+    return {
+      derived: deriveSynthetic(c.bitRate_bps, c.modulation, {
+        lossAtNyquist_dB: c.lossAtNyquist_dB,
+        delay_s: c.delay_s,
+      }),
+    };
   }
   const text = backplaneTouchstone({
     model: { lossAtNyquist_dB: c.lossAtNyquist_dB, delay_s: c.delay_s },
     nyquist_Hz: baud / 2,
     step_Hz: 25e6,
     stop_Hz: 1.5 * baud,
-    comments: [`Quillfeather Systems, Brackenridge backplane: ${c.name}`, "Generated for the Tapwright demo workspace (not a measurement)."],
+    comments: [
+      `Quillfeather Systems, Brackenridge backplane: ${c.name}`,
+      "Generated for the Tapwright demo workspace (not a measurement).",
+    ],
   });
   const bytes = new TextEncoder().encode(text);
   const file = { filename: c.touchstone.filename, contentType: "application/octet-stream", bytes };
-  return { derived: deriveFromFile({ filename: file.filename, bytes, bitRate_bps: c.bitRate_bps, modulation: c.modulation }), file };
+  return {
+    derived: deriveFromFile({ filename: file.filename, bytes, bitRate_bps: c.bitRate_bps, modulation: c.modulation }),
+    file,
+  };
 }
 
 /** SHA-256 over every file of the engine (lib/), in path order. */
@@ -103,13 +127,27 @@ export async function seedDemoWork(): Promise<{ channels: number; budgets: numbe
 
   const channelIds = new Map<string, number>();
   for (const c of DEMO_CHANNELS) {
-    const [found] = await db.select({ id: channels.id }).from(channels).where(and(eq(channels.programId, programId), eq(channels.name, c.name)));
+    const [found] = await db
+      .select({ id: channels.id })
+      .from(channels)
+      .where(and(eq(channels.programId, programId), eq(channels.name, c.name)));
     if (found) {
       channelIds.set(c.name, found.id);
       continue;
     }
     const { derived, file, aggressors } = deriveDemoChannel(c);
-    const saved = await saveChannel(designer, { name: c.name, bitRate_bps: c.bitRate_bps, modulation: c.modulation, program: DEMO_PROGRAM.name, file, aggressors }, derived);
+    const saved = await saveChannel(
+      designer,
+      {
+        name: c.name,
+        bitRate_bps: c.bitRate_bps,
+        modulation: c.modulation,
+        program: DEMO_PROGRAM.name,
+        file,
+        aggressors,
+      },
+      derived,
+    );
     channelIds.set(c.name, saved.id);
     added.channels++;
   }
@@ -121,7 +159,11 @@ export async function seedDemoWork(): Promise<{ channels: number; budgets: numbe
       budgetIds.set(b.name, found.id);
       continue;
     }
-    const created = await createBudget(designer, { ...(b.budget as Parameters<typeof createBudget>[1]), name: b.name, description: b.description });
+    const created = await createBudget(designer, {
+      ...(b.budget as Parameters<typeof createBudget>[1]),
+      name: b.name,
+      description: b.description,
+    });
     budgetIds.set(b.name, created.id);
     added.budgets++;
   }
@@ -130,10 +172,20 @@ export async function seedDemoWork(): Promise<{ channels: number; budgets: numbe
   for (const r of DEMO_RUNS) {
     const channelId = channelIds.get(r.channel)!;
     const budgetId = budgetIds.get(r.budget)!;
-    const [exists] = await db.select({ id: runs.id }).from(runs).where(and(eq(runs.channelId, channelId), eq(runs.budgetId, budgetId))).limit(1);
+    const [exists] = await db
+      .select({ id: runs.id })
+      .from(runs)
+      .where(and(eq(runs.channelId, channelId), eq(runs.budgetId, budgetId)))
+      .limit(1);
     if (exists) continue;
-    const [channel] = await db.select({ id: channels.id, name: channels.name, bitRate_bps: channels.bitRate_bps, pulse: channels.pulse }).from(channels).where(eq(channels.id, channelId));
-    const [budget] = await db.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).where(eq(budgets.id, budgetId));
+    const [channel] = await db
+      .select({ id: channels.id, name: channels.name, bitRate_bps: channels.bitRate_bps, pulse: channels.pulse })
+      .from(channels)
+      .where(eq(channels.id, channelId));
+    const [budget] = await db
+      .select({ id: budgets.id, name: budgets.name, params: budgets.params })
+      .from(budgets)
+      .where(eq(budgets.id, budgetId));
     const aggressors = await db
       .select({ name: channelAggressors.name, kind: channelAggressors.kind, pulse: channelAggressors.pulse })
       .from(channelAggressors)
@@ -141,9 +193,17 @@ export async function seedDemoWork(): Promise<{ channels: number; budgets: numbe
       .orderBy(channelAggressors.position);
     engine ??= engineHash();
     // The same inputs a run started from the page copies: the channel with its aggressors.
-    const input = aggressors.length > 0 ? { pulse: channel.pulse, budget: budget.params, aggressors } : { pulse: channel.pulse, budget: budget.params };
+    const input =
+      aggressors.length > 0
+        ? { pulse: channel.pulse, budget: budget.params, aggressors }
+        : { pulse: channel.pulse, budget: budget.params };
     const { result, compute_ms } = cachedRun(input, engine);
-    await recordFinishedRun(designer, { channel: aggressors.length > 0 ? { ...channel, aggressors } : channel, budget }, result, compute_ms);
+    await recordFinishedRun(
+      designer,
+      { channel: aggressors.length > 0 ? { ...channel, aggressors } : channel, budget },
+      result,
+      compute_ms,
+    );
     added.runs++;
   }
   return added;

@@ -33,13 +33,44 @@ const CONNECTOR_SECTION = { lossAtNyquist_dB: 1, delay_s: 0.25e-9 };
 const SLOT9_LINE = { lossAtNyquist_dB: 24, delay_s: 3.3e-9 };
 
 export const DEMO_CHANNELS: DemoChannel[] = [
-  { name: "Slot 2 lane 0 · 5 in to the switch card", bitRate_bps: 28e9, modulation: "nrz", lossAtNyquist_dB: 6, delay_s: 0.8e-9 },
+  {
+    name: "Slot 2 lane 0 · 5 in to the switch card",
+    bitRate_bps: 28e9,
+    modulation: "nrz",
+    lossAtNyquist_dB: 6,
+    delay_s: 0.8e-9,
+  },
   { name: "Slot 5 lane 1 · 11 in", bitRate_bps: 28e9, modulation: "nrz", lossAtNyquist_dB: 13, delay_s: 1.6e-9 },
-  { name: "Slot 8 lane 3 · 19 in, two connectors", bitRate_bps: 28e9, modulation: "nrz", lossAtNyquist_dB: 21, delay_s: 2.7e-9, touchstone: { filename: "brackenridge-slot8-lane3.s4p" } },
+  {
+    name: "Slot 8 lane 3 · 19 in, two connectors",
+    bitRate_bps: 28e9,
+    modulation: "nrz",
+    lossAtNyquist_dB: 21,
+    delay_s: 2.7e-9,
+    touchstone: { filename: "brackenridge-slot8-lane3.s4p" },
+  },
   { name: "Slot 11 lane 2 · 27 in", bitRate_bps: 28e9, modulation: "nrz", lossAtNyquist_dB: 28, delay_s: 3.8e-9 },
-  { name: "Slot 14 lane 0 · 36 in, far corner", bitRate_bps: 28e9, modulation: "nrz", lossAtNyquist_dB: 38, delay_s: 5.0e-9 },
-  { name: "Cage port 3 · 4 in to the module", bitRate_bps: 106.25e9, modulation: "pam4", lossAtNyquist_dB: 9, delay_s: 0.6e-9 },
-  { name: "Cage port 11 · 7 in to the module", bitRate_bps: 106.25e9, modulation: "pam4", lossAtNyquist_dB: 15, delay_s: 1.0e-9 },
+  {
+    name: "Slot 14 lane 0 · 36 in, far corner",
+    bitRate_bps: 28e9,
+    modulation: "nrz",
+    lossAtNyquist_dB: 38,
+    delay_s: 5.0e-9,
+  },
+  {
+    name: "Cage port 3 · 4 in to the module",
+    bitRate_bps: 106.25e9,
+    modulation: "pam4",
+    lossAtNyquist_dB: 9,
+    delay_s: 0.6e-9,
+  },
+  {
+    name: "Cage port 11 · 7 in to the module",
+    bitRate_bps: 106.25e9,
+    modulation: "pam4",
+    lossAtNyquist_dB: 15,
+    delay_s: 1.0e-9,
+  },
   {
     // Closes without its neighbours; with them (lane 1 running the other way, lane 3 the same way)
     // the crosstalk takes the headroom below the budget's requirement.
@@ -51,8 +82,14 @@ export const DEMO_CHANNELS: DemoChannel[] = [
     bundle: {
       filename: "brackenridge-slot9-lanes1-3.s12p",
       neighbours: [
-        { next: { backwardCoefficient: 0.013, line: CONNECTOR_SECTION }, fext: { forwardCoupling_s: 2e-12, line: SLOT9_LINE } },
-        { next: { backwardCoefficient: 0.004, line: CONNECTOR_SECTION }, fext: { forwardCoupling_s: 2e-12, line: SLOT9_LINE } },
+        {
+          next: { backwardCoefficient: 0.013, line: CONNECTOR_SECTION },
+          fext: { forwardCoupling_s: 2e-12, line: SLOT9_LINE },
+        },
+        {
+          next: { backwardCoefficient: 0.004, line: CONNECTOR_SECTION },
+          fext: { forwardCoupling_s: 2e-12, line: SLOT9_LINE },
+        },
       ],
       aggressors: [
         { source: "ports", kind: "next", p: 9, n: 10, name: "Lane 1 (opposite direction), NEXT" },

@@ -52,7 +52,10 @@ export function laneBundleTouchstone(o: LaneBundleOptions): string {
   const n = 4 * lanes;
   const s = new Float64Array(count * n * n * 2);
   const put = (f: number, a: number, b: number, re: number, im: number) => {
-    for (const [row, col] of [[a, b], [b, a]]) {
+    for (const [row, col] of [
+      [a, b],
+      [b, a],
+    ]) {
       const at = 2 * ((f * n + (row - 1)) * n + (col - 1));
       s[at] = re;
       s[at + 1] = im;

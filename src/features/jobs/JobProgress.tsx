@@ -23,16 +23,28 @@ interface Props {
 const CALM = { first_ms: 600, every_ms: 1000 };
 
 export default function JobProgress(props: Props) {
-  const { state, error } = useJobPolling(props.url, { status: props.status, progress: props.progress }, props.timing ?? CALM);
+  const { state, error } = useJobPolling(
+    props.url,
+    { status: props.status, progress: props.progress },
+    props.timing ?? CALM,
+  );
   const pct = Math.round(state.progress * 100);
-  const heading = state.status === "queued" ? props.queuedLabel : state.status === "running" ? props.runningLabel : "Finishing…";
+  const heading =
+    state.status === "queued" ? props.queuedLabel : state.status === "running" ? props.runningLabel : "Finishing…";
   return (
     <section className="card" aria-label="Progress" aria-live="polite" data-testid={props.testId ?? "job-progress"}>
       <div className="flex items-baseline justify-between">
         <h2>{heading}</h2>
         <span className="num text-sm text-ink-soft">{pct} %</span>
       </div>
-      <div className="mt-3 h-2.5 overflow-hidden rounded bg-line" role="progressbar" aria-label={`${props.what} progress`} aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct}>
+      <div
+        className="mt-3 h-2.5 overflow-hidden rounded bg-line"
+        role="progressbar"
+        aria-label={`${props.what} progress`}
+        aria-valuemin={0}
+        aria-valuemax={100}
+        aria-valuenow={pct}
+      >
         <div className="h-full bg-accent transition-[width] duration-300" style={{ width: `${Math.max(2, pct)}%` }} />
       </div>
       {props.help && <p className="help mt-2">{props.help}</p>}

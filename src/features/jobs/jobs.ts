@@ -2,7 +2,15 @@
 // through (the database schema's enums), the states the API tells, and which states are final.
 
 /** The kinds of work the queue runs in the engine's worker pool. */
-export const jobKinds = ["run", "study", "table-version", "table-class", "table-member", "sweep", "sweep-batch"] as const;
+export const jobKinds = [
+  "run",
+  "study",
+  "table-version",
+  "table-class",
+  "table-member",
+  "sweep",
+  "sweep-batch",
+] as const;
 export type JobKind = (typeof jobKinds)[number];
 
 /** queued → running → done | failed; `waiting`: a parent job whose children are not all done yet (it is queued when the last one is). */

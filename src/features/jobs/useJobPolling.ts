@@ -20,7 +20,11 @@ export interface PollTiming {
  * The job's latest state (from `url`, answering the state itself or `{ job: state }`), and the
  * last error reading it (null once a read succeeds).
  */
-export function useJobPolling<S extends { status: JobStatus }>(url: string, initial: S, timing: PollTiming): { state: S; error: string | null } {
+export function useJobPolling<S extends { status: JobStatus }>(
+  url: string,
+  initial: S,
+  timing: PollTiming,
+): { state: S; error: string | null } {
   const [state, setState] = useState<S>(initial);
   const [error, setError] = useState<string | null>(null);
   const { first_ms, every_ms } = timing;

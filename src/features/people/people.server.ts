@@ -14,19 +14,33 @@ import { logError } from "@/server/http/logError";
 import { countAttempt } from "@/server/auth/attempts.server";
 
 const INVITATION_DAYS = 7;
-const invitationGone = () => new ApiError(404, "This invitation link is unknown, already used or expired; ask an admin for a new one.");
+const invitationGone = () =>
+  new ApiError(404, "This invitation link is unknown, already used or expired; ask an admin for a new one.");
 const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
 
 export async function listPeople() {
   return db
-    .select({ id: users.id, name: users.name, email: users.email, role: users.role, deactivatedAt: users.deactivatedAt, createdAt: users.createdAt })
+    .select({
+      id: users.id,
+      name: users.name,
+      email: users.email,
+      role: users.role,
+      deactivatedAt: users.deactivatedAt,
+      createdAt: users.createdAt,
+    })
     .from(users)
     .orderBy(asc(users.email));
 }
 
 export async function listOpenInvitations() {
   return db
-    .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt, createdAt: invitations.createdAt })
+    .select({
+      id: invitations.id,
+      email: invitations.email,
+      role: invitations.role,
+      expiresAt: invitations.expiresAt,
+      createdAt: invitations.createdAt,
+    })
     .from(invitations)
     .where(and(isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
     .orderBy(asc(invitations.email));
@@ -38,14 +52,20 @@ export async function listOpenInvitations() {
  * first would let each hold one admin row and wait for the other's: a deadlock).
  */
 async function lockAdminsAndPerson(tx: Tx, userId: string) {
-  const admins = await tx.select({ id: users.id }).from(users).where(and(eq(users.role, "admin"), isNull(users.deactivatedAt))).orderBy(asc(users.id)).for("update");
+  const admins = await tx
+    .select({ id: users.id })
+    .from(users)
+    .where(and(eq(users.role, "admin"), isNull(users.deactivatedAt)))
+    .orderBy(asc(users.id))
+    .for("update");
   const [target] = await tx.select().from(users).where(eq(users.id, userId)).for("update");
   return { admins, target };
 }
 
 /** Refuses (409) when `userId` is the last active admin (`admins` locked by `lockAdminsAndPerson`). */
 function keepAnAdmin(admins: readonly { id: string }[], userId: string, what: string) {
-  if (admins.length <= 1 && admins.some((a) => a.id === userId)) throw conflict(`This is the only admin; make someone else admin before you ${what}.`);
+  if (admins.length <= 1 && admins.some((a) => a.id === userId))
+    throw conflict(`This is the only admin; make someone else admin before you ${what}.`);
 }
 
 /**
@@ -61,11 +81,16 @@ export async function setActive(actor: SessionUser, userId: string, active: bool
       if (target.role === "admin") keepAnAdmin(admins, userId, "deactivate them");
       await tx.update(users).set({ deactivatedAt: new Date() }).where(eq(users.id, userId));
       await tx.delete(sessions).where(eq(sessions.userId, userId));
-      await tx.update(apiTokens).set({ revokedAt: new Date(), revokedBy: actor.id }).where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
+      await tx
+        .update(apiTokens)
+        .set({ revokedAt: new Date(), revokedBy: actor.id })
+        .where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)));
     } else {
       await tx.update(users).set({ deactivatedAt: null }).where(eq(users.id, userId));
     }
-    await recordAudit(tx, actor, active ? "user.reactivate" : "user.deactivate", "user", userId, { email: target.email });
+    await recordAudit(tx, actor, active ? "user.reactivate" : "user.deactivate", "user", userId, {
+      email: target.email,
+    });
   });
 }
 
@@ -75,7 +100,10 @@ export async function endSessions(actor: SessionUser, userId: string) {
     const [target] = await tx.select({ email: users.email }).from(users).where(eq(users.id, userId));
     if (!target) throw notFound("That person");
     const [result] = await tx.delete(sessions).where(eq(sessions.userId, userId));
-    await recordAudit(tx, actor, "user.sessions.end", "user", userId, { email: target.email, sessions: result.affectedRows });
+    await recordAudit(tx, actor, "user.sessions.end", "user", userId, {
+      email: target.email,
+      sessions: result.affectedRows,
+    });
     return { id: userId, sessionsEnded: result.affectedRows };
   });
 }
@@ -83,7 +111,11 @@ export async function endSessions(actor: SessionUser, userId: string) {
 /** Revokes an open invitation: its link stops working at once. */
 export async function revokeInvitation(actor: SessionUser, id: number) {
   await db.transaction(async (tx) => {
-    const [inv] = await tx.select().from(invitations).where(and(eq(invitations.id, id), isNull(invitations.acceptedAt))).for("update");
+    const [inv] = await tx
+      .select()
+      .from(invitations)
+      .where(and(eq(invitations.id, id), isNull(invitations.acceptedAt)))
+      .for("update");
     if (!inv) throw notFound("That open invitation");
     await tx.delete(invitations).where(eq(invitations.id, id));
     await recordAudit(tx, actor, "user.invite.revoke", "invitation", id, { email: inv.email, role: inv.role });
@@ -135,7 +167,13 @@ export async function findInvitation(secret: string) {
   const [row] = await db
     .select()
     .from(invitations)
-    .where(and(eq(invitations.tokenHash, sha256(secret)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())));
+    .where(
+      and(
+        eq(invitations.tokenHash, sha256(secret)),
+        isNull(invitations.acceptedAt),
+        gt(invitations.expiresAt, new Date()),
+      ),
+    );
   return row ?? null;
 }
 
@@ -143,7 +181,8 @@ export async function findInvitation(secret: string) {
 export async function limitInvitationAttempts(address: string): Promise<void> {
   const { max, window } = config.inviteLimit;
   const { allowed, retryAfter_s } = await countAttempt(`tapwright:invitation-accept:${address}`, max, window);
-  if (!allowed) throw new ApiError(429, `Too many attempts to accept invitations from here; wait ${retryAfter_s} s and try again.`);
+  if (!allowed)
+    throw new ApiError(429, `Too many attempts to accept invitations from here; wait ${retryAfter_s} s and try again.`);
 }
 
 /**
@@ -157,14 +196,22 @@ export async function acceptInvitation(secret: string, name: string, password: s
     const [inv] = await tx
       .select()
       .from(invitations)
-      .where(and(eq(invitations.tokenHash, sha256(secret)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
+      .where(
+        and(
+          eq(invitations.tokenHash, sha256(secret)),
+          isNull(invitations.acceptedAt),
+          gt(invitations.expiresAt, new Date()),
+        ),
+      )
       .for("update");
     if (!inv) throw invitationGone();
     const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, inv.email));
     if (existing) throw conflict(`${inv.email} already has an account; sign in instead.`);
     const id = crypto.randomUUID();
     await tx.insert(users).values({ id, name, email: inv.email, role: inv.role, emailVerified: true });
-    await tx.insert(accounts).values({ id: crypto.randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
+    await tx
+      .insert(accounts)
+      .values({ id: crypto.randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
     await tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, inv.id));
     const person = { id, email: inv.email, name, role: inv.role };
     await recordAudit(tx, person, "user.join", "user", id, { role: inv.role });
@@ -180,7 +227,9 @@ export async function ensurePerson(email: string, name: string, role: Role, pass
   const id = crypto.randomUUID();
   await db.transaction(async (tx) => {
     await tx.insert(users).values({ id, name, email, role, emailVerified: true });
-    await tx.insert(accounts).values({ id: crypto.randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
+    await tx
+      .insert(accounts)
+      .values({ id: crypto.randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
   });
   return id;
 }

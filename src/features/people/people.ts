@@ -9,7 +9,10 @@ export type Role = (typeof roles)[number];
 export const roleSchema = z.enum(roles, { message: `Role must be one of ${roles.join(", ")}.` });
 
 export const inviteRequest = z.object({
-  email: z.email({ message: "Give a valid e-mail address." }).max(254).transform((s) => s.toLowerCase()),
+  email: z
+    .email({ message: "Give a valid e-mail address." })
+    .max(254)
+    .transform((s) => s.toLowerCase()),
   role: roleSchema,
 });
 

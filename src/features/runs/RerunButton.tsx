@@ -11,7 +11,13 @@ export default function RerunButton(props: { id: number }) {
     });
   return (
     <div className="flex flex-col items-end gap-1">
-      <button type="button" className="btn" onClick={again} disabled={busy} title="Starts a new run from this run's own copy of the channel's pulse and the budget">
+      <button
+        type="button"
+        className="btn"
+        onClick={again}
+        disabled={busy}
+        title="Starts a new run from this run's own copy of the channel's pulse and the budget"
+      >
         {busy ? "Starting…" : "Run again"}
       </button>
       {error && <span className="text-xs text-bad">{error}</span>}

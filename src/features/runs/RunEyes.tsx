@@ -34,18 +34,24 @@ function span(a: readonly number[], b: readonly number[]): [number, number] {
 export default function RunEyes(props: Props) {
   const before = useMemo(() => unpackEye(props.before), [props.before]);
   const after = useMemo(() => unpackEye(props.after), [props.after]);
-  const without = useMemo(() => (props.withoutCrosstalk === undefined ? null : unpackEye(props.withoutCrosstalk)), [props.withoutCrosstalk]);
+  const without = useMemo(
+    () => (props.withoutCrosstalk === undefined ? null : unpackEye(props.withoutCrosstalk)),
+    [props.withoutCrosstalk],
+  );
   const [sameScale, setSameScale] = useState(false);
   const shared = useMemo(() => span(before.image.voltage_V, after.image.voltage_V), [before, after]);
   const opening = (h: number): EyeOpening[] =>
-    props.modulation === "nrz" && h > 0 ? [{ time_UI: 0, low_V: -h / 2, high_V: h / 2, label: `${mV(h).toFixed(1)} mV` }] : [];
+    props.modulation === "nrz" && h > 0
+      ? [{ time_UI: 0, low_V: -h / 2, high_V: h / 2, label: `${mV(h).toFixed(1)} mV` }]
+      : [];
 
   return (
     <section className="card" aria-label="Eyes">
       <h2>Eyes at the limiter</h2>
       <p className="help mt-1">
-        Density of a {after.symbols.source} stream ({after.symbols.count} symbols) folded over two UI, with the statistical eye's noise and jitter
-        folded in ({spreadText(after.spread)}); the lines are the statistical eye's BER contours from the same noise and jitter.
+        Density of a {after.symbols.source} stream ({after.symbols.count} symbols) folded over two UI, with the
+        statistical eye's noise and jitter folded in ({spreadText(after.spread)}); the lines are the statistical eye's
+        BER contours from the same noise and jitter.
       </p>
       <label className="mt-2 flex items-center gap-2 text-sm text-ink-soft">
         <input type="checkbox" checked={sameScale} onChange={(e) => setSameScale(e.target.checked)} />
@@ -56,7 +62,9 @@ export default function RunEyes(props: Props) {
           <h3>Before: the channel alone</h3>
           <p className="help">
             Transmit swing only — no FIR, CTLE or DFE.{" "}
-            {before.eyeHeight_V > 0 ? `Eye height ${mV(before.eyeHeight_V).toFixed(1)} mV.` : "The eye is closed at the target BER."}
+            {before.eyeHeight_V > 0
+              ? `Eye height ${mV(before.eyeHeight_V).toFixed(1)} mV.`
+              : "The eye is closed at the target BER."}
           </p>
           <DensityEye
             image={before.image}
@@ -70,8 +78,11 @@ export default function RunEyes(props: Props) {
         <div>
           <h3>After: transmit FIR, CTLE and DFE{without !== null ? ", with crosstalk" : ""}</h3>
           <p className="help">
-            The chosen setting, DFE feedback included{without !== null ? "; the contours count every aggressor at its worst phase" : ""}.{" "}
-            {after.eyeHeight_V > 0 ? `Eye height ${mV(after.eyeHeight_V).toFixed(1)} mV.` : "The eye is still closed at the target BER."}
+            The chosen setting, DFE feedback included
+            {without !== null ? "; the contours count every aggressor at its worst phase" : ""}.{" "}
+            {after.eyeHeight_V > 0
+              ? `Eye height ${mV(after.eyeHeight_V).toFixed(1)} mV.`
+              : "The eye is still closed at the target BER."}
           </p>
           <DensityEye
             image={after.image}
@@ -86,8 +97,11 @@ export default function RunEyes(props: Props) {
           <div>
             <h3>After, without crosstalk</h3>
             <p className="help">
-              The same setting and sampling phase with the aggressors left out (both images fold the victim's own symbols; the crosstalk shows in the contours).{" "}
-              {without.eyeHeight_V > 0 ? `Eye height ${mV(without.eyeHeight_V).toFixed(1)} mV.` : "The eye is closed at the target BER."}
+              The same setting and sampling phase with the aggressors left out (both images fold the victim's own
+              symbols; the crosstalk shows in the contours).{" "}
+              {without.eyeHeight_V > 0
+                ? `Eye height ${mV(without.eyeHeight_V).toFixed(1)} mV.`
+                : "The eye is closed at the target BER."}
             </p>
             <DensityEye
               image={without.image}

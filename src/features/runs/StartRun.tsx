@@ -35,7 +35,9 @@ export default function StartRun(props: Props) {
   const budget = props.budgets.find((b) => b.id === budgetId);
   const mismatch =
     channel && budget?.bitRate_bps
-      ? Math.abs(symbolRate(channel.bitRate_bps, channel.modulation) / symbolRate(budget.bitRate_bps, budget.modulation) - 1) > 0.01
+      ? Math.abs(
+          symbolRate(channel.bitRate_bps, channel.modulation) / symbolRate(budget.bitRate_bps, budget.modulation) - 1,
+        ) > 0.01
       : false;
 
   function start(e: React.FormEvent) {
@@ -47,17 +49,27 @@ export default function StartRun(props: Props) {
   }
 
   if (props.channels.length === 0 || props.budgets.length === 0) {
-    return <p className="text-sm text-muted">{props.channels.length === 0 ? "Add a channel first." : "Create a budget first."}</p>;
+    return (
+      <p className="text-sm text-muted">
+        {props.channels.length === 0 ? "Add a channel first." : "Create a budget first."}
+      </p>
+    );
   }
   return (
     <form className="flex flex-wrap items-end gap-3" onSubmit={start} aria-label="Start a tuning run">
       {!props.fixedChannel && (
         <label className="field">
           <span>Channel</span>
-          <select className="input max-w-72" aria-label="Channel" value={channelId} onChange={(e) => setChannelId(Number(e.target.value))}>
+          <select
+            className="input max-w-72"
+            aria-label="Channel"
+            value={channelId}
+            onChange={(e) => setChannelId(Number(e.target.value))}
+          >
             {props.channels.map((c) => (
               <option key={c.id} value={c.id}>
-                {c.name} ({Number((c.bitRate_bps / 1e9).toPrecision(6))} Gb/s{c.lossAtNyquist_dB !== null ? `, ${c.lossAtNyquist_dB.toFixed(1)} dB` : ""})
+                {c.name} ({Number((c.bitRate_bps / 1e9).toPrecision(6))} Gb/s
+                {c.lossAtNyquist_dB !== null ? `, ${c.lossAtNyquist_dB.toFixed(1)} dB` : ""})
               </option>
             ))}
           </select>
@@ -66,20 +78,34 @@ export default function StartRun(props: Props) {
       {!props.fixedBudget && (
         <label className="field">
           <span>Budget</span>
-          <select className="input max-w-72" aria-label="Budget" value={budgetId} onChange={(e) => setBudgetId(Number(e.target.value))}>
+          <select
+            className="input max-w-72"
+            aria-label="Budget"
+            value={budgetId}
+            onChange={(e) => setBudgetId(Number(e.target.value))}
+          >
             {props.budgets.map((b) => (
-              <option key={b.id} value={b.id}>{b.name}</option>
+              <option key={b.id} value={b.id}>
+                {b.name}
+              </option>
             ))}
           </select>
         </label>
       )}
-      <button className="btn btn-primary" type="submit" disabled={busy}>{busy ? "Starting…" : "Start tuning run"}</button>
+      <button className="btn btn-primary" type="submit" disabled={busy}>
+        {busy ? "Starting…" : "Start tuning run"}
+      </button>
       {mismatch && (
         <p className="notice notice-warn w-full text-xs">
-          The channel was derived for another symbol rate than the budget states; the engine will refuse the run. Pick a matching pair.
+          The channel was derived for another symbol rate than the budget states; the engine will refuse the run. Pick a
+          matching pair.
         </p>
       )}
-      {error && <p className="notice notice-bad w-full" role="alert">{error}</p>}
+      {error && (
+        <p className="notice notice-bad w-full" role="alert">
+          {error}
+        </p>
+      )}
     </form>
   );
 }

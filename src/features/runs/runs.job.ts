@@ -15,6 +15,10 @@ export interface RunJobInput {
 }
 
 export function computeRun(input: RunJobInput, onProgress?: (fraction: number) => void): TuningRunResult {
-  const aggressors = (input.aggressors ?? []).map((a) => ({ name: a.name, kind: a.kind, pulse: pulseFromJson(a.pulse) }));
+  const aggressors = (input.aggressors ?? []).map((a) => ({
+    name: a.name,
+    kind: a.kind,
+    pulse: pulseFromJson(a.pulse),
+  }));
   return tuningRun(pulseFromJson(input.pulse), input.budget, onProgress, aggressors);
 }

@@ -13,14 +13,34 @@ import type { SessionUser } from "@/server/auth/sessionUser";
 import type { TuningRunResult } from "@lib/run";
 import type { BudgetInput } from "@lib/contract/budget";
 import { checkBudgetFits } from "@/server/sources.server";
-import { listQuery, type RunInputs, type RunListItem, type RunListQuery, type RunSummary, type RunView, type StartRunRequest } from "./runs";
+import {
+  listQuery,
+  type RunInputs,
+  type RunListItem,
+  type RunListQuery,
+  type RunSummary,
+  type RunView,
+  type StartRunRequest,
+} from "./runs";
 
 /** Adds the run and its queued job; the job's target is the run (so the job comes first, then points back). */
-async function insertRun(tx: Tx, user: SessionUser | null, inputs: RunInputs, links: { channelId: number | null; budgetId: number | null; rerunOf?: number }) {
+async function insertRun(
+  tx: Tx,
+  user: SessionUser | null,
+  inputs: RunInputs,
+  links: { channelId: number | null; budgetId: number | null; rerunOf?: number },
+) {
   const jobId = await enqueueJob(tx, "run", 0);
   const [{ id }] = await tx
     .insert(runs)
-    .values({ jobId, channelId: links.channelId, budgetId: links.budgetId, inputs, rerunOf: links.rerunOf ?? null, createdBy: user?.id ?? null })
+    .values({
+      jobId,
+      channelId: links.channelId,
+      budgetId: links.budgetId,
+      inputs,
+      rerunOf: links.rerunOf ?? null,
+      createdBy: user?.id ?? null,
+    })
     .$returningId();
   await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
   return id;
@@ -39,10 +59,7 @@ export async function storeRunResult(tx: Tx, runId: number, result: TuningRunRes
     linearReachExhausted: result.verdict.linearReachExhausted,
     closes: result.verdict.fewestDfeTaps !== null,
   };
-  await tx
-    .update(runs)
-    .set({ result: result, engineVersion: result.engineVersion, summary })
-    .where(eq(runs.id, runId));
+  await tx.update(runs).set({ result: result, engineVersion: result.engineVersion, summary }).where(eq(runs.id, runId));
 }
 
 /** The worker's input for a run: its own copies of the channel's pulse and the budget. */
@@ -50,14 +67,23 @@ export async function runJobInput(runId: number) {
   const [row] = await db.select({ inputs: runs.inputs }).from(runs).where(eq(runs.id, runId));
   if (!row) throw new Error(`Run ${runId} has gone.`);
   const aggressors = row.inputs.channel.aggressors ?? [];
-  return { pulse: row.inputs.channel.pulse, budget: row.inputs.budget.params, ...(aggressors.length > 0 ? { aggressors } : {}) };
+  return {
+    pulse: row.inputs.channel.pulse,
+    budget: row.inputs.budget.params,
+    ...(aggressors.length > 0 ? { aggressors } : {}),
+  };
 }
 
 /**
  * Records a run computed outside the queue (the demo seed) exactly as the worker's would be: the
  * inputs, a job marked done with its timing, and the stored result.
  */
-export async function recordFinishedRun(user: SessionUser | null, inputs: RunInputs, result: TuningRunResult, compute_ms: number) {
+export async function recordFinishedRun(
+  user: SessionUser | null,
+  inputs: RunInputs,
+  result: TuningRunResult,
+  compute_ms: number,
+) {
   return db.transaction(async (tx) => {
     const id = await insertRun(tx, user, inputs, { channelId: inputs.channel.id, budgetId: inputs.budget.id });
     const [{ jobId }] = await tx.select({ jobId: runs.jobId }).from(runs).where(eq(runs.id, id));
@@ -74,7 +100,11 @@ export async function recordFinishedRun(user: SessionUser | null, inputs: RunInp
       })
       .where(eq(jobs.id, jobId));
     await storeRunResult(tx, id, result);
-    await recordAudit(tx, user, "run.start", "run", id, { channel: inputs.channel.name, budget: inputs.budget.name, seeded: true });
+    await recordAudit(tx, user, "run.start", "run", id, {
+      channel: inputs.channel.name,
+      budget: inputs.budget.name,
+      seeded: true,
+    });
     return id;
   });
 }
@@ -87,7 +117,10 @@ export async function startRun(user: SessionUser | null, req: StartRunRequest) {
       .from(channels)
       .where(eq(channels.id, req.channelId));
     if (!channel) throw unprocessable(`There is no channel ${req.channelId}.`, "channelId");
-    const [budget] = await tx.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).where(eq(budgets.id, req.budgetId));
+    const [budget] = await tx
+      .select({ id: budgets.id, name: budgets.name, params: budgets.params })
+      .from(budgets)
+      .where(eq(budgets.id, req.budgetId));
     if (!budget) throw unprocessable(`There is no budget ${req.budgetId}.`, "budgetId");
     // Refused here (422), not queued and failed later: a budget whose bit rate or grids the channel cannot take.
     checkBudgetFits(budget.params as BudgetInput, budget.name, [{ ...channel, lossAtNyquist_dB: null }]);
@@ -110,7 +143,11 @@ export async function rerun(user: SessionUser, runId: number) {
   const id = await db.transaction(async (tx) => {
     const [old] = await tx.select().from(runs).where(eq(runs.id, runId));
     if (!old) throw notFound(`Run ${runId}`);
-    const id = await insertRun(tx, user, old.inputs, { channelId: old.channelId, budgetId: old.budgetId, rerunOf: old.id });
+    const id = await insertRun(tx, user, old.inputs, {
+      channelId: old.channelId,
+      budgetId: old.budgetId,
+      rerunOf: old.id,
+    });
     await recordAudit(tx, user, "run.rerun", "run", id, { of: old.id });
     return id;
   });
@@ -230,7 +267,13 @@ export async function getRun(id: number): Promise<RunView> {
  */
 export async function runDetailResponse(request: Request, id: number): Promise<Response | RunView> {
   const [r] = await db
-    .select({ status: jobs.status, channelId: runs.channelId, budgetId: runs.budgetId, createdBy: users.name, finishedAt: jobs.finishedAt })
+    .select({
+      status: jobs.status,
+      channelId: runs.channelId,
+      budgetId: runs.budgetId,
+      createdBy: users.name,
+      finishedAt: jobs.finishedAt,
+    })
     .from(runs)
     .innerJoin(jobs, eq(jobs.id, runs.jobId))
     .leftJoin(users, eq(users.id, runs.createdBy))
@@ -244,12 +287,26 @@ export async function runDetailResponse(request: Request, id: number): Promise<R
 /** Status and progress only (for polling). */
 export async function runStatus(id: number) {
   const [r] = await db
-    .select({ id: runs.id, status: jobs.status, progress: jobs.progress, error: jobs.error, startedAt: jobs.startedAt, finishedAt: jobs.finishedAt })
+    .select({
+      id: runs.id,
+      status: jobs.status,
+      progress: jobs.progress,
+      error: jobs.error,
+      startedAt: jobs.startedAt,
+      finishedAt: jobs.finishedAt,
+    })
     .from(runs)
     .innerJoin(jobs, eq(jobs.id, runs.jobId))
     .where(eq(runs.id, id));
   if (!r) throw notFound(`Run ${id}`);
-  return { id: r.id, status: apiStatus(r.status), progress: r.progress, ...(r.error ? { error: { message: r.error } } : {}), startedAt: r.startedAt, finishedAt: r.finishedAt };
+  return {
+    id: r.id,
+    status: apiStatus(r.status),
+    progress: r.progress,
+    ...(r.error ? { error: { message: r.error } } : {}),
+    startedAt: r.startedAt,
+    finishedAt: r.finishedAt,
+  };
 }
 
 /** How many tuning runs the workspace holds. */

@@ -6,7 +6,11 @@ import type { TuningRunResult } from "@lib/run";
 import type { ApiJobStatus } from "@/features/jobs/jobs";
 import type { StoredPulse } from "@/features/channels/channels";
 
-const id = (what: string) => z.number({ error: `${what} must be a number.` }).int(`${what} must be an integer.`).positive(`${what} must be positive.`);
+const id = (what: string) =>
+  z
+    .number({ error: `${what} must be a number.` })
+    .int(`${what} must be an integer.`)
+    .positive(`${what} must be positive.`);
 
 /** POST /api/v1/runs. */
 export const startRunRequest = z.object({ channelId: id("channelId"), budgetId: id("budgetId") });
@@ -78,11 +82,21 @@ export interface RunView extends RunListItem {
   timings: RunTimings;
 }
 
-export const statusLabels: Record<ApiJobStatus, string> = { queued: "Queued", running: "Running", done: "Done", failed: "Failed" };
+export const statusLabels: Record<ApiJobStatus, string> = {
+  queued: "Queued",
+  running: "Running",
+  done: "Done",
+  failed: "Failed",
+};
 
 /** Badge classes for a status. */
 export function statusClass(status: ApiJobStatus): string {
-  return { queued: "bg-line text-ink-soft", running: "bg-warn-soft text-warn", done: "bg-good-soft text-good", failed: "bg-bad-soft text-bad" }[status];
+  return {
+    queued: "bg-line text-ink-soft",
+    running: "bg-warn-soft text-warn",
+    done: "bg-good-soft text-good",
+    failed: "bg-bad-soft text-bad",
+  }[status];
 }
 
 /** Milliseconds between two instants, or null. */
@@ -119,20 +133,21 @@ export function trainingSnr_dB(objective: number): number {
 }
 
 /** The sampling-phase policies with their names and what each one means (the run page's tooltips). */
-export const SAMPLING_POLICY_HELP: Record<"centre" | "max-height" | "mueller-muller", { label: string; help: string }> = {
-  centre: {
-    label: "Eye centre",
-    help: "Where the pulse is equal half a UI before and after the sample, p(t − ½UI) = p(t + ½UI): the point a bang-bang (Alexander) CDR locks to. The default for budgets and the eye command.",
-  },
-  "max-height": {
-    label: "Maximum height",
-    help: "The phase within ±½ UI with the tallest eye at the target BER: the best any clock could do, not a point a CDR locks to by itself.",
-  },
-  "mueller-muller": {
-    label: "Mueller–Müller",
-    help: "Where the first pre-cursor equals the first post-cursor, h(−1) = h(+1): the lock point of a baud-rate (Mueller–Müller) CDR.",
-  },
-};
+export const SAMPLING_POLICY_HELP: Record<"centre" | "max-height" | "mueller-muller", { label: string; help: string }> =
+  {
+    centre: {
+      label: "Eye centre",
+      help: "Where the pulse is equal half a UI before and after the sample, p(t − ½UI) = p(t + ½UI): the point a bang-bang (Alexander) CDR locks to. The default for budgets and the eye command.",
+    },
+    "max-height": {
+      label: "Maximum height",
+      help: "The phase within ±½ UI with the tallest eye at the target BER: the best any clock could do, not a point a CDR locks to by itself.",
+    },
+    "mueller-muller": {
+      label: "Mueller–Müller",
+      help: "Where the first pre-cursor equals the first post-cursor, h(−1) = h(+1): the lock point of a baud-rate (Mueller–Müller) CDR.",
+    },
+  };
 
 /** The DFE error-propagation row of the run page: the rise of the BER, or why it is not given. */
 export function errorPropagationText(p: TuningRunResult["optimize"]["errorPropagation"] | undefined): string {
@@ -176,7 +191,13 @@ export interface PackedEye {
 }
 
 interface EyeLike {
-  image: { width: number; height: number; counts: readonly number[]; time_UI: readonly number[]; voltage_V: readonly number[] };
+  image: {
+    width: number;
+    height: number;
+    counts: readonly number[];
+    time_UI: readonly number[];
+    voltage_V: readonly number[];
+  };
   contours: readonly { log10Ber: number; paths: readonly (readonly (readonly [number, number])[])[] }[];
   eyeHeight_V: number;
   symbols: { count: number; source: string };
@@ -193,7 +214,9 @@ export function packEye(e: EyeLike): PackedEye {
     voltage_V: packNumbers(e.image.voltage_V, 6),
     contours: e.contours.map((c) => ({
       log10Ber: c.log10Ber,
-      paths: c.paths.map((p) => p.map(([t, v]) => `${Math.round(t * 1e3) / 1e3},${Math.round(v * 1e5) / 1e5}`).join(",")),
+      paths: c.paths.map((p) =>
+        p.map(([t, v]) => `${Math.round(t * 1e3) / 1e3},${Math.round(v * 1e5) / 1e5}`).join(","),
+      ),
     })),
     eyeHeight_V: e.eyeHeight_V,
     symbols: e.symbols,
@@ -204,7 +227,13 @@ export function packEye(e: EyeLike): PackedEye {
 /** The inverse of {@link packEye}, in the shapes the DensityEye chart takes. */
 export function unpackEye(p: PackedEye) {
   return {
-    image: { width: p.width, height: p.height, counts: unpackNumbers(p.counts), time_UI: unpackNumbers(p.time_UI), voltage_V: unpackNumbers(p.voltage_V) },
+    image: {
+      width: p.width,
+      height: p.height,
+      counts: unpackNumbers(p.counts),
+      time_UI: unpackNumbers(p.time_UI),
+      voltage_V: unpackNumbers(p.voltage_V),
+    },
     contours: p.contours.map((c) => ({
       log10Ber: c.log10Ber,
       paths: c.paths.map((s) => {
@@ -234,7 +263,10 @@ export interface PackedRunCharts {
 }
 
 /** Display-ready, compact props of the result page's islands (values rounded well below what a chart shows). */
-export function packRunCharts(result: TuningRunResult, budget: { targetBer: number; requiredHeadroom_V: number; tx: { pre: number } }): PackedRunCharts {
+export function packRunCharts(
+  result: TuningRunResult,
+  budget: { targetBer: number; requiredHeadroom_V: number; tx: { pre: number } },
+): PackedRunCharts {
   const dfe = result.adaptation.dfe;
   const tx = result.adaptation.txTraining;
   return {
@@ -245,8 +277,18 @@ export function packRunCharts(result: TuningRunResult, budget: { targetBer: numb
     },
     bathtub: { phase_UI: packNumbers(result.bathtub.phase_UI, 4), log10Ber: packNumbers(result.bathtub.log10Ber, 3) },
     surface: result.optimize.surface,
-    dfe: dfe && { variant: dfe.variant, mu: dfe.mu, iterations: packNumbers(dfe.iterations, 0), taps: byTap(dfe.taps).map((t) => packNumbers(t, 7)), target: dfe.target },
-    txTraining: { taps: byTap(tx.taps).map((t) => packNumbers(t, 5)), snr_dB: packNumbers(tx.objective.map(trainingSnr_dB), 3), converged: tx.converged },
+    dfe: dfe && {
+      variant: dfe.variant,
+      mu: dfe.mu,
+      iterations: packNumbers(dfe.iterations, 0),
+      taps: byTap(dfe.taps).map((t) => packNumbers(t, 7)),
+      target: dfe.target,
+    },
+    txTraining: {
+      taps: byTap(tx.taps).map((t) => packNumbers(t, 5)),
+      snr_dB: packNumbers(tx.objective.map(trainingSnr_dB), 3),
+      converged: tx.converged,
+    },
     chosen: result.optimize.ctle,
     targetBer: budget.targetBer,
     txPre: budget.tx.pre,

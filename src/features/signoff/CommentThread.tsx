@@ -28,7 +28,15 @@ function Composer(props: { state: ThreadState; parentId: number | null; channelN
         }
       }}
     >
-      <textarea className="input min-h-16" aria-label={`${label} text`} value={body} onChange={(e) => setBody(e.target.value)} maxLength={8000} required placeholder={props.parentId ? "Your reply…" : "A question or remark for the thread…"} />
+      <textarea
+        className="input min-h-16"
+        aria-label={`${label} text`}
+        value={body}
+        onChange={(e) => setBody(e.target.value)}
+        maxLength={8000}
+        required
+        placeholder={props.parentId ? "Your reply…" : "A question or remark for the thread…"}
+      />
       <div className="flex flex-wrap items-center gap-2">
         {!props.parentId && (
           <label className="flex items-center gap-2 text-xs text-ink-soft">
@@ -36,13 +44,21 @@ function Composer(props: { state: ThreadState; parentId: number | null; channelN
             <select className="input py-0.5 text-xs" value={channel} onChange={(e) => setChannel(e.target.value)}>
               <option value="">— the whole version —</option>
               {props.channelNames.map((n) => (
-                <option key={n} value={n}>{n}</option>
+                <option key={n} value={n}>
+                  {n}
+                </option>
               ))}
             </select>
           </label>
         )}
-        <button className="btn btn-primary" type="submit" disabled={props.state.busy || !body.trim()}>{props.state.busy ? "Sending…" : label}</button>
-        {props.onDone && <button className="btn" type="button" onClick={props.onDone}>Cancel</button>}
+        <button className="btn btn-primary" type="submit" disabled={props.state.busy || !body.trim()}>
+          {props.state.busy ? "Sending…" : label}
+        </button>
+        {props.onDone && (
+          <button className="btn" type="button" onClick={props.onDone}>
+            Cancel
+          </button>
+        )}
       </div>
     </form>
   );
@@ -59,9 +75,22 @@ function Comment(props: { node: CommentNode; state: ThreadState; channelNames: s
       </div>
       <p className="mt-1 whitespace-pre-wrap text-sm">{node.body}</p>
       {state.replyTo === node.id ? (
-        <div className="mt-2"><Composer state={state} parentId={node.id} channelNames={props.channelNames} onDone={() => state.setReplyTo(null)} /></div>
+        <div className="mt-2">
+          <Composer
+            state={state}
+            parentId={node.id}
+            channelNames={props.channelNames}
+            onDone={() => state.setReplyTo(null)}
+          />
+        </div>
       ) : (
-        <button className="mt-1 text-xs text-accent-strong hover:underline" type="button" onClick={() => state.setReplyTo(node.id)}>Reply</button>
+        <button
+          className="mt-1 text-xs text-accent-strong hover:underline"
+          type="button"
+          onClick={() => state.setReplyTo(node.id)}
+        >
+          Reply
+        </button>
       )}
       {node.replies.length > 0 && (
         <ul>
@@ -80,9 +109,23 @@ export default function CommentThread(props: Props) {
   const tree = commentTree(state.comments);
   return (
     <div>
-      {tree.length === 0 ? <p className="text-sm text-muted">No comments yet.</p> : <ul aria-label="Comments">{tree.map((n) => <Comment key={n.id} node={n} state={state} channelNames={props.channelNames} depth={0} />)}</ul>}
-      {state.error && <p className="notice notice-bad mt-3" role="alert">{state.error}</p>}
-      <div className="mt-5"><Composer state={state} parentId={null} channelNames={props.channelNames} /></div>
+      {tree.length === 0 ? (
+        <p className="text-sm text-muted">No comments yet.</p>
+      ) : (
+        <ul aria-label="Comments">
+          {tree.map((n) => (
+            <Comment key={n.id} node={n} state={state} channelNames={props.channelNames} depth={0} />
+          ))}
+        </ul>
+      )}
+      {state.error && (
+        <p className="notice notice-bad mt-3" role="alert">
+          {state.error}
+        </p>
+      )}
+      <div className="mt-5">
+        <Composer state={state} parentId={null} channelNames={props.channelNames} />
+      </div>
     </div>
   );
 }

@@ -27,24 +27,43 @@ export default function RequestSignOff(props: Props) {
     });
   }
 
-  if (choices.length === 0) return <p className="text-sm text-muted">Nobody else can decide sign-offs yet; an admin can give someone the reviewer role.</p>;
+  if (choices.length === 0)
+    return (
+      <p className="text-sm text-muted">
+        Nobody else can decide sign-offs yet; an admin can give someone the reviewer role.
+      </p>
+    );
   return (
     <form onSubmit={request} aria-label="Request sign-off" className="flex flex-col gap-3">
       <label className="field max-w-md">
         <span>Reviewer</span>
         <select className="input" value={reviewerId} onChange={(e) => setReviewer(e.target.value)}>
           {choices.map((r) => (
-            <option key={r.id} value={r.id}>{r.name} ({r.role})</option>
+            <option key={r.id} value={r.id}>
+              {r.name} ({r.role})
+            </option>
           ))}
         </select>
       </label>
       <label className="field">
         <span>Message (optional)</span>
-        <textarea className="input min-h-16" maxLength={2000} value={message} onChange={(e) => setMessage(e.target.value)} placeholder="What changed, what to look at first…" />
+        <textarea
+          className="input min-h-16"
+          maxLength={2000}
+          value={message}
+          onChange={(e) => setMessage(e.target.value)}
+          placeholder="What changed, what to look at first…"
+        />
       </label>
-      {error && <p className="notice notice-bad" role="alert">{error}</p>}
+      {error && (
+        <p className="notice notice-bad" role="alert">
+          {error}
+        </p>
+      )}
       <div>
-        <button className="btn btn-primary" type="submit" disabled={busy || !reviewerId}>{busy ? "Sending…" : `Request sign-off of v${props.version}`}</button>
+        <button className="btn btn-primary" type="submit" disabled={busy || !reviewerId}>
+          {busy ? "Sending…" : `Request sign-off of v${props.version}`}
+        </button>
       </div>
     </form>
   );

@@ -11,7 +11,16 @@ import { recordAudit } from "@/server/audit/audit.server";
 import { deliverQueuedMail, enqueueMail } from "@/server/mail/mail.server";
 import type { SessionUser } from "@/server/auth/sessionUser";
 import { parseBudget } from "@/server/sources.server";
-import type { CommentRequest, CommentView, DecisionRequest, Person, SignOffDetail, SignOffListItem, SignOffRequest, SignOffState } from "./signoff";
+import type {
+  CommentRequest,
+  CommentView,
+  DecisionRequest,
+  Person,
+  SignOffDetail,
+  SignOffListItem,
+  SignOffRequest,
+  SignOffState,
+} from "./signoff";
 import { logError } from "@/server/http/logError";
 
 const requester = alias(users, "requester");
@@ -42,7 +51,13 @@ export async function listReviewers(): Promise<(Person & { role: string })[]> {
 }
 
 /** POST /api/v1/tap-tables/:id/versions/:v/sign-off: asks a reviewer; the version goes into review. */
-export async function requestSignOff(user: SessionUser, tableId: number, v: number, req: SignOffRequest, delivery: Delivery = "now") {
+export async function requestSignOff(
+  user: SessionUser,
+  tableId: number,
+  v: number,
+  req: SignOffRequest,
+  delivery: Delivery = "now",
+) {
   const id = await db.transaction(async (tx) => {
     const [row] = await tx
       .select({ version: tapTableVersions, table: tapTables })
@@ -61,8 +76,13 @@ export async function requestSignOff(user: SessionUser, tableId: number, v: numb
     if (who.role !== "reviewer" && who.role !== "admin") {
       throw unprocessable(`${who.name} is a ${who.role} and cannot decide sign-offs; choose a reviewer.`, "reviewerId");
     }
-    if (who.id === user.id) throw unprocessable("You cannot sign off your own request; choose another reviewer.", "reviewerId");
-    if (who.id === version.createdBy) throw unprocessable(`${who.name} built this version and cannot sign it off; choose another reviewer.`, "reviewerId");
+    if (who.id === user.id)
+      throw unprocessable("You cannot sign off your own request; choose another reviewer.", "reviewerId");
+    if (who.id === version.createdBy)
+      throw unprocessable(
+        `${who.name} built this version and cannot sign it off; choose another reviewer.`,
+        "reviewerId",
+      );
     const [{ id }] = await tx
       .insert(signOffs)
       .values({ versionId: version.id, requestedBy: user.id, reviewerId: who.id, message: req.message ?? null })
@@ -76,7 +96,12 @@ export async function requestSignOff(user: SessionUser, tableId: number, v: numb
         (req.message ? `Their message:\n${req.message}\n\n` : "") +
         `Review each channel's limiter headroom and approve or send it back here:\n${link(`/sign-off/${id}`)}\n`,
     });
-    await recordAudit(tx, user, "signoff.request", "sign-off", id, { table: table.name, tableId, version: v, reviewer: who.email });
+    await recordAudit(tx, user, "signoff.request", "sign-off", id, {
+      table: table.name,
+      tableId,
+      version: v,
+      reviewer: who.email,
+    });
     return id;
   });
   if (delivery === "now") sendMailSoon();
@@ -96,10 +121,14 @@ export async function decideSignOff(user: SessionUser, id: number, req: Decision
     if (!row) throw notFound(`Sign-off ${id}`);
     const { s, version, table } = row;
     // Four eyes: whoever asked for the sign-off or built the version decides neither, admins included.
-    if (s.requestedBy === user.id) throw forbidden("You asked for this sign-off, so someone else must decide it (four eyes; admins too).");
-    if (version.createdBy === user.id) throw forbidden("You built this version, so someone else must decide its sign-off (four eyes; admins too).");
-    if (s.reviewerId !== user.id && user.role !== "admin") throw forbidden("This sign-off was asked of another reviewer.");
-    if (s.state !== "pending") throw conflict(`This sign-off was already decided (${s.state === "approved" ? "approved" : "sent back"}).`);
+    if (s.requestedBy === user.id)
+      throw forbidden("You asked for this sign-off, so someone else must decide it (four eyes; admins too).");
+    if (version.createdBy === user.id)
+      throw forbidden("You built this version, so someone else must decide its sign-off (four eyes; admins too).");
+    if (s.reviewerId !== user.id && user.role !== "admin")
+      throw forbidden("This sign-off was asked of another reviewer.");
+    if (s.state !== "pending")
+      throw conflict(`This sign-off was already decided (${s.state === "approved" ? "approved" : "sent back"}).`);
     const approve = req.decision === "approve";
     const now = new Date();
     await tx
@@ -145,19 +174,33 @@ export async function addComment(user: SessionUser, id: number, req: CommentRequ
       .where(eq(signOffs.id, id));
     if (!row) throw notFound(`Sign-off ${id}`);
     if (req.parentId !== undefined) {
-      const [parent] = await tx.select({ signOffId: signOffComments.signOffId }).from(signOffComments).where(eq(signOffComments.id, req.parentId));
-      if (!parent || parent.signOffId !== id) throw unprocessable("The comment you reply to is not in this sign-off.", "parentId");
+      const [parent] = await tx
+        .select({ signOffId: signOffComments.signOffId })
+        .from(signOffComments)
+        .where(eq(signOffComments.id, req.parentId));
+      if (!parent || parent.signOffId !== id)
+        throw unprocessable("The comment you reply to is not in this sign-off.", "parentId");
     }
     if (req.channelName) {
       const inputs = row.inputs;
       const names = inputs.classes.flatMap((c) => c.channels.map((ch) => ch.name));
-      if (!names.includes(req.channelName)) throw unprocessable(`“${req.channelName}” is not a channel of this version.`, "channelName");
+      if (!names.includes(req.channelName))
+        throw unprocessable(`“${req.channelName}” is not a channel of this version.`, "channelName");
     }
     const [{ id: cid }] = await tx
       .insert(signOffComments)
-      .values({ signOffId: id, parentId: req.parentId ?? null, authorId: user.id, channelName: req.channelName ?? null, body: req.body })
+      .values({
+        signOffId: id,
+        parentId: req.parentId ?? null,
+        authorId: user.id,
+        channelName: req.channelName ?? null,
+        body: req.body,
+      })
       .$returningId();
-    await recordAudit(tx, user, "signoff.comment", "sign-off", id, { comment: cid, ...(req.parentId ? { parentId: req.parentId } : {}) });
+    await recordAudit(tx, user, "signoff.comment", "sign-off", id, {
+      comment: cid,
+      ...(req.parentId ? { parentId: req.parentId } : {}),
+    });
     return cid;
   });
   return (await comments(id)).find((c) => c.id === commentId)!;
@@ -217,7 +260,10 @@ function listItem(r: ListRow): SignOffListItem {
 }
 
 /** GET /api/v1/sign-offs: newest first; `mine` keeps those the person reviews or requested. */
-export async function listSignOffs(user: SessionUser, q: { state?: SignOffState; mine?: "1" | "0"; limit: number; cursor?: number }) {
+export async function listSignOffs(
+  user: SessionUser,
+  q: { state?: SignOffState; mine?: "1" | "0"; limit: number; cursor?: number },
+) {
   const where: SQL[] = [];
   if (q.state) where.push(eq(signOffs.state, q.state));
   if (q.mine === "1") where.push(or(eq(signOffs.reviewerId, user.id), eq(signOffs.requestedBy, user.id))!);
@@ -249,7 +295,10 @@ export async function pendingFor(user: SessionUser): Promise<SignOffListItem[]> 
 export async function getSignOff(id: number): Promise<SignOffDetail> {
   const [row] = await listBase().where(eq(signOffs.id, id));
   if (!row) throw notFound(`Sign-off ${id}`);
-  const [v] = await db.select({ inputs: tapTableVersions.inputs, result: tapTableVersions.result }).from(tapTableVersions).where(eq(tapTableVersions.id, row.s.versionId));
+  const [v] = await db
+    .select({ inputs: tapTableVersions.inputs, result: tapTableVersions.result })
+    .from(tapTableVersions)
+    .where(eq(tapTableVersions.id, row.s.versionId));
   const inputs = v.inputs;
   const result = v.result;
   const b = parseBudget(inputs.budget.params, inputs.budget.name);

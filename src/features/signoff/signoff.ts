@@ -8,7 +8,11 @@ export type SignOffState = (typeof signOffStates)[number];
 
 /** POST /api/v1/tap-tables/:id/versions/:v/sign-off. */
 export const signOffRequest = z.object({
-  reviewerId: z.string({ error: "Choose a reviewer (reviewerId)." }).trim().min(1, "Choose a reviewer (reviewerId).").max(36),
+  reviewerId: z
+    .string({ error: "Choose a reviewer (reviewerId)." })
+    .trim()
+    .min(1, "Choose a reviewer (reviewerId).")
+    .max(36),
   message: z.string().trim().max(2000, "Keep the message under 2000 characters.").optional(),
 });
 export type SignOffRequest = z.infer<typeof signOffRequest>;
@@ -27,13 +31,19 @@ export type DecisionRequest = z.infer<typeof decisionRequest>;
 
 /** POST /api/v1/sign-offs/:id/comments. */
 export const commentRequest = z.object({
-  body: z.string({ error: "Write the comment (body)." }).trim().min(1, "Write the comment (body).").max(8000, "Keep a comment under 8000 characters."),
+  body: z
+    .string({ error: "Write the comment (body)." })
+    .trim()
+    .min(1, "Write the comment (body).")
+    .max(8000, "Keep a comment under 8000 characters."),
   parentId: z.int().positive().optional(),
   channelName: z.string().trim().max(200).optional(),
 });
 export type CommentRequest = z.infer<typeof commentRequest>;
 
-export const signOffParams = z.object({ id: z.coerce.number({ error: "The sign-off id must be a number." }).int().positive() });
+export const signOffParams = z.object({
+  id: z.coerce.number({ error: "The sign-off id must be a number." }).int().positive(),
+});
 export const listQuery = z.object({
   state: z.enum(signOffStates).optional(),
   /** `me`: only the sign-offs the signed-in person reviews or requested. */
@@ -98,7 +108,9 @@ export interface CommentNode extends CommentView {
 export function commentTree(comments: readonly CommentView[]): CommentNode[] {
   const nodes = new Map<number, CommentNode>(comments.map((c) => [c.id, { ...c, replies: [] }]));
   const roots: CommentNode[] = [];
-  const byTime = [...nodes.values()].sort((a, b) => new Date(a.createdAt).getTime() - new Date(b.createdAt).getTime() || a.id - b.id);
+  const byTime = [...nodes.values()].sort(
+    (a, b) => new Date(a.createdAt).getTime() - new Date(b.createdAt).getTime() || a.id - b.id,
+  );
   for (const n of byTime) {
     const parent = n.parentId === null ? undefined : nodes.get(n.parentId);
     (parent ? parent.replies : roots).push(n);

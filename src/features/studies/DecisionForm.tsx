@@ -28,7 +28,9 @@ export default function DecisionForm(props: Props) {
         <span>Chosen architecture</span>
         <select className="input max-w-md" value={candidateKey} onChange={(e) => setKey(e.target.value)}>
           {props.candidates.map((c) => (
-            <option key={c.key} value={c.key}>{c.label}</option>
+            <option key={c.key} value={c.key}>
+              {c.label}
+            </option>
           ))}
         </select>
       </label>
@@ -43,9 +45,15 @@ export default function DecisionForm(props: Props) {
         />
         <span className="help">Reviewers read this beside every tap table built on the study.</span>
       </label>
-      {error && <p className="notice notice-bad" role="alert">{error}</p>}
+      {error && (
+        <p className="notice notice-bad" role="alert">
+          {error}
+        </p>
+      )}
       <div>
-        <button className="btn btn-primary" type="submit" disabled={busy}>{busy ? "Saving…" : props.current ? "Revise the decision" : "Record the decision"}</button>
+        <button className="btn btn-primary" type="submit" disabled={busy}>
+          {busy ? "Saving…" : props.current ? "Revise the decision" : "Record the decision"}
+        </button>
       </div>
     </form>
   );

@@ -33,7 +33,11 @@ export default function HeadroomComplexityChart(props: Props) {
   const innerH = Math.max(10, height - margin.top - margin.bottom);
   const cs = props.candidates;
   const millivolts = (v: number) => v * 1e3;
-  const ys = [...cs.flatMap((c) => [millivolts(c.worstHeadroom_V), millivolts(c.medianHeadroom_V)]), millivolts(props.requiredHeadroom_V), 0];
+  const ys = [
+    ...cs.flatMap((c) => [millivolts(c.worstHeadroom_V), millivolts(c.medianHeadroom_V)]),
+    millivolts(props.requiredHeadroom_V),
+    0,
+  ];
   const yLo = Math.min(...ys);
   const yHi = Math.max(...ys);
   const pad = (yHi - yLo || 1) * 0.08;
@@ -55,9 +59,25 @@ export default function HeadroomComplexityChart(props: Props) {
         <Group left={margin.left} top={margin.top}>
           <GridRows scale={yScale} width={innerW} stroke={axisStyle.gridStroke} numTicks={6} />
           <GridColumns scale={xScale} height={innerH} stroke={axisStyle.gridStroke} numTicks={Math.min(xMax + 1, 12)} />
-          {yScale.domain()[0] < 0 && yScale.domain()[1] > 0 && <line x1={0} x2={innerW} y1={yScale(0)} y2={yScale(0)} stroke={chartColors.lineStrong} />}
-          <line x1={0} x2={innerW} y1={yScale(millivolts(props.requiredHeadroom_V))} y2={yScale(millivolts(props.requiredHeadroom_V))} stroke={chartColors.bad} strokeDasharray="5 4" />
-          <text x={4} y={yScale(millivolts(props.requiredHeadroom_V)) - 4} textAnchor="start" fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>
+          {yScale.domain()[0] < 0 && yScale.domain()[1] > 0 && (
+            <line x1={0} x2={innerW} y1={yScale(0)} y2={yScale(0)} stroke={chartColors.lineStrong} />
+          )}
+          <line
+            x1={0}
+            x2={innerW}
+            y1={yScale(millivolts(props.requiredHeadroom_V))}
+            y2={yScale(millivolts(props.requiredHeadroom_V))}
+            stroke={chartColors.bad}
+            strokeDasharray="5 4"
+          />
+          <text
+            x={4}
+            y={yScale(millivolts(props.requiredHeadroom_V)) - 4}
+            textAnchor="start"
+            fontSize={10}
+            fontFamily={axisStyle.font.sans}
+            fill={chartColors.bad}
+          >
             required {formatTick(millivolts(props.requiredHeadroom_V))} mV
           </text>
           {frontierPts.length > 1 && (
@@ -71,29 +91,89 @@ export default function HeadroomComplexityChart(props: Props) {
           )}
           {cs.map((c) => {
             const chosen = c.key === props.chosenKey;
-            const color = chosen ? chartColors.accent : c.worstHeadroom_V >= props.requiredHeadroom_V ? chartColors.good : chartColors.inkSoft;
+            const color = chosen
+              ? chartColors.accent
+              : c.worstHeadroom_V >= props.requiredHeadroom_V
+                ? chartColors.good
+                : chartColors.inkSoft;
             const x = xOf(c);
             return (
               <g key={c.key} data-candidate={c.key}>
-                <line x1={x} x2={x} y1={yScale(millivolts(c.worstHeadroom_V))} y2={yScale(millivolts(c.medianHeadroom_V))} stroke={color} strokeWidth={2} opacity={0.5} />
-                <circle cx={x} cy={yScale(millivolts(c.medianHeadroom_V))} r={4} fill={chartColors.surface} stroke={color} strokeWidth={1.5} />
+                <line
+                  x1={x}
+                  x2={x}
+                  y1={yScale(millivolts(c.worstHeadroom_V))}
+                  y2={yScale(millivolts(c.medianHeadroom_V))}
+                  stroke={color}
+                  strokeWidth={2}
+                  opacity={0.5}
+                />
+                <circle
+                  cx={x}
+                  cy={yScale(millivolts(c.medianHeadroom_V))}
+                  r={4}
+                  fill={chartColors.surface}
+                  stroke={color}
+                  strokeWidth={1.5}
+                />
                 <circle cx={x} cy={yScale(millivolts(c.worstHeadroom_V))} r={chosen ? 6 : 4.5} fill={color} />
-                <text x={x + 9} y={yScale(millivolts(c.worstHeadroom_V))} fontSize={10.5} fontFamily={axisStyle.font.sans} fill={color} dominantBaseline="middle" fontWeight={chosen ? 600 : 400}>
+                <text
+                  x={x + 9}
+                  y={yScale(millivolts(c.worstHeadroom_V))}
+                  fontSize={10.5}
+                  fontFamily={axisStyle.font.sans}
+                  fill={color}
+                  dominantBaseline="middle"
+                  fontWeight={chosen ? 600 : 400}
+                >
                   {c.label}
                 </text>
               </g>
             );
           })}
           <ChartAxisLeft scale={yScale} label="Limiter headroom (mV)" />
-          <ChartAxisBottom top={innerH} scale={xScale} tickValues={Array.from({ length: xMax + 1 }, (_, i) => i).filter((i) => xMax <= 16 || i % 2 === 0)} tickFormat={String} label="Complexity (adjustable taps and gains)" />
+          <ChartAxisBottom
+            top={innerH}
+            scale={xScale}
+            tickValues={Array.from({ length: xMax + 1 }, (_, i) => i).filter((i) => xMax <= 16 || i % 2 === 0)}
+            tickFormat={String}
+            label="Complexity (adjustable taps and gains)"
+          />
         </Group>
       </svg>
       <ul className="mt-1 flex flex-wrap gap-x-5 gap-y-1 pl-14 text-xs text-ink-soft" aria-label="Legend">
-        <li className="flex items-center gap-1.5"><svg width={10} height={10} aria-hidden><circle cx={5} cy={5} r={4} fill={chartColors.inkSoft} /></svg>worst channel</li>
-        <li className="flex items-center gap-1.5"><svg width={10} height={10} aria-hidden><circle cx={5} cy={5} r={3.5} fill="white" stroke={chartColors.inkSoft} /></svg>median channel</li>
-        <li className="flex items-center gap-1.5"><svg width={18} height={8} aria-hidden><line x1={0} x2={18} y1={4} y2={4} stroke={chartColors.muted} strokeDasharray="3 3" /></svg>frontier (most worst-case headroom for the taps)</li>
-        <li className="flex items-center gap-1.5"><svg width={10} height={10} aria-hidden><circle cx={5} cy={5} r={4} fill={chartColors.good} /></svg>meets the required headroom</li>
-        {props.chosenKey && <li className="flex items-center gap-1.5"><svg width={10} height={10} aria-hidden><circle cx={5} cy={5} r={4} fill={chartColors.accent} /></svg>chosen</li>}
+        <li className="flex items-center gap-1.5">
+          <svg width={10} height={10} aria-hidden>
+            <circle cx={5} cy={5} r={4} fill={chartColors.inkSoft} />
+          </svg>
+          worst channel
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={10} height={10} aria-hidden>
+            <circle cx={5} cy={5} r={3.5} fill="white" stroke={chartColors.inkSoft} />
+          </svg>
+          median channel
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={18} height={8} aria-hidden>
+            <line x1={0} x2={18} y1={4} y2={4} stroke={chartColors.muted} strokeDasharray="3 3" />
+          </svg>
+          frontier (most worst-case headroom for the taps)
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={10} height={10} aria-hidden>
+            <circle cx={5} cy={5} r={4} fill={chartColors.good} />
+          </svg>
+          meets the required headroom
+        </li>
+        {props.chosenKey && (
+          <li className="flex items-center gap-1.5">
+            <svg width={10} height={10} aria-hidden>
+              <circle cx={5} cy={5} r={4} fill={chartColors.accent} />
+            </svg>
+            chosen
+          </li>
+        )}
       </ul>
     </div>
   );

@@ -18,15 +18,26 @@ function fits(c: StudyChannelChoice, b: StudyBudgetChoice | undefined): boolean 
 }
 
 export default function NewStudy(props: Props) {
-  const [store] = useState(() => createNewStudyStore(props.budgets, props.channels.filter((c) => fits(c, props.budgets[0])).map((c) => c.id)));
+  const [store] = useState(() =>
+    createNewStudyStore(
+      props.budgets,
+      props.channels.filter((c) => fits(c, props.budgets[0])).map((c) => c.id),
+    ),
+  );
   const s = useStore(store);
   const budget = props.budgets.find((b) => b.id === s.budgetId);
   const usable = props.channels
     .filter((c) => fits(c, budget))
-    .sort((a, b) => (a.lossAtNyquist_dB ?? Infinity) - (b.lossAtNyquist_dB ?? Infinity) || a.name.localeCompare(b.name));
+    .sort(
+      (a, b) => (a.lossAtNyquist_dB ?? Infinity) - (b.lossAtNyquist_dB ?? Infinity) || a.name.localeCompare(b.name),
+    );
 
   if (props.budgets.length === 0 || props.channels.length === 0) {
-    return <p className="text-sm text-muted">{props.channels.length === 0 ? "Add channels first." : "Create a budget first."}</p>;
+    return (
+      <p className="text-sm text-muted">
+        {props.channels.length === 0 ? "Add channels first." : "Create a budget first."}
+      </p>
+    );
   }
 
   async function submit(e: React.SubmitEvent<HTMLFormElement>) {
@@ -50,21 +61,35 @@ export default function NewStudy(props: Props) {
             }}
           >
             {props.budgets.map((b) => (
-              <option key={b.id} value={b.id}>{b.name}</option>
+              <option key={b.id} value={b.id}>
+                {b.name}
+              </option>
             ))}
           </select>
         </label>
         <label className="field grow">
           <span>Name (optional)</span>
-          <input className="input" value={s.name} onChange={(e) => s.setName(e.target.value)} placeholder={budget ? `${budget.name} · ${s.channelIds.length} channels` : ""} maxLength={200} />
+          <input
+            className="input"
+            value={s.name}
+            onChange={(e) => s.setName(e.target.value)}
+            placeholder={budget ? `${budget.name} · ${s.channelIds.length} channels` : ""}
+            maxLength={200}
+          />
         </label>
       </div>
       <div className="grid gap-4 md:grid-cols-2">
         <fieldset className="rounded-md border border-line p-3">
-          <legend className="px-1 text-sm font-medium text-ink-soft">Channels ({s.channelIds.length} of {usable.length})</legend>
+          <legend className="px-1 text-sm font-medium text-ink-soft">
+            Channels ({s.channelIds.length} of {usable.length})
+          </legend>
           <div className="mb-2 flex gap-2 text-xs">
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels(usable.map((c) => c.id))}>All</button>
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels([])}>None</button>
+            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels(usable.map((c) => c.id))}>
+              All
+            </button>
+            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels([])}>
+              None
+            </button>
           </div>
           <ul className="max-h-64 overflow-auto text-sm">
             {usable.map((c) => (
@@ -72,7 +97,9 @@ export default function NewStudy(props: Props) {
                 <label className="flex items-center gap-2 py-0.5">
                   <input type="checkbox" checked={s.channelIds.includes(c.id)} onChange={() => s.toggleChannel(c.id)} />
                   <span className="grow">{c.name}</span>
-                  <span className="num text-xs text-muted">{c.lossAtNyquist_dB !== null ? `${c.lossAtNyquist_dB.toFixed(1)} dB` : "—"}</span>
+                  <span className="num text-xs text-muted">
+                    {c.lossAtNyquist_dB !== null ? `${c.lossAtNyquist_dB.toFixed(1)} dB` : "—"}
+                  </span>
                 </label>
               </li>
             ))}
@@ -94,9 +121,15 @@ export default function NewStudy(props: Props) {
           </ul>
         </fieldset>
       </div>
-      {s.error && <p className="notice notice-bad" role="alert">{s.error}</p>}
+      {s.error && (
+        <p className="notice notice-bad" role="alert">
+          {s.error}
+        </p>
+      )}
       <div>
-        <button className="btn btn-primary" type="submit" disabled={s.busy || s.channelIds.length === 0}>{s.busy ? "Starting…" : "Start study"}</button>
+        <button className="btn btn-primary" type="submit" disabled={s.busy || s.channelIds.length === 0}>
+          {s.busy ? "Starting…" : "Start study"}
+        </button>
       </div>
     </form>
   );

@@ -8,7 +8,10 @@ export const architectureSchema = z
     key: z
       .string()
       .trim()
-      .regex(/^[a-z0-9][a-z0-9-]{0,47}$/, "An architecture key is lowercase letters, digits and dashes (e.g. tx-ctle-dfe2)."),
+      .regex(
+        /^[a-z0-9][a-z0-9-]{0,47}$/,
+        "An architecture key is lowercase letters, digits and dashes (e.g. tx-ctle-dfe2).",
+      ),
     label: z.string().trim().min(1, "Give the architecture a label.").max(100),
     tx: z
       .object({
@@ -27,7 +30,10 @@ export const architectureSchema = z
       .nullable()
       .describe("receive FFE tap counts; null for none"),
   })
-  .refine((a) => a.tx !== null || a.ctle || a.dfeTaps > 0 || a.ffe !== null, "An architecture needs at least one equalizer.");
+  .refine(
+    (a) => a.tx !== null || a.ctle || a.dfeTaps > 0 || a.ffe !== null,
+    "An architecture needs at least one equalizer.",
+  );
 export type Architecture = z.infer<typeof architectureSchema>;
 
 /** A one-line description: "TX FIR 1+1 · CTLE · DFE 3". */
@@ -57,7 +63,14 @@ export function defaultCandidates(tx: { pre: number; post: number }, maxDfe: num
     { key: "tx-ctle", label: "TX FIR + CTLE", tx: txFir, ctle: true, dfeTaps: 0, ffe: null },
   ];
   for (let n = 1; n <= maxDfe; n++) {
-    list.push({ key: `tx-ctle-dfe${n}`, label: `TX FIR + CTLE + DFE ${n}`, tx: txFir, ctle: true, dfeTaps: n, ffe: null });
+    list.push({
+      key: `tx-ctle-dfe${n}`,
+      label: `TX FIR + CTLE + DFE ${n}`,
+      tx: txFir,
+      ctle: true,
+      dfeTaps: n,
+      ffe: null,
+    });
   }
   list.push({ key: "ctle-ffe", label: "CTLE + RX FFE", tx: null, ctle: true, dfeTaps: 0, ffe: { pre: 1, post: 3 } });
   return list;

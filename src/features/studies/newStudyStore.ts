@@ -49,9 +49,13 @@ export function createNewStudyStore(budgets: StudyBudgetChoice[], initialChannel
     error: null,
     setName: (name) => set({ name }),
     setBudget: (budgetId) => set({ budgetId, off: [] }),
-    toggleChannel: (id) => set((s) => ({ channelIds: s.channelIds.includes(id) ? s.channelIds.filter((x) => x !== id) : [...s.channelIds, id] })),
+    toggleChannel: (id) =>
+      set((s) => ({
+        channelIds: s.channelIds.includes(id) ? s.channelIds.filter((x) => x !== id) : [...s.channelIds, id],
+      })),
     setChannels: (channelIds) => set({ channelIds }),
-    toggleCandidate: (key) => set((s) => ({ off: s.off.includes(key) ? s.off.filter((k) => k !== key) : [...s.off, key] })),
+    toggleCandidate: (key) =>
+      set((s) => ({ off: s.off.includes(key) ? s.off.filter((k) => k !== key) : [...s.off, key] })),
     async submit() {
       const s = get();
       const budget = budgets.find((b) => b.id === s.budgetId);
@@ -60,7 +64,12 @@ export function createNewStudyStore(budgets: StudyBudgetChoice[], initialChannel
       try {
         const r = await api<{ id: number }>("/api/v1/studies", {
           method: "POST",
-          json: { ...(s.name.trim() ? { name: s.name.trim() } : {}), budgetId: s.budgetId, channelIds: s.channelIds, candidates },
+          json: {
+            ...(s.name.trim() ? { name: s.name.trim() } : {}),
+            budgetId: s.budgetId,
+            channelIds: s.channelIds,
+            candidates,
+          },
         });
         return r.id;
       } catch (e) {

@@ -14,7 +14,9 @@ export function computeStudy(inputs: StudyInputs, onProgress: (fraction: number)
     inputs.candidates.map(({ key, tx, ctle, dfeTaps, ffe }) => ({ key, tx, ctle, dfeTaps, ffe })),
     onProgress,
     // Each channel's aggressors are in every candidate's eyes (none: the channel alone).
-    inputs.channels.map((c) => (c.aggressors ?? []).map((a) => ({ name: a.name, kind: a.kind, pulse: pulseFromJson(a.pulse) }))),
+    inputs.channels.map((c) =>
+      (c.aggressors ?? []).map((a) => ({ name: a.name, kind: a.kind, pulse: pulseFromJson(a.pulse) })),
+    ),
   );
   return {
     engineVersion: ENGINE_VERSION,
@@ -24,7 +26,9 @@ export function computeStudy(inputs: StudyInputs, onProgress: (fraction: number)
       const a = inputs.candidates[i];
       const lost = o.headroom_V.findIndex((h) => !Number.isFinite(h));
       if (lost !== -1) {
-        throw new Error(`“${a.label}” has no legal setting for “${inputs.channels[lost].name}” under the budget (check the transmit FIR's ranges and step).`);
+        throw new Error(
+          `“${a.label}” has no legal setting for “${inputs.channels[lost].name}” under the budget (check the transmit FIR's ranges and step).`,
+        );
       }
       return {
         key: a.key,

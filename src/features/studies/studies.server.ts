@@ -28,7 +28,11 @@ export async function startStudy(user: SessionUser, req: CreateStudyRequest, her
     checkBudgetFits(budget.params, budget.name, chans);
     const maxDfe = budget.budget.dfe.taps > 0 ? budget.budget.dfe.taps : DEFAULT_MAX_DFE;
     const candidates = req.candidates ?? defaultCandidates(budget.budget.tx, maxDfe);
-    const inputs: StudyInputs = { budget: { id: budget.id, name: budget.name, params: budget.params }, channels: chans, candidates };
+    const inputs: StudyInputs = {
+      budget: { id: budget.id, name: budget.name, params: budget.params },
+      channels: chans,
+      candidates,
+    };
     const name = req.name ?? `${budget.name} · ${chans.length} channel${chans.length === 1 ? "" : "s"}`;
     const jobId = await enqueueJob(tx, "study", 0);
     const [{ id }] = await tx
@@ -50,10 +54,7 @@ export async function startStudy(user: SessionUser, req: CreateStudyRequest, her
 }
 
 async function saveStudy(tx: Tx, id: number, r: StudyResult) {
-  await tx
-    .update(studies)
-    .set({ result: r, engineVersion: r.engineVersion })
-    .where(eq(studies.id, id));
+  await tx.update(studies).set({ result: r, engineVersion: r.engineVersion }).where(eq(studies.id, id));
 }
 
 async function studyRow(tx: Tx | typeof db, id: number) {
@@ -73,7 +74,10 @@ async function personName(id: string | null): Promise<string | null> {
 }
 
 /** The decision record of a study for people: the candidate's label, who decided and when. */
-async function decisionView(study: Pick<Study, "decision" | "decidedBy" | "decidedAt">, candidates: StudyInputs["candidates"]): Promise<DecisionView | null> {
+async function decisionView(
+  study: Pick<Study, "decision" | "decidedBy" | "decidedAt">,
+  candidates: StudyInputs["candidates"],
+): Promise<DecisionView | null> {
   if (!study.decision) return null;
   const c = candidates.find((x) => x.key === study.decision!.candidateKey);
   return {
@@ -107,7 +111,14 @@ export async function getStudy(id: number) {
       channelNames: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.channels[*].name')`,
       channelLosses: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.channels[*].lossAtNyquist_dB')`,
       candidates: sql<unknown>`JSON_EXTRACT(${studies.inputs}, '$.candidates')`,
-      job: { status: jobs.status, progress: jobs.progress, error: jobs.error, startedAt: jobs.startedAt, finishedAt: jobs.finishedAt, compute_ms: jobs.compute_ms },
+      job: {
+        status: jobs.status,
+        progress: jobs.progress,
+        error: jobs.error,
+        startedAt: jobs.startedAt,
+        finishedAt: jobs.finishedAt,
+        compute_ms: jobs.compute_ms,
+      },
     })
     .from(studies)
     .innerJoin(jobs, eq(jobs.id, studies.jobId))
@@ -115,7 +126,11 @@ export async function getStudy(id: number) {
   if (!row) throw notFound(`Study ${id}`);
   const names = parsedJson<string[]>(row.channelNames) ?? [];
   const losses = parsedJson<(number | null)[]>(row.channelLosses) ?? [];
-  const channels = (parsedJson<number[]>(row.channelIds) ?? []).map((cid, i) => ({ id: cid, name: names[i], lossAtNyquist_dB: losses[i] ?? null }));
+  const channels = (parsedJson<number[]>(row.channelIds) ?? []).map((cid, i) => ({
+    id: cid,
+    name: names[i],
+    lossAtNyquist_dB: losses[i] ?? null,
+  }));
   const candidates = parsedJson<StudyInputs["candidates"]>(row.candidates) ?? [];
   return {
     id: row.id,
@@ -135,7 +150,10 @@ export async function getStudy(id: number) {
 /** Cancels a queued or running study: it ends failed, "Cancelled by <name>."; 409 once finished. */
 export async function cancelStudy(user: SessionUser, id: number) {
   const { study } = await studyRow(db, id);
-  return { id, ...(await cancelJobFor(study.jobId, user, "study", (tx) => recordAudit(tx, user, "study.cancel", "study", id))) };
+  return {
+    id,
+    ...(await cancelJobFor(study.jobId, user, "study", (tx) => recordAudit(tx, user, "study.cancel", "study", id))),
+  };
 }
 
 /** Number of studies (the overview's count). */
@@ -210,13 +228,18 @@ export async function decideStudy(user: SessionUser, id: number, req: DecisionRe
     if (!row) throw notFound(`Study ${id}`);
     const [job] = await tx.select().from(jobs).where(eq(jobs.id, row.jobId));
     const result = row.result;
-    if (job.status !== "done" || !result) throw conflict("The study has not finished; record the decision once its results are in.");
+    if (job.status !== "done" || !result)
+      throw conflict("The study has not finished; record the decision once its results are in.");
     if (!result.candidates.some((c) => c.key === req.candidateKey)) {
       throw unprocessable(`“${req.candidateKey}” is not one of this study's candidates.`, "candidateKey");
     }
     await tx
       .update(studies)
-      .set({ decision: { candidateKey: req.candidateKey, rationale: req.rationale }, decidedBy: user.id, decidedAt: new Date() })
+      .set({
+        decision: { candidateKey: req.candidateKey, rationale: req.rationale },
+        decidedBy: user.id,
+        decidedAt: new Date(),
+      })
       .where(eq(studies.id, id));
     await recordAudit(tx, user, "study.decide", "study", id, {
       candidateKey: req.candidateKey,
@@ -228,7 +251,10 @@ export async function decideStudy(user: SessionUser, id: number, req: DecisionRe
 
 /** Budgets for the study and tap-table forms, each with its usual candidates (budgets that no longer validate are left out). */
 export async function studyBudgetChoices(): Promise<(StudyBudgetChoice & { params: Budget })[]> {
-  const rows = await db.select({ id: budgets.id, name: budgets.name, params: budgets.params }).from(budgets).orderBy(asc(budgets.name));
+  const rows = await db
+    .select({ id: budgets.id, name: budgets.name, params: budgets.params })
+    .from(budgets)
+    .orderBy(asc(budgets.name));
   return rows.flatMap((r) => {
     const parsed = budgetSchema.safeParse(r.params);
     if (!parsed.success) return [];

@@ -15,7 +15,9 @@ export const MAX_CANDIDATES = 16;
 export const createStudyRequest = z.object({
   name: z.string().trim().min(1, "Give the study a name.").max(200, "Keep the name under 200 characters.").optional(),
   channelIds: z
-    .array(z.int({ error: "Channel ids are whole numbers." }).positive(), { error: "Give channelIds as a list of channel ids." })
+    .array(z.int({ error: "Channel ids are whole numbers." }).positive(), {
+      error: "Give channelIds as a list of channel ids.",
+    })
     .min(1, "Choose at least one channel.")
     .max(MAX_STUDY_CHANNELS, `A study covers at most ${MAX_STUDY_CHANNELS} channels.`)
     .refine((ids) => new Set(ids).size === ids.length, "A channel appears twice; list each channel once."),
@@ -40,7 +42,9 @@ export const decisionRequest = z.object({
 });
 export type DecisionRequest = z.infer<typeof decisionRequest>;
 
-export const studyParams = z.object({ id: z.coerce.number({ error: "The study id must be a number." }).int().positive() });
+export const studyParams = z.object({
+  id: z.coerce.number({ error: "The study id must be a number." }).int().positive(),
+});
 export const listQuery = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),
   cursor: z.coerce.number().int().positive().optional(),
@@ -56,7 +60,13 @@ export interface StudyDecision {
 export interface StudyInputs {
   budget: { id: number; name: string; params: BudgetInput };
   /** With each channel's aggressors, when it has any (copied like the pulse). */
-  channels: { id: number; name: string; lossAtNyquist_dB: number | null; pulse: StoredPulse; aggressors?: RunAggressor[] }[];
+  channels: {
+    id: number;
+    name: string;
+    lossAtNyquist_dB: number | null;
+    pulse: StoredPulse;
+    aggressors?: RunAggressor[];
+  }[];
   candidates: Architecture[];
 }
 
@@ -93,11 +103,17 @@ export interface DecisionView {
  * Candidates on the efficient frontier: none other reaches at least the same worst-case headroom
  * with fewer or equal taps (and strictly better in one). A presentation aid for the chart.
  */
-export function frontierKeys(cs: readonly Pick<CandidateResult, "key" | "complexity" | "worstHeadroom_V">[]): Set<string> {
+export function frontierKeys(
+  cs: readonly Pick<CandidateResult, "key" | "complexity" | "worstHeadroom_V">[],
+): Set<string> {
   const keys = new Set<string>();
   for (const c of cs) {
     const dominated = cs.some(
-      (o) => o.key !== c.key && o.complexity <= c.complexity && o.worstHeadroom_V >= c.worstHeadroom_V && (o.complexity < c.complexity || o.worstHeadroom_V > c.worstHeadroom_V),
+      (o) =>
+        o.key !== c.key &&
+        o.complexity <= c.complexity &&
+        o.worstHeadroom_V >= c.worstHeadroom_V &&
+        (o.complexity < c.complexity || o.worstHeadroom_V > c.worstHeadroom_V),
     );
     if (!dominated) keys.add(c.key);
   }

@@ -27,16 +27,27 @@ function fits(c: StudyChannelChoice, b: Props["budgets"][number] | undefined): b
 }
 
 export default function NewSweep(props: Props) {
-  const [store] = useState(() => createNewSweepStore(props.budgets[0]?.id ?? 0, props.channels.filter((c) => fits(c, props.budgets[0])).map((c) => c.id)));
+  const [store] = useState(() =>
+    createNewSweepStore(
+      props.budgets[0]?.id ?? 0,
+      props.channels.filter((c) => fits(c, props.budgets[0])).map((c) => c.id),
+    ),
+  );
   const s = useStore(store);
   const budget = props.budgets.find((b) => b.id === s.budgetId);
   const usable = props.channels
     .filter((c) => fits(c, budget))
-    .sort((a, b) => (a.lossAtNyquist_dB ?? Infinity) - (b.lossAtNyquist_dB ?? Infinity) || a.name.localeCompare(b.name));
+    .sort(
+      (a, b) => (a.lossAtNyquist_dB ?? Infinity) - (b.lossAtNyquist_dB ?? Infinity) || a.name.localeCompare(b.name),
+    );
   const pairs = s.channelIds.length * s.corners.length;
 
   if (props.budgets.length === 0 || props.channels.length === 0) {
-    return <p className="text-sm text-muted">{props.channels.length === 0 ? "Add channels first." : "Create a budget first."}</p>;
+    return (
+      <p className="text-sm text-muted">
+        {props.channels.length === 0 ? "Add channels first." : "Create a budget first."}
+      </p>
+    );
   }
 
   async function submit(e: React.SubmitEvent<HTMLFormElement>) {
@@ -51,7 +62,14 @@ export default function NewSweep(props: Props) {
       <div className="flex flex-wrap items-end gap-3">
         <label className="field grow">
           <span>Name</span>
-          <input className="input" value={s.name} onChange={(e) => s.setName(e.target.value)} maxLength={200} required placeholder="Backplane lanes, temperature and voltage corners" />
+          <input
+            className="input"
+            value={s.name}
+            onChange={(e) => s.setName(e.target.value)}
+            maxLength={200}
+            required
+            placeholder="Backplane lanes, temperature and voltage corners"
+          />
         </label>
         <label className="field">
           <span>Budget</span>
@@ -65,17 +83,25 @@ export default function NewSweep(props: Props) {
             }}
           >
             {props.budgets.map((b) => (
-              <option key={b.id} value={b.id}>{b.name}</option>
+              <option key={b.id} value={b.id}>
+                {b.name}
+              </option>
             ))}
           </select>
         </label>
       </div>
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]">
         <fieldset className="rounded-md border border-line p-3">
-          <legend className="px-1 text-sm font-medium text-ink-soft">Channels ({s.channelIds.length} of {usable.length})</legend>
+          <legend className="px-1 text-sm font-medium text-ink-soft">
+            Channels ({s.channelIds.length} of {usable.length})
+          </legend>
           <div className="mb-2 flex gap-2 text-xs">
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels(usable.map((c) => c.id))}>All</button>
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels([])}>None</button>
+            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels(usable.map((c) => c.id))}>
+              All
+            </button>
+            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels([])}>
+              None
+            </button>
           </div>
           <ul className="max-h-72 overflow-auto text-sm">
             {usable.map((c) => (
@@ -83,7 +109,9 @@ export default function NewSweep(props: Props) {
                 <label className="flex items-center gap-2 py-0.5">
                   <input type="checkbox" checked={s.channelIds.includes(c.id)} onChange={() => s.toggleChannel(c.id)} />
                   <span className="grow">{c.name}</span>
-                  <span className="num text-xs text-muted">{c.lossAtNyquist_dB !== null ? `${c.lossAtNyquist_dB.toFixed(1)} dB` : "—"}</span>
+                  <span className="num text-xs text-muted">
+                    {c.lossAtNyquist_dB !== null ? `${c.lossAtNyquist_dB.toFixed(1)} dB` : "—"}
+                  </span>
                 </label>
               </li>
             ))}
@@ -93,23 +121,33 @@ export default function NewSweep(props: Props) {
         <fieldset className="rounded-md border border-line p-3">
           <legend className="px-1 text-sm font-medium text-ink-soft">Corners ({s.corners.length})</legend>
           <p className="help mb-2">
-            Each factor multiplies the nominal value (empty = 1). Loss scales the channel's insertion loss in dB at every
-            frequency and rebuilds its pulse; the others scale the budget's transmit swing, noise, jitter (RJ and DJ) and
-            limiter sensitivity.
+            Each factor multiplies the nominal value (empty = 1). Loss scales the channel's insertion loss in dB at
+            every frequency and rebuilds its pulse; the others scale the budget's transmit swing, noise, jitter (RJ and
+            DJ) and limiter sensitivity.
           </p>
           <table className="table text-sm" aria-label="Corners">
             <thead>
               <tr>
                 <th>Corner</th>
-                {factorKeys.map((k) => <th key={k}>{factorLabels[k]}</th>)}
-                <th><span className="sr-only">Remove</span></th>
+                {factorKeys.map((k) => (
+                  <th key={k}>{factorLabels[k]}</th>
+                ))}
+                <th>
+                  <span className="sr-only">Remove</span>
+                </th>
               </tr>
             </thead>
             <tbody>
               {s.corners.map((c, i) => (
                 <tr key={i}>
                   <td>
-                    <input className={`input w-36 ${bad(`corners.${i}.name`) ? "border-bad" : ""}`} aria-label={`Corner ${i + 1} name`} value={c.name} onChange={(e) => s.editCorner(i, { name: e.target.value })} maxLength={60} />
+                    <input
+                      className={`input w-36 ${bad(`corners.${i}.name`) ? "border-bad" : ""}`}
+                      aria-label={`Corner ${i + 1} name`}
+                      value={c.name}
+                      onChange={(e) => s.editCorner(i, { name: e.target.value })}
+                      maxLength={60}
+                    />
                   </td>
                   {factorKeys.map((k) => (
                     <td key={k}>
@@ -124,23 +162,45 @@ export default function NewSweep(props: Props) {
                     </td>
                   ))}
                   <td>
-                    <button type="button" className="btn py-0.5 text-xs" onClick={() => s.removeCorner(i)} aria-label={`Remove corner ${i + 1}`} disabled={s.corners.length === 1}>✕</button>
+                    <button
+                      type="button"
+                      className="btn py-0.5 text-xs"
+                      onClick={() => s.removeCorner(i)}
+                      aria-label={`Remove corner ${i + 1}`}
+                      disabled={s.corners.length === 1}
+                    >
+                      ✕
+                    </button>
                   </td>
                 </tr>
               ))}
             </tbody>
           </table>
           <div className="mt-2">
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.addBlankCorner()}>Add a corner</button>
+            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.addBlankCorner()}>
+              Add a corner
+            </button>
           </div>
           <h3 className="mt-4 text-sm font-medium">Presets</h3>
           <ul className="mt-1 flex flex-col gap-1.5 text-sm" aria-label="Corner presets">
             {cornerPresets.map((p) => (
               <li key={p.key} className="flex items-baseline gap-2">
-                <button type="button" className="btn py-0.5 text-xs" onClick={() => s.addCorners(p.corners)} aria-label={`Add the preset ${p.label}`}>Add</button>
+                <button
+                  type="button"
+                  className="btn py-0.5 text-xs"
+                  onClick={() => s.addCorners(p.corners)}
+                  aria-label={`Add the preset ${p.label}`}
+                >
+                  Add
+                </button>
                 <span>
-                  <span className="font-medium">{p.label}</span> <span className="badge bg-paper text-ink-soft" title={p.source.note}>{sourceLabel(p.source)}</span>
-                  <span className="block text-xs text-muted">{p.description} {p.source.note}</span>
+                  <span className="font-medium">{p.label}</span>{" "}
+                  <span className="badge bg-paper text-ink-soft" title={p.source.note}>
+                    {sourceLabel(p.source)}
+                  </span>
+                  <span className="block text-xs text-muted">
+                    {p.description} {p.source.note}
+                  </span>
                 </span>
               </li>
             ))}
@@ -148,12 +208,19 @@ export default function NewSweep(props: Props) {
         </fieldset>
       </div>
       <p className="text-sm text-ink-soft" data-testid="pair-count">
-        {s.channelIds.length} channels × {s.corners.length} corners = <span className="num font-medium">{pairs}</span> pairs, one joint search each
+        {s.channelIds.length} channels × {s.corners.length} corners = <span className="num font-medium">{pairs}</span>{" "}
+        pairs, one joint search each
         {pairs > MAX_PAIRS && <span className="text-bad"> — more than the {MAX_PAIRS} a sweep computes</span>}.
       </p>
-      {s.error && <p className="notice notice-bad" role="alert">{s.error}</p>}
+      {s.error && (
+        <p className="notice notice-bad" role="alert">
+          {s.error}
+        </p>
+      )}
       <div>
-        <button className="btn btn-primary" type="submit" disabled={s.busy || pairs === 0 || pairs > MAX_PAIRS}>{s.busy ? "Starting…" : "Start sweep"}</button>
+        <button className="btn btn-primary" type="submit" disabled={s.busy || pairs === 0 || pairs > MAX_PAIRS}>
+          {s.busy ? "Starting…" : "Start sweep"}
+        </button>
       </div>
     </form>
   );

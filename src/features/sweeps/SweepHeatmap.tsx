@@ -41,7 +41,11 @@ export default function SweepHeatmap(props: Props) {
   const values = props.cells.flat().flatMap((c) => (c.headroom_mV === null ? [] : [c.headroom_mV]));
   const lo = Math.min(props.required_mV - 1, ...values);
   const hi = Math.max(props.required_mV + 1, ...values);
-  const color = scaleLinear<string>({ domain: [lo, props.required_mV, hi], range: [chartColors.bad, MID, chartColors.good], clamp: true });
+  const color = scaleLinear<string>({
+    domain: [lo, props.required_mV, hi],
+    range: [chartColors.bad, MID, chartColors.good],
+    clamp: true,
+  });
   const x = scaleBand<number>({ domain: props.corners.map((_, i) => i), range: [0, innerW], padding: 0.04 });
   const y = scaleBand<number>({ domain: props.channels.map((_, i) => i), range: [0, innerH], padding: 0.08 });
   const columns: Column[] = props.corners.map((_, k) => ({
@@ -53,7 +57,13 @@ export default function SweepHeatmap(props: Props) {
 
   return (
     <div ref={ref} className="w-full overflow-x-auto" data-testid="sweep-heatmap">
-      <svg width={margin.left + innerW + margin.right} height={margin.top + innerH + margin.bottom} role="img" aria-label="Limiter headroom per channel and corner" className="block">
+      <svg
+        width={margin.left + innerW + margin.right}
+        height={margin.top + innerH + margin.bottom}
+        role="img"
+        aria-label="Limiter headroom per channel and corner"
+        className="block"
+      >
         <defs>
           <linearGradient id="sweep-scale">
             {[0, 0.25, 0.5, 0.75, 1].map((t) => (
@@ -65,20 +75,48 @@ export default function SweepHeatmap(props: Props) {
         <Group left={margin.left} top={10}>
           <rect width={barW} height={10} fill="url(#sweep-scale)" stroke={chartColors.lineStrong} />
           {[lo, props.required_mV, hi].map((v, i) => (
-            <text key={i} x={bar(v)} y={24} fontSize={10} fontFamily={axisStyle.font.mono} fill={chartColors.inkSoft} textAnchor={i === 0 ? "start" : i === 2 ? "end" : "middle"}>
+            <text
+              key={i}
+              x={bar(v)}
+              y={24}
+              fontSize={10}
+              fontFamily={axisStyle.font.mono}
+              fill={chartColors.inkSoft}
+              textAnchor={i === 0 ? "start" : i === 2 ? "end" : "middle"}
+            >
               {i === 1 ? `required ${v.toFixed(1)}` : v.toFixed(1)}
             </text>
           ))}
-          <text x={barW + 8} y={9} fontSize={11} fontFamily={axisStyle.font.sans} fill={chartColors.ink}>Limiter headroom (mV)</text>
+          <text x={barW + 8} y={9} fontSize={11} fontFamily={axisStyle.font.sans} fill={chartColors.ink}>
+            Limiter headroom (mV)
+          </text>
         </Group>
         <Group left={margin.left} top={margin.top}>
           {props.corners.map((name, k) => (
-            <text key={name} x={(x(k) ?? 0) + x.bandwidth() / 2} y={-8} fontSize={10.5} fontFamily={axisStyle.font.sans} fill={chartColors.inkSoft} textAnchor="start" transform={`rotate(-35 ${(x(k) ?? 0) + x.bandwidth() / 2} -8)`}>
+            <text
+              key={name}
+              x={(x(k) ?? 0) + x.bandwidth() / 2}
+              y={-8}
+              fontSize={10.5}
+              fontFamily={axisStyle.font.sans}
+              fill={chartColors.inkSoft}
+              textAnchor="start"
+              transform={`rotate(-35 ${(x(k) ?? 0) + x.bandwidth() / 2} -8)`}
+            >
               {name}
             </text>
           ))}
           {props.channels.map((name, c) => (
-            <text key={`${name}-${c}`} x={-8} y={(y(c) ?? 0) + y.bandwidth() / 2} fontSize={10.5} fontFamily={axisStyle.font.sans} fill={chartColors.inkSoft} textAnchor="end" dominantBaseline="middle">
+            <text
+              key={`${name}-${c}`}
+              x={-8}
+              y={(y(c) ?? 0) + y.bandwidth() / 2}
+              fontSize={10.5}
+              fontFamily={axisStyle.font.sans}
+              fill={chartColors.inkSoft}
+              textAnchor="end"
+              dominantBaseline="middle"
+            >
               {name.length > 40 ? `${name.slice(0, 39)}…` : name}
             </text>
           ))}
@@ -100,12 +138,28 @@ export default function SweepHeatmap(props: Props) {
                   const data = props.cells[c][k];
                   const binding = props.binding[c] === k;
                   return (
-                    <g key={`${c}-${k}`} data-channel={props.channels[c]} data-corner={props.corners[k]} data-headroom-mv={data.headroom_mV ?? ""} data-binding={binding ? "true" : undefined}>
+                    <g
+                      key={`${c}-${k}`}
+                      data-channel={props.channels[c]}
+                      data-corner={props.corners[k]}
+                      data-headroom-mv={data.headroom_mV ?? ""}
+                      data-binding={binding ? "true" : undefined}
+                    >
                       <title>
                         {`${props.channels[c]} · ${props.corners[k]}: ${data.headroom_mV === null ? "no result" : `${data.headroom_mV.toFixed(1)} mV`}${data.linearReachExhausted ? " · linear reach exhausted" : ""}${binding ? " · binding corner" : ""}`}
                       </title>
-                      <rect x={cell.x} y={cell.y} width={cell.width} height={cell.height} fill={cell.color} stroke={binding ? chartColors.ink : chartColors.line} strokeWidth={binding ? 2 : 0.5} />
-                      {data.linearReachExhausted && <circle cx={cell.x + cell.width - 5} cy={cell.y + 5} r={2.2} fill={chartColors.ink} />}
+                      <rect
+                        x={cell.x}
+                        y={cell.y}
+                        width={cell.width}
+                        height={cell.height}
+                        fill={cell.color}
+                        stroke={binding ? chartColors.ink : chartColors.line}
+                        strokeWidth={binding ? 2 : 0.5}
+                      />
+                      {data.linearReachExhausted && (
+                        <circle cx={cell.x + cell.width - 5} cy={cell.y + 5} r={2.2} fill={chartColors.ink} />
+                      )}
                     </g>
                   );
                 }),
@@ -115,9 +169,24 @@ export default function SweepHeatmap(props: Props) {
         </Group>
       </svg>
       <ul className="mt-1 flex flex-wrap gap-x-5 gap-y-1 text-xs text-ink-soft" aria-label="Legend">
-        <li className="flex items-center gap-1.5"><svg width={14} height={10} aria-hidden><rect width={14} height={10} fill={MID} stroke={chartColors.ink} strokeWidth={2} /></svg>binding corner (the channel's worst)</li>
-        <li className="flex items-center gap-1.5"><svg width={10} height={10} aria-hidden><circle cx={5} cy={5} r={2.5} fill={chartColors.ink} /></svg>linear reach exhausted</li>
-        <li className="flex items-center gap-1.5"><svg width={14} height={10} aria-hidden><rect width={14} height={10} fill={EMPTY} stroke={chartColors.line} /></svg>no result</li>
+        <li className="flex items-center gap-1.5">
+          <svg width={14} height={10} aria-hidden>
+            <rect width={14} height={10} fill={MID} stroke={chartColors.ink} strokeWidth={2} />
+          </svg>
+          binding corner (the channel's worst)
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={10} height={10} aria-hidden>
+            <circle cx={5} cy={5} r={2.5} fill={chartColors.ink} />
+          </svg>
+          linear reach exhausted
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={14} height={10} aria-hidden>
+            <rect width={14} height={10} fill={EMPTY} stroke={chartColors.line} />
+          </svg>
+          no result
+        </li>
       </ul>
     </div>
   );

@@ -13,7 +13,13 @@ export interface CornerDraft {
   factors: Record<FactorKey, string>;
 }
 
-const blank = (): Record<FactorKey, string> => ({ lossScale: "", txSwingScale: "", noiseScale: "", jitterScale: "", sensitivityScale: "" });
+const blank = (): Record<FactorKey, string> => ({
+  lossScale: "",
+  txSwingScale: "",
+  noiseScale: "",
+  jitterScale: "",
+  sensitivityScale: "",
+});
 
 /** A corner as the form holds it. */
 export function draftOf(c: Corner): CornerDraft {
@@ -64,7 +70,10 @@ export function createNewSweepStore(budgetId: number, initialChannels: number[])
     errorPath: null,
     setName: (name) => set({ name }),
     setBudget: (id) => set({ budgetId: id }),
-    toggleChannel: (id) => set((s) => ({ channelIds: s.channelIds.includes(id) ? s.channelIds.filter((x) => x !== id) : [...s.channelIds, id] })),
+    toggleChannel: (id) =>
+      set((s) => ({
+        channelIds: s.channelIds.includes(id) ? s.channelIds.filter((x) => x !== id) : [...s.channelIds, id],
+      })),
     setChannels: (channelIds) => set({ channelIds }),
     // A preset's corners join the list; one already there by name is not added twice.
     addCorners: (list) =>
@@ -72,11 +81,17 @@ export function createNewSweepStore(budgetId: number, initialChannels: number[])
         const have = new Set(s.corners.map((c) => c.name.trim().toLowerCase()));
         return { corners: [...s.corners, ...list.filter((c) => !have.has(c.name.toLowerCase())).map(draftOf)] };
       }),
-    addBlankCorner: () => set((s) => ({ corners: [...s.corners, { name: `corner ${s.corners.length + 1}`, factors: blank() }] })),
+    addBlankCorner: () =>
+      set((s) => ({ corners: [...s.corners, { name: `corner ${s.corners.length + 1}`, factors: blank() }] })),
     editCorner: (i, change) =>
       set((s) => ({
         corners: s.corners.map((c, j) =>
-          j !== i ? c : { name: change.name ?? c.name, factors: change.factor ? { ...c.factors, [change.factor[0]]: change.factor[1] } : c.factors },
+          j !== i
+            ? c
+            : {
+                name: change.name ?? c.name,
+                factors: change.factor ? { ...c.factors, [change.factor[0]]: change.factor[1] } : c.factors,
+              },
         ),
       })),
     removeCorner: (i) => set((s) => ({ corners: s.corners.filter((_, j) => j !== i) })),
@@ -86,7 +101,12 @@ export function createNewSweepStore(budgetId: number, initialChannels: number[])
       try {
         const r = await api<{ id: number }>("/api/v1/sweeps", {
           method: "POST",
-          json: { name: s.name.trim(), budgetId: s.budgetId, channelIds: s.channelIds, corners: s.corners.map(cornerOf) },
+          json: {
+            name: s.name.trim(),
+            budgetId: s.budgetId,
+            channelIds: s.channelIds,
+            corners: s.corners.map(cornerOf),
+          },
         });
         return r.id;
       } catch (e) {

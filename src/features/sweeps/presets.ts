@@ -18,13 +18,13 @@ export const cornerPresets: CornerPreset[] = [
   {
     key: "loss-10",
     label: "Loss ±10 %",
-    description: "Insertion loss 10 % below and above nominal: temperature and board-to-board spread of the laminate and copper.",
-    source: { kind: "practice", note: "Common practice: a ±10 % guard band on insertion loss for temperature and manufacturing spread." },
-    corners: [
-      { name: "nominal" },
-      { name: "loss −10 %", lossScale: 0.9 },
-      { name: "loss +10 %", lossScale: 1.1 },
-    ],
+    description:
+      "Insertion loss 10 % below and above nominal: temperature and board-to-board spread of the laminate and copper.",
+    source: {
+      kind: "practice",
+      note: "Common practice: a ±10 % guard band on insertion loss for temperature and manufacturing spread.",
+    },
+    corners: [{ name: "nominal" }, { name: "loss −10 %", lossScale: 0.9 }, { name: "loss +10 %", lossScale: 1.1 }],
   },
   {
     key: "hot-humid",
@@ -34,10 +34,7 @@ export const cornerPresets: CornerPreset[] = [
       kind: "memory",
       note: "From memory: laminate loss rises with temperature and with absorbed moisture; 15 % is a round figure to replace with your board's own measurements.",
     },
-    corners: [
-      { name: "nominal" },
-      { name: "hot, humid", lossScale: 1.15 },
-    ],
+    corners: [{ name: "nominal" }, { name: "hot, humid", lossScale: 1.15 }],
   },
   {
     key: "tx-pv",
@@ -59,18 +56,21 @@ export const cornerPresets: CornerPreset[] = [
     key: "jitter",
     label: "Jitter +30 %",
     description: "Random and deterministic jitter 30 % above the budget's: a noisier reference clock or supply.",
-    source: { kind: "practice", note: "Common practice: budgets are re-checked with jitter raised by a guard band of a few tens of percent." },
-    corners: [
-      { name: "nominal" },
-      { name: "jitter +30 %", jitterScale: 1.3 },
-    ],
+    source: {
+      kind: "practice",
+      note: "Common practice: budgets are re-checked with jitter raised by a guard band of a few tens of percent.",
+    },
+    corners: [{ name: "nominal" }, { name: "jitter +30 %", jitterScale: 1.3 }],
   },
   {
     key: "slow-fast",
     label: "Slow and fast stacks",
     description:
       "Every unfavourable factor at once (loss +10 %, swing −10 %, noise +20 %, jitter +20 %, sensitivity +20 %), and the fast corner (loss −10 %, swing +10 %) that over-equalized defaults fail first.",
-    source: { kind: "practice", note: "Common practice: stack the unfavourable corners together, and check the low-loss end for over-equalization." },
+    source: {
+      kind: "practice",
+      note: "Common practice: stack the unfavourable corners together, and check the low-loss end for over-equalization.",
+    },
     corners: [
       { name: "nominal" },
       { name: "slow", lossScale: 1.1, txSwingScale: 0.9, noiseScale: 1.2, jitterScale: 1.2, sensitivityScale: 1.2 },

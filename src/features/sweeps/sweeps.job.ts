@@ -23,7 +23,10 @@ export interface SweepBatchResult {
 
 /** Computes one batch: the joint search per pair; a pair the engine refuses records why. */
 export function computeSweepBatch(input: SweepBatchInput, onProgress: (fraction: number) => void): SweepBatchResult {
-  const pulses = pulsesAtLoss(input.channel, input.corners.map((c) => c.corner.lossScale ?? 1));
+  const pulses = pulsesAtLoss(
+    input.channel,
+    input.corners.map((c) => c.corner.lossScale ?? 1),
+  );
   const pairs = input.corners.map(({ index, corner }, i) => {
     const started = performance.now();
     const base = { channelId: input.channel.id, cornerIndex: index };
@@ -65,8 +68,13 @@ export function computeSweepBatch(input: SweepBatchInput, onProgress: (fraction:
 }
 
 /** The sweep's last job: every channel's binding corner and the counts its page shows. */
-export function summarizeSweep(input: { inputs: SweepInputs; results: (PairResult & { compute_ms: number })[] }): SweepSummary {
-  const worst = worstPerChannel(input.inputs.channels, input.inputs.corners, input.results).map(({ channelId, corner, cornerIndex, limiterHeadroom_V }) => ({ channelId, corner, cornerIndex, limiterHeadroom_V }));
+export function summarizeSweep(input: {
+  inputs: SweepInputs;
+  results: (PairResult & { compute_ms: number })[];
+}): SweepSummary {
+  const worst = worstPerChannel(input.inputs.channels, input.inputs.corners, input.results).map(
+    ({ channelId, corner, cornerIndex, limiterHeadroom_V }) => ({ channelId, corner, cornerIndex, limiterHeadroom_V }),
+  );
   return {
     worst,
     refused: input.results.filter((r) => r.error !== null).length,

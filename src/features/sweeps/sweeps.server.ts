@@ -4,7 +4,17 @@
 import { and, asc, count, desc, eq, inArray, lt, min } from "drizzle-orm";
 import { cornerBudget } from "@lib/corners";
 import { db, type Tx } from "@/server/db.server";
-import { channels, jobs, programs, sweepChannels, sweepResults, sweeps, users, type Job, type SweepResult } from "@/db/schema";
+import {
+  channels,
+  jobs,
+  programs,
+  sweepChannels,
+  sweepResults,
+  sweeps,
+  users,
+  type Job,
+  type SweepResult,
+} from "@/db/schema";
 import { notFound, unprocessable } from "@/server/http/errors";
 import { recordAudit } from "@/server/audit/audit.server";
 import { apiStatus, cancelJobFor, enqueueJob, registerJobKind, startJobs } from "@/server/jobs/queue.server";
@@ -40,7 +50,11 @@ async function requestedChannels(tx: Tx, req: CreateSweepRequest) {
   if (req.programId !== undefined) {
     const [program] = await tx.select({ name: programs.name }).from(programs).where(eq(programs.id, req.programId));
     if (!program) throw notFound(`Program ${req.programId}`);
-    const list = await tx.select(cols).from(channels).where(eq(channels.programId, req.programId)).orderBy(asc(channels.name));
+    const list = await tx
+      .select(cols)
+      .from(channels)
+      .where(eq(channels.programId, req.programId))
+      .orderBy(asc(channels.name));
     if (list.length === 0) throw unprocessable(`The program “${program.name}” has no channels yet.`, "programId");
     return list;
   }
@@ -64,7 +78,10 @@ export async function startSweep(user: SessionUser, req: CreateSweepRequest) {
     checkBudgetFits(budget.params, budget.name, chans);
     const pairCount = chans.length * req.corners.length;
     if (pairCount > MAX_PAIRS) {
-      throw unprocessable(`${chans.length} channels × ${req.corners.length} corners make ${pairCount} pairs; a sweep computes at most ${MAX_PAIRS}.`, path);
+      throw unprocessable(
+        `${chans.length} channels × ${req.corners.length} corners make ${pairCount} pairs; a sweep computes at most ${MAX_PAIRS}.`,
+        path,
+      );
     }
     req.corners.forEach((c, i) => {
       try {
@@ -80,11 +97,36 @@ export async function startSweep(user: SessionUser, req: CreateSweepRequest) {
       channels: chans.map((c) => ({ id: c.id, name: c.name, lossAtNyquist_dB: c.lossAtNyquist_dB })),
     };
     const jobId = await enqueueJob(tx, "sweep", 0, { waitForChildren: true });
-    const [{ id }] = await tx.insert(sweeps).values({ name: req.name, jobId, budgetId: budget.id, inputs, pairCount, createdBy: user.id }).$returningId();
+    const [{ id }] = await tx
+      .insert(sweeps)
+      .values({ name: req.name, jobId, budgetId: budget.id, inputs, pairCount, createdBy: user.id })
+      .$returningId();
     await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
-    await tx.insert(sweepChannels).values(chans.map((c, position) => ({ sweepId: id, position, channelId: c.id, kind: c.kind, pulse: c.pulse, derivation: c.derivation })));
+    await tx
+      .insert(sweepChannels)
+      .values(
+        chans.map((c, position) => ({
+          sweepId: id,
+          position,
+          channelId: c.id,
+          kind: c.kind,
+          pulse: c.pulse,
+          derivation: c.derivation,
+        })),
+      );
     const batches = sweepBatches(chans.length, req.corners.length);
-    await tx.insert(jobs).values(batches.map((_, part) => ({ kind: "sweep-batch" as const, targetId: id, queue: config.queue.backend, parentId: jobId, part, status: "queued" as const })));
+    await tx
+      .insert(jobs)
+      .values(
+        batches.map((_, part) => ({
+          kind: "sweep-batch" as const,
+          targetId: id,
+          queue: config.queue.backend,
+          parentId: jobId,
+          part,
+          status: "queued" as const,
+        })),
+      );
     await recordAudit(tx, user, "sweep.start", "sweep", id, {
       name: req.name,
       budget: budget.name,
@@ -98,7 +140,12 @@ export async function startSweep(user: SessionUser, req: CreateSweepRequest) {
 }
 
 async function sweepRow(id: number) {
-  const [row] = await db.select({ sweep: sweeps, job: jobs, by: users.name }).from(sweeps).innerJoin(jobs, eq(jobs.id, sweeps.jobId)).leftJoin(users, eq(users.id, sweeps.createdBy)).where(eq(sweeps.id, id));
+  const [row] = await db
+    .select({ sweep: sweeps, job: jobs, by: users.name })
+    .from(sweeps)
+    .innerJoin(jobs, eq(jobs.id, sweeps.jobId))
+    .leftJoin(users, eq(users.id, sweeps.createdBy))
+    .where(eq(sweeps.id, id));
   if (!row) throw notFound(`Sweep ${id}`);
   return row;
 }
@@ -122,7 +169,10 @@ async function resultsOf(sweepId: number): Promise<SweepResult[]> {
 /** Progress of a sweep: pairs done of all, and the time left at the pace so far. */
 async function progressOf(sweepId: number, pairCount: number, job: Job) {
   const [{ done }] = await db.select({ done: count() }).from(sweepResults).where(eq(sweepResults.sweepId, sweepId));
-  const [{ first }] = await db.select({ first: min(jobs.startedAt) }).from(jobs).where(eq(jobs.parentId, job.id));
+  const [{ first }] = await db
+    .select({ first: min(jobs.startedAt) })
+    .from(jobs)
+    .where(eq(jobs.parentId, job.id));
   const elapsed_s = first ? (Date.now() - new Date(first).getTime()) / 1000 : 0;
   const status = apiStatus(job.status);
   return {
@@ -137,13 +187,20 @@ async function progressOf(sweepId: number, pairCount: number, job: Job) {
 /** Cancels a sweep that has not finished, with every batch not yet done: it ends failed, "Cancelled by <name>."; 409 once finished. */
 export async function cancelSweep(user: SessionUser, id: number) {
   const { sweep } = await sweepRow(id);
-  return { id, ...(await cancelJobFor(sweep.jobId, user, "sweep", (tx) => recordAudit(tx, user, "sweep.cancel", "sweep", id))) };
+  return {
+    id,
+    ...(await cancelJobFor(sweep.jobId, user, "sweep", (tx) => recordAudit(tx, user, "sweep.cancel", "sweep", id))),
+  };
 }
 
 /** GET /api/v1/sweeps/:id?fields=status: only the progress (cheap polling). */
 export async function getSweepStatus(id: number) {
   const { sweep, job } = await sweepRow(id);
-  return { id, ...(await progressOf(id, sweep.pairCount, job)), ...(job.error ? { error: { message: job.error } } : {}) };
+  return {
+    id,
+    ...(await progressOf(id, sweep.pairCount, job)),
+    ...(job.error ? { error: { message: job.error } } : {}),
+  };
 }
 
 /**
@@ -165,9 +222,12 @@ export async function getSweep(id: number) {
     corners: inputs.corners,
     channels: inputs.channels,
     results: rows.map((r) => ({ ...asPair(r), corner: corner(r.cornerIndex), compute_ms: r.compute_ms })),
-    worst: summary ? summary.worst.map((w) => ({ channelId: w.channelId, corner: w.corner, limiterHeadroom_V: w.limiterHeadroom_V })) : null,
+    worst: summary
+      ? summary.worst.map((w) => ({ channelId: w.channelId, corner: w.corner, limiterHeadroom_V: w.limiterHeadroom_V }))
+      : null,
     summary,
-    requiredHeadroom_V: typeof inputs.budget.params.requiredHeadroom_V === "number" ? inputs.budget.params.requiredHeadroom_V : 0,
+    requiredHeadroom_V:
+      typeof inputs.budget.params.requiredHeadroom_V === "number" ? inputs.budget.params.requiredHeadroom_V : 0,
     engineVersion: sweep.engineVersion,
     createdBy: by,
     createdAt: sweep.createdAt,
@@ -185,12 +245,17 @@ export async function sweepFigures(id: number) {
     cells: view.channels.map((ch) =>
       view.corners.map((_, k) => {
         const r = byPair.get(`${ch.id}:${k}`);
-        return { headroom_mV: r?.limiterHeadroom_V === null || r === undefined ? null : r.limiterHeadroom_V * 1e3, linearReachExhausted: r?.linearReachExhausted ?? null };
+        return {
+          headroom_mV: r?.limiterHeadroom_V === null || r === undefined ? null : r.limiterHeadroom_V * 1e3,
+          linearReachExhausted: r?.linearReachExhausted ?? null,
+        };
       }),
     ),
     binding: view.channels.map((ch) => bindingOf.get(ch.id) ?? -1),
     worst,
-    histogram: headroomHistogram(view.results.flatMap((r) => (r.limiterHeadroom_V === null ? [] : [r.limiterHeadroom_V]))),
+    histogram: headroomHistogram(
+      view.results.flatMap((r) => (r.limiterHeadroom_V === null ? [] : [r.limiterHeadroom_V])),
+    ),
   };
 }
 
@@ -219,7 +284,12 @@ export async function listSweeps(limit: number, cursor?: number) {
     ? await db
         .select({ sweepId: sweepResults.sweepId, n: count() })
         .from(sweepResults)
-        .where(inArray(sweepResults.sweepId, page.map((r) => r.sweep.id)))
+        .where(
+          inArray(
+            sweepResults.sweepId,
+            page.map((r) => r.sweep.id),
+          ),
+        )
         .groupBy(sweepResults.sweepId)
     : [];
   const doneOf = new Map(done.map((d) => [d.sweepId, Number(d.n)]));
@@ -274,7 +344,10 @@ export async function finishedSweeps() {
 
 registerJobKind("sweep-batch", {
   async input(job): Promise<SweepBatchInput> {
-    const [sweep] = await db.select({ inputs: sweeps.inputs, pairCount: sweeps.pairCount }).from(sweeps).where(eq(sweeps.id, job.targetId));
+    const [sweep] = await db
+      .select({ inputs: sweeps.inputs, pairCount: sweeps.pairCount })
+      .from(sweeps)
+      .where(eq(sweeps.id, job.targetId));
     if (!sweep) throw new Error(`Sweep ${job.targetId} no longer exists.`);
     const batch = sweepBatches(sweep.inputs.channels.length, sweep.inputs.corners.length)[job.part ?? -1];
     if (!batch) throw new Error(`Sweep ${job.targetId} has no batch ${job.part}.`);
@@ -286,7 +359,10 @@ registerJobKind("sweep-batch", {
     let touchstone: string | null = null;
     if (needsTouchstone(ch.kind, corners)) {
       touchstone = await channelSourceText(db, ch.channelId);
-      if (touchstone === null) throw new Error(`The Touchstone file of “${sweep.inputs.channels[batch.channelIndex].name}” was deleted; its loss corners cannot be rebuilt.`);
+      if (touchstone === null)
+        throw new Error(
+          `The Touchstone file of “${sweep.inputs.channels[batch.channelIndex].name}” was deleted; its loss corners cannot be rebuilt.`,
+        );
     }
     return {
       budget: sweep.inputs.budget.params,
@@ -305,9 +381,15 @@ registerJobKind("sweep", {
   async input(job) {
     const [sweep] = await db.select({ inputs: sweeps.inputs }).from(sweeps).where(eq(sweeps.id, job.targetId));
     if (!sweep) throw new Error(`Sweep ${job.targetId} no longer exists.`);
-    return { inputs: sweep.inputs, results: (await resultsOf(job.targetId)).map((r) => ({ ...asPair(r), compute_ms: r.compute_ms })) };
+    return {
+      inputs: sweep.inputs,
+      results: (await resultsOf(job.targetId)).map((r) => ({ ...asPair(r), compute_ms: r.compute_ms })),
+    };
   },
   async save(tx, job, result) {
-    await tx.update(sweeps).set({ summary: result as SweepSummary }).where(eq(sweeps.id, job.targetId));
+    await tx
+      .update(sweeps)
+      .set({ summary: result as SweepSummary })
+      .where(eq(sweeps.id, job.targetId));
   },
 });

@@ -49,14 +49,23 @@ const cornersSchema = z
   .array(cornerSchema, { error: "Give the corners as a list." })
   .min(1, "Define at least one corner.")
   .max(MAX_CORNERS, `A sweep has at most ${MAX_CORNERS} corners.`)
-  .refine((cs) => new Set(cs.map((c) => c.name.toLowerCase())).size === cs.length, "Two corners have the same name; name each corner once.");
+  .refine(
+    (cs) => new Set(cs.map((c) => c.name.toLowerCase())).size === cs.length,
+    "Two corners have the same name; name each corner once.",
+  );
 
 /** POST /api/v1/sweeps: channels (by id, or a program's channels), a budget and named corners. */
 export const createSweepRequest = z
   .object({
-    name: z.string({ error: "Give the sweep a name." }).trim().min(1, "Give the sweep a name.").max(200, "Keep the name under 200 characters."),
+    name: z
+      .string({ error: "Give the sweep a name." })
+      .trim()
+      .min(1, "Give the sweep a name.")
+      .max(200, "Keep the name under 200 characters."),
     channelIds: z
-      .array(z.int({ error: "Channel ids are whole numbers." }).positive(), { error: "Give channelIds as a list of channel ids." })
+      .array(z.int({ error: "Channel ids are whole numbers." }).positive(), {
+        error: "Give channelIds as a list of channel ids.",
+      })
       .min(1, "Choose at least one channel.")
       .max(MAX_SWEEP_CHANNELS, `A sweep covers at most ${MAX_SWEEP_CHANNELS} channels.`)
       .refine((ids) => new Set(ids).size === ids.length, "A channel appears twice; list each channel once.")
@@ -71,7 +80,9 @@ export const createSweepRequest = z
   });
 export type CreateSweepRequest = z.infer<typeof createSweepRequest>;
 
-export const sweepParams = z.object({ id: z.coerce.number({ error: "The sweep id must be a number." }).int().positive() });
+export const sweepParams = z.object({
+  id: z.coerce.number({ error: "The sweep id must be a number." }).int().positive(),
+});
 export const listQuery = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),
   cursor: z.coerce.number().int().positive().optional(),
@@ -88,7 +99,10 @@ export function sweepBatches(channelCount: number, cornerCount: number): SweepBa
   const out: SweepBatch[] = [];
   for (let c = 0; c < channelCount; c++) {
     for (let k = 0; k < cornerCount; k += CORNERS_PER_BATCH) {
-      out.push({ channelIndex: c, cornerIndices: Array.from({ length: Math.min(CORNERS_PER_BATCH, cornerCount - k) }, (_, i) => k + i) });
+      out.push({
+        channelIndex: c,
+        cornerIndices: Array.from({ length: Math.min(CORNERS_PER_BATCH, cornerCount - k) }, (_, i) => k + i),
+      });
     }
   }
   return out;
@@ -121,19 +135,35 @@ export interface ChannelWorst {
 }
 
 /** The worst corner of every channel that has at least one result (refused pairs are left out). */
-export function worstPerChannel(channels: SweepInputs["channels"], corners: readonly Corner[], results: readonly PairResult[]): ChannelWorst[] {
+export function worstPerChannel(
+  channels: SweepInputs["channels"],
+  corners: readonly Corner[],
+  results: readonly PairResult[],
+): ChannelWorst[] {
   const byChannel = new Map<number, PairResult>();
   for (const r of results) {
     if (r.limiterHeadroom_V === null) continue;
     const w = byChannel.get(r.channelId);
-    if (!w || r.limiterHeadroom_V < (w.limiterHeadroom_V as number) || (r.limiterHeadroom_V === w.limiterHeadroom_V && r.cornerIndex < w.cornerIndex)) {
+    if (
+      !w ||
+      r.limiterHeadroom_V < (w.limiterHeadroom_V as number) ||
+      (r.limiterHeadroom_V === w.limiterHeadroom_V && r.cornerIndex < w.cornerIndex)
+    ) {
       byChannel.set(r.channelId, r);
     }
   }
   return channels.flatMap((ch) => {
     const w = byChannel.get(ch.id);
     if (!w) return [];
-    return [{ channelId: ch.id, channelName: ch.name, corner: corners[w.cornerIndex].name, cornerIndex: w.cornerIndex, limiterHeadroom_V: w.limiterHeadroom_V as number }];
+    return [
+      {
+        channelId: ch.id,
+        channelName: ch.name,
+        corner: corners[w.cornerIndex].name,
+        cornerIndex: w.cornerIndex,
+        limiterHeadroom_V: w.limiterHeadroom_V as number,
+      },
+    ];
   });
 }
 
@@ -154,7 +184,11 @@ export function headroomHistogram(values_V: readonly number[], bins = 20): Histo
   const hi = Math.max(...values_V);
   if (hi === lo) return [{ from_V: lo, to_V: hi, count: values_V.length }];
   const width = (hi - lo) / bins;
-  const out = Array.from({ length: bins }, (_, i) => ({ from_V: lo + i * width, to_V: lo + (i + 1) * width, count: 0 }));
+  const out = Array.from({ length: bins }, (_, i) => ({
+    from_V: lo + i * width,
+    to_V: lo + (i + 1) * width,
+    count: 0,
+  }));
   for (const v of values_V) out[Math.min(bins - 1, Math.floor((v - lo) / width))].count++;
   return out;
 }
@@ -176,7 +210,6 @@ export function formatDuration(s: number): string {
   return `${h} h ${Math.round((s - h * 3600) / 60)} min`;
 }
 
-
 /**
  * The sweep as CSV (RFC 4180, a header row, CRLF; text that a spreadsheet would run as a formula is
  * neutralised like the tap table exports): one row per channel × corner pair with the
@@ -185,8 +218,21 @@ export function formatDuration(s: number): string {
  */
 export function sweepCsv(inputs: SweepInputs, results: readonly PairResult[]): string {
   const header = [
-    "channel_id", "channel", "loss_at_nyquist_dB", "corner", "loss_scale", "tx_swing_scale", "noise_scale", "jitter_scale", "sensitivity_scale",
-    "limiter_headroom_mV", "eye_height_mV", "linear_headroom_mV", "linear_reach_exhausted", "fewest_dfe_taps", "error",
+    "channel_id",
+    "channel",
+    "loss_at_nyquist_dB",
+    "corner",
+    "loss_scale",
+    "tx_swing_scale",
+    "noise_scale",
+    "jitter_scale",
+    "sensitivity_scale",
+    "limiter_headroom_mV",
+    "eye_height_mV",
+    "linear_headroom_mV",
+    "linear_reach_exhausted",
+    "fewest_dfe_taps",
+    "error",
   ];
   const byPair = new Map(results.map((r) => [`${r.channelId}:${r.cornerIndex}`, r]));
   const mV = (v: number | null) => (v === null ? null : Math.round(v * 1e6) / 1e3);
@@ -196,10 +242,24 @@ export function sweepCsv(inputs: SweepInputs, results: readonly PairResult[]): s
       const r = byPair.get(`${ch.id}:${k}`);
       rows.push(
         [
-          ch.id, ch.name, ch.lossAtNyquist_dB, c.name, c.lossScale ?? 1, c.txSwingScale ?? 1, c.noiseScale ?? 1, c.jitterScale ?? 1, c.sensitivityScale ?? 1,
-          mV(r?.limiterHeadroom_V ?? null), mV(r?.eyeHeight_V ?? null), mV(r?.linearHeadroom_V ?? null),
-          r?.linearReachExhausted ?? null, r?.fewestDfeTaps ?? null, r?.error ?? null,
-        ].map((v) => csvCell(typeof v === "boolean" ? String(v) : v)).join(","),
+          ch.id,
+          ch.name,
+          ch.lossAtNyquist_dB,
+          c.name,
+          c.lossScale ?? 1,
+          c.txSwingScale ?? 1,
+          c.noiseScale ?? 1,
+          c.jitterScale ?? 1,
+          c.sensitivityScale ?? 1,
+          mV(r?.limiterHeadroom_V ?? null),
+          mV(r?.eyeHeight_V ?? null),
+          mV(r?.linearHeadroom_V ?? null),
+          r?.linearReachExhausted ?? null,
+          r?.fewestDfeTaps ?? null,
+          r?.error ?? null,
+        ]
+          .map((v) => csvCell(typeof v === "boolean" ? String(v) : v))
+          .join(","),
       );
     });
   }

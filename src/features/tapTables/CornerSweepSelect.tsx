@@ -21,10 +21,16 @@ export default function CornerSweepSelect(props: Props) {
     <div className="flex flex-col gap-1">
       <label className="field">
         <span>Corners</span>
-        <select className="input max-w-96" value={props.value ?? ""} onChange={(e) => props.onChange(e.target.value === "" ? null : Number(e.target.value))}>
+        <select
+          className="input max-w-96"
+          value={props.value ?? ""}
+          onChange={(e) => props.onChange(e.target.value === "" ? null : Number(e.target.value))}
+        >
           <option value="">None: nominal values only</option>
           {props.sweeps.map((s) => (
-            <option key={s.id} value={s.id}>The corners of “{s.name}” ({s.corners.length})</option>
+            <option key={s.id} value={s.id}>
+              The corners of “{s.name}” ({s.corners.length})
+            </option>
           ))}
         </select>
       </label>

@@ -44,16 +44,51 @@ export default function HeadroomDumbbell(props: Props) {
 
   return (
     <div ref={ref} className="w-full">
-      <svg width={width} height={height} role="img" aria-label="Limiter headroom per channel: class default against own optimum" className="block">
+      <svg
+        width={width}
+        height={height}
+        role="img"
+        aria-label="Limiter headroom per channel: class default against own optimum"
+        className="block"
+      >
         <Group left={margin.left} top={margin.top}>
-          <GridColumns scale={x} height={innerH} stroke={axisStyle.gridStroke} numTicks={Math.max(2, Math.floor(innerW / 80))} />
-          <line x1={x(props.required_V * 1e3)} x2={x(props.required_V * 1e3)} y1={0} y2={innerH} stroke={chartColors.bad} strokeDasharray="5 4" />
-          <text x={x(props.required_V * 1e3) + 4} y={innerH - 4} fontSize={10} fontFamily={axisStyle.font.sans} fill={chartColors.bad}>required</text>
+          <GridColumns
+            scale={x}
+            height={innerH}
+            stroke={axisStyle.gridStroke}
+            numTicks={Math.max(2, Math.floor(innerW / 80))}
+          />
+          <line
+            x1={x(props.required_V * 1e3)}
+            x2={x(props.required_V * 1e3)}
+            y1={0}
+            y2={innerH}
+            stroke={chartColors.bad}
+            strokeDasharray="5 4"
+          />
+          <text
+            x={x(props.required_V * 1e3) + 4}
+            y={innerH - 4}
+            fontSize={10}
+            fontFamily={axisStyle.font.sans}
+            fill={chartColors.bad}
+          >
+            required
+          </text>
           {layout.map((item, i) => {
             const y = i * ROW + ROW / 2;
             if (item.kind === "class") {
               return (
-                <text key={`c-${item.name}`} x={-margin.left + 4} y={y} fontSize={11} fontWeight={600} fontFamily={axisStyle.font.sans} fill={chartColors.ink} dominantBaseline="middle">
+                <text
+                  key={`c-${item.name}`}
+                  x={-margin.left + 4}
+                  y={y}
+                  fontSize={11}
+                  fontWeight={600}
+                  fontFamily={axisStyle.font.sans}
+                  fill={chartColors.ink}
+                  dominantBaseline="middle"
+                >
                   {item.name}
                 </text>
               );
@@ -64,11 +99,33 @@ export default function HeadroomDumbbell(props: Props) {
             return (
               <g key={`r-${r.name}`} data-channel={r.name}>
                 <title>{r.name}</title>
-                <text x={-10} y={y} fontSize={10.5} fontFamily={axisStyle.font.sans} fill={chartColors.inkSoft} textAnchor="end" dominantBaseline="middle">
+                <text
+                  x={-10}
+                  y={y}
+                  fontSize={10.5}
+                  fontFamily={axisStyle.font.sans}
+                  fill={chartColors.inkSoft}
+                  textAnchor="end"
+                  dominantBaseline="middle"
+                >
                   {r.name.length > 40 ? `${r.name.slice(0, 39)}…` : r.name}
                 </text>
-                <line x1={x(r.default_V * 1e3)} x2={x(r.own_V * 1e3)} y1={y} y2={y} stroke={chartColors.lineStrong} strokeWidth={2} />
-                <circle cx={x(r.own_V * 1e3)} cy={y} r={4} fill={chartColors.surface} stroke={chartColors.inkSoft} strokeWidth={1.5} />
+                <line
+                  x1={x(r.default_V * 1e3)}
+                  x2={x(r.own_V * 1e3)}
+                  y1={y}
+                  y2={y}
+                  stroke={chartColors.lineStrong}
+                  strokeWidth={2}
+                />
+                <circle
+                  cx={x(r.own_V * 1e3)}
+                  cy={y}
+                  r={4}
+                  fill={chartColors.surface}
+                  stroke={chartColors.inkSoft}
+                  strokeWidth={1.5}
+                />
                 <circle cx={x(r.default_V * 1e3)} cy={y} r={4.5} fill={color} />
               </g>
             );
@@ -78,9 +135,24 @@ export default function HeadroomDumbbell(props: Props) {
         </Group>
       </svg>
       <ul className="mt-1 flex flex-wrap gap-x-5 gap-y-1 pl-4 text-xs text-ink-soft" aria-label="Legend">
-        <li className="flex items-center gap-1.5"><svg width={10} height={10} aria-hidden><circle cx={5} cy={5} r={4} fill={chartColors.good} /></svg>class default (meets the required headroom)</li>
-        <li className="flex items-center gap-1.5"><svg width={10} height={10} aria-hidden><circle cx={5} cy={5} r={4} fill={chartColors.bad} /></svg>class default (short)</li>
-        <li className="flex items-center gap-1.5"><svg width={10} height={10} aria-hidden><circle cx={5} cy={5} r={3.5} fill="white" stroke={chartColors.inkSoft} /></svg>the channel's own optimum</li>
+        <li className="flex items-center gap-1.5">
+          <svg width={10} height={10} aria-hidden>
+            <circle cx={5} cy={5} r={4} fill={chartColors.good} />
+          </svg>
+          class default (meets the required headroom)
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={10} height={10} aria-hidden>
+            <circle cx={5} cy={5} r={4} fill={chartColors.bad} />
+          </svg>
+          class default (short)
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width={10} height={10} aria-hidden>
+            <circle cx={5} cy={5} r={3.5} fill="white" stroke={chartColors.inkSoft} />
+          </svg>
+          the channel's own optimum
+        </li>
       </ul>
     </div>
   );

@@ -36,7 +36,10 @@ export default function NewVersion(props: Props) {
       if (parsed.join() !== props.edges_dB.join()) body.edges_dB = parsed;
     }
     void submit(async () => {
-      const r = await api<{ version: number }>(`/api/v1/tap-tables/${props.tableId}/versions`, { method: "POST", json: body });
+      const r = await api<{ version: number }>(`/api/v1/tap-tables/${props.tableId}/versions`, {
+        method: "POST",
+        json: body,
+      });
       location.href = `/tables/${props.tableId}?v=${r.version}`;
     });
   }
@@ -48,7 +51,9 @@ export default function NewVersion(props: Props) {
           <span>Budget</span>
           <select className="input max-w-80" value={budgetId} onChange={(e) => setBudget(Number(e.target.value))}>
             {props.budgets.map((b) => (
-              <option key={b.id} value={b.id}>{b.name}</option>
+              <option key={b.id} value={b.id}>
+                {b.name}
+              </option>
             ))}
           </select>
         </label>
@@ -60,13 +65,25 @@ export default function NewVersion(props: Props) {
         )}
         <label className="field grow">
           <span>What changes in v{props.next}</span>
-          <input className="input" maxLength={2000} value={note} onChange={(e) => setNote(e.target.value)} placeholder="e.g. budget re-run with the revised noise figure" />
+          <input
+            className="input"
+            maxLength={2000}
+            value={note}
+            onChange={(e) => setNote(e.target.value)}
+            placeholder="e.g. budget re-run with the revised noise figure"
+          />
         </label>
       </div>
       <CornerSweepSelect sweeps={props.sweeps} value={sweepId} onChange={setSweep} />
-      {error && <p className="notice notice-bad" role="alert">{error}</p>}
+      {error && (
+        <p className="notice notice-bad" role="alert">
+          {error}
+        </p>
+      )}
       <div>
-        <button className="btn btn-primary" type="submit" disabled={busy}>{busy ? "Starting…" : `Compute v${props.next}`}</button>
+        <button className="btn btn-primary" type="submit" disabled={busy}>
+          {busy ? "Starting…" : `Compute v${props.next}`}
+        </button>
       </div>
     </form>
   );

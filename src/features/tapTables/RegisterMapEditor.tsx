@@ -9,7 +9,14 @@ interface Props {
   resetKey?: string | number;
 }
 
-function NumberCell(props: { label: string; value: number; onCommit: (v: number) => void; step?: string; readOnly: boolean; integer?: boolean }) {
+function NumberCell(props: {
+  label: string;
+  value: number;
+  onCommit: (v: number) => void;
+  step?: string;
+  readOnly: boolean;
+  integer?: boolean;
+}) {
   if (props.readOnly) return <span className="num">{props.value}</span>;
   return (
     <input
@@ -28,12 +35,22 @@ function NumberCell(props: { label: string; value: number; onCommit: (v: number)
 
 export default function RegisterMapEditor(props: Props) {
   const readOnly = !props.onChange;
-  const set = (i: number, patch: Partial<RegisterField>) => props.onChange?.(props.fields.map((f, j) => (j === i ? { ...f, ...patch } : f)));
+  const set = (i: number, patch: Partial<RegisterField>) =>
+    props.onChange?.(props.fields.map((f, j) => (j === i ? { ...f, ...patch } : f)));
   return (
     <div className="overflow-x-auto">
       <table className="table" aria-label="Register map" data-testid="register-map">
         <thead>
-          <tr><th>Field</th><th>Holds</th><th>Bits</th><th>Signed</th><th>LSB</th><th>Min</th><th>Max</th><th>Unit</th></tr>
+          <tr>
+            <th>Field</th>
+            <th>Holds</th>
+            <th>Bits</th>
+            <th>Signed</th>
+            <th>LSB</th>
+            <th>Min</th>
+            <th>Max</th>
+            <th>Unit</th>
+          </tr>
         </thead>
         <tbody>
           {props.fields.map((f, i) => (
@@ -50,18 +67,59 @@ export default function RegisterMapEditor(props: Props) {
                   />
                 )}
               </td>
-              <td><code className="text-xs text-ink-soft">{f.parameter}</code></td>
-              <td><NumberCell label={`Bits of ${f.name}`} value={f.bits} step="1" integer readOnly={readOnly} onCommit={(bits) => set(i, { bits })} /></td>
+              <td>
+                <code className="text-xs text-ink-soft">{f.parameter}</code>
+              </td>
+              <td>
+                <NumberCell
+                  label={`Bits of ${f.name}`}
+                  value={f.bits}
+                  step="1"
+                  integer
+                  readOnly={readOnly}
+                  onCommit={(bits) => set(i, { bits })}
+                />
+              </td>
               <td>
                 {readOnly ? (
-                  f.signed ? "signed" : "unsigned"
+                  f.signed ? (
+                    "signed"
+                  ) : (
+                    "unsigned"
+                  )
                 ) : (
-                  <input type="checkbox" aria-label={`${f.name} is signed`} defaultChecked={f.signed} onChange={(e) => set(i, { signed: e.target.checked })} />
+                  <input
+                    type="checkbox"
+                    aria-label={`${f.name} is signed`}
+                    defaultChecked={f.signed}
+                    onChange={(e) => set(i, { signed: e.target.checked })}
+                  />
                 )}
               </td>
-              <td><NumberCell label={`LSB of ${f.name}`} value={f.lsb} readOnly={readOnly} onCommit={(lsb) => set(i, { lsb })} /></td>
-              <td><NumberCell label={`Min of ${f.name}`} value={f.min} readOnly={readOnly} onCommit={(min) => set(i, { min })} /></td>
-              <td><NumberCell label={`Max of ${f.name}`} value={f.max} readOnly={readOnly} onCommit={(max) => set(i, { max })} /></td>
+              <td>
+                <NumberCell
+                  label={`LSB of ${f.name}`}
+                  value={f.lsb}
+                  readOnly={readOnly}
+                  onCommit={(lsb) => set(i, { lsb })}
+                />
+              </td>
+              <td>
+                <NumberCell
+                  label={`Min of ${f.name}`}
+                  value={f.min}
+                  readOnly={readOnly}
+                  onCommit={(min) => set(i, { min })}
+                />
+              </td>
+              <td>
+                <NumberCell
+                  label={`Max of ${f.name}`}
+                  value={f.max}
+                  readOnly={readOnly}
+                  onCommit={(max) => set(i, { max })}
+                />
+              </td>
               <td className="text-xs text-muted">{unitLabels[f.unit]}</td>
             </tr>
           ))}

@@ -22,7 +22,10 @@ export default function VersionRegisterMap(props: Props) {
     setBusy(true);
     setError(null);
     try {
-      await api(`/api/v1/tap-tables/${props.tableId}/versions/${props.version}`, { method: "PUT", json: { registerMap: fields } });
+      await api(`/api/v1/tap-tables/${props.tableId}/versions/${props.version}`, {
+        method: "PUT",
+        json: { registerMap: fields },
+      });
       location.reload();
     } catch (e) {
       setError((e as Error).message);
@@ -33,16 +36,34 @@ export default function VersionRegisterMap(props: Props) {
   return (
     <div>
       <RegisterMapEditor fields={editing ? fields : props.fields} onChange={editing ? setFields : undefined} />
-      {error && <p className="notice notice-bad mt-2" role="alert">{error}</p>}
+      {error && (
+        <p className="notice notice-bad mt-2" role="alert">
+          {error}
+        </p>
+      )}
       {props.editable && (
         <div className="mt-3 flex gap-2">
           {editing ? (
             <>
-              <button className="btn btn-primary" type="button" onClick={save} disabled={busy}>{busy ? "Saving…" : "Save and recompute"}</button>
-              <button className="btn" type="button" onClick={() => { setEditing(false); setFields(props.fields); setError(null); }}>Cancel</button>
+              <button className="btn btn-primary" type="button" onClick={save} disabled={busy}>
+                {busy ? "Saving…" : "Save and recompute"}
+              </button>
+              <button
+                className="btn"
+                type="button"
+                onClick={() => {
+                  setEditing(false);
+                  setFields(props.fields);
+                  setError(null);
+                }}
+              >
+                Cancel
+              </button>
             </>
           ) : (
-            <button className="btn" type="button" onClick={() => setEditing(true)}>Edit the register map</button>
+            <button className="btn" type="button" onClick={() => setEditing(true)}>
+              Edit the register map
+            </button>
           )}
         </div>
       )}

@@ -7,7 +7,8 @@ import type { Architecture } from "@/features/studies/architecture";
 
 /** Why an architecture cannot have a tap table, or null when it can. */
 export function tapTableArchitectureProblem(a: Architecture): string | null {
-  if (!a.ctle) return `“${a.label}” has no CTLE; tap tables hold the budget's CTLE setting, so choose an architecture with one.`;
+  if (!a.ctle)
+    return `“${a.label}” has no CTLE; tap tables hold the budget's CTLE setting, so choose an architecture with one.`;
   return null;
 }
 
@@ -41,6 +42,10 @@ export function receiverOnlyBudget(b: Budget, ctle: { gDc_dB: number; gDc2_dB: n
   return {
     ...b,
     tx: { pre: 0, post: 0, step: 0.5, ranges: [[1, 1]] },
-    ctle: { ...b.ctle, gDc_dB: [ctle.gDc_dB, ctle.gDc_dB, 1], gDc2_dB: Array.isArray(g2) ? [ctle.gDc2_dB, ctle.gDc2_dB, 1] : g2 },
+    ctle: {
+      ...b.ctle,
+      gDc_dB: [ctle.gDc_dB, ctle.gDc_dB, 1],
+      gDc2_dB: Array.isArray(g2) ? [ctle.gDc2_dB, ctle.gDc2_dB, 1] : g2,
+    },
   };
 }

@@ -35,7 +35,10 @@ export interface VersionDiff {
   channels: ChannelDiff[];
 }
 
-function codeChanges(before: Record<string, number> | undefined, after: Record<string, number> | undefined): CodeChange[] {
+function codeChanges(
+  before: Record<string, number> | undefined,
+  after: Record<string, number> | undefined,
+): CodeChange[] {
   const fields = new Set([...Object.keys(after ?? {}), ...Object.keys(before ?? {})]);
   const out: CodeChange[] = [];
   for (const field of fields) {
@@ -46,10 +49,18 @@ function codeChanges(before: Record<string, number> | undefined, after: Record<s
   return out;
 }
 
-const memberKey = (c: ClassResult) => c.channels.map((ch) => ch.id).sort((a, b) => a - b).join(",");
+const memberKey = (c: ClassResult) =>
+  c.channels
+    .map((ch) => ch.id)
+    .sort((a, b) => a - b)
+    .join(",");
 
 /** The difference from `prev` (version `fromVersion`) to `next`. */
-export function diffVersions(fromVersion: number, prev: readonly ClassResult[], next: readonly ClassResult[]): VersionDiff {
+export function diffVersions(
+  fromVersion: number,
+  prev: readonly ClassResult[],
+  next: readonly ClassResult[],
+): VersionDiff {
   const byName = new Map(prev.map((c) => [c.name, c]));
   const byMembers = new Map(prev.map((c) => [memberKey(c), c]));
   const matched = new Set<ClassResult>();
@@ -66,9 +77,17 @@ export function diffVersions(fromVersion: number, prev: readonly ClassResult[], 
     };
   });
   for (const c of prev) {
-    if (!matched.has(c)) classes.push({ name: c.name, renamedFrom: null, status: "removed", codes: [], worstHeadroom_V: { from: c.worstHeadroom_V, to: null } });
+    if (!matched.has(c))
+      classes.push({
+        name: c.name,
+        renamedFrom: null,
+        status: "removed",
+        codes: [],
+        worstHeadroom_V: { from: c.worstHeadroom_V, to: null },
+      });
   }
-  const where = (list: readonly ClassResult[]) => new Map(list.flatMap((c) => c.channels.map((ch) => [ch.id, { ch, cls: c }] as const)));
+  const where = (list: readonly ClassResult[]) =>
+    new Map(list.flatMap((c) => c.channels.map((ch) => [ch.id, { ch, cls: c }] as const)));
   const before = where(prev);
   const after = where(next);
   const ids = [...new Set([...after.keys(), ...before.keys()])];

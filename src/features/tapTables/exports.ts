@@ -13,7 +13,13 @@ export interface ExportModel {
   version: number;
   state: VersionState;
   approval: { by: string; at: Date } | null;
-  budget: { name: string; modulation: string; bitRate_bps: number | null; targetBer: number; requiredHeadroom_V: number };
+  budget: {
+    name: string;
+    modulation: string;
+    bitRate_bps: number | null;
+    targetBer: number;
+    requiredHeadroom_V: number;
+  };
   architecture: Architecture;
   registerMap: RegisterField[];
   classes: ClassResult[];
@@ -71,7 +77,15 @@ export function csvCell(value: string | number | null): string {
  * channel_count, worst_headroom_mV`, then one column per register field holding its code.
  */
 function toCsv(m: ExportModel): string {
-  const header = ["class_index", "class_name", "loss_min_dB", "loss_max_dB", "channel_count", "worst_headroom_mV", ...m.registerMap.map((f) => f.name)];
+  const header = [
+    "class_index",
+    "class_name",
+    "loss_min_dB",
+    "loss_max_dB",
+    "channel_count",
+    "worst_headroom_mV",
+    ...m.registerMap.map((f) => f.name),
+  ];
   const rows = m.classes.map((c) => [
     c.index,
     c.name,
@@ -152,9 +166,13 @@ function toCHeader(m: ExportModel): string {
   const P = p.toUpperCase();
   const guard = `${P}_V${m.version}_H`;
   const lines: string[] = [];
-  lines.push(`/* ${commentText(`Tapwright tap table "${m.table.name}" v${m.version} — ${m.state === "approved" ? "signed off" : `NOT SIGNED OFF (${m.state})`}`)}`);
+  lines.push(
+    `/* ${commentText(`Tapwright tap table "${m.table.name}" v${m.version} — ${m.state === "approved" ? "signed off" : `NOT SIGNED OFF (${m.state})`}`)}`,
+  );
   if (m.approval) lines.push(` * ${commentText(`Approved by ${m.approval.by} on ${m.approval.at.toISOString()}`)}`);
-  lines.push(` * ${commentText(`Budget: ${m.budget.name} (${m.budget.modulation.toUpperCase()}, target BER ${m.budget.targetBer})`)}`);
+  lines.push(
+    ` * ${commentText(`Budget: ${m.budget.name} (${m.budget.modulation.toUpperCase()}, target BER ${m.budget.targetBer})`)}`,
+  );
   lines.push(` * ${commentText(`Architecture: ${m.architecture.label}`)}`);
   lines.push(` * ${commentText(`Generated ${m.generatedAt.toISOString()} by engine ${m.engineVersion}.`)}`);
   lines.push(" * Estimates from linear models; confirm on real hardware before production.");
@@ -168,7 +186,9 @@ function toCHeader(m: ExportModel): string {
   for (const f of m.registerMap) {
     const F = `${P}_${f.name.toUpperCase()}`;
     const { lo, hi } = codeRange(f);
-    lines.push(`/* ${commentText(`${f.name}: ${f.parameter}, LSB ${f.lsb} ${f.unit}, range ${f.min} … ${f.max} ${f.unit}`)} */`);
+    lines.push(
+      `/* ${commentText(`${f.name}: ${f.parameter}, LSB ${f.lsb} ${f.unit}, range ${f.min} … ${f.max} ${f.unit}`)} */`,
+    );
     lines.push(`#define ${F}_BITS ${f.bits}u`);
     lines.push(`#define ${F}_SIGNED ${f.signed ? 1 : 0}`);
     lines.push(`#define ${F}_LSB ${cNumber(f.lsb)}`);
@@ -187,7 +207,9 @@ function toCHeader(m: ExportModel): string {
   lines.push(`} ${p}_setting_t;`, "");
   lines.push(`static const ${p}_setting_t ${p}_defaults[${P}_CLASS_COUNT] = {`);
   m.classes.forEach((c, i) => {
-    lines.push(`  /* ${commentText(`${c.name}: ${c.channels.length} channels, worst limiter headroom ${(c.worstHeadroom_V * 1e3).toFixed(1)} mV`)} */`);
+    lines.push(
+      `  /* ${commentText(`${c.name}: ${c.channels.length} channels, worst limiter headroom ${(c.worstHeadroom_V * 1e3).toFixed(1)} mV`)} */`,
+    );
     const members = m.registerMap.map((f) => `.${memberName(f.name)} = ${c.codes[f.name]}`).join(", ");
     lines.push(`  [${P}_CLASS_${classIds[i]}] = { ${members} },`);
   });
@@ -197,7 +219,12 @@ function toCHeader(m: ExportModel): string {
 
 /** A class name as a C identifier, its comparisons spelled out: "Loss ≥ 16 dB" → LOSS_GE_16_DB, "Loss 12–20 dB" → LOSS_12_TO_20_DB. */
 function classIdentifier(name: string): string {
-  const spelled = name.replace(/≥|>=/g, " ge ").replace(/≤|<=/g, " le ").replace(/</g, " lt ").replace(/>/g, " gt ").replace(/[–—]/g, " to ");
+  const spelled = name
+    .replace(/≥|>=/g, " ge ")
+    .replace(/≤|<=/g, " le ")
+    .replace(/</g, " lt ")
+    .replace(/>/g, " gt ")
+    .replace(/[–—]/g, " to ");
   return slug(spelled, 32).toUpperCase();
 }
 
@@ -214,9 +241,11 @@ function uniqueIdentifiers(ids: string[], taken: Iterable<string> = []): string[
 
 /** C99 and C11 keywords, and the C23 ones a newer compiler reserves, in the lower case field names use. */
 const C_KEYWORDS = new Set(
-  ("auto break case char const continue default do double else enum extern float for goto if inline int long register restrict return " +
+  (
+    "auto break case char const continue default do double else enum extern float for goto if inline int long register restrict return " +
     "short signed sizeof static struct switch typedef union unsigned void volatile while alignas alignof bool constexpr false nullptr " +
-    "static_assert thread_local true typeof typeof_unqual").split(" "),
+    "static_assert thread_local true typeof typeof_unqual"
+  ).split(" "),
 );
 
 /** A register field's name as a struct member: a C keyword gets a trailing underscore ("int" → "int_"). */

@@ -39,7 +39,10 @@ function binName(lo: number | null, hi: number | null): string {
  *
  * @param channels - every channel the grouping names, by id.
  */
-export function classesOf<T extends GroupableChannel>(grouping: Grouping, channels: ReadonlyMap<number, T>): ChannelClass<T>[] {
+export function classesOf<T extends GroupableChannel>(
+  grouping: Grouping,
+  channels: ReadonlyMap<number, T>,
+): ChannelClass<T>[] {
   if (grouping.mode === "manual") {
     return grouping.classes.map((c, i) => ({
       name: c.name,
@@ -53,7 +56,8 @@ export function classesOf<T extends GroupableChannel>(grouping: Grouping, channe
   }
   const edges = grouping.edges_dB;
   const bounds: [number | null, number | null][] = [];
-  for (let i = 0; i <= edges.length; i++) bounds.push([i === 0 ? null : edges[i - 1], i === edges.length ? null : edges[i]]);
+  for (let i = 0; i <= edges.length; i++)
+    bounds.push([i === 0 ? null : edges[i - 1], i === edges.length ? null : edges[i]]);
   const bins: T[][] = bounds.map(() => []);
   grouping.channelIds.forEach((id, j) => {
     const ch = channels.get(id);

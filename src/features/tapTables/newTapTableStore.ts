@@ -99,7 +99,11 @@ function txOf(b: TapTableBudgetChoice | undefined): { pre: number; post: number 
   return pre + post > 0 ? { pre, post } : { pre: 1, post: 1 };
 }
 
-export function createNewTapTableStore(init: { budgets: TapTableBudgetChoice[]; studies: DecidedStudy[]; channels: TapTableChannelChoice[] }) {
+export function createNewTapTableStore(init: {
+  budgets: TapTableBudgetChoice[];
+  studies: DecidedStudy[];
+  channels: TapTableChannelChoice[];
+}) {
   const firstStudy = init.studies[0];
   return createStore<NewTapTableState>()((set, get) => ({
     name: "",
@@ -122,16 +126,31 @@ export function createNewTapTableStore(init: { budgets: TapTableBudgetChoice[]; 
     setBudget: (budgetId) =>
       set((s) => {
         const b = init.budgets.find((x) => x.id === budgetId);
-        return { budgetId, manual: { tx: txOf(b), dfeTaps: b?.params.dfe?.taps ?? 0 }, customMap: null, mapKey: s.mapKey + 1 };
+        return {
+          budgetId,
+          manual: { tx: txOf(b), dfeTaps: b?.params.dfe?.taps ?? 0 },
+          customMap: null,
+          mapKey: s.mapKey + 1,
+        };
       }),
     useStudy: (id) =>
       set((s) => {
         const study = init.studies.find((x) => x.id === id);
         if (!study) return { source: "manual", studyId: null, customMap: null, mapKey: s.mapKey + 1 };
-        return { source: "study", studyId: study.id, budgetId: study.budgetId, channelIds: study.channelIds, customMap: null, mapKey: s.mapKey + 1 };
+        return {
+          source: "study",
+          studyId: study.id,
+          budgetId: study.budgetId,
+          channelIds: study.channelIds,
+          customMap: null,
+          mapKey: s.mapKey + 1,
+        };
       }),
     setManual: (patch) => set((s) => ({ manual: { ...s.manual, ...patch }, customMap: null, mapKey: s.mapKey + 1 })),
-    toggleChannel: (id) => set((s) => ({ channelIds: s.channelIds.includes(id) ? s.channelIds.filter((x) => x !== id) : [...s.channelIds, id] })),
+    toggleChannel: (id) =>
+      set((s) => ({
+        channelIds: s.channelIds.includes(id) ? s.channelIds.filter((x) => x !== id) : [...s.channelIds, id],
+      })),
     setChannels: (channelIds) => set({ channelIds }),
     assign: (id, className) => set((s) => ({ assignment: { ...s.assignment, [id]: className } })),
     editMap: (fields) => set({ customMap: fields }),
@@ -170,13 +189,18 @@ export function createNewTapTableStore(init: { budgets: TapTableBudgetChoice[]; 
 }
 
 /** The architecture the builder currently stands for. */
-export function architectureOf(s: Pick<NewTapTableState, "source" | "studyId" | "manual">, studies: DecidedStudy[]): Architecture | null {
+export function architectureOf(
+  s: Pick<NewTapTableState, "source" | "studyId" | "manual">,
+  studies: DecidedStudy[],
+): Architecture | null {
   if (s.source === "study") return studies.find((x) => x.id === s.studyId)?.architecture ?? null;
   return manualArchitecture(s.manual);
 }
 
 /** The grouping request, or a sentence saying what is missing. */
-export function groupingOf(s: Pick<NewTapTableState, "mode" | "edgesText" | "channelIds" | "assignment">): Grouping | string {
+export function groupingOf(
+  s: Pick<NewTapTableState, "mode" | "edgesText" | "channelIds" | "assignment">,
+): Grouping | string {
   if (s.channelIds.length === 0) return "Choose at least one channel.";
   if (s.mode === "loss-bins") {
     const edges = parseEdges(s.edgesText);

@@ -19,13 +19,25 @@ export const registerFieldSchema = registerFieldObject
     name: z
       .string()
       .trim()
-      .regex(/^[a-z][a-z0-9_]{0,31}$/, "A field name is a C identifier in lowercase: a letter, then letters, digits or _ (at most 32)."),
+      .regex(
+        /^[a-z][a-z0-9_]{0,31}$/,
+        "A field name is a C identifier in lowercase: a letter, then letters, digits or _ (at most 32).",
+      ),
     bits: registerFieldObject.shape.bits.max(16, "A field has at most 16 bits."),
   })
   .superRefine((f, ctx) => {
-    if (f.min > f.max) ctx.addIssue({ code: "custom", path: ["min"], message: `${f.name}: min (${f.min}) must not exceed max (${f.max}).` });
+    if (f.min > f.max)
+      ctx.addIssue({
+        code: "custom",
+        path: ["min"],
+        message: `${f.name}: min (${f.min}) must not exceed max (${f.max}).`,
+      });
     if (!f.signed && f.min < 0) {
-      ctx.addIssue({ code: "custom", path: ["signed"], message: `${f.name}: the range goes below 0, so the field must be signed.` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["signed"],
+        message: `${f.name}: the range goes below 0, so the field must be signed.`,
+      });
     }
   });
 export type RegisterField = z.infer<typeof registerFieldSchema>;
@@ -34,7 +46,10 @@ export const registerMapSchema = z
   .array(registerFieldSchema, { error: "The register map is a list of fields." })
   .min(1, "The register map needs at least one field.")
   .max(MAX_REGISTER_FIELDS, `At most ${MAX_REGISTER_FIELDS} fields.`)
-  .refine((fs) => new Set(fs.map((f) => f.name)).size === fs.length, "Two fields have the same name; names must be unique.")
+  .refine(
+    (fs) => new Set(fs.map((f) => f.name)).size === fs.length,
+    "Two fields have the same name; names must be unique.",
+  )
   .refine((fs) => new Set(fs.map((f) => f.parameter)).size === fs.length, "Two fields hold the same parameter.");
 
 /** The budget fields the default map reads (a subset of lib/contract/budget.ts's Budget). */
@@ -106,7 +121,9 @@ export function defaultRegisterMap(a: Architecture, budget: BudgetForMap): Regis
   }
   const limits = budget.dfe?.limits_V;
   for (let n = 1; n <= a.dfeTaps; n++) {
-    const limit = Array.isArray(limits) ? limits[Math.min(n - 1, limits.length - 1)] : (limits ?? budget.txSwing_Vppd / 2);
+    const limit = Array.isArray(limits)
+      ? limits[Math.min(n - 1, limits.length - 1)]
+      : (limits ?? budget.txSwing_Vppd / 2);
     const lsb = DFE_LSBS_V.find((x) => limit / x <= 127) ?? DFE_LSBS_V[DFE_LSBS_V.length - 1];
     fields.push(field(`dfe_tap${n}`, `dfe[${n}]`, "V", lsb, -limit, limit));
   }
@@ -123,22 +140,33 @@ export function requiredParameters(a: Architecture, budget: BudgetForMap): strin
  * with no code inside its range at its width and LSB; null when the map fits. `path` names the
  * request field at fault.
  */
-export function registerMapProblem(map: readonly RegisterField[], architecture: Architecture, budget: BudgetForMap): { message: string; path: string } | null {
+export function registerMapProblem(
+  map: readonly RegisterField[],
+  architecture: Architecture,
+  budget: BudgetForMap,
+): { message: string; path: string } | null {
   const needed = requiredParameters(architecture, budget);
   const have = new Set(map.map((f) => f.parameter));
   const missing = needed.filter((p) => !have.has(p));
   if (missing.length > 0) {
-    return { message: `The register map has no field for ${missing.join(", ")} (the architecture “${architecture.label}” needs one).`, path: "registerMap" };
+    return {
+      message: `The register map has no field for ${missing.join(", ")} (the architecture “${architecture.label}” needs one).`,
+      path: "registerMap",
+    };
   }
   const stray = map.findIndex((f) => !needed.includes(f.parameter));
   if (stray !== -1) {
-    return { message: `The field “${map[stray].name}” holds ${map[stray].parameter}, which “${architecture.label}” does not have.`, path: `registerMap.${stray}.parameter` };
+    return {
+      message: `The field “${map[stray].name}” holds ${map[stray].parameter}, which “${architecture.label}” does not have.`,
+      path: `registerMap.${stray}.parameter`,
+    };
   }
   for (const [i, f] of map.entries()) {
     try {
       codeRange(f);
     } catch (e) {
-      if (e instanceof RangeError) return { message: `${e.message}; widen the field or change its LSB or range.`, path: `registerMap.${i}` };
+      if (e instanceof RangeError)
+        return { message: `${e.message}; widen the field or change its LSB or range.`, path: `registerMap.${i}` };
       throw e;
     }
   }
@@ -157,5 +185,7 @@ export function formatLsb(f: Pick<RegisterField, "unit" | "lsb">): string {
   if (f.unit === "V") return `${Number((f.lsb * 1e3).toPrecision(4))} mV`;
   if (f.unit === "dB") return `${Number(f.lsb.toPrecision(4))} dB`;
   const inv = 1 / f.lsb;
-  return Number.isInteger(Math.round(inv * 1e9) / 1e9) ? `1/${Math.round(inv)}` : Number(f.lsb.toPrecision(4)).toString();
+  return Number.isInteger(Math.round(inv * 1e9) / 1e9)
+    ? `1/${Math.round(inv)}`
+    : Number(f.lsb.toPrecision(4)).toString();
 }

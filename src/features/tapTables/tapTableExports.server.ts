@@ -13,15 +13,30 @@ import { getVersion, versionRow } from "./tapTables.server";
 import type { ExportFormat, VersionResult } from "./tapTables";
 
 /** GET …/export?format=: the file, with the export recorded in the audit trail. */
-export async function exportVersion(user: SessionUser, via: "session" | "token" | null, tableId: number, v: number, format: ExportFormat): Promise<Download> {
+export async function exportVersion(
+  user: SessionUser,
+  via: "session" | "token" | null,
+  tableId: number,
+  v: number,
+  format: ExportFormat,
+): Promise<Download> {
   const { version, table } = await versionRow(tableId, v);
   if (!version.result) {
-    throw conflict(version.state === "failed" ? `v${v} failed to compute; there is nothing to export.` : `v${v} is still computing; export it when it is done.`);
+    throw conflict(
+      version.state === "failed"
+        ? `v${v} failed to compute; there is nothing to export.`
+        : `v${v} is still computing; export it when it is done.`,
+    );
   }
   const model = await exportModel(table, version, version.result);
   const body = renderExport(model, format);
   await recordAudit(db, user, "table.export", "tap-table", tableId, { version: v, format, state: version.state, via });
-  return { filename: exportFilename(model, format), contentType: exportMediaType(format), body, cacheControl: "no-store" };
+  return {
+    filename: exportFilename(model, format),
+    contentType: exportMediaType(format),
+    body,
+    cacheControl: "no-store",
+  };
 }
 
 /** The approval behind a version (the approving sign-off's reviewer and time), if any. */
@@ -35,7 +50,11 @@ async function approvalOf(versionId: number) {
   return row && row.at ? { by: row.by, at: row.at } : null;
 }
 
-async function exportModel(table: typeof tapTables.$inferSelect, version: TapTableVersion, result: VersionResult): Promise<ExportModel> {
+async function exportModel(
+  table: typeof tapTables.$inferSelect,
+  version: TapTableVersion,
+  result: VersionResult,
+): Promise<ExportModel> {
   const inputs = version.inputs;
   const b = parseBudget(inputs.budget.params, inputs.budget.name);
   return {

@@ -11,12 +11,27 @@ import type { LinkAggressor } from "@lib/crosstalk";
 import { prepareChannels, resolveBudget, searchSpace } from "@lib/optimize";
 import { pulseFromJson } from "@lib/pulse";
 import { ENGINE_VERSION, tuningRun } from "@lib/run";
-import { aggressorsOnGrid, ownOptimum, populationDefault, type OwnOptimum, type PopulationResult } from "@lib/tapTables";
+import {
+  aggressorsOnGrid,
+  ownOptimum,
+  populationDefault,
+  type OwnOptimum,
+  type PopulationResult,
+} from "@lib/tapTables";
 import type { Pulse } from "@lib/types";
 import type { Budget } from "@lib/contract/budget";
 import { pulsesAtLoss, type CornerChannel } from "@/features/channels/lossCorners";
 import { budgetForArchitecture, receiverOnlyBudget, tapTableArchitectureProblem } from "./architectureBudget";
-import type { Architecture, ClassResult, ChannelHeadroom, VersionChannel, VersionClass, VersionInputs, VersionResult, WorstEye } from "./tapTables";
+import type {
+  Architecture,
+  ClassResult,
+  ChannelHeadroom,
+  VersionChannel,
+  VersionClass,
+  VersionInputs,
+  VersionResult,
+  WorstEye,
+} from "./tapTables";
 
 /** Share of the progress bar the worst channel's eyes take at the end (one-go computation). */
 const EYE_SHARE = 0.1;
@@ -29,7 +44,8 @@ export interface TableBasis {
 }
 
 /** A channel of the version as a step gets it: the copy, with its Touchstone text when a corner needs it. */
-export type TableChannel = Omit<VersionChannel, "kind" | "derivation"> & Partial<Pick<VersionChannel, "kind" | "derivation">> & { touchstone: string | null };
+export type TableChannel = Omit<VersionChannel, "kind" | "derivation"> &
+  Partial<Pick<VersionChannel, "kind" | "derivation">> & { touchstone: string | null };
 
 /** The budget the architecture leaves (its FIR, CTLE, DFE out of the budget's), validated. */
 function derivedBudget(basis: TableBasis): Budget {
@@ -43,8 +59,16 @@ const cornersOf = (basis: TableBasis): Corner[] => basis.corners ?? [{ name: "no
 
 /** A channel's pulses at every corner's loss; a corner the engine refuses fails the version, saying which. */
 function channelPulses(ch: TableChannel, corners: Corner[]): Pulse[] {
-  const source: CornerChannel = { kind: ch.kind ?? "pulse-csv", pulse: ch.pulse, derivation: ch.derivation ?? {}, touchstone: ch.touchstone };
-  return pulsesAtLoss(source, corners.map((c) => c.lossScale ?? 1)).map((p, k) => {
+  const source: CornerChannel = {
+    kind: ch.kind ?? "pulse-csv",
+    pulse: ch.pulse,
+    derivation: ch.derivation ?? {},
+    touchstone: ch.touchstone,
+  };
+  return pulsesAtLoss(
+    source,
+    corners.map((c) => c.lossScale ?? 1),
+  ).map((p, k) => {
     if (p instanceof Error) throw new Error(`“${ch.name}” at corner “${corners[k].name}”: ${p.message}`);
     return p;
   });
@@ -78,7 +102,11 @@ export function computeTableMember(input: TableMemberInput, onProgress: (fractio
   const pulses = channelPulses(input.channel, corners);
   const own = pulses.map((p, k) => {
     // Its aggressors are in every eye of its own optimum, as in the class default's.
-    const o = ownOptimum(p, budgets[k], prepareChannels(p, searchSpace(p, budgets[k]), channelAggressors(input.channel, p)));
+    const o = ownOptimum(
+      p,
+      budgets[k],
+      prepareChannels(p, searchSpace(p, budgets[k]), channelAggressors(input.channel, p)),
+    );
     onProgress((k + 1) / pulses.length);
     return o;
   });
@@ -133,7 +161,11 @@ export function computeTableClass(input: TableClassInput, onProgress: (fraction:
       ...(input.corners
         ? {
             worstCorner: corners[k].name,
-            corners: at.map((m, i) => ({ name: corners[i].name, defaultHeadroom_V: m.defaultHeadroom_V, ownHeadroom_V: m.ownHeadroom_V })),
+            corners: at.map((m, i) => ({
+              name: corners[i].name,
+              defaultHeadroom_V: m.defaultHeadroom_V,
+              ownHeadroom_V: m.ownHeadroom_V,
+            })),
           }
         : {}),
     };
@@ -161,7 +193,11 @@ export interface TableVersionInput extends TableBasis {
 }
 
 /** Which class and member are the version's worst: the lowest headroom over all classes. */
-export function worstOf(classes: readonly TableClassResult[]): { classIndex: number; channelIndex: number; cornerIndex: number } {
+export function worstOf(classes: readonly TableClassResult[]): {
+  classIndex: number;
+  channelIndex: number;
+  cornerIndex: number;
+} {
   let ci = 0;
   classes.forEach((c, i) => {
     if (c.result.worstHeadroom_V < classes[ci].result.worstHeadroom_V) ci = i;
@@ -184,8 +220,15 @@ export function finishTableVersion(input: TableVersionInput, onProgress: (fracti
   const pulse = channelPulses(input.worstChannel, [corner])[0];
   const withTx = applyFir(pulse, Float64Array.from(cls.setting.tx.taps), derived.tx.pre);
   // FEXT aggressors follow the victim's FIR: the default's, given here since the channel carries it already.
-  const aggressors = channelAggressors(input.worstChannel, pulse).map((a) => (a.kind === "fext" ? { ...a, txTaps: cls.setting.tx.taps } : a));
-  const run = tuningRun(withTx, receiverOnlyBudget(cornerBudget(derived, corner), cls.setting.ctle), onProgress, aggressors);
+  const aggressors = channelAggressors(input.worstChannel, pulse).map((a) =>
+    a.kind === "fext" ? { ...a, txTaps: cls.setting.tx.taps } : a,
+  );
+  const run = tuningRun(
+    withTx,
+    receiverOnlyBudget(cornerBudget(derived, corner), cls.setting.ctle),
+    onProgress,
+    aggressors,
+  );
   const worstEye: WorstEye = {
     channelId: input.worstChannel.id,
     channelName: input.worstChannel.name,
@@ -223,7 +266,11 @@ export function tableBasis(inputs: VersionInputs): TableBasis {
  * The whole version in one go (the demo seed computes its hand-off here): the same three steps, for
  * versions whose corners need no Touchstone file (`touchstone` gives a channel's text when they do).
  */
-export function computeTapTableVersion(inputs: VersionInputs, onProgress: (fraction: number) => void, touchstone: (channelId: number) => string | null = () => null): VersionResult {
+export function computeTapTableVersion(
+  inputs: VersionInputs,
+  onProgress: (fraction: number) => void,
+  touchstone: (channelId: number) => string | null = () => null,
+): VersionResult {
   const basis = tableBasis(inputs);
   const withText = (ch: VersionChannel): TableChannel => ({ ...ch, touchstone: touchstone(ch.id) });
   const total = inputs.classes.reduce((n, c) => n + c.channels.length, 0);
@@ -232,12 +279,16 @@ export function computeTapTableVersion(inputs: VersionInputs, onProgress: (fract
     const weight = cls.channels.length;
     const channels = cls.channels.map(withText);
     const own = channels.map((channel) => computeTableMember({ ...basis, channel }, () => {}));
-    const r = computeTableClass({ ...basis, registerMap: inputs.registerMap, index, cls: { ...cls, channels }, own }, (f) =>
-      onProgress(((done + f * weight) / total) * (1 - EYE_SHARE)),
+    const r = computeTableClass(
+      { ...basis, registerMap: inputs.registerMap, index, cls: { ...cls, channels }, own },
+      (f) => onProgress(((done + f * weight) / total) * (1 - EYE_SHARE)),
     );
     done += weight;
     return r;
   });
   const w = worstOf(classes);
-  return finishTableVersion({ ...basis, classes, worstChannel: withText(inputs.classes[w.classIndex].channels[w.channelIndex]) }, (f) => onProgress(1 - EYE_SHARE + EYE_SHARE * f));
+  return finishTableVersion(
+    { ...basis, classes, worstChannel: withText(inputs.classes[w.classIndex].channels[w.channelIndex]) },
+    (f) => onProgress(1 - EYE_SHARE + EYE_SHARE * f),
+  );
 }

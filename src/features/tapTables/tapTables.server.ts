@@ -60,7 +60,9 @@ export async function getVersion(tableId: number, v: number) {
     .innerJoin(users, eq(users.id, signOffs.reviewerId))
     .where(eq(signOffs.versionId, version.id))
     .orderBy(asc(signOffs.id));
-  const [creator] = version.createdBy ? await db.select({ name: users.name }).from(users).where(eq(users.id, version.createdBy)) : [];
+  const [creator] = version.createdBy
+    ? await db.select({ name: users.name }).from(users).where(eq(users.id, version.createdBy))
+    : [];
   return {
     table: { id: table.id, name: table.name, description: table.description },
     id: version.id,
@@ -75,7 +77,14 @@ export async function getVersion(tableId: number, v: number) {
     result,
     engineVersion: version.engineVersion,
     diff,
-    signOffs: reviews.map(({ s, reviewer }) => ({ id: s.id, state: s.state, reviewer, createdAt: s.createdAt, decidedAt: s.decidedAt, decisionComment: s.decisionComment })),
+    signOffs: reviews.map(({ s, reviewer }) => ({
+      id: s.id,
+      state: s.state,
+      reviewer,
+      createdAt: s.createdAt,
+      decidedAt: s.decidedAt,
+      decisionComment: s.decisionComment,
+    })),
   };
 }
 
@@ -96,7 +105,9 @@ export async function getTapTable(tableId: number) {
       budget: sql<string>`JSON_VALUE(${tapTableVersions.inputs}, '$.budget.name')`,
       classCount: sql<number>`JSON_LENGTH(${tapTableVersions.inputs}, '$.classes')`,
       channelCount: sql<number>`JSON_LENGTH(JSON_EXTRACT(${tapTableVersions.inputs}, '$.classes[*].channels[*].name'))`,
-      worstHeadroom_V: sql<number | null>`(SELECT MIN(r.worst_headroom_v) FROM ${tapTableRows} r WHERE r.version_id = ${tapTableVersions.id})`,
+      worstHeadroom_V: sql<
+        number | null
+      >`(SELECT MIN(r.worst_headroom_v) FROM ${tapTableRows} r WHERE r.version_id = ${tapTableVersions.id})`,
       frozenAt: tapTableVersions.frozenAt,
       createdBy: users.name,
       createdAt: tapTableVersions.createdAt,
@@ -148,7 +159,9 @@ export async function listTapTables(limit: number, cursor?: number) {
       architecture: sql<string | null>`JSON_VALUE(${latest.inputs}, '$.architecture.label')`,
       budget: sql<string | null>`JSON_VALUE(${latest.inputs}, '$.budget.name')`,
       classCount: sql<number | null>`JSON_LENGTH(${latest.inputs}, '$.classes')`,
-      signedOffVersion: sql<number | null>`(SELECT MAX(a.version) FROM ${tapTableVersions} a WHERE a.table_id = ${tapTables.id} AND a.state = 'approved')`,
+      signedOffVersion: sql<
+        number | null
+      >`(SELECT MAX(a.version) FROM ${tapTableVersions} a WHERE a.table_id = ${tapTables.id} AND a.state = 'approved')`,
     })
     .from(tapTables)
     .leftJoin(users, eq(users.id, tapTables.createdBy))

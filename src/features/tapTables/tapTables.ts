@@ -15,10 +15,16 @@ export { architectureSchema, type Architecture };
 export const versionStates = ["computing", "failed", "ready", "in-review", "approved", "changes-requested"] as const;
 export type VersionState = (typeof versionStates)[number];
 
-const name = z.string({ error: "Give the tap table a name." }).trim().min(1, "Give the tap table a name.").max(200, "Keep the name under 200 characters.");
+const name = z
+  .string({ error: "Give the tap table a name." })
+  .trim()
+  .min(1, "Give the tap table a name.")
+  .max(200, "Keep the name under 200 characters.");
 const note = z.string().trim().max(2000, "Keep the note under 2000 characters.");
 const channelIds = z
-  .array(z.int({ error: "Channel ids are whole numbers." }).positive(), { error: "Give the channels as a list of ids." })
+  .array(z.int({ error: "Channel ids are whole numbers." }).positive(), {
+    error: "Give the channels as a list of ids.",
+  })
   .min(1, "Choose at least one channel.")
   .max(200, "A tap table covers at most 200 channels.")
   .refine((ids) => new Set(ids).size === ids.length, "A channel appears twice; list each channel once.");
@@ -27,9 +33,15 @@ const channelIds = z
 export const MAX_CLASSES = 16;
 
 const edgesSchema = z
-  .array(z.number({ error: "Bin edges are numbers of dB." }).min(0, "Bin edges are ≥ 0 dB.").max(80, "Bin edges are ≤ 80 dB."), {
-    error: "Give the bin edges in dB, e.g. [12, 20, 28].",
-  })
+  .array(
+    z
+      .number({ error: "Bin edges are numbers of dB." })
+      .min(0, "Bin edges are ≥ 0 dB.")
+      .max(80, "Bin edges are ≤ 80 dB."),
+    {
+      error: "Give the bin edges in dB, e.g. [12, 20, 28].",
+    },
+  )
   .max(MAX_CLASSES - 1, `At most ${MAX_CLASSES - 1} edges (${MAX_CLASSES} classes).`)
   .refine((e) => e.every((x, i) => i === 0 || x > e[i - 1]), "Bin edges must ascend, e.g. [12, 20, 28].");
 
@@ -56,7 +68,10 @@ export const groupingSchema = z.discriminatedUnion(
         )
         .min(1, "Give at least one class.")
         .max(MAX_CLASSES, `At most ${MAX_CLASSES} classes.`)
-        .refine((cs) => new Set(cs.map((c) => c.name.toLowerCase())).size === cs.length, "Two classes have the same name.")
+        .refine(
+          (cs) => new Set(cs.map((c) => c.name.toLowerCase())).size === cs.length,
+          "Two classes have the same name.",
+        )
         .refine((cs) => {
           const all = cs.flatMap((c) => c.channelIds);
           return new Set(all).size === all.length;
@@ -94,10 +109,17 @@ export const createVersionRequest = z
     /** New loss-bin edges for the same channels (instead of a whole grouping). */
     edges_dB: edgesSchema.optional(),
     /** The corners of this sweep (null: none); left out, the latest version's corners are kept. */
-    sweepId: z.int({ error: "The sweep id is a whole number, or null for no corners." }).positive().nullable().optional(),
+    sweepId: z
+      .int({ error: "The sweep id is a whole number, or null for no corners." })
+      .positive()
+      .nullable()
+      .optional(),
     note: note.optional(),
   })
-  .refine((r) => !(r.grouping && r.edges_dB), { message: "Give either grouping or edges_dB, not both.", path: ["edges_dB"] });
+  .refine((r) => !(r.grouping && r.edges_dB), {
+    message: "Give either grouping or edges_dB, not both.",
+    path: ["edges_dB"],
+  });
 export type CreateVersionRequest = z.infer<typeof createVersionRequest>;
 
 /** PUT /api/v1/tap-tables/:id/versions/:v: edit a version that is not frozen or in review. */
@@ -112,7 +134,9 @@ export const exportQuery = z.object({
   format: z.enum(exportFormats, { error: 'format must be "csv", "json" or "c".' }).default("json"),
 });
 
-export const tapTableParams = z.object({ id: z.coerce.number({ error: "The table id must be a number." }).int().positive() });
+export const tapTableParams = z.object({
+  id: z.coerce.number({ error: "The table id must be a number." }).int().positive(),
+});
 export const versionParams = tapTableParams.extend({
   v: z.coerce.number({ error: "The version must be a number (1, 2, …)." }).int().positive(),
 });
@@ -147,7 +171,11 @@ export interface VersionInputs {
   budget: { id: number; name: string; params: BudgetInput };
   architecture: Architecture;
   /** The study and its decision record, when the architecture came from one. */
-  study: { id: number; name: string; decision: { candidateKey: string; rationale: string; decidedBy: string | null; decidedAt: string | null } } | null;
+  study: {
+    id: number;
+    name: string;
+    decision: { candidateKey: string; rationale: string; decidedBy: string | null; decidedAt: string | null };
+  } | null;
   registerMap: RegisterField[];
   grouping: { mode: Grouping["mode"]; edges_dB?: number[] };
   classes: VersionClass[];
@@ -265,7 +293,11 @@ export function headroomRows(classes: readonly ClassResult[], required_V: number
   return classes.flatMap((c) =>
     [...c.channels]
       .sort((a, b) => (a.lossAtNyquist_dB ?? 0) - (b.lossAtNyquist_dB ?? 0))
-      .map((ch) => ({ ...ch, className: c.name, meetsRequired: meetsRequiredHeadroom(ch.defaultHeadroom_V, required_V) })),
+      .map((ch) => ({
+        ...ch,
+        className: c.name,
+        meetsRequired: meetsRequiredHeadroom(ch.defaultHeadroom_V, required_V),
+      })),
   );
 }
 

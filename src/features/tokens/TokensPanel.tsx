@@ -27,7 +27,10 @@ export default function TokensPanel(props: { tokens: Token[]; all?: boolean }) {
     const form = event.currentTarget;
     setError(null);
     try {
-      const r = await api<{ secret: string }>("/api/v1/tokens", { method: "POST", json: { name: new FormData(form).get("name") } });
+      const r = await api<{ secret: string }>("/api/v1/tokens", {
+        method: "POST",
+        json: { name: new FormData(form).get("name") },
+      });
       setSecret(r.secret);
       form.reset();
       await reload();
@@ -48,33 +51,69 @@ export default function TokensPanel(props: { tokens: Token[]; all?: boolean }) {
   return (
     <section className="card">
       <h2>{props.all ? "Everyone's API tokens" : "API tokens"}</h2>
-      <p className="help mt-1">For build scripts: <code>Authorization: Bearer &lt;token&gt;</code> reads the workspace and exports tap tables. Tokens cannot change anything.</p>
+      <p className="help mt-1">
+        For build scripts: <code>Authorization: Bearer &lt;token&gt;</code> reads the workspace and exports tap tables.
+        Tokens cannot change anything.
+      </p>
       {!props.all && (
         <form className="mt-3 flex items-end gap-3" onSubmit={create}>
-          <label className="field"><span>Name</span><input className="input w-72" name="name" placeholder="firmware build server" required /></label>
-          <button className="btn btn-primary" type="submit">Create token</button>
+          <label className="field">
+            <span>Name</span>
+            <input className="input w-72" name="name" placeholder="firmware build server" required />
+          </label>
+          <button className="btn btn-primary" type="submit">
+            Create token
+          </button>
         </form>
       )}
       {secret && (
         <div className="notice notice-warn mt-3" role="status">
-          Copy this token now; it is not shown again: <code className="break-all" data-testid="token-secret">{secret}</code>
+          Copy this token now; it is not shown again:{" "}
+          <code className="break-all" data-testid="token-secret">
+            {secret}
+          </code>
         </div>
       )}
       {error && <p className="notice notice-bad mt-3">{error}</p>}
       <table className="table mt-4">
-        <thead><tr>{props.all && <th>Owner</th>}<th>Name</th><th>Starts with</th><th>Created</th><th>Last used</th><th /></tr></thead>
+        <thead>
+          <tr>
+            {props.all && <th>Owner</th>}
+            <th>Name</th>
+            <th>Starts with</th>
+            <th>Created</th>
+            <th>Last used</th>
+            <th />
+          </tr>
+        </thead>
         <tbody>
           {tokens.map((t) => (
             <tr key={t.id} className={t.revokedAt ? "text-muted" : ""}>
               {props.all && <td>{t.owner?.email}</td>}
               <td>{t.name}</td>
-              <td><code>tw_{t.prefix}_…</code></td>
+              <td>
+                <code>tw_{t.prefix}_…</code>
+              </td>
               <td className="num">{formatWhen(t.createdAt)}</td>
               <td className="num">{t.lastUsedAt ? formatWhen(t.lastUsedAt) : "never"}</td>
-              <td>{t.revokedAt ? `revoked ${formatWhen(t.revokedAt)}` : <button className="btn btn-danger" onClick={() => revoke(t)}>Revoke</button>}</td>
+              <td>
+                {t.revokedAt ? (
+                  `revoked ${formatWhen(t.revokedAt)}`
+                ) : (
+                  <button className="btn btn-danger" onClick={() => revoke(t)}>
+                    Revoke
+                  </button>
+                )}
+              </td>
             </tr>
           ))}
-          {tokens.length === 0 && <tr><td colSpan={props.all ? 6 : 5} className="text-muted">No tokens yet.</td></tr>}
+          {tokens.length === 0 && (
+            <tr>
+              <td colSpan={props.all ? 6 : 5} className="text-muted">
+                No tokens yet.
+              </td>
+            </tr>
+          )}
         </tbody>
       </table>
     </section>

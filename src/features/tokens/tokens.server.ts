@@ -22,15 +22,29 @@ export interface TokenView {
 }
 
 /** Creates a token for the user; the returned secret is the only copy that ever leaves the server. */
-export async function createToken(user: SessionUser, name: string, expiresInDays?: number): Promise<{ token: TokenView; secret: string }> {
+export async function createToken(
+  user: SessionUser,
+  name: string,
+  expiresInDays?: number,
+): Promise<{ token: TokenView; secret: string }> {
   const prefix = randomBytes(4).toString("hex");
   const secret = `tw_${prefix}_${randomBytes(24).toString("base64url")}`;
   return db.transaction(async (tx) => {
     const [{ id }] = await tx
       .insert(apiTokens)
-      .values({ userId: user.id, name, prefix, secretHash: sha256(secret), expiresAt: expiresInDays ? new Date(Date.now() + expiresInDays * 86_400_000) : null })
+      .values({
+        userId: user.id,
+        name,
+        prefix,
+        secretHash: sha256(secret),
+        expiresAt: expiresInDays ? new Date(Date.now() + expiresInDays * 86_400_000) : null,
+      })
       .$returningId();
-    await recordAudit(tx, user, "token.create", "token", id, { name, prefix, ...(expiresInDays ? { expiresInDays } : {}) });
+    await recordAudit(tx, user, "token.create", "token", id, {
+      name,
+      prefix,
+      ...(expiresInDays ? { expiresInDays } : {}),
+    });
     const [row] = await tx.select().from(apiTokens).where(eq(apiTokens.id, id));
     return { token: view(row), secret };
   });

@@ -7,7 +7,11 @@ import { db } from "@/server/db.server";
 import { rateLimits } from "@/db/schema";
 
 /** One more attempt under `key`; whether it is within `max` per `window_s`, and when the window ends. */
-export async function countAttempt(key: string, max: number, window_s: number): Promise<{ allowed: boolean; retryAfter_s: number }> {
+export async function countAttempt(
+  key: string,
+  max: number,
+  window_s: number,
+): Promise<{ allowed: boolean; retryAfter_s: number }> {
   const now = Date.now();
   const start = now - window_s * 1000;
   // A window that has ended starts again at this attempt; both columns read the row's old values.
@@ -20,7 +24,10 @@ export async function countAttempt(key: string, max: number, window_s: number): 
         lastRequest: sql`IF(${rateLimits.lastRequest} < ${start}, ${now}, ${rateLimits.lastRequest})`,
       },
     });
-  const [row] = await db.select({ count: rateLimits.count, since: rateLimits.lastRequest }).from(rateLimits).where(eq(rateLimits.key, key));
+  const [row] = await db
+    .select({ count: rateLimits.count, since: rateLimits.lastRequest })
+    .from(rateLimits)
+    .where(eq(rateLimits.key, key));
   const retryAfter_s = Math.max(1, Math.ceil((row.since + window_s * 1000 - now) / 1000));
   return { allowed: row.count <= max, retryAfter_s };
 }
@@ -40,7 +47,10 @@ const failureKey = (accountKey: string) => `tapwright:sign-in-failures:${account
 
 /** Seconds this account must still wait before another sign-in attempt (0 when it may try now). */
 export async function accountWait_s(accountKey: string): Promise<number> {
-  const [row] = await db.select({ failures: rateLimits.count, last: rateLimits.lastRequest }).from(rateLimits).where(eq(rateLimits.key, failureKey(accountKey)));
+  const [row] = await db
+    .select({ failures: rateLimits.count, last: rateLimits.lastRequest })
+    .from(rateLimits)
+    .where(eq(rateLimits.key, failureKey(accountKey)));
   if (!row) return 0;
   const until = row.last + backoff_s(row.failures) * 1000;
   return Math.max(0, Math.ceil((until - Date.now()) / 1000));

@@ -45,7 +45,12 @@ export const rules: readonly Rule[] = [
   { methods: ["POST"], path: /^\/api\/v1\/sign-offs\/[^/]+\/comments\/?$/, access: EVERYONE },
 
   // The work itself: everyone reads (also with a token), designers and admins write.
-  { methods: READ, path: /^\/api\/v1\/(channels|budgets|runs|studies|tap-tables|sweeps|sign-offs)(\/|$)/, access: EVERYONE, token: true },
+  {
+    methods: READ,
+    path: /^\/api\/v1\/(channels|budgets|runs|studies|tap-tables|sweeps|sign-offs)(\/|$)/,
+    access: EVERYONE,
+    token: true,
+  },
   { methods: WRITE, path: /^\/api\/v1\/(channels|budgets|runs|studies|tap-tables|sweeps)(\/|$)/, access: AUTHORS },
 
   // Everything else (the pages and /api/v1/me) needs a signed-in person of any role.

@@ -40,10 +40,13 @@ export async function authRoute(request: Request, clientAddress: string): Promis
   if (account) {
     const wait_s = await accountWait_s(account);
     if (wait_s > 0) {
-      return json(errorBody(`Too many failed sign-ins for this account; wait ${wait_s} s and try again.`), 429, { "retry-after": String(wait_s) });
+      return json(errorBody(`Too many failed sign-ins for this account; wait ${wait_s} s and try again.`), 429, {
+        "retry-after": String(wait_s),
+      });
     }
     const [person] = await db.select({ deactivatedAt: users.deactivatedAt }).from(users).where(eq(users.email, email!));
-    if (person?.deactivatedAt) return json(errorBody("This account was deactivated by an admin; ask them if you need it back."), 403);
+    if (person?.deactivatedAt)
+      return json(errorBody("This account was deactivated by an admin; ask them if you need it back."), 403);
   }
   const res = await auth.handler(new Request(request.url, { method: request.method, headers, body }));
   if (account && (res.status === 200 || res.status === 401)) await recordSignIn(account, res.status === 200);

@@ -13,7 +13,11 @@ export function bodyTooLarge(limit: number, what = "The request body"): ApiError
 }
 
 /** Reads a request body up to `limit` bytes; throws `tooLarge()` beyond it. */
-export async function readBodyLimited(request: Request, limit: number, tooLarge: () => ApiError): Promise<Uint8Array<ArrayBuffer>> {
+export async function readBodyLimited(
+  request: Request,
+  limit: number,
+  tooLarge: () => ApiError,
+): Promise<Uint8Array<ArrayBuffer>> {
   const declared = Number(request.headers.get("content-length") ?? NaN);
   const reader = request.body?.getReader();
   if (!reader) return new Uint8Array();
@@ -38,7 +42,12 @@ export async function readBodyLimited(request: Request, limit: number, tooLarge:
 }
 
 /** A JSON body of at most `limit` bytes, not yet validated; 400 with `hint` when it is not JSON. */
-export async function readJsonLimited(request: Request, limit: number, tooLarge: () => ApiError, hint: string): Promise<unknown> {
+export async function readJsonLimited(
+  request: Request,
+  limit: number,
+  tooLarge: () => ApiError,
+  hint: string,
+): Promise<unknown> {
   const body = await readBodyLimited(request, limit, tooLarge);
   try {
     return JSON.parse(new TextDecoder().decode(body));
@@ -66,7 +75,9 @@ export async function readMultipart(
   const body = await readBodyLimited(request, o.limit, o.tooLarge);
   let form: FormData;
   try {
-    form = await new Response(body, { headers: { "content-type": request.headers.get("content-type") ?? "" } }).formData();
+    form = await new Response(body, {
+      headers: { "content-type": request.headers.get("content-type") ?? "" },
+    }).formData();
   } catch {
     throw badRequest("The multipart body cannot be read; send it as a browser or curl -F would.");
   }

@@ -14,7 +14,11 @@ const UPLOAD_ROUTES = /^\/api\/v1\/channels(\/preview)?\/?$/;
 
 /** The 413 of an upload above the file limit. */
 export const uploadTooLarge = () =>
-  new ApiError(413, `The file is larger than the ${formatBytes(MAX_UPLOAD_BYTES)} limit; trim the frequency range or the record length and upload again.`, "file");
+  new ApiError(
+    413,
+    `The file is larger than the ${formatBytes(MAX_UPLOAD_BYTES)} limit; trim the frequency range or the record length and upload again.`,
+    "file",
+  );
 
 /** The 413 to answer before reading, when the declared body is larger than the route takes; else null. */
 export function refuseDeclaredBody(method: string, pathname: string, contentLength: string | null): ApiError | null {

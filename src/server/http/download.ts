@@ -11,7 +11,8 @@ export interface Download {
 }
 
 /** RFC 5987's attr-char encoding: what encodeURIComponent leaves alone, less ' ( ) and *. */
-const rfc5987 = (s: string) => encodeURIComponent(s).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
+const rfc5987 = (s: string) =>
+  encodeURIComponent(s).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
 
 /**
  * `attachment; filename="…"; filename*=UTF-8''…` (RFC 6266): the quoted name in printable ASCII

@@ -48,5 +48,8 @@ export function errorResponse(e: unknown): Response {
     return json(errorBody(a.message, a.path), a.status);
   }
   logError("unexpected error", e);
-  return json(errorBody("Something went wrong on the server; the request changed nothing. Try again, or tell an admin."), 500);
+  return json(
+    errorBody("Something went wrong on the server; the request changed nothing. Try again, or tell an admin."),
+    500,
+  );
 }

@@ -41,10 +41,17 @@ function remember(key: string, f: Frozen): void {
 async function freeze(value: unknown): Promise<Frozen> {
   const identity = Buffer.from(JSON.stringify(value));
   const [br, gz] = await Promise.all([
-    brotliAsync(identity, { params: { [constants.BROTLI_PARAM_QUALITY]: 9, [constants.BROTLI_PARAM_SIZE_HINT]: identity.length } }),
+    brotliAsync(identity, {
+      params: { [constants.BROTLI_PARAM_QUALITY]: 9, [constants.BROTLI_PARAM_SIZE_HINT]: identity.length },
+    }),
     gzipAsync(identity, { level: 9 }),
   ]);
-  return { etag: `"${createHash("sha256").update(identity).digest("base64url").slice(0, 27)}"`, identity, br, gzip: gz };
+  return {
+    etag: `"${createHash("sha256").update(identity).digest("base64url").slice(0, 27)}"`,
+    identity,
+    br,
+    gzip: gz,
+  };
 }
 
 /** Answers being built, so that many requests for one uncached answer build it once. */
@@ -72,7 +79,11 @@ function encodingFor(acceptEncoding: string | null): "br" | "gzip" | "identity" 
  * @param key - what the answer is (e.g. "run:12"), unique across callers.
  * @param build - computes the answer when it is not cached.
  */
-export async function frozenJsonResponse(request: Request, key: string, build: () => Promise<unknown>): Promise<Response> {
+export async function frozenJsonResponse(
+  request: Request,
+  key: string,
+  build: () => Promise<unknown>,
+): Promise<Response> {
   let f = cache.get(key);
   if (f) {
     // Most recently used last.
@@ -92,7 +103,12 @@ export async function frozenJsonResponse(request: Request, key: string, build: (
     }
     f = await pending;
   }
-  const headers: Record<string, string> = { "content-type": "application/json", etag: f.etag, vary: "accept-encoding", "cache-control": "private, no-cache" };
+  const headers: Record<string, string> = {
+    "content-type": "application/json",
+    etag: f.etag,
+    vary: "accept-encoding",
+    "cache-control": "private, no-cache",
+  };
   if (request.headers.get("if-none-match") === f.etag) return new Response(null, { status: 304, headers });
   const encoding = encodingFor(request.headers.get("accept-encoding"));
   const body = f[encoding];

@@ -20,7 +20,12 @@ export function endpoint(fn: Handler) {
 
 /** Reads (at most JSON_BODY_LIMIT bytes, else 413) and validates a JSON body. */
 export async function readJson<T extends z.ZodType>(request: Request, schema: T): Promise<z.infer<T>> {
-  const raw = await readJsonLimited(request, JSON_BODY_LIMIT, () => bodyTooLarge(JSON_BODY_LIMIT), "The request body must be JSON (Content-Type: application/json).");
+  const raw = await readJsonLimited(
+    request,
+    JSON_BODY_LIMIT,
+    () => bodyTooLarge(JSON_BODY_LIMIT),
+    "The request body must be JSON (Content-Type: application/json).",
+  );
   const parsed = schema.safeParse(raw);
   if (!parsed.success) throw zodToApiError(parsed.error);
   return parsed.data;

@@ -24,19 +24,29 @@ export interface Claim {
 }
 
 /** How an attempt ended: stored, failed (the engine refused: no retry), or fenced off by a newer attempt. */
-export type Outcome = { kind: "done"; parentQueued: number | null } | { kind: "failed"; message: string } | { kind: "fenced" };
+export type Outcome =
+  { kind: "done"; parentQueued: number | null } | { kind: "failed"; message: string } | { kind: "fenced" };
 
 /**
  * Computes one job's result off the event loop (the piscina pool), reporting progress 0…1; `signal`
  * aborts it (the worker thread computing it is terminated).
  */
-export type Compute = (kind: JobKind, input: unknown, onProgress: (p: number) => void, signal: AbortSignal) => Promise<unknown>;
+export type Compute = (
+  kind: JobKind,
+  input: unknown,
+  onProgress: (p: number) => void,
+  signal: AbortSignal,
+) => Promise<unknown>;
 
 const lockExpiry = () => sql`NOW(3) + INTERVAL ${Math.round(config.queue.lock_s * 1e6)} MICROSECOND`;
 
 async function takeRow(tx: Tx, job: Job, owner: string): Promise<Claim | null> {
   if (job.attempts >= MAX_ATTEMPTS) {
-    await failInTx(tx, job, `The job stopped ${job.attempts} times before it could finish (a worker or server died under it); start it again.`);
+    await failInTx(
+      tx,
+      job,
+      `The job stopped ${job.attempts} times before it could finish (a worker or server died under it); start it again.`,
+    );
     return null;
   }
   const token = randomUUID();
@@ -66,7 +76,12 @@ export async function claimNext(owner: string): Promise<Claim | null> {
       const [job] = await tx
         .select()
         .from(jobs)
-        .where(and(eq(jobs.queue, "embedded"), or(eq(jobs.status, "queued"), and(eq(jobs.status, "running"), lt(jobs.lockedUntil, sql`NOW(3)`)))))
+        .where(
+          and(
+            eq(jobs.queue, "embedded"),
+            or(eq(jobs.status, "queued"), and(eq(jobs.status, "running"), lt(jobs.lockedUntil, sql`NOW(3)`))),
+          ),
+        )
         .orderBy(asc(jobs.id))
         .limit(1)
         .for("update", { skipLocked: true });
@@ -154,21 +169,27 @@ export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcom
   // logged and the next one tried; a second in a row leaves too little of the lease, so the
   // attempt ends rather than compute on while another worker may take the job over.
   let heartbeatFailures = 0;
-  const heartbeat = setInterval(() => {
-    db.update(jobs)
-      .set({ lockedUntil: lockExpiry() })
-      .where(mine)
-      .then((r) => {
-        heartbeatFailures = 0;
-        if (r[0].affectedRows === 0) stop({ kind: "lost" });
-      })
-      .catch((e) => {
-        heartbeatFailures++;
-        const ending = heartbeatFailures >= HEARTBEAT_FAILURES_TO_END;
-        logError(`job ${job.id} (${job.kind}): heartbeat failed${ending ? ", ending the attempt" : ", trying again"}`, e);
-        if (ending) stop({ kind: "heartbeat", error: e });
-      });
-  }, (config.queue.lock_s * 1000) / 3);
+  const heartbeat = setInterval(
+    () => {
+      db.update(jobs)
+        .set({ lockedUntil: lockExpiry() })
+        .where(mine)
+        .then((r) => {
+          heartbeatFailures = 0;
+          if (r[0].affectedRows === 0) stop({ kind: "lost" });
+        })
+        .catch((e) => {
+          heartbeatFailures++;
+          const ending = heartbeatFailures >= HEARTBEAT_FAILURES_TO_END;
+          logError(
+            `job ${job.id} (${job.kind}): heartbeat failed${ending ? ", ending the attempt" : ", trying again"}`,
+            e,
+          );
+          if (ending) stop({ kind: "heartbeat", error: e });
+        });
+    },
+    (config.queue.lock_s * 1000) / 3,
+  );
   let lastWrite = 0;
   let progressFailed = false;
   const started = performance.now();
@@ -176,21 +197,26 @@ export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcom
     let result: unknown;
     try {
       const input = await handler.input(job);
-      result = await compute(job.kind, input, (progress) => {
-        const now = Date.now();
-        if (now - lastWrite < 250) return;
-        lastWrite = now;
-        // Progress never goes back (a retried attempt, a parent whose children brought it far).
-        const p = Math.min(0.99, Math.max(0, progress));
-        db.update(jobs)
-          .set({ progress: sql`GREATEST(${jobs.progress}, ${p})` })
-          .where(mine)
-          .catch((e) => {
-            // Progress is advisory: the heartbeat decides whether the attempt goes on. Logged once.
-            if (!progressFailed) logError(`job ${job.id} (${job.kind}): progress not stored`, e);
-            progressFailed = true;
-          });
-      }, controller.signal);
+      result = await compute(
+        job.kind,
+        input,
+        (progress) => {
+          const now = Date.now();
+          if (now - lastWrite < 250) return;
+          lastWrite = now;
+          // Progress never goes back (a retried attempt, a parent whose children brought it far).
+          const p = Math.min(0.99, Math.max(0, progress));
+          db.update(jobs)
+            .set({ progress: sql`GREATEST(${jobs.progress}, ${p})` })
+            .where(mine)
+            .catch((e) => {
+              // Progress is advisory: the heartbeat decides whether the attempt goes on. Logged once.
+              if (!progressFailed) logError(`job ${job.id} (${job.kind}): progress not stored`, e);
+              progressFailed = true;
+            });
+        },
+        controller.signal,
+      );
     } catch (e) {
       const why = attempt.stopped;
       if (why?.kind === "lost") return { kind: "fenced" };
@@ -206,7 +232,10 @@ export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcom
     const compute_ms = Math.round(performance.now() - started);
     return await closeAttempt(claim, async (tx) => {
       await handler.save(tx, job, result);
-      await tx.update(jobs).set({ status: "done", progress: 1, finishedAt: sql`NOW(3)`, compute_ms, lockedBy: null, lockedUntil: null }).where(eq(jobs.id, job.id));
+      await tx
+        .update(jobs)
+        .set({ status: "done", progress: 1, finishedAt: sql`NOW(3)`, compute_ms, lockedBy: null, lockedUntil: null })
+        .where(eq(jobs.id, job.id));
     });
   } finally {
     clearTimeout(deadline);
@@ -223,8 +252,13 @@ export async function runClaimed(claim: Claim, compute: Compute): Promise<Outcom
 async function closeAttempt(claim: Claim, close: (tx: Tx) => Promise<void>): Promise<Outcome> {
   const { job, token } = claim;
   return db.transaction(async (tx) => {
-    if (job.parentId !== null) await tx.select({ id: jobs.id }).from(jobs).where(eq(jobs.id, job.parentId)).for("update");
-    const [row] = await tx.select({ status: jobs.status, lockToken: jobs.lockToken }).from(jobs).where(eq(jobs.id, job.id)).for("update");
+    if (job.parentId !== null)
+      await tx.select({ id: jobs.id }).from(jobs).where(eq(jobs.id, job.parentId)).for("update");
+    const [row] = await tx
+      .select({ status: jobs.status, lockToken: jobs.lockToken })
+      .from(jobs)
+      .where(eq(jobs.id, job.id))
+      .for("update");
     if (!row || row.status !== "running" || row.lockToken !== token) return { kind: "fenced" } as const;
     await close(tx);
     if (job.parentId === null) return { kind: "done", parentQueued: null } as const;
@@ -246,7 +280,10 @@ async function rollUpProgress(tx: Tx, parentId: number): Promise<void> {
       .select({ p: sql<number>`AVG(CASE WHEN ${jobs.status} = 'done' THEN 1 ELSE ${jobs.progress} END)` })
       .from(jobs)
       .where(eq(jobs.parentId, id));
-    await tx.update(jobs).set({ progress: Math.min(0.99, Number(mean.p) || 0) }).where(eq(jobs.id, id));
+    await tx
+      .update(jobs)
+      .set({ progress: Math.min(0.99, Number(mean.p) || 0) })
+      .where(eq(jobs.id, id));
     id = row.parentId;
   }
 }
@@ -258,7 +295,10 @@ async function queueParentIfReady(tx: Tx, parentId: number): Promise<number | nu
     .from(jobs)
     .where(and(eq(jobs.parentId, parentId), ne(jobs.status, "done")));
   if (Number(open.n) > 0) return null;
-  const r = await tx.update(jobs).set({ status: "queued" }).where(and(eq(jobs.id, parentId), eq(jobs.status, "waiting")));
+  const r = await tx
+    .update(jobs)
+    .set({ status: "queued" })
+    .where(and(eq(jobs.id, parentId), eq(jobs.status, "waiting")));
   return r[0].affectedRows > 0 ? parentId : null;
 }
 
@@ -342,8 +382,19 @@ async function cancelOnce(id: number, message: string, also?: (tx: Tx) => Promis
     if (children.length > 0) {
       await tx
         .update(jobs)
-        .set({ status: "failed", error: message.slice(0, 2000), finishedAt: sql`NOW(3)`, lockedBy: null, lockedUntil: null })
-        .where(inArray(jobs.id, children.map((c) => c.id)));
+        .set({
+          status: "failed",
+          error: message.slice(0, 2000),
+          finishedAt: sql`NOW(3)`,
+          lockedBy: null,
+          lockedUntil: null,
+        })
+        .where(
+          inArray(
+            jobs.id,
+            children.map((c) => c.id),
+          ),
+        );
     }
     await failInTx(tx, job, message);
     await also?.(tx);

@@ -109,7 +109,10 @@ async function processJob(bullJob: BullJob<Payload>, owner: string): Promise<str
   // The engine refused: retrying gives the same answer, and the parent cannot be whole.
   if (outcome.kind === "failed") throw new UnrecoverableError(outcome.message);
   // Said in the worker's log: a worker that was paused or cut off learns why its work was dropped.
-  if (outcome.kind === "fenced") console.log(`[tapwright] worker ${owner}: job ${id} was taken over by a newer attempt; this attempt's result was dropped.`);
+  if (outcome.kind === "fenced")
+    console.log(
+      `[tapwright] worker ${owner}: job ${id} was taken over by a newer attempt; this attempt's result was dropped.`,
+    );
   return outcome.kind;
 }
 
@@ -135,8 +138,15 @@ export function startDistributedWorker(name: string, concurrency: number): Distr
   });
   worker.on("failed", (job, err) => {
     if (!job) return;
-    const final = err instanceof UnrecoverableError || err.name === "UnrecoverableError" || job.attemptsMade >= (job.opts.attempts ?? 1) || /stalled/i.test(err.message);
-    if (final) void failJob(job.data.jobId, err.message).catch((e) => logError(`job ${job.data.jobId}: could not be marked failed`, e));
+    const final =
+      err instanceof UnrecoverableError ||
+      err.name === "UnrecoverableError" ||
+      job.attemptsMade >= (job.opts.attempts ?? 1) ||
+      /stalled/i.test(err.message);
+    if (final)
+      void failJob(job.data.jobId, err.message).catch((e) =>
+        logError(`job ${job.data.jobId}: could not be marked failed`, e),
+      );
   });
   logErrors(worker, `worker ${name}`);
   return {
@@ -157,7 +167,13 @@ export async function reconcile(grace_s = 10): Promise<{ republished: number; fa
   const rows = await db
     .select()
     .from(jobs)
-    .where(and(eq(jobs.queue, "bullmq"), inArray(jobs.status, ["queued", "waiting", "running"]), lt(jobs.updatedAt, sql`NOW(3) - INTERVAL ${grace_s} SECOND`)));
+    .where(
+      and(
+        eq(jobs.queue, "bullmq"),
+        inArray(jobs.status, ["queued", "waiting", "running"]),
+        lt(jobs.updatedAt, sql`NOW(3) - INTERVAL ${grace_s} SECOND`),
+      ),
+    );
   let republished = 0;
   let failed = 0;
   for (const row of rows) {
@@ -168,16 +184,30 @@ export async function reconcile(grace_s = 10): Promise<{ republished: number; fa
       failed++;
       continue;
     }
-    const live = state === "waiting" || state === "active" || state === "delayed" || state === "prioritized" || state === "waiting-children";
+    const live =
+      state === "waiting" ||
+      state === "active" ||
+      state === "delayed" ||
+      state === "prioritized" ||
+      state === "waiting-children";
     if (live) continue;
     if (row.status === "waiting") {
-      const [open] = await db.select({ n: sql<number>`COUNT(*)` }).from(jobs).where(and(eq(jobs.parentId, row.id), ne(jobs.status, "done")));
+      const [open] = await db
+        .select({ n: sql<number>`COUNT(*)` })
+        .from(jobs)
+        .where(and(eq(jobs.parentId, row.id), ne(jobs.status, "done")));
       if (Number(open.n) > 0) continue;
-      await db.update(jobs).set({ status: "queued" }).where(and(eq(jobs.id, row.id), eq(jobs.status, "waiting")));
+      await db
+        .update(jobs)
+        .set({ status: "queued" })
+        .where(and(eq(jobs.id, row.id), eq(jobs.status, "waiting")));
     }
     if (row.status === "running") {
       if (row.lockedUntil && row.lockedUntil.getTime() > Date.now()) continue;
-      await db.update(jobs).set({ status: "queued" }).where(and(eq(jobs.id, row.id), eq(jobs.status, "running"), eq(jobs.attempts, row.attempts)));
+      await db
+        .update(jobs)
+        .set({ status: "queued" })
+        .where(and(eq(jobs.id, row.id), eq(jobs.status, "running"), eq(jobs.attempts, row.attempts)));
     }
     // A fresh BullMQ id: the old one may linger completed (a fenced attempt) or in a lost flow.
     await q.add(row.kind, { jobId: row.id }, jobOptions(row.id, `${bullId(row.id)}-r${row.attempts}-${Date.now()}`));
@@ -193,7 +223,8 @@ export function startReconciler(every_s = 15): void {
   const tick = () =>
     void reconcile()
       .then((r) => {
-        if (r.republished || r.failed) console.log(`[tapwright] reconciler: ${r.republished} job(s) handed to the queue again, ${r.failed} failed`);
+        if (r.republished || r.failed)
+          console.log(`[tapwright] reconciler: ${r.republished} job(s) handed to the queue again, ${r.failed} failed`);
       })
       .catch((e) => logError("reconciler", e));
   reconciler ??= setInterval(tick, every_s * 1000);
@@ -204,7 +235,15 @@ export function startReconciler(every_s = 15): void {
 /** Queue depth and the workers connected to Redis, for the admin page. */
 export async function distributedOverview() {
   const q = theQueue();
-  const counts = await q.getJobCounts("waiting", "active", "delayed", "prioritized", "waiting-children", "completed", "failed");
+  const counts = await q.getJobCounts(
+    "waiting",
+    "active",
+    "delayed",
+    "prioritized",
+    "waiting-children",
+    "completed",
+    "failed",
+  );
   // A worker holds several named connections (its commands and its blocking wait): one row per name.
   const byName = new Map<string, { name: string; addr: string; age_s: number }>();
   for (const w of await q.getWorkers()) {

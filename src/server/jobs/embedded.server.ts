@@ -23,7 +23,12 @@ export async function pumpEmbedded(): Promise<void> {
       if (!claim) break;
       active++;
       void runClaimed(claim, runInPool)
-        .catch((e) => logError(`job ${claim.job.id} (${claim.job.kind}) could not be closed; it will be tried again once its lock lapses`, e))
+        .catch((e) =>
+          logError(
+            `job ${claim.job.id} (${claim.job.kind}) could not be closed; it will be tried again once its lock lapses`,
+            e,
+          ),
+        )
         .finally(() => {
           active--;
           void pumpEmbedded();

@@ -4,7 +4,14 @@ import type { MessagePort } from "node:worker_threads";
 import type { JobKind } from "@/features/jobs/jobs";
 import { computeStudy } from "@/features/studies/studies.job";
 import type { StudyInputs } from "@/features/studies/studies";
-import { computeTableClass, computeTableMember, computeTableVersionJob, type TableClassInput, type TableMemberInput, type TableVersionJob } from "@/features/tapTables/tapTables.job";
+import {
+  computeTableClass,
+  computeTableMember,
+  computeTableVersionJob,
+  type TableClassInput,
+  type TableMemberInput,
+  type TableVersionJob,
+} from "@/features/tapTables/tapTables.job";
 import { computeRun, type RunJobInput } from "@/features/runs/runs.job";
 import { computeSweepBatch, summarizeSweep, type SweepBatchInput } from "@/features/sweeps/sweeps.job";
 import { deriveInWorker, type DeriveTask } from "@/features/channels/derive.job";

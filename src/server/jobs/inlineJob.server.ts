@@ -13,11 +13,19 @@ export interface RunHere<I, R> {
 }
 
 /** Computes, then stores the result and marks the job done in one transaction. */
-export async function finishHere<I, R>(jobId: number, input: I, run: RunHere<I, R>, save: (tx: Tx, result: R) => Promise<void>): Promise<void> {
+export async function finishHere<I, R>(
+  jobId: number,
+  input: I,
+  run: RunHere<I, R>,
+  save: (tx: Tx, result: R) => Promise<void>,
+): Promise<void> {
   const startedAt = new Date();
   const { result, compute_ms } = run.compute(input);
   await db.transaction(async (tx) => {
     await save(tx, result);
-    await tx.update(jobs).set({ status: "done", progress: 1, attempts: 1, startedAt, finishedAt: new Date(), compute_ms }).where(eq(jobs.id, jobId));
+    await tx
+      .update(jobs)
+      .set({ status: "done", progress: 1, attempts: 1, startedAt, finishedAt: new Date(), compute_ms })
+      .where(eq(jobs.id, jobId));
   });
 }

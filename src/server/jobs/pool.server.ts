@@ -57,7 +57,12 @@ function thePool(): Piscina {
  * Runs one job in a worker; `onProgress` hears 0…1 as the engine reports it. Aborting `signal`
  * terminates the thread computing it (piscina starts a fresh one for the next task).
  */
-export async function runInPool(kind: JobKind, input: unknown, onProgress: (p: number) => void, signal: AbortSignal): Promise<unknown> {
+export async function runInPool(
+  kind: JobKind,
+  input: unknown,
+  onProgress: (p: number) => void,
+  signal: AbortSignal,
+): Promise<unknown> {
   const { port1, port2 } = new MessageChannel();
   port1.on("message", (p: number) => onProgress(p));
   const running = thePool();

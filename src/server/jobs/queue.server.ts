@@ -24,10 +24,22 @@ export interface EnqueueOptions {
 }
 
 /** Adds a job inside the caller's transaction; call `startJobs` with the root's id after the commit. */
-export async function enqueueJob(tx: DbOrTx, kind: JobKind, targetId: number, options: EnqueueOptions = {}): Promise<number> {
+export async function enqueueJob(
+  tx: DbOrTx,
+  kind: JobKind,
+  targetId: number,
+  options: EnqueueOptions = {},
+): Promise<number> {
   const [{ id }] = await tx
     .insert(jobs)
-    .values({ kind, targetId, queue: config.queue.backend, parentId: options.parentId ?? null, part: options.part ?? null, status: options.waitForChildren ? "waiting" : "queued" })
+    .values({
+      kind,
+      targetId,
+      queue: config.queue.backend,
+      parentId: options.parentId ?? null,
+      part: options.part ?? null,
+      status: options.waitForChildren ? "waiting" : "queued",
+    })
     .$returningId();
   return id;
 }
@@ -60,7 +72,10 @@ export async function cancelJobFor(
 ): Promise<{ status: "failed"; error: { message: string } }> {
   const message = `Cancelled by ${by.name}.`;
   const out = await cancelJob(jobId, message, also);
-  if (!out.cancelled) throw conflict(`The ${what} has already ${out.status === "done" ? "finished" : "failed"}; there is nothing to cancel.`);
+  if (!out.cancelled)
+    throw conflict(
+      `The ${what} has already ${out.status === "done" ? "finished" : "failed"}; there is nothing to cancel.`,
+    );
   for (const id of out.jobIds) stopLocalAttempt(id);
   return { status: "failed", error: { message } };
 }

@@ -13,7 +13,9 @@ import "./allKinds.server";
 const name = config.queue.workerName ?? `${hostname()}-${process.pid}`;
 const worker = startDistributedWorker(name, workerCount);
 startReconciler();
-console.log(`[tapwright] worker ${name}: ${workerCount} engine thread${workerCount === 1 ? "" : "s"}, taking jobs from Redis.`);
+console.log(
+  `[tapwright] worker ${name}: ${workerCount} engine thread${workerCount === 1 ? "" : "s"}, taking jobs from Redis.`,
+);
 
 let stopping = false;
 async function stop(signal: string) {

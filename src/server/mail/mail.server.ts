@@ -71,7 +71,11 @@ async function deliveryPass(): Promise<void> {
         const attempts = m.attempts + 1;
         await db
           .update(mailOutbox)
-          .set({ attempts, lastError: String((e as Error).message).slice(0, 1000), status: attempts >= MAX_ATTEMPTS ? "failed" : "queued" })
+          .set({
+            attempts,
+            lastError: String((e as Error).message).slice(0, 1000),
+            status: attempts >= MAX_ATTEMPTS ? "failed" : "queued",
+          })
           .where(eq(mailOutbox.id, m.id));
       }
     }

@@ -20,19 +20,32 @@ describe("eyeWidth", () => {
     [0.02, 0.2],
     [0.01, 0.05],
     [0.015, 0.1],
-  ])("dual-Dirac rectangle: at the BER whose single-sided tail is 1e-12, width = 1 − DJ − 14.069·RJ (RJ %s UI, DJ %s UI) [computed]", (rj, dj) => {
-    const spu = 128;
-    const ber = 1e-12 / 4;
-    const eye = statisticalEye(rectPulse(0.3, spu), { modulation: "nrz", noiseRms_V: 0.001, jitter: { rjRms_UI: rj, djPp_UI: dj }, targetBer: ber });
-    expect(2 * qFromBer(1e-12)).toBeCloseTo(14.069, 3);
-    const w = eyeWidth(eye, 0, ber).eyeWidth_UI;
-    expect(Math.abs(w - (1 - dj - 14.069 * rj))).toBeLessThan(1 / spu);
-    expect(Math.abs(eyeWidth(eye, 0, 1e-9).eyeWidth_UI - (1 - dj - 2 * qFromBer(4e-9) * rj))).toBeLessThan(1 / spu);
-  });
+  ])(
+    "dual-Dirac rectangle: at the BER whose single-sided tail is 1e-12, width = 1 − DJ − 14.069·RJ (RJ %s UI, DJ %s UI) [computed]",
+    (rj, dj) => {
+      const spu = 128;
+      const ber = 1e-12 / 4;
+      const eye = statisticalEye(rectPulse(0.3, spu), {
+        modulation: "nrz",
+        noiseRms_V: 0.001,
+        jitter: { rjRms_UI: rj, djPp_UI: dj },
+        targetBer: ber,
+      });
+      expect(2 * qFromBer(1e-12)).toBeCloseTo(14.069, 3);
+      const w = eyeWidth(eye, 0, ber).eyeWidth_UI;
+      expect(Math.abs(w - (1 - dj - 14.069 * rj))).toBeLessThan(1 / spu);
+      expect(Math.abs(eyeWidth(eye, 0, 1e-9).eyeWidth_UI - (1 - dj - 2 * qFromBer(4e-9) * rj))).toBeLessThan(1 / spu);
+    },
+  );
 
   it("RJ alone: width = 1 − 2·Q(2·BER)·RJ, 1 − 14.069·RJ at a single-sided tail of 1e-12 [computed]", () => {
     const spu = 128;
-    const eye = statisticalEye(rectPulse(0.3, spu), { modulation: "nrz", noiseRms_V: 0.001, jitter: { rjRms_UI: 0.03, djPp_UI: 0 }, targetBer: 5e-13 });
+    const eye = statisticalEye(rectPulse(0.3, spu), {
+      modulation: "nrz",
+      noiseRms_V: 0.001,
+      jitter: { rjRms_UI: 0.03, djPp_UI: 0 },
+      targetBer: 5e-13,
+    });
     expect(Math.abs(eyeWidth(eye, 0, 5e-13).eyeWidth_UI - (1 - 14.069 * 0.03))).toBeLessThan(1 / spu);
   });
 
@@ -48,7 +61,11 @@ describe("eyeWidth", () => {
     const pulse = cursorPulse([0, 0.05, 0.4, 0.1, 0], 2, 32);
     let prev = Infinity;
     for (const rj of [0, 0.01, 0.02, 0.04]) {
-      const eye = statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0.004, jitter: { rjRms_UI: rj, djPp_UI: 0.05 } });
+      const eye = statisticalEye(pulse, {
+        modulation: "nrz",
+        noiseRms_V: 0.004,
+        jitter: { rjRms_UI: rj, djPp_UI: 0.05 },
+      });
       const w = eyeWidth(eye, 0, BER).eyeWidth_UI;
       expect(w).toBeLessThanOrEqual(prev + 1e-9);
       prev = w;
@@ -85,7 +102,10 @@ describe("bathtub", () => {
     expect(th[2]).toBeCloseTo(0.2, 15);
     const each = [0, 1, 2].map((i) => pam4.probBelow(i + 1, 0, th[i]) + pam4.probAbove(i, 0, th[i]));
     expect(thresholdBer(pam4, 0, th)).toBeCloseTo(Math.max(...each) / 8, 15);
-    expect(thresholdBer(nrz, 0, Float64Array.of(0))).toBeCloseTo((nrz.probBelow(1, 0, 0) + nrz.probAbove(0, 0, 0)) / 2, 15);
+    expect(thresholdBer(nrz, 0, Float64Array.of(0))).toBeCloseTo(
+      (nrz.probBelow(1, 0, 0) + nrz.probAbove(0, 0, 0)) / 2,
+      15,
+    );
   });
 
   it("log10 values are floored (an open noiseless eye has BER 0, JSON has no −Infinity)", () => {

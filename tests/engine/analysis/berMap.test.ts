@@ -7,7 +7,8 @@ import { log10Ber } from "@lib/analysis/bathtub";
 import { statisticalEye } from "@lib/analysis/statisticalEye";
 import { cursorPulse } from "./helpers.ts";
 
-const grid = (a: number, b: number, n: number) => Float64Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));
+const grid = (a: number, b: number, n: number) =>
+  Float64Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));
 
 describe("berMap", () => {
   it("oracle: every cell equals log10 of eye.ber at that phase and threshold (jitter, fractional phases)", () => {
@@ -29,7 +30,9 @@ describe("berMap", () => {
   it("edges: a non-finite axis value throws", () => {
     const eye = statisticalEye(cursorPulse([0, 0.4, 0], 1), { modulation: "nrz", noiseRms_V: 0.01 });
     expect(() => berMap(eye, Float64Array.of(0, Number.NaN), Float64Array.of(0, 1))).toThrow(/phases\[1\]/);
-    expect(() => berMap(eye, Float64Array.of(0, 1), Float64Array.of(Number.POSITIVE_INFINITY, 1))).toThrow(/voltage_V\[0\]/);
+    expect(() => berMap(eye, Float64Array.of(0, 1), Float64Array.of(Number.POSITIVE_INFINITY, 1))).toThrow(
+      /voltage_V\[0\]/,
+    );
   });
 });
 
@@ -45,7 +48,10 @@ describe("berContours", () => {
     expect(c12.log10Ber).toBe(-12);
     const edge = A - qFromBer(2e-12) * sigma;
     // Points of the contour on the centre column (phase 0 UI).
-    const onCentre = c12.paths.flat().filter(([t]) => Math.abs(t) < 1e-9).map(([, v]) => v);
+    const onCentre = c12.paths
+      .flat()
+      .filter(([t]) => Math.abs(t) < 1e-9)
+      .map(([, v]) => v);
     expect(onCentre.length).toBeGreaterThanOrEqual(2);
     const inner = onCentre.filter((v) => Math.abs(v) < A).sort((a, b) => a - b);
     expect(Math.abs(inner[inner.length - 1] - edge)).toBeLessThan(0.005); // one row of the grid
@@ -67,7 +73,11 @@ describe("berContours", () => {
       }
     }
     const area = (c: (typeof cs)[0]) =>
-      c.paths.reduce((s, p) => s + Math.abs(p.reduce((a, [x, y], i) => (i === 0 ? a : a + (p[i - 1][0] * y - x * p[i - 1][1])), 0)) / 2, 0);
+      c.paths.reduce(
+        (s, p) =>
+          s + Math.abs(p.reduce((a, [x, y], i) => (i === 0 ? a : a + (p[i - 1][0] * y - x * p[i - 1][1])), 0)) / 2,
+        0,
+      );
     expect(area(cs[1])).toBeLessThan(area(cs[0]));
   });
 

@@ -17,12 +17,27 @@ import { referenceQuantile, twoPointMagnitudes } from "./tailReference.ts";
 /** A synthetic lane kept as the app stores it: 16 UI before the main cursor, 240 after, 32 samples/UI. */
 function lane(loss_dB: number, delay_s: number, ui_s: number): Pulse {
   const p = pulseFromLossModel({ lossAtNyquist_dB: loss_dB, delay_s }, { ui_s, samplesPerUi: 32 }).pulse;
-  return trimPulse(p, Math.min(16, Math.floor(p.mainIndex / 32)), Math.min(240, Math.floor((p.values_V.length - 1 - p.mainIndex) / 32)));
+  return trimPulse(
+    p,
+    Math.min(16, Math.floor(p.mainIndex / 32)),
+    Math.min(240, Math.floor((p.values_V.length - 1 - p.mainIndex) / 32)),
+  );
 }
 
 /** The lane through a CTLE (Annex 93A form) and a transmit FIR at the swing's symbol amplitude. */
-function equalize(p: Pulse, ctle: { gDc_dB: number; fz_Hz: number; fp2_Hz: number }, taps: number[], amplitude_V: number): Pulse {
-  const c = createCtlePlan(p).apply({ fz_Hz: ctle.fz_Hz, fp1_Hz: ctle.fz_Hz, fp2_Hz: ctle.fp2_Hz, gDc_dB: ctle.gDc_dB, gDc2_dB: 0 });
+function equalize(
+  p: Pulse,
+  ctle: { gDc_dB: number; fz_Hz: number; fp2_Hz: number },
+  taps: number[],
+  amplitude_V: number,
+): Pulse {
+  const c = createCtlePlan(p).apply({
+    fz_Hz: ctle.fz_Hz,
+    fp1_Hz: ctle.fz_Hz,
+    fp2_Hz: ctle.fp2_Hz,
+    gDc_dB: ctle.gDc_dB,
+    gDc2_dB: 0,
+  });
   return scalePulse(applyFir(c, taps, 1), amplitude_V);
 }
 
@@ -63,12 +78,27 @@ describe("statistical eye on realistic channels (250+ cursors)", () => {
   }, 120_000);
 
   it("halving the grid step moves heights by < 0.05 mV and widths by < 0.005 UI (NRZ with and without jitter, PAM4), at the target and at 1e-6 … 1e-15", () => {
-    const pam4Lane = equalize(lane(15, 1e-9, 2 / 106.25e9), { gDc_dB: -6, fz_Hz: 21.25e9, fp2_Hz: 53.125e9 }, [-0.05, 0.8, -0.15], 0.4);
+    const pam4Lane = equalize(
+      lane(15, 1e-9, 2 / 106.25e9),
+      { gDc_dB: -6, fz_Hz: 21.25e9, fp2_Hz: 53.125e9 },
+      [-0.05, 0.8, -0.15],
+      0.4,
+    );
     const cases = [
-      { pulse: lane27, options: { modulation: "nrz" as const, noiseRms_V: 0.0015, dfeTaps: dfe27, targetBer: 1e-12 }, t: phase27 },
       {
         pulse: lane27,
-        options: { modulation: "nrz" as const, noiseRms_V: 0.0015, dfeTaps: dfe27, targetBer: 1e-12, jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 } },
+        options: { modulation: "nrz" as const, noiseRms_V: 0.0015, dfeTaps: dfe27, targetBer: 1e-12 },
+        t: phase27,
+      },
+      {
+        pulse: lane27,
+        options: {
+          modulation: "nrz" as const,
+          noiseRms_V: 0.0015,
+          dfeTaps: dfe27,
+          targetBer: 1e-12,
+          jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 },
+        },
         t: phase27,
       },
       { pulse: pam4Lane, options: { modulation: "pam4" as const, noiseRms_V: 0.001, targetBer: 1e-6 }, t: 0 },
@@ -82,7 +112,9 @@ describe("statistical eye on realistic channels (250+ cursors)", () => {
         a.forEach((h, i) => expect(Math.abs(h - b[i])).toBeLessThan(5e-5));
       }
       for (const ber of [c.options.targetBer, 1e-9]) {
-        expect(Math.abs(eyeWidth(coarse, c.t, ber).eyeWidth_UI - eyeWidth(fine, c.t, ber).eyeWidth_UI)).toBeLessThan(0.005);
+        expect(Math.abs(eyeWidth(coarse, c.t, ber).eyeWidth_UI - eyeWidth(fine, c.t, ber).eyeWidth_UI)).toBeLessThan(
+          0.005,
+        );
       }
     }
   }, 240_000);
@@ -102,7 +134,11 @@ describe("statistical eye on realistic channels (250+ cursors)", () => {
     // The 27 in lane's 24 largest residual cursors (a Monte-Carlo of all 250 would take minutes).
     const sigma = 0.0015;
     const { main, isi } = residualAt(lane27, phase27, dfe27);
-    const kept = isi.map((r, i) => ({ r, i })).sort((a, b) => Math.abs(b.r) - Math.abs(a.r)).slice(0, 24).map((x) => x.r);
+    const kept = isi
+      .map((r, i) => ({ r, i }))
+      .sort((a, b) => Math.abs(b.r) - Math.abs(a.r))
+      .slice(0, 24)
+      .map((x) => x.r);
     const pulseOf = (cursors: number[]): Pulse => {
       const values = new Float64Array(cursors.length + 1);
       values[0] = main;

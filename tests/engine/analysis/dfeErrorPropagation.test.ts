@@ -13,7 +13,14 @@ function symbolPulse(cursors: number[]): Pulse {
 }
 
 /** A DFE of `taps` (volts) deciding on `main·a + Σ h_k·a_{−k} − Σ d_k·â_{−k} + noise`; its symbol error ratio. */
-function simulateDfe(levels: number[], cursors: number[], taps: number[], sigma: number, n: number, seed: number): number {
+function simulateDfe(
+  levels: number[],
+  cursors: number[],
+  taps: number[],
+  sigma: number,
+  n: number,
+  seed: number,
+): number {
   const rng = seededRandom(seed);
   const L = cursors.length - 1;
   const sent = new Float64Array(L + 1);

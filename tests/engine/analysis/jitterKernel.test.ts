@@ -34,7 +34,8 @@ describe("jitterKernel", () => {
         const n = 20_000;
         const a = m - 1;
         const h = 2 / n;
-        const f = (y: number) => (1 - Math.abs(y - m)) * Math.exp(-0.5 * ((y - mu) / s) ** 2) / (s * Math.sqrt(2 * Math.PI));
+        const f = (y: number) =>
+          ((1 - Math.abs(y - m)) * Math.exp(-0.5 * ((y - mu) / s) ** 2)) / (s * Math.sqrt(2 * Math.PI));
         let acc = f(a) + f(a + 2);
         for (let i = 1; i < n; i++) acc += (i % 2 === 1 ? 4 : 2) * f(a + i * h);
         total += 0.5 * ((acc * h) / 3);

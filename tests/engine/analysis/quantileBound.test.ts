@@ -76,7 +76,9 @@ describe("quantileBound", () => {
   it("identities: the signs of the cursors do not matter; the statistical eye's bound is the quantile once the law exists", () => {
     const isi = residual(5, 0.02, 0.003);
     const flipped = isi.map((v, i) => (i % 3 === 0 ? -v : v));
-    expect(quantileBound(isiParts(flipped, "nrz"), 0.002, 1e-12)).toBe(quantileBound(isiParts(isi, "nrz"), 0.002, 1e-12));
+    expect(quantileBound(isiParts(flipped, "nrz"), 0.002, 1e-12)).toBe(
+      quantileBound(isiParts(isi, "nrz"), 0.002, 1e-12),
+    );
 
     const pulse = cursorPulse([0, 0.03, 0.4, 0.08, 0.02, 0.01, 0], 2, 8);
     const eye = statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0.003, dfeTaps: [0.05] });

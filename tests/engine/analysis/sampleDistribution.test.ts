@@ -69,7 +69,8 @@ describe("sampleDistribution", () => {
     const d = sampleDistribution(parts, sigma, { designTail: 1e-12 });
     const m = Array.from(parts);
     expect(Math.abs(d.quantile(1e-12) - referenceQuantile(m, sigma, 1e-12))).toBeLessThan(2e-5);
-    for (const p of [1e-6, 1e-9, 1e-15]) expect(Math.abs(d.quantile(p) - referenceQuantile(m, sigma, p))).toBeLessThan(5e-5);
+    for (const p of [1e-6, 1e-9, 1e-15])
+      expect(Math.abs(d.quantile(p) - referenceQuantile(m, sigma, p))).toBeLessThan(5e-5);
   }, 60_000);
 
   it("identities: P(Y<u) + P(Y>u) = 1, monotone, symmetric; quantile inverts probBelow", () => {
@@ -87,7 +88,10 @@ describe("sampleDistribution", () => {
 
   it("identities: halving the step moves a 1e-12 quantile by less than 10 µV; the Gaussian holds σ² plus the lumped variance", () => {
     const rng = seededRandom(9);
-    const parts = Float64Array.from({ length: 120 }, (_, i) => Math.abs(rng.uniform() - 0.5) * 0.01 * Math.exp(-i / 20));
+    const parts = Float64Array.from(
+      { length: 120 },
+      (_, i) => Math.abs(rng.uniform() - 0.5) * 0.01 * Math.exp(-i / 20),
+    );
     const a = sampleDistribution(parts, 0.002, { designTail: 1e-12 });
     const b = sampleDistribution(parts, 0.002, { designTail: 1e-12, refine: 2 });
     expect(b.isi.step_V).toBeCloseTo(a.isi.step_V / 2, 15);

@@ -32,7 +32,11 @@ describe("statisticalEye — analytic cases (BER = average over levels of the co
   it("a clean pulse of height A gives eyeHeight = 2A − 2·Q(2·BER)·σ [computed from BER = ½(P(e|+1) + P(e|−1)), Q from ½·erfc(Q/√2)], tol 1e-3·σ", () => {
     for (const sigma of [0.001, 0.005, 0.02]) {
       for (const ber of [1e-6, 1e-12, 1e-15]) {
-        const eye = statisticalEye(cursorPulse([0, 0.4, 0], 1), { modulation: "nrz", noiseRms_V: sigma, targetBer: ber });
+        const eye = statisticalEye(cursorPulse([0, 0.4, 0], 1), {
+          modulation: "nrz",
+          noiseRms_V: sigma,
+          targetBer: ber,
+        });
         expect(Math.abs(eye.eyeHeight(0, ber) - (0.8 - 2 * qFromBer(2 * ber) * sigma))).toBeLessThan(1e-3 * sigma);
       }
     }
@@ -47,7 +51,11 @@ describe("statisticalEye — analytic cases (BER = average over levels of the co
 
   it("one post-cursor r with a DFE tap equal to r: back to the clean eye 2A − 2·Q(2·BER)·σ", () => {
     const sigma = 0.01;
-    const eye = statisticalEye(cursorPulse([0, 0.4, 0.1234, 0], 1), { modulation: "nrz", noiseRms_V: sigma, dfeTaps: [0.1234] });
+    const eye = statisticalEye(cursorPulse([0, 0.4, 0.1234, 0], 1), {
+      modulation: "nrz",
+      noiseRms_V: sigma,
+      dfeTaps: [0.1234],
+    });
     expect(Math.abs(eye.eyeHeight(0, BER) - (0.8 - 2 * qFromBer(2 * BER) * sigma))).toBeLessThan(1e-3 * sigma);
   });
 
@@ -55,7 +63,11 @@ describe("statisticalEye — analytic cases (BER = average over levels of the co
     const sigma = 0.01;
     const r = 0.2;
     const limit = 0.1517;
-    const eye = statisticalEye(cursorPulse([0, 0.4, r, 0], 1), { modulation: "nrz", noiseRms_V: sigma, dfeTaps: [limit] });
+    const eye = statisticalEye(cursorPulse([0, 0.4, r, 0], 1), {
+      modulation: "nrz",
+      noiseRms_V: sigma,
+      dfeTaps: [limit],
+    });
     const top = enumeratedUpperEdge(0.4, [r - limit], [-1, 1], sigma, 2 * BER);
     expect(Math.abs(eye.eyeHeight(0, BER) - 2 * top)).toBeLessThan(1e-6);
   });
@@ -67,7 +79,8 @@ describe("statisticalEye — analytic cases (BER = average over levels of the co
     expect(20 * Math.log10(nrz / pam4.eyeHeight(0, BER))).toBeCloseTo(9.542, 3);
     const ber = 1e-6;
     const noisy = statisticalEye(pulse, { modulation: "pam4", noiseRms_V: 0.004, targetBer: ber });
-    for (const h of noisy.eyeHeights(0, ber)) expect(Math.abs(h - (0.3 - 2 * qFromBer(8 * ber) * 0.004))).toBeLessThan(4e-6);
+    for (const h of noisy.eyeHeights(0, ber))
+      expect(Math.abs(h - (0.3 - 2 * qFromBer(8 * ber) * 0.004))).toBeLessThan(4e-6);
   });
 
   it("levels: NRZ ±1 and PAM4 ±1, ±1/3 (the engine's symbol convention); a mismatched transmitter moves the inner levels", () => {
@@ -79,7 +92,9 @@ describe("statisticalEye — analytic cases (BER = average over levels of the co
 
 describe("statisticalEye — oracle (brute-force enumeration of every symbol pattern, exact Gaussian tails)", () => {
   it("NRZ, 14 cursors (2^13 patterns), off-grid values: eye height within 0.01 mV at 1e-12", () => {
-    const cursors = [0.031, -0.047, 0.5, 0.1213, -0.0587, 0.0311, 0.0207, -0.0149, 0.0103, 0.0079, -0.0051, 0.0037, 0.0023, -0.0011];
+    const cursors = [
+      0.031, -0.047, 0.5, 0.1213, -0.0587, 0.0311, 0.0207, -0.0149, 0.0103, 0.0079, -0.0051, 0.0037, 0.0023, -0.0011,
+    ];
     const main = 2;
     const sigma = 0.007;
     const eye = statisticalEye(cursorPulse(cursors, main), { modulation: "nrz", noiseRms_V: sigma });
@@ -97,7 +112,11 @@ describe("statisticalEye — oracle (brute-force enumeration of every symbol pat
         (raw, sigma, mod) => {
           const isi = mod === "pam4" ? raw.slice(0, 6) : raw;
           const ber = mod === "nrz" ? 1e-12 : 1e-6;
-          const eye = statisticalEye(cursorPulse([0, 0.4, ...isi, 0], 1), { modulation: mod, noiseRms_V: sigma, targetBer: ber });
+          const eye = statisticalEye(cursorPulse([0, 0.4, ...isi, 0], 1), {
+            modulation: mod,
+            noiseRms_V: sigma,
+            targetBer: ber,
+          });
           const alphabet = mod === "nrz" ? [-1, 1] : [-1, -1 / 3, 1 / 3, 1];
           const tail = mod === "nrz" ? 2 * ber : 8 * ber;
           const level = mod === "nrz" ? 0.4 : 0.4 / 3; // the top edge of the middle PAM4 eye
@@ -116,12 +135,19 @@ describe("statisticalEye — oracle (brute-force enumeration of every symbol pat
     const sigma = 0.004;
     const ber = 1e-6;
     const cursors = [0.0081, 0.45, 0.0307, -0.0123, 0.0051];
-    const eye = statisticalEye(cursorPulse(cursors, 1), { modulation: "pam4", noiseRms_V: sigma, targetBer: ber, pam4InnerLevel: x });
+    const eye = statisticalEye(cursorPulse(cursors, 1), {
+      modulation: "pam4",
+      noiseRms_V: sigma,
+      targetBer: ber,
+      pam4InnerLevel: x,
+    });
     const isi = [0.0081, 0.0307, -0.0123, 0.0051];
     const alphabet = [-1, -x, x, 1];
     const h = eye.eyeHeights(0, ber);
     // Outer eyes: between levels x and 1 (top edge of level 1, bottom edge of level x = mirror of the top edge of −x).
-    const outer = enumeratedUpperEdge(0.45, isi, alphabet, sigma, 8 * ber) + enumeratedUpperEdge(-x * 0.45, isi, alphabet, sigma, 8 * ber);
+    const outer =
+      enumeratedUpperEdge(0.45, isi, alphabet, sigma, 8 * ber) +
+      enumeratedUpperEdge(-x * 0.45, isi, alphabet, sigma, 8 * ber);
     const middle = 2 * enumeratedUpperEdge(x * 0.45, isi, alphabet, sigma, 8 * ber);
     expect(Math.abs(h[0] - outer)).toBeLessThan(1e-5);
     expect(Math.abs(h[2] - outer)).toBeLessThan(1e-5);
@@ -135,7 +161,12 @@ describe("statisticalEye — oracle (brute-force enumeration of every symbol pat
     const ber = 1e-6;
     const pulse = cursorPulse([0, 0.021, 0.45, 0.063, 0.017, 0], 2, spu);
     const dj = 0.125; // ±1 sample, ½ each: the mixture of the phases −1 and +1
-    const eye = statisticalEye(pulse, { modulation: "pam4", noiseRms_V: sigma, targetBer: ber, jitter: { rjRms_UI: 0, djPp_UI: dj } });
+    const eye = statisticalEye(pulse, {
+      modulation: "pam4",
+      noiseRms_V: sigma,
+      targetBer: ber,
+      jitter: { rjRms_UI: 0, djPp_UI: dj },
+    });
     const h = eye.eyeHeights(0, ber);
     const at = (p: number) => {
       const c = [0, 1, 2, 3, 4, 5].map((k) => {
@@ -149,7 +180,10 @@ describe("statisticalEye — oracle (brute-force enumeration of every symbol pat
     const mixedUpperEdge = (level: number) => {
       const laws = [at(-1), at(1)].map(({ main, isi }) => ({ main, ...enumerateIsi(isi, alphabet) }));
       const below = (v: number) =>
-        laws.reduce((s, l) => s + 0.5 * l.values.reduce((a, x) => a + l.prob * normalTail((level * l.main + x - v) / sigma), 0), 0);
+        laws.reduce(
+          (s, l) => s + 0.5 * l.values.reduce((a, x) => a + l.prob * normalTail((level * l.main + x - v) / sigma), 0),
+          0,
+        );
       let lo = -1;
       let hi = 1;
       for (let i = 0; i < 100; i++) {
@@ -177,13 +211,17 @@ describe("statisticalEye — oracle (brute-force enumeration of every symbol pat
       expect(jit.probBelow(1, 0, v)).toBeCloseTo(want, 14);
     }
     const top = jit.eyeEdges(0, BER)[1];
-    expect(0.5 * (plain.probBelow(1, -2, top) + plain.probBelow(1, 2, top)) / (2 * BER)).toBeCloseTo(1, 6);
+    expect((0.5 * (plain.probBelow(1, -2, top) + plain.probBelow(1, 2, top))) / (2 * BER)).toBeCloseTo(1, 6);
   });
 });
 
 describe("statisticalEye — identities and properties", () => {
   it("the BER of a threshold is f times the two neighbouring levels' conditional tails (PAM4 ⅛, NRZ ½); at an eye edge it is the target", () => {
-    const eye = statisticalEye(cursorPulse([0.02, 0.4, 0.1, -0.03], 1), { modulation: "pam4", noiseRms_V: 0.01, targetBer: 1e-6 });
+    const eye = statisticalEye(cursorPulse([0.02, 0.4, 0.1, -0.03], 1), {
+      modulation: "pam4",
+      noiseRms_V: 0.01,
+      targetBer: 1e-6,
+    });
     const v = 0.05;
     const m = eye.main(0);
     expect(m).toBeCloseTo(0.4, 15);
@@ -233,7 +271,10 @@ describe("statisticalEye — identities and properties", () => {
   it("extra independent parts (an aggressor's, say) act exactly as more cursors that no DFE cancels", () => {
     const base = { modulation: "nrz" as const, noiseRms_V: 0.004, dfeTaps: [0.1] };
     const withCursors = statisticalEye(cursorPulse([0.03, 0.4, 0.1, 0, 0.02, -0.015], 1), base);
-    const withParts = statisticalEye(cursorPulse([0.03, 0.4, 0.1, 0], 1), { ...base, extraParts_V: Float64Array.of(0.02, 0.015) });
+    const withParts = statisticalEye(cursorPulse([0.03, 0.4, 0.1, 0], 1), {
+      ...base,
+      extraParts_V: Float64Array.of(0.02, 0.015),
+    });
     expect(withParts.eyeHeight(0, BER)).toBeCloseTo(withCursors.eyeHeight(0, BER), 12);
   });
 
@@ -257,17 +298,25 @@ describe("statisticalEye — edges", () => {
     const eye = statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0.01 });
     expect(eye.main(1000)).toBe(0);
     expect(() => statisticalEye(pulse, { modulation: "nrz", noiseRms_V: -1 })).toThrow(/noiseRms_V/);
-    expect(() => statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0, dfeTaps: [Number.NaN] })).toThrow(/dfeTaps\[0\]/);
-    expect(() => statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0, jitter: { rjRms_UI: 1, djPp_UI: 0 } })).toThrow(
-      /rjRms_UI/,
+    expect(() => statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0, dfeTaps: [Number.NaN] })).toThrow(
+      /dfeTaps\[0\]/,
     );
+    expect(() =>
+      statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0, jitter: { rjRms_UI: 1, djPp_UI: 0 } }),
+    ).toThrow(/rjRms_UI/);
     expect(() => eye.eyeHeight(0, 0.3)).toThrow(/ber/);
     expect(() => statisticalEye(pulse, { modulation: "pam4", noiseRms_V: 0, targetBer: 0.1 })).toThrow(/targetBer/);
-    expect(() => statisticalEye(pulse, { modulation: "pam4", noiseRms_V: 0, pam4InnerLevel: 1.2 })).toThrow(/pam4InnerLevel/);
+    expect(() => statisticalEye(pulse, { modulation: "pam4", noiseRms_V: 0, pam4InnerLevel: 1.2 })).toThrow(
+      /pam4InnerLevel/,
+    );
     expect(() => statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0, refine: 0 })).toThrow(/refine/);
-    expect(() => statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0, extraParts_V: Float64Array.of(-1) })).toThrow(/extraParts_V/);
+    expect(() =>
+      statisticalEye(pulse, { modulation: "nrz", noiseRms_V: 0, extraParts_V: Float64Array.of(-1) }),
+    ).toThrow(/extraParts_V/);
     expect(() => eye.probBelow(2, 0, 0)).toThrow(/level/);
-    expect(() => statisticalEye({ ...pulse, mainIndex: 99 }, { modulation: "nrz", noiseRms_V: 0 })).toThrow(/mainIndex/);
+    expect(() => statisticalEye({ ...pulse, mainIndex: 99 }, { modulation: "nrz", noiseRms_V: 0 })).toThrow(
+      /mainIndex/,
+    );
   });
 });
 

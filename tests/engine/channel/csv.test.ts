@@ -96,8 +96,14 @@ describe("readCsvResponse properties (fast-check, seeds fixed)", () => {
   });
 
   it("random garbage never crashes: a result or an InputFileError with a message", () => {
-    const cell = fc.oneof(fc.double().map(String), fc.string({ maxLength: 5 }), fc.constantFrom("NaN", '"', "#", ";", ","));
-    const line = fc.array(cell, { maxLength: 4 }).chain((cells) => fc.constantFrom(",", ";", " ").map((s) => cells.join(s)));
+    const cell = fc.oneof(
+      fc.double().map(String),
+      fc.string({ maxLength: 5 }),
+      fc.constantFrom("NaN", '"', "#", ";", ","),
+    );
+    const line = fc
+      .array(cell, { maxLength: 4 })
+      .chain((cells) => fc.constantFrom(",", ";", " ").map((s) => cells.join(s)));
     fc.assert(
       fc.property(fc.array(line, { maxLength: 10 }), (lines) => {
         try {

@@ -40,31 +40,34 @@ describe("lossModelS21", () => {
 });
 
 describe("pulseFromLossModel — realistic demo pulses", () => {
-  it.each([10e9, 25.78125e9, 56e9])("at %d Bd: 5…40 dB give causal pulses of area UI (1 %), falling main cursor", (baud) => {
-    const ui = 1 / baud;
-    let lastMain = Number.POSITIVE_INFINITY;
-    for (const loss of [5, 10, 20, 30, 40]) {
-      const r = pulseFromLossModel({ lossAtNyquist_dB: loss, delay_s: 1e-9 }, { ui_s: ui, samplesPerUi: 32 });
-      const p = r.pulse;
-      expect(Math.abs(pulseArea(p) / ui - 1)).toBeLessThan(0.01);
-      const main = p.values_V[p.mainIndex];
-      expect(main).toBeLessThan(lastMain);
-      lastMain = main;
-      // The main cursor arrives after the delay and within a few UI of it.
-      const tMain = r.start_s + p.mainIndex * (ui / 32);
-      expect(tMain).toBeGreaterThan(1e-9);
-      expect(tMain).toBeLessThan(1e-9 + 6 * ui);
-      // Causal: nothing of note more than 2 UI before the delay.
-      for (let i = 0; i < p.values_V.length; i++) {
-        if (r.start_s + i * (ui / 32) < 1e-9 - 2 * ui) expect(Math.abs(p.values_V[i])).toBeLessThan(1e-3 * main);
+  it.each([10e9, 25.78125e9, 56e9])(
+    "at %d Bd: 5…40 dB give causal pulses of area UI (1 %), falling main cursor",
+    (baud) => {
+      const ui = 1 / baud;
+      let lastMain = Number.POSITIVE_INFINITY;
+      for (const loss of [5, 10, 20, 30, 40]) {
+        const r = pulseFromLossModel({ lossAtNyquist_dB: loss, delay_s: 1e-9 }, { ui_s: ui, samplesPerUi: 32 });
+        const p = r.pulse;
+        expect(Math.abs(pulseArea(p) / ui - 1)).toBeLessThan(0.01);
+        const main = p.values_V[p.mainIndex];
+        expect(main).toBeLessThan(lastMain);
+        lastMain = main;
+        // The main cursor arrives after the delay and within a few UI of it.
+        const tMain = r.start_s + p.mainIndex * (ui / 32);
+        expect(tMain).toBeGreaterThan(1e-9);
+        expect(tMain).toBeLessThan(1e-9 + 6 * ui);
+        // Causal: nothing of note more than 2 UI before the delay.
+        for (let i = 0; i < p.values_V.length; i++) {
+          if (r.start_s + i * (ui / 32) < 1e-9 - 2 * ui) expect(Math.abs(p.values_V[i])).toBeLessThan(1e-3 * main);
+        }
+        // Long, positive post-cursor tail with the first post-cursor the largest.
+        const c = cursorsAt(p, p.mainIndex, 1, 5).h;
+        expect(c[2]).toBeGreaterThan(c[3]);
+        expect(c[5]).toBeGreaterThan(0);
+        expect(r.insertionLoss.magnitude_dB[100]).toBeCloseTo(-loss, 6); // point 100 of 0…baud is Nyquist
       }
-      // Long, positive post-cursor tail with the first post-cursor the largest.
-      const c = cursorsAt(p, p.mainIndex, 1, 5).h;
-      expect(c[2]).toBeGreaterThan(c[3]);
-      expect(c[5]).toBeGreaterThan(0);
-      expect(r.insertionLoss.magnitude_dB[100]).toBeCloseTo(-loss, 6); // point 100 of 0…baud is Nyquist
-    }
-  });
+    },
+  );
 
   it("realism: at 5 dB the main cursor stays high; at 40 dB the ISI outweighs the main cursor three times", () => {
     const ui = 1 / 28e9;
@@ -92,6 +95,8 @@ describe("pulseFromLossModel — realistic demo pulses", () => {
     const r = pulseFromLossModel({ lossAtNyquist_dB: 0 }, { ui_s: ui, samplesPerUi: 16 });
     expect(Math.abs(r.pulse.values_V[r.pulse.mainIndex] - 1)).toBeLessThan(0.1);
     expect(() => pulseFromLossModel({ lossAtNyquist_dB: 10 }, { ui_s: ui, samplesPerUi: 0 })).toThrow(/samplesPerUi/);
-    expect(() => pulseFromLossModel({ lossAtNyquist_dB: 10, delay_s: 1e-6 }, { ui_s: 1e-12, samplesPerUi: 1024 })).toThrow(/FFT of/);
+    expect(() =>
+      pulseFromLossModel({ lossAtNyquist_dB: 10, delay_s: 1e-6 }, { ui_s: 1e-12, samplesPerUi: 1024 }),
+    ).toThrow(/FFT of/);
   });
 });

@@ -1,21 +1,33 @@
 // S21 → pulse: delay line, attenuator, first-order low-pass, area = S21(0)·UI, DC extrapolation, grids, taper.
 import { describe, expect, it } from "vitest";
-import { formatTouchstone, pulseFromS21, pulseFromTouchstone, pulseFromSamples, s21OnFftGrid, type NetworkData } from "@lib/channel";
+import {
+  formatTouchstone,
+  pulseFromS21,
+  pulseFromTouchstone,
+  pulseFromSamples,
+  s21OnFftGrid,
+  type NetworkData,
+} from "@lib/channel";
 import { pulseArea } from "@lib/pulse";
 
 const UI = 1 / 25e9;
-const linspace = (a: number, b: number, n: number) => Float64Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));
+const linspace = (a: number, b: number, n: number) =>
+  Float64Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1));
 const sample = (f: Float64Array, h: (f: number) => [number, number]) => {
   const re = new Float64Array(f.length);
   const im = new Float64Array(f.length);
   f.forEach((x, i) => ([re[i], im[i]] = h(x)));
   return { re, im };
 };
-const delay = (tau: number, gain = 1) => (f: number): [number, number] => [gain * Math.cos(-2 * Math.PI * f * tau), gain * Math.sin(-2 * Math.PI * f * tau)];
-const lowPass = (tau: number) => (f: number): [number, number] => {
-  const w = 2 * Math.PI * f * tau; // 1/(1 + jw) = (1 − jw)/(1 + w²)
-  return [1 / (1 + w * w), -w / (1 + w * w)];
-};
+const delay =
+  (tau: number, gain = 1) =>
+  (f: number): [number, number] => [gain * Math.cos(-2 * Math.PI * f * tau), gain * Math.sin(-2 * Math.PI * f * tau)];
+const lowPass =
+  (tau: number) =>
+  (f: number): [number, number] => {
+    const w = 2 * Math.PI * f * tau; // 1/(1 + jw) = (1 − jw)/(1 + w²)
+    return [1 / (1 + w * w), -w / (1 + w * w)];
+  };
 const timeOf = (r: { start_s: number; pulse: { samplesPerUi: number; ui_s: number } }, i: number) =>
   r.start_s + (i * r.pulse.ui_s) / r.pulse.samplesPerUi;
 
@@ -35,7 +47,11 @@ describe("pulseFromS21 — analytic cases [source: shared/references.md, 'From S
 
   it("attenuator S21 = 0.3: a rectangle of height 0.3, area 0.3·UI within 1 %", () => {
     const f = linspace(0, 200e9, 2001);
-    const r = pulseFromS21(f, sample(f, () => [0.3, 0]), { ui_s: UI, samplesPerUi: 16 });
+    const r = pulseFromS21(
+      f,
+      sample(f, () => [0.3, 0]),
+      { ui_s: UI, samplesPerUi: 16 },
+    );
     expect(Math.abs(pulseArea(r.pulse) / (0.3 * UI) - 1)).toBeLessThan(0.01);
     expect(Math.abs(r.pulse.values_V[r.pulse.mainIndex] - 0.3)).toBeLessThan(0.03);
   });
@@ -57,7 +73,14 @@ describe("pulseFromS21 — analytic cases [source: shared/references.md, 'From S
     const cases: [number, (f: number) => [number, number]][] = [
       [0.8, delay(0.7e-9, 0.8)],
       [1, lowPass(30e-12)],
-      [0.5, (x) => { const [a, b] = lowPass(20e-12)(x); const [c, d] = delay(1e-9, 0.5)(x); return [a * c - b * d, a * d + b * c]; }],
+      [
+        0.5,
+        (x) => {
+          const [a, b] = lowPass(20e-12)(x);
+          const [c, d] = delay(1e-9, 0.5)(x);
+          return [a * c - b * d, a * d + b * c];
+        },
+      ],
     ];
     for (const [dc, h] of cases) {
       for (const f of [linspace(0, 50e9, 5001), linspace(10e6, 50e9, 5000)]) {
@@ -70,7 +93,11 @@ describe("pulseFromS21 — analytic cases [source: shared/references.md, 'From S
 
 describe("pulseFromS21 — pitfalls and identities", () => {
   it("missing DC: extrapolation from 50 MHz gives nearly the same pulse as data with the DC point", () => {
-    const h = (x: number): [number, number] => { const [a, b] = lowPass(25e-12)(x); const [c, d] = delay(0.4e-9)(x); return [a * c - b * d, a * d + b * c]; };
+    const h = (x: number): [number, number] => {
+      const [a, b] = lowPass(25e-12)(x);
+      const [c, d] = delay(0.4e-9)(x);
+      return [a * c - b * d, a * d + b * c];
+    };
     const withDc = linspace(0, 40e9, 801);
     const noDc = linspace(50e6, 40e9, 800);
     const a = pulseFromS21(withDc, sample(withDc, h), { ui_s: UI, samplesPerUi: 16 });
@@ -88,7 +115,7 @@ describe("pulseFromS21 — pitfalls and identities", () => {
 
   it("non-uniform grid: logarithmic frequency points give the same pulse as a uniform grid (tol 0.01)", () => {
     const uniform = linspace(0, 60e9, 6001);
-    const log = Float64Array.from({ length: 600 }, (_, i) => 10e6 * (6000 ** (i / 599)));
+    const log = Float64Array.from({ length: 600 }, (_, i) => 10e6 * 6000 ** (i / 599));
     const h = lowPass(20e-12);
     const a = pulseFromS21(uniform, sample(uniform, h), { ui_s: UI, samplesPerUi: 16, minWindow_UI: 4096 });
     const b = pulseFromS21(log, sample(log, h), { ui_s: UI, samplesPerUi: 16, minWindow_UI: 4096 });
@@ -133,9 +160,17 @@ describe("pulseFromS21 — pitfalls and identities", () => {
 
   it("identity: the rise-time filter acts alike on a flat S21 and on a sampled rectangle", () => {
     const f = linspace(0, 400e9, 4001);
-    const viaS21 = pulseFromS21(f, sample(f, delay(0)), { ui_s: UI, samplesPerUi: 16, riseTime_s: 15e-12, taperFraction: 0 });
+    const viaS21 = pulseFromS21(f, sample(f, delay(0)), {
+      ui_s: UI,
+      samplesPerUi: 16,
+      riseTime_s: 15e-12,
+      taperFraction: 0,
+    });
     const rect = Float64Array.from({ length: 16 * 8 }, (_, i) => (i >= 64 && i < 80 ? 1 : 0));
-    const viaSamples = pulseFromSamples({ response: "pulse", values: rect, dt_s: UI / 16 }, { ui_s: UI, samplesPerUi: 16, riseTime_s: 15e-12 });
+    const viaSamples = pulseFromSamples(
+      { response: "pulse", values: rect, dt_s: UI / 16 },
+      { ui_s: UI, samplesPerUi: 16, riseTime_s: 15e-12 },
+    );
     const peakA = viaS21.pulse.values_V[viaS21.pulse.mainIndex];
     const peakB = viaSamples.pulse.values_V[viaSamples.pulse.mainIndex];
     expect(Math.abs(peakA - peakB)).toBeLessThan(0.03);
@@ -143,11 +178,20 @@ describe("pulseFromS21 — pitfalls and identities", () => {
 
   it("oracle: the Touchstone route (write a .s4p, read it, SDD21) equals S21 given directly", () => {
     const f = linspace(10e6, 40e9, 400);
-    const thru = sample(f, (x) => { const [a, b] = lowPass(15e-12)(x); const [c, d] = delay(0.5e-9)(x); return [a * c - b * d, a * d + b * c]; });
+    const thru = sample(f, (x) => {
+      const [a, b] = lowPass(15e-12)(x);
+      const [c, d] = delay(0.5e-9)(x);
+      return [a * c - b * d, a * d + b * c];
+    });
     const n = 4;
     const s = new Float64Array(f.length * n * n * 2);
     for (let k = 0; k < f.length; k++) {
-      for (const [o, i] of [[3, 1], [1, 3], [4, 2], [2, 4]]) {
+      for (const [o, i] of [
+        [3, 1],
+        [1, 3],
+        [4, 2],
+        [2, 4],
+      ]) {
         const at = 2 * ((k * n + (o - 1)) * n + (i - 1));
         s[at] = thru.re[k];
         s[at + 1] = thru.im[k];
@@ -158,7 +202,8 @@ describe("pulseFromS21 — pitfalls and identities", () => {
     const a = pulseFromTouchstone(text, { ui_s: UI, samplesPerUi: 16 });
     const b = pulseFromS21(f, thru, { ui_s: UI, samplesPerUi: 16 });
     expect(a.pulse.values_V.length).toBe(b.pulse.values_V.length);
-    for (let i = 0; i < a.pulse.values_V.length; i++) expect(Math.abs(a.pulse.values_V[i] - b.pulse.values_V[i])).toBeLessThan(1e-12);
+    for (let i = 0; i < a.pulse.values_V.length; i++)
+      expect(Math.abs(a.pulse.values_V[i] - b.pulse.values_V[i])).toBeLessThan(1e-12);
     expect(a.insertionLoss.magnitude_dB[0]).toBeCloseTo(0, 3);
   });
 
@@ -166,9 +211,13 @@ describe("pulseFromS21 — pitfalls and identities", () => {
     const f = Float64Array.of(0, 1e9);
     const s = { re: Float64Array.of(1, 1), im: Float64Array.of(0, 0) };
     const g = { ui_s: UI, samplesPerUi: 8 };
-    expect(() => pulseFromS21(Float64Array.of(1e9), { re: Float64Array.of(1), im: Float64Array.of(0) }, g)).toThrow(/at least 2/);
+    expect(() => pulseFromS21(Float64Array.of(1e9), { re: Float64Array.of(1), im: Float64Array.of(0) }, g)).toThrow(
+      /at least 2/,
+    );
     expect(() => pulseFromS21(Float64Array.of(1e9, 1e9), s, g)).toThrow(/ascend/);
-    expect(() => pulseFromS21(f, { re: Float64Array.of(1, Number.NaN), im: Float64Array.of(0, 0) }, g)).toThrow(/s21\[1\]/);
+    expect(() => pulseFromS21(f, { re: Float64Array.of(1, Number.NaN), im: Float64Array.of(0, 0) }, g)).toThrow(
+      /s21\[1\]/,
+    );
     expect(() => pulseFromS21(f, { re: Float64Array.of(1), im: Float64Array.of(0) }, g)).toThrow(/2 values/);
     expect(() => pulseFromS21(Float64Array.of(0, 1), s, { ui_s: UI, samplesPerUi: 1024 })).toThrow(/FFT of/);
     expect(() => pulseFromS21(f, s, { ...g, taperFraction: 2 })).toThrow(/taperFraction/);
@@ -188,13 +237,17 @@ describe("pulseFromS21 — the DC bin, the time window and the band (input check
     const a = pulseFromS21(f, clean, { ui_s: UI, samplesPerUi: 16 });
     const b = pulseFromS21(f, bad, { ui_s: UI, samplesPerUi: 16 });
     expect(b.pulse.values_V.length).toBe(a.pulse.values_V.length);
-    for (let i = 0; i < a.pulse.values_V.length; i++) expect(Math.abs(a.pulse.values_V[i] - b.pulse.values_V[i])).toBeLessThan(0.01);
+    for (let i = 0; i < a.pulse.values_V.length; i++)
+      expect(Math.abs(a.pulse.values_V[i] - b.pulse.values_V[i])).toBeLessThan(0.01);
     expect(b.dcExtrapolated).toBe(false);
   });
 
   it("identities: on the FFT grid the DC bin is real with the sign of Re S21(0), and every other bin keeps the data's phase", () => {
     const f = linspace(0, 20e9, 201); // bins fall on the data's points: size·dt = 1/Δf
-    const h = (x: number): [number, number] => { const [a, b] = delay(0.3e-9, -0.7)(x); return [a, b + (x === 0 ? 0.05 : 0)]; };
+    const h = (x: number): [number, number] => {
+      const [a, b] = delay(0.3e-9, -0.7)(x);
+      return [a, b + (x === 0 ? 0.05 : 0)];
+    };
     const s = sample(f, h);
     const dt = 1 / (2 * 20e9);
     const { spectrum, dcExtrapolated } = s21OnFftGrid(f, s, 400, dt, 0);
@@ -213,7 +266,9 @@ describe("pulseFromS21 — the DC bin, the time window and the band (input check
     const coarse = linspace(0, 40e9, 801);
     const r = pulseFromS21(coarse, sample(coarse, lowPass(5e-9)), { ui_s: UI, samplesPerUi: 8, minWindow_UI: 1 });
     const w = r.warnings.find((x) => x.code === "window-short");
-    expect(w?.message).toMatch(/not died out within the 20\.5 ns time window that the data's 50 MHz frequency step allows/);
+    expect(w?.message).toMatch(
+      /not died out within the 20\.5 ns time window that the data's 50 MHz frequency step allows/,
+    );
     expect(w?.message).toMatch(/frequency step of at most 24\.4 MHz/);
     const fine = linspace(0, 40e9, 8001);
     const ok = pulseFromS21(fine, sample(fine, lowPass(5e-9)), { ui_s: UI, samplesPerUi: 8, minWindow_UI: 1 });
@@ -223,8 +278,16 @@ describe("pulseFromS21 — the DC bin, the time window and the band (input check
 
   it("edges: a 9.5 ns delay in the 10 ns window of a 100 MHz step is named; a 5 ns delay is not", () => {
     const f = linspace(0, 40e9, 401);
-    const h = (tau: number) => (x: number): [number, number] => { const [a, b] = lowPass(10e-12)(x); const [c, d] = delay(tau)(x); return [a * c - b * d, a * d + b * c]; };
-    expect(pulseFromS21(f, sample(f, h(9.5e-9)), { ui_s: UI, samplesPerUi: 8 }).warnings.map((x) => x.code)).toEqual(["window-short"]);
+    const h =
+      (tau: number) =>
+      (x: number): [number, number] => {
+        const [a, b] = lowPass(10e-12)(x);
+        const [c, d] = delay(tau)(x);
+        return [a * c - b * d, a * d + b * c];
+      };
+    expect(pulseFromS21(f, sample(f, h(9.5e-9)), { ui_s: UI, samplesPerUi: 8 }).warnings.map((x) => x.code)).toEqual([
+      "window-short",
+    ]);
     expect(pulseFromS21(f, sample(f, h(5e-9)), { ui_s: UI, samplesPerUi: 8 }).warnings).toEqual([]);
   });
 
@@ -250,13 +313,19 @@ describe("pulseFromTouchstone — port reference impedances", () => {
     const n = 2;
     const s = new Float64Array(f.length * n * n * 2);
     f.forEach((x, k) => {
-      for (const [o, i] of [[2, 1], [1, 2]]) {
+      for (const [o, i] of [
+        [2, 1],
+        [1, 2],
+      ]) {
         const at = 2 * ((k * n + (o - 1)) * n + (i - 1));
         s[at] = Math.cos(2 * Math.PI * x * tau);
         s[at + 1] = -Math.sin(2 * Math.PI * x * tau);
       }
     });
-    const text = formatTouchstone({ ports: 2, freqs_Hz: f, s, referenceOhms: Float64Array.of(100, 100) }, { version: 2, format: "RI" });
+    const text = formatTouchstone(
+      { ports: 2, freqs_Hz: f, s, referenceOhms: Float64Array.of(100, 100) },
+      { version: 2, format: "RI" },
+    );
     const viaFile = pulseFromTouchstone(text, { ui_s: UI, samplesPerUi: 16 });
     const z = 2;
     const closed = sample(f, (x) => {
@@ -267,7 +336,8 @@ describe("pulseFromTouchstone — port reference impedances", () => {
     });
     const direct = pulseFromS21(f, closed, { ui_s: UI, samplesPerUi: 16 });
     expect(viaFile.pulse.values_V.length).toBe(direct.pulse.values_V.length);
-    for (let i = 0; i < direct.pulse.values_V.length; i++) expect(Math.abs(viaFile.pulse.values_V[i] - direct.pulse.values_V[i])).toBeLessThan(1e-9);
+    for (let i = 0; i < direct.pulse.values_V.length; i++)
+      expect(Math.abs(viaFile.pulse.values_V[i] - direct.pulse.values_V[i])).toBeLessThan(1e-9);
     // The first arrival is (1 − Γ²) = 8/9 of the 50 Ω thru's, Γ = 1/3.
     expect(viaFile.pulse.values_V[viaFile.pulse.mainIndex]).toBeGreaterThan(0.8);
     expect(viaFile.pulse.values_V[viaFile.pulse.mainIndex]).toBeLessThan(0.95);

@@ -10,7 +10,10 @@ describe("pulseFromSamples", () => {
     const tau = 15e-12;
     const dtIn = 0.05e-12;
     const values = Float64Array.from({ length: 8001 }, (_, i) => 1 - Math.exp((-i * dtIn) / tau));
-    const { pulse, start_s } = pulseFromSamples({ response: "step", values, dt_s: dtIn }, { ui_s: UI, samplesPerUi: 16 });
+    const { pulse, start_s } = pulseFromSamples(
+      { response: "step", values, dt_s: dtIn },
+      { ui_s: UI, samplesPerUi: 16 },
+    );
     expect(start_s).toBe(0);
     const dt = UI / 16;
     for (const j of [3, 10, 16, 20, 40]) {
@@ -32,12 +35,18 @@ describe("pulseFromSamples", () => {
       const s = Math.sign(x);
       const a = Math.abs(x);
       const k = 1 / (1 + 0.3275911 * a);
-      const y = 1 - ((((1.061405429 * k - 1.453152027) * k + 1.421413741) * k - 0.284496736) * k + 0.254829592) * k * Math.exp(-a * a);
+      const y =
+        1 -
+        ((((1.061405429 * k - 1.453152027) * k + 1.421413741) * k - 0.284496736) * k + 0.254829592) *
+          k *
+          Math.exp(-a * a);
       return s * y;
     };
     const step = t.map((x) => 0.5 * (1 + erf((x - 100e-12) / (sigma * Math.SQRT2))));
     const impulse = t.map((x) => Math.exp(-0.5 * ((x - 100e-12) / sigma) ** 2) / (sigma * Math.sqrt(2 * Math.PI)));
-    const pulseVals = t.map((x, i) => step[i] - (x - UI < 0 ? 0 : 0.5 * (1 + erf((x - UI - 100e-12) / (sigma * Math.SQRT2)))));
+    const pulseVals = t.map(
+      (x, i) => step[i] - (x - UI < 0 ? 0 : 0.5 * (1 + erf((x - UI - 100e-12) / (sigma * Math.SQRT2)))),
+    );
     const grid = { ui_s: UI, samplesPerUi: 32 };
     const a = pulseFromSamples({ response: "pulse", values: pulseVals, dt_s: dtIn }, grid).pulse;
     const b = pulseFromSamples({ response: "step", values: step, time_s: t }, grid).pulse;
@@ -53,7 +62,10 @@ describe("pulseFromSamples", () => {
   it("oracle: a step with an offset baseline and a non-uniform time axis from CSV", () => {
     const csv = "time_s,v\n0,0.2\n10e-12,0.2\n25e-12,0.7\n30e-12,1.2\n80e-12,1.2\n";
     const rec = readCsvResponse(csv);
-    const { pulse } = pulseFromSamples({ response: "step", values: rec.values, time_s: rec.time_s }, { ui_s: UI, samplesPerUi: 8 });
+    const { pulse } = pulseFromSamples(
+      { response: "step", values: rec.values, time_s: rec.time_s },
+      { ui_s: UI, samplesPerUi: 8 },
+    );
     // Baseline 0.2 cancels: the pulse starts at 0 and its height is the step's 1.0.
     expect(pulse.values_V[0]).toBe(0);
     expect(Math.max(...pulse.values_V)).toBeCloseTo(1, 12);
@@ -74,7 +86,10 @@ describe("pulseFromSamples", () => {
     expect(kernel[half]).toBe(Math.max(...kernel));
     const rect = Float64Array.from({ length: 64 }, (_, i) => (i >= 16 && i < 32 ? 1 : 0));
     const sharp = pulseFromSamples({ response: "pulse", values: rect, dt_s: UI / 16 }, { ui_s: UI, samplesPerUi: 16 });
-    const soft = pulseFromSamples({ response: "pulse", values: rect, dt_s: UI / 16 }, { ui_s: UI, samplesPerUi: 16, riseTime_s: 20e-12 });
+    const soft = pulseFromSamples(
+      { response: "pulse", values: rect, dt_s: UI / 16 },
+      { ui_s: UI, samplesPerUi: 16, riseTime_s: 20e-12 },
+    );
     expect(pulseArea(soft.pulse)).toBeCloseTo(pulseArea(sharp.pulse), 20);
     expect(soft.start_s).toBeLessThan(0);
     expect(Math.max(...soft.pulse.values_V)).toBeLessThan(1);
@@ -83,14 +98,36 @@ describe("pulseFromSamples", () => {
 
   it("edges: bad grids, short or non-finite records, missing time step", () => {
     const v = Float64Array.of(0, 1, 0);
-    expect(() => pulseFromSamples({ response: "pulse", values: v, dt_s: 1e-12 }, { ui_s: 0, samplesPerUi: 8 })).toThrow(/ui_s/);
-    expect(() => pulseFromSamples({ response: "pulse", values: v, dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 0 })).toThrow(/samplesPerUi/);
-    expect(() => pulseFromSamples({ response: "pulse", values: v, dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 8, riseTime_s: -1 })).toThrow(/riseTime_s/);
+    expect(() => pulseFromSamples({ response: "pulse", values: v, dt_s: 1e-12 }, { ui_s: 0, samplesPerUi: 8 })).toThrow(
+      /ui_s/,
+    );
+    expect(() =>
+      pulseFromSamples({ response: "pulse", values: v, dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 0 }),
+    ).toThrow(/samplesPerUi/);
+    expect(() =>
+      pulseFromSamples({ response: "pulse", values: v, dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 8, riseTime_s: -1 }),
+    ).toThrow(/riseTime_s/);
     expect(() => pulseFromSamples({ response: "pulse", values: v }, { ui_s: UI, samplesPerUi: 8 })).toThrow(/dt_s/);
-    expect(() => pulseFromSamples({ response: "pulse", values: Float64Array.of(1), dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 8 })).toThrow(/at least 2/);
-    expect(() => pulseFromSamples({ response: "pulse", values: Float64Array.of(1, Number.NaN), dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 8 })).toThrow(/values\[1\]/);
-    expect(() => pulseFromSamples({ response: "ramp" as "pulse", values: v, dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 8 })).toThrow(/response/);
-    expect(() => pulseFromSamples({ response: "pulse", values: v, time_s: Float64Array.of(0, 2, 1) }, { ui_s: UI, samplesPerUi: 8 })).toThrow(/ascend/);
-    expect(() => pulseFromSamples({ response: "pulse", values: v, dt_s: 1 }, { ui_s: 1e-12, samplesPerUi: 1024 })).toThrow(/at most/);
+    expect(() =>
+      pulseFromSamples({ response: "pulse", values: Float64Array.of(1), dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 8 }),
+    ).toThrow(/at least 2/);
+    expect(() =>
+      pulseFromSamples(
+        { response: "pulse", values: Float64Array.of(1, Number.NaN), dt_s: 1e-12 },
+        { ui_s: UI, samplesPerUi: 8 },
+      ),
+    ).toThrow(/values\[1\]/);
+    expect(() =>
+      pulseFromSamples({ response: "ramp" as "pulse", values: v, dt_s: 1e-12 }, { ui_s: UI, samplesPerUi: 8 }),
+    ).toThrow(/response/);
+    expect(() =>
+      pulseFromSamples(
+        { response: "pulse", values: v, time_s: Float64Array.of(0, 2, 1) },
+        { ui_s: UI, samplesPerUi: 8 },
+      ),
+    ).toThrow(/ascend/);
+    expect(() =>
+      pulseFromSamples({ response: "pulse", values: v, dt_s: 1 }, { ui_s: 1e-12, samplesPerUi: 1024 }),
+    ).toThrow(/at most/);
   });
 });

@@ -48,7 +48,12 @@ describe("sdd21", () => {
     put(1, 3, 0.6, -0.3);
     put(4, 2, 0.6, -0.3);
     put(2, 4, 0.6, -0.3);
-    const net: NetworkData = { ports: 4, freqs_Hz: Float64Array.of(1e9), s, referenceOhms: new Float64Array(4).fill(50) };
+    const net: NetworkData = {
+      ports: 4,
+      freqs_Hz: Float64Array.of(1e9),
+      s,
+      referenceOhms: new Float64Array(4).fill(50),
+    };
     const d = sdd21(net);
     expect([d.re[0], d.im[0]]).toEqual([0.6, -0.3]);
     const flipped = sdd21(net, { inP: 2, inN: 1, outP: 3, outN: 4 });

@@ -24,7 +24,12 @@ const networkArb = fc
           freqs[i] = f;
           f += steps[i];
         }
-        return { ports, freqs_Hz: freqs, s: Float64Array.from(vals), referenceOhms: new Float64Array(ports).fill(ohms) };
+        return {
+          ports,
+          freqs_Hz: freqs,
+          s: Float64Array.from(vals),
+          referenceOhms: new Float64Array(ports).fill(ohms),
+        };
       }),
   );
 
@@ -43,10 +48,13 @@ describe("Touchstone round trip and garbage (fast-check, seeds fixed)", () => {
         const back = parseTouchstone(text, tellPorts ? { ports: net.ports } : {});
         expect(back.ports).toBe(net.ports);
         for (let i = 0; i < net.freqs_Hz.length; i++) {
-          expect(Math.abs(back.freqs_Hz[i] - net.freqs_Hz[i])).toBeLessThanOrEqual(1e-12 * Math.max(1, net.freqs_Hz[i]));
+          expect(Math.abs(back.freqs_Hz[i] - net.freqs_Hz[i])).toBeLessThanOrEqual(
+            1e-12 * Math.max(1, net.freqs_Hz[i]),
+          );
         }
         for (let i = 0; i < net.s.length; i++) {
-          if (opts.format === "RI") expect(back.s[i] === net.s[i]).toBe(true); // −0 reads back as 0
+          if (opts.format === "RI")
+            expect(back.s[i] === net.s[i]).toBe(true); // −0 reads back as 0
           else expect(Math.abs(back.s[i] - net.s[i])).toBeLessThan(1e-9);
         }
         expect(back.referenceOhms[0]).toBe(net.referenceOhms[0]);
@@ -60,7 +68,23 @@ describe("Touchstone round trip and garbage (fast-check, seeds fixed)", () => {
 
   it("random text never crashes: it parses or gives an InputFileError naming the line", () => {
     const token = fc.oneof(
-      fc.constantFrom("#", "!", "[Version]", "2.0", "[End]", "[Network Data]", "GHz", "S", "RI", "MA", "R", "50", "NaN", "1e999", "-"),
+      fc.constantFrom(
+        "#",
+        "!",
+        "[Version]",
+        "2.0",
+        "[End]",
+        "[Network Data]",
+        "GHz",
+        "S",
+        "RI",
+        "MA",
+        "R",
+        "50",
+        "NaN",
+        "1e999",
+        "-",
+      ),
       fc.double({ noNaN: false }).map(String),
       fc.string({ maxLength: 4 }),
     );

@@ -1,13 +1,7 @@
 // Touchstone reader and writer: the parse check, fixtures, version 2 keywords, errors that name the line.
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import {
-  formatTouchstone,
-  InputFileError,
-  parseTouchstone,
-  sParameter,
-  type NetworkData,
-} from "@lib/channel";
+import { formatTouchstone, InputFileError, parseTouchstone, sParameter, type NetworkData } from "@lib/channel";
 
 const fixture = (name: string) => readFileSync(new URL(`../fixtures/${name}`, import.meta.url), "utf8");
 const at = (net: NetworkData, f: number, out: number, inp: number) => {
@@ -71,8 +65,9 @@ describe("parseTouchstone", () => {
 
   it("version 1 three- and four-port files: one matrix row per line; port count inferred", () => {
     const rows = (f: number, n: number) =>
-      Array.from({ length: n }, (_, r) =>
-        (r === 0 ? `${f} ` : "  ") + Array.from({ length: n }, (_, c) => `${r + 1}.${c + 1} ${f}`).join(" "),
+      Array.from(
+        { length: n },
+        (_, r) => (r === 0 ? `${f} ` : "  ") + Array.from({ length: n }, (_, c) => `${r + 1}.${c + 1} ${f}`).join(" "),
       ).join("\n");
     for (const n of [3, 4]) {
       const net = parseTouchstone(`# GHz S RI R 50\n${rows(1, n)}\n${rows(2, n)}\n`);
@@ -99,10 +94,14 @@ describe("parseTouchstone", () => {
 
   it("version 2: [Two-Port Data Order] 12_21 and lower/upper matrix formats", () => {
     const head = "[Version] 2.0\n# Hz S RI\n[Number of Ports] 2\n";
-    const a = parseTouchstone(`${head}[Two-Port Data Order] 12_21\n[Number of Frequencies] 1\n[Network Data]\n5 11 0 12 0 21 0 22 0\n[End]\n`);
+    const a = parseTouchstone(
+      `${head}[Two-Port Data Order] 12_21\n[Number of Frequencies] 1\n[Network Data]\n5 11 0 12 0 21 0 22 0\n[End]\n`,
+    );
     expect(at(a, 0, 1, 2)[0]).toBe(12);
     expect(at(a, 0, 2, 1)[0]).toBe(21);
-    const b = parseTouchstone(`${head}[Two-Port Data Order] 21_12\n[Number of Frequencies] 1\n[Network Data]\n5 11 0 21 0 12 0 22 0\n[End]\n`);
+    const b = parseTouchstone(
+      `${head}[Two-Port Data Order] 21_12\n[Number of Frequencies] 1\n[Network Data]\n5 11 0 21 0 12 0 22 0\n[End]\n`,
+    );
     expect(at(b, 0, 1, 2)[0]).toBe(12);
     const lower = parseTouchstone(
       "[Version] 2.0\n# GHz S RI\n[Number of Ports] 3\n[Number of Frequencies] 1\n[Matrix Format] Lower\n[Network Data]\n1 11 0\n21 0 22 0\n31 0 32 0 33 0\n[End]\n",
@@ -119,7 +118,11 @@ describe("parseTouchstone", () => {
   it.each([
     ["1 0.1 0 0.9 0 0.9 0 0.1 0\n0.5 0.1 0 0.9 0 0.9 0 0.1 0\n", 2, /frequencies must ascend/],
     ["1 0.1 0 0.9 0 0.9 0 0.1 0\n2 0.1 0 0.9 0 0.9 0 0.1\n", 1, /lines 1–2\) has 8 value pairs/],
-    ["# GHz S RI\n1 0.1 0 0.9 0 0.9 0 0.1 0\n2 0.1 0 0.9 0 0.9 0 0.1 0\n3 0.1 0 0.9 0 0.9 0\n", 4, /7 values; 9 are expected/],
+    [
+      "# GHz S RI\n1 0.1 0 0.9 0 0.9 0 0.1 0\n2 0.1 0 0.9 0 0.9 0 0.1 0\n3 0.1 0 0.9 0 0.9 0\n",
+      4,
+      /7 values; 9 are expected/,
+    ],
     ["1 0.1 0 0.9 0 NaN 0 0.1 0\n", 1, /'NaN' is not a number/],
     ["1 0.1 0 0.9 0 Infinity 0 0.1 0\n", 1, /'Infinity' is not a number/],
     ["# GHz S XX R 50\n1 0 0\n", 1, /unknown option 'XX'/],
@@ -132,9 +135,21 @@ describe("parseTouchstone", () => {
     ["! nothing\n", 0, /no network data/],
     ["[Number of Ports] 2\n", 1, /without \[Version\] 2.0/],
     ["[Version] 3.0\n", 1, /unsupported \[Version\]/],
-    ["[Version] 2.0\n# GHz S RI\n[Number of Ports] 2\n[Number of Frequencies] 1\n[Network Data]\n1 0 0 0 0 0 0 0 0\n[End]\n", 5, /Two-Port Data Order/],
-    ["[Version] 2.0\n# GHz S RI\n[Number of Ports] 1\n[Number of Frequencies] 2\n[Network Data]\n1 0 0\n[End]\n", 7, /says 2 but the file holds 1/],
-    ["[Version] 2.0\n# GHz S RI\n[Number of Ports] 1\n[Number of Frequencies] 1\n[Network Data]\n1 0 0\n", 6, /must end with \[End\]/],
+    [
+      "[Version] 2.0\n# GHz S RI\n[Number of Ports] 2\n[Number of Frequencies] 1\n[Network Data]\n1 0 0 0 0 0 0 0 0\n[End]\n",
+      5,
+      /Two-Port Data Order/,
+    ],
+    [
+      "[Version] 2.0\n# GHz S RI\n[Number of Ports] 1\n[Number of Frequencies] 2\n[Network Data]\n1 0 0\n[End]\n",
+      7,
+      /says 2 but the file holds 1/,
+    ],
+    [
+      "[Version] 2.0\n# GHz S RI\n[Number of Ports] 1\n[Number of Frequencies] 1\n[Network Data]\n1 0 0\n",
+      6,
+      /must end with \[End\]/,
+    ],
     ["[Version] 2.0\n# GHz S RI\n[Number of Ports] 1\n[Frobnicate] 1\n", 4, /unknown keyword \[Frobnicate\]/],
     ["[Version] 2.0\n# GHz S RI\n[Number of Ports] 1\n1 0 0\n", 4, /outside \[Network Data\]/],
     ["[Version] 2.0\n# GHz S RI\n[Number of Ports] 4\n[Mixed-Mode Order] D2,1 D1,2\n", 4, /mixed-mode/],
@@ -147,7 +162,8 @@ describe("parseTouchstone", () => {
   });
 
   it("edges: the ports option must agree with [Number of Ports]; bad ports option; CRLF and BOM", () => {
-    const v2 = "[Version] 2.0\n# GHz S RI\n[Number of Ports] 1\n[Number of Frequencies] 1\n[Network Data]\n1 0.5 0\n[End]\n";
+    const v2 =
+      "[Version] 2.0\n# GHz S RI\n[Number of Ports] 1\n[Number of Frequencies] 1\n[Network Data]\n1 0.5 0\n[End]\n";
     expect(() => parseTouchstone(v2, { ports: 2 })).toThrow(/disagrees/);
     expect(() => parseTouchstone(v2, { ports: 0 })).toThrow(/ports must be/);
     const crlf = parseTouchstone("\ufeff# GHz S RI R 50\r\n1 0.5 0\r\n2 0.4 0\r\n");
@@ -168,7 +184,9 @@ describe("formatTouchstone", () => {
       s: Float64Array.of(11, 0, 12, 0, 21, 0, 22, 0),
       referenceOhms: Float64Array.of(50, 50),
     };
-    expect(formatTouchstone(net, { comments: ["made by a test"] })).toBe("! made by a test\n# GHz S RI R 50\n1 11 0 21 0 12 0 22 0\n");
+    expect(formatTouchstone(net, { comments: ["made by a test"] })).toBe(
+      "! made by a test\n# GHz S RI R 50\n1 11 0 21 0 12 0 22 0\n",
+    );
     const v2 = formatTouchstone(net, { version: 2, unit: "MHz" });
     expect(v2).toContain("[Two-Port Data Order] 12_21");
     expect(v2).toContain("1000 11 0 12 0 21 0 22 0");

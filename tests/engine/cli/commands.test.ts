@@ -17,18 +17,34 @@ const UI = 1 / 25.78125e9;
 
 describe("pulse", () => {
   it("samples: a pulse, a step and an impulse response; values in V, mainIndex at the peak", () => {
-    const rect = ok("pulse", { source: { kind: "samples", response: "pulse", dt_s: UI / 8, values: [0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 0, 0] }, ui_s: UI, samplesPerUi: 8 });
+    const rect = ok("pulse", {
+      source: { kind: "samples", response: "pulse", dt_s: UI / 8, values: [0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 0, 0] },
+      ui_s: UI,
+      samplesPerUi: 8,
+    });
     expect(rect.samplesPerUi).toBe(8);
     expect(rect.values_V[rect.mainIndex]).toBe(1);
     expect(areaOf(rect) / UI).toBeCloseTo(1, 12);
-    const step = ok("pulse", { source: { kind: "samples", response: "step", dt_s: UI / 4, values: [0, 0, 0.5, 1, 1, 1] }, ui_s: UI, samplesPerUi: 4 });
+    const step = ok("pulse", {
+      source: { kind: "samples", response: "step", dt_s: UI / 4, values: [0, 0, 0.5, 1, 1, 1] },
+      ui_s: UI,
+      samplesPerUi: 4,
+    });
     expect(Math.max(...step.values_V)).toBeCloseTo(1, 12);
-    const imp = ok("pulse", { source: { kind: "samples", response: "impulse", dt_s: UI / 4, values: [0, 4 / UI, 0, 0, 0, 0] }, ui_s: UI, samplesPerUi: 4 });
+    const imp = ok("pulse", {
+      source: { kind: "samples", response: "impulse", dt_s: UI / 4, values: [0, 4 / UI, 0, 0, 0, 0] },
+      ui_s: UI,
+      samplesPerUi: 4,
+    });
     expect(areaOf(imp) / UI).toBeCloseTo(1, 9);
   });
 
   it("csv: a step response file gives a pulse of unit area", () => {
-    const r = ok("pulse", { source: { kind: "csv", response: "step", text: fixture("step-semicolon.csv") }, ui_s: 20e-12, samplesPerUi: 8 });
+    const r = ok("pulse", {
+      source: { kind: "csv", response: "step", text: fixture("step-semicolon.csv") },
+      ui_s: 20e-12,
+      samplesPerUi: 8,
+    });
     expect(areaOf(r) / 20e-12).toBeCloseTo(1, 9);
     expect(r.insertionLoss).toBeUndefined();
   });
@@ -37,7 +53,12 @@ describe("pulse", () => {
     // A 2-port thru with 6 dB flat loss and 1 ns delay, 10 MHz … 40 GHz.
     const n = 4000;
     const f = Float64Array.from({ length: n }, (_, i) => 10e6 * (i + 1));
-    const two: NetworkData = { ports: 2, freqs_Hz: f, s: new Float64Array(n * 8), referenceOhms: Float64Array.of(50, 50) };
+    const two: NetworkData = {
+      ports: 2,
+      freqs_Hz: f,
+      s: new Float64Array(n * 8),
+      referenceOhms: Float64Array.of(50, 50),
+    };
     for (let k = 0; k < n; k++) {
       const a = -2 * Math.PI * f[k] * 1e-9;
       for (const at of [2, 4]) {
@@ -45,12 +66,20 @@ describe("pulse", () => {
         two.s[k * 8 + at + 1] = 0.5 * Math.sin(a);
       }
     }
-    const r2 = ok("pulse", { source: { kind: "touchstone", text: formatTouchstone(two), format: "s2p" }, ui_s: UI, samplesPerUi: 16 });
+    const r2 = ok("pulse", {
+      source: { kind: "touchstone", text: formatTouchstone(two), format: "s2p" },
+      ui_s: UI,
+      samplesPerUi: 16,
+    });
     expect(Math.abs(areaOf(r2) / (0.5 * UI) - 1)).toBeLessThan(0.01);
     expect(r2.insertionLoss.freqs_Hz.length).toBe(n);
     expect(r2.insertionLoss.magnitude_dB[0]).toBeCloseTo(-6.0206, 3);
 
-    const r4 = ok("pulse", { source: { kind: "touchstone", text: fixture("four-port-v2.s4p"), format: "s4p" }, ui_s: UI, samplesPerUi: 8 });
+    const r4 = ok("pulse", {
+      source: { kind: "touchstone", text: fixture("four-port-v2.s4p"), format: "s4p" },
+      ui_s: UI,
+      samplesPerUi: 8,
+    });
     expect(Math.abs(areaOf(r4) / (0.99 * UI) - 1)).toBeLessThan(0.02); // |SDD21(10 MHz)| ≈ 0.99, extrapolated to DC
     const swapped = ok("pulse", {
       source: { kind: "touchstone", text: fixture("four-port-v2.s4p"), pairs: { inP: 2, inN: 1, outP: 3, outN: 4 } },
@@ -63,21 +92,34 @@ describe("pulse", () => {
   it("touchstone: quality as in engine-cli.md — a clean 2-port passes with no warnings; the 4-port fixture stops at 10 GHz and is told so", () => {
     const n = 4000;
     const f = Float64Array.from({ length: n }, (_, i) => 10e6 * (i + 1));
-    const two: NetworkData = { ports: 2, freqs_Hz: f, s: new Float64Array(n * 8), referenceOhms: Float64Array.of(50, 50) };
+    const two: NetworkData = {
+      ports: 2,
+      freqs_Hz: f,
+      s: new Float64Array(n * 8),
+      referenceOhms: Float64Array.of(50, 50),
+    };
     for (let k = 0; k < n; k++) {
       for (const at of [2, 4]) {
         two.s[k * 8 + at] = 0.5 * Math.cos(-2 * Math.PI * f[k] * 1e-9);
         two.s[k * 8 + at + 1] = 0.5 * Math.sin(-2 * Math.PI * f[k] * 1e-9);
       }
     }
-    const q = ok("pulse", { source: { kind: "touchstone", text: formatTouchstone(two), format: "s2p" }, ui_s: UI, samplesPerUi: 16 }).quality;
+    const q = ok("pulse", {
+      source: { kind: "touchstone", text: formatTouchstone(two), format: "s2p" },
+      ui_s: UI,
+      samplesPerUi: 16,
+    }).quality;
     expect(q).toMatchObject({ passive: true, reciprocal: true, causal: true, warnings: [] });
     expect(q.maxSingularValue).toBeCloseTo(0.5, 9);
     expect(q.maxReciprocityError).toBe(0);
     expect(q.bandCoverage).toEqual({ fmax_Hz: 40e9, baudRatio: 40e9 * UI });
     expect(q.frequencyStep.df_Hz).toBeCloseTo(10e6, 3);
     expect(q.frequencyStep.maxDelay_s).toBeCloseTo(1e-7, 15);
-    const q4 = ok("pulse", { source: { kind: "touchstone", text: fixture("four-port-v2.s4p"), format: "s4p" }, ui_s: UI, samplesPerUi: 8 }).quality;
+    const q4 = ok("pulse", {
+      source: { kind: "touchstone", text: fixture("four-port-v2.s4p"), format: "s4p" },
+      ui_s: UI,
+      samplesPerUi: 8,
+    }).quality;
     expect(q4.bandCoverage.baudRatio).toBeCloseTo(10e9 * UI, 12);
     expect(q4.warnings.map((w: { code: string }) => w.code)).toContain("band-below-baud");
     const loss = ok("pulse", { source: { kind: "loss-model", lossAtNyquist_dB: 10 }, ui_s: UI, samplesPerUi: 8 });
@@ -85,7 +127,12 @@ describe("pulse", () => {
   });
 
   it("loss-model: the insertion loss reaches the asked loss at Nyquist; area UI within 1 %", () => {
-    const r = ok("pulse", { source: { kind: "loss-model", lossAtNyquist_dB: 18, delay_s: 0.5e-9, skinFraction: 0.4 }, ui_s: UI, samplesPerUi: 16, riseTime_s: 8e-12 });
+    const r = ok("pulse", {
+      source: { kind: "loss-model", lossAtNyquist_dB: 18, delay_s: 0.5e-9, skinFraction: 0.4 },
+      ui_s: UI,
+      samplesPerUi: 16,
+      riseTime_s: 8e-12,
+    });
     expect(Math.abs(areaOf(r) / UI - 1)).toBeLessThan(0.01);
     const nyq = lossModelS21([1 / (2 * UI)], { lossAtNyquist_dB: 18, skinFraction: 0.4 }, 1 / (2 * UI));
     expect(10 * Math.log10(nyq.re[0] ** 2 + nyq.im[0] ** 2)).toBeCloseTo(r.insertionLoss.magnitude_dB[100], 6);
@@ -106,11 +153,32 @@ describe("fir-response, ctle-response", () => {
 
   it("Annex 93A table gDC = −6 dB [computed from eq. 93A-22, memory] and the two-stage form", () => {
     const fb = 25.78125e9;
-    const r = ok("ctle-response", { gDc_dB: -6, fz_Hz: fb / 4, fp1_Hz: fb / 4, fp2_Hz: fb, freqs_Hz: [0, fb / 4, fb / 2, fb] });
+    const r = ok("ctle-response", {
+      gDc_dB: -6,
+      fz_Hz: fb / 4,
+      fp1_Hz: fb / 4,
+      fp2_Hz: fb,
+      freqs_Hz: [0, fb / 4, fb / 2, fb],
+    });
     [-6, -2.3, -1.674, -3.206].forEach((w, i) => expect(Math.abs(r.magnitude_dB[i] - w)).toBeLessThan(0.001));
-    const two = ok("ctle-response", { gDc_dB: -6, fz_Hz: fb / 4, fp1_Hz: fb / 4, fp2_Hz: fb, gDc2_dB: -3, fLf_Hz: fb / 40, freqs_Hz: [0] });
+    const two = ok("ctle-response", {
+      gDc_dB: -6,
+      fz_Hz: fb / 4,
+      fp1_Hz: fb / 4,
+      fp2_Hz: fb,
+      gDc2_dB: -3,
+      fLf_Hz: fb / 40,
+      freqs_Hz: [0],
+    });
     expect(two.magnitude_dB[0]).toBeCloseTo(-9, 10);
-    const single = ok("ctle-response", { gDc_dB: -6, fz_Hz: fb / 4, fp1_Hz: fb / 4, fp2_Hz: fb, gDc2_dB: 0, freqs_Hz: [fb / 2] });
+    const single = ok("ctle-response", {
+      gDc_dB: -6,
+      fz_Hz: fb / 4,
+      fp1_Hz: fb / 4,
+      fp2_Hz: fb,
+      gDc2_dB: 0,
+      freqs_Hz: [fb / 2],
+    });
     expect(single.magnitude_dB[0]).toBeCloseTo(r.magnitude_dB[2], 12);
   });
 });

@@ -52,20 +52,27 @@ describe("command line plumbing", () => {
   it("the registry lists each command once, with the names of shared/engine-cli.md", () => {
     const names = commands.map((c) => c.name);
     expect(new Set(names).size).toBe(names.length);
-    for (const n of ["pulse", "fir-response", "ctle-response", "zf", "mmse", "lms", "prbs", "ber"]) expect(names).toContain(n);
+    for (const n of ["pulse", "fir-response", "ctle-response", "zf", "mmse", "lms", "prbs", "ber"])
+      expect(names).toContain(n);
   });
 
   it("libErrorPath maps the parameter an engine message starts with to the request field", () => {
     const req = { cursors: [1], mu: 1, source: {} };
     expect(libErrorPath("mu = 5 makes it diverge", req, {}, "x")).toBe("mu");
     expect(libErrorPath("cursors.h[3] must be finite", req, { "cursors.h": "cursors" }, "x")).toBe("cursors.3");
-    expect(libErrorPath("pairs.outN must be a port 1…4", req, { pairs: "source.pairs" }, "source")).toBe("source.pairs.outN");
+    expect(libErrorPath("pairs.outN must be a port 1…4", req, { pairs: "source.pairs" }, "source")).toBe(
+      "source.pairs.outN",
+    );
     expect(libErrorPath("the record is too long", req, {}, "source")).toBe("source");
     expect(libErrorPath("", req, {}, "f")).toBe("f");
   });
 
   it("toJsonValue turns typed arrays into arrays and refuses non-finite numbers by field", () => {
-    expect(toJsonValue({ a: Float64Array.of(1, 2), b: [Uint8Array.of(3)], c: undefined, d: "x" })).toEqual({ a: [1, 2], b: [[3]], d: "x" });
+    expect(toJsonValue({ a: Float64Array.of(1, 2), b: [Uint8Array.of(3)], c: undefined, d: "x" })).toEqual({
+      a: [1, 2],
+      b: [[3]],
+      d: "x",
+    });
     expect(() => toJsonValue({ a: { b: [1, Number.NaN] } })).toThrow(/a\.b\.1/);
     expect(() => toJsonValue(Number.POSITIVE_INFINITY)).toThrow(/\(root\)/);
     expect(() => toJsonValue({ f: () => 1 })).toThrow(/function/);

@@ -53,7 +53,14 @@ describe("eye command", () => {
     const dfe = ok({ pulse: p, noiseRms_V: 0.004, targetBer: 1e-12, dfe: { taps: [0.1, 0.04] }, policy: "max-height" });
     expect(Math.abs(dfe.eyeHeight_V - (0.6 - 2 * qFromBer(2e-12) * 0.004))).toBeLessThan(5e-6);
     expect(dfe.eyeHeight_V).toBeGreaterThan(plain.eyeHeight_V);
-    const jit = ok({ pulse: p, noiseRms_V: 0.004, targetBer: 1e-12, dfe: { taps: [0.1, 0.04] }, jitter: { rjRms_UI: 0.02, djPp_UI: 0.1 }, policy: "max-height" });
+    const jit = ok({
+      pulse: p,
+      noiseRms_V: 0.004,
+      targetBer: 1e-12,
+      dfe: { taps: [0.1, 0.04] },
+      jitter: { rjRms_UI: 0.02, djPp_UI: 0.1 },
+      policy: "max-height",
+    });
     expect(jit.eyeWidth_UI).toBeLessThan(dfe.eyeWidth_UI);
     const noisy = ok({ pulse: p, noiseRms_V: 0.01, targetBer: 1e-12, policy: "max-height" });
     expect(noisy.eyeHeight_V).toBeLessThan(plain.eyeHeight_V);
@@ -62,14 +69,21 @@ describe("eye command", () => {
   it("aggressors (shared/engine-cli.md, Crosstalk): the eye closes by their worst-phase parts; crosstalk and the eye without it are reported", () => {
     const victim = pulse([0, 0.3, 0], 1);
     const xt = { ...pulse([0, 0.02, 0.01, 0], 1), mainIndex: 16 };
-    const r = ok({ pulse: victim, noiseRms_V: 0, targetBer: 1e-12, aggressors: [{ pulse: xt, name: "lane 3 NEXT" }, { pulse: xt }] });
+    const r = ok({
+      pulse: victim,
+      noiseRms_V: 0,
+      targetBer: 1e-12,
+      aggressors: [{ pulse: xt, name: "lane 3 NEXT" }, { pulse: xt }],
+    });
     expect(r.eyeHeightWithoutCrosstalk_V).toBeCloseTo(0.6, 9);
     expect(r.eyeHeight_V).toBeCloseTo(0.6 - 2 * 2 * 0.03, 3);
     expect(r.crosstalk.perAggressor.map((a: { name: string }) => a.name)).toEqual(["lane 3 NEXT", "aggressor 2"]);
     expect(r.crosstalk.rms_V).toBeCloseTo(Math.sqrt(2 * (0.02 ** 2 + 0.01 ** 2)), 12);
     const none = ok({ pulse: victim, noiseRms_V: 0, targetBer: 1e-12 });
     expect(none.crosstalk).toBeUndefined();
-    expect(bad({ pulse: victim, noiseRms_V: 0.001, aggressors: [{ pulse: { ...xt, samplesPerUi: 8 } }] }).path).toBe("aggressors.0");
+    expect(bad({ pulse: victim, noiseRms_V: 0.001, aggressors: [{ pulse: { ...xt, samplesPerUi: 8 } }] }).path).toBe(
+      "aggressors.0",
+    );
     expect(bad({ pulse: victim, noiseRms_V: 0.001, aggressors: [{}] }).path).toBe("aggressors.0.pulse");
   });
 
@@ -78,6 +92,8 @@ describe("eye command", () => {
     expect(bad({ pulse: pulse([0, 0.3, 0], 1), noiseRms_V: 0.01, targetBer: 0.5 }).path).toBe("targetBer");
     expect(bad({ pulse: pulse([0, 0.3, 0], 1), noiseRms_V: 0.01, modulation: "qam" }).path).toBe("modulation");
     expect(bad({ pulse: { ...pulse([0, 0.3, 0], 1), mainIndex: 999 }, noiseRms_V: 0.01 }).path).toBe("pulse.mainIndex");
-    expect(bad({ pulse: pulse([0, 0.3, 0], 1), noiseRms_V: 0.01, jitter: { rjRms_UI: 2, djPp_UI: 0 } }).path).toBe("jitter.rjRms_UI");
+    expect(bad({ pulse: pulse([0, 0.3, 0], 1), noiseRms_V: 0.01, jitter: { rjRms_UI: 2, djPp_UI: 0 } }).path).toBe(
+      "jitter.rjRms_UI",
+    );
   });
 });

@@ -59,7 +59,9 @@ describe("optimize command", () => {
     expect(bad({ ...budget, dfe: { taps: 2, limits_V: [0.1] } }).path).toBe("budget.dfe.limits_V");
     expect(bad({ ...budget, tx: { pre: 0, post: 1, ranges: [[0, 1]] } }).path).toBe("budget.tx.ranges");
     expect(bad({ ...budget, bitRate_bps: 3e9 }).path).toBe("budget.bitRate_bps");
-    expect(runCommand("optimize", JSON.stringify({ pulse, budget: { ...budget, colour: "red" }, note: 1 })).exitCode).toBe(0);
+    expect(
+      runCommand("optimize", JSON.stringify({ pulse, budget: { ...budget, colour: "red" }, note: 1 })).exitCode,
+    ).toBe(0);
   });
 
   it("whole process: npm run engine -- optimize answers on stdout with exit 0", () => {

@@ -13,7 +13,13 @@ const ok = (request: unknown): any => {
 const pulseOf = (post: number) => ({
   ui_s: 1e-10,
   samplesPerUi: 8,
-  values_V: [...new Array(8).fill(0), ...new Array(8).fill(1), ...new Array(8).fill(post), ...new Array(8).fill(post / 3), ...new Array(16).fill(0)],
+  values_V: [
+    ...new Array(8).fill(0),
+    ...new Array(8).fill(1),
+    ...new Array(8).fill(post),
+    ...new Array(8).fill(post / 3),
+    ...new Array(16).fill(0),
+  ],
   mainIndex: 12,
 });
 const pulses = [pulseOf(0.2), pulseOf(0.45), pulseOf(0.7)];
@@ -29,7 +35,9 @@ describe("population command", () => {
   it("one default for the class: the worst channel is the reported one, no channel beats its own optimum", () => {
     const r = ok({ pulses, budget });
     expect(r.channels.length).toBe(3);
-    expect(r.worstHeadroom_V).toBe(Math.min(...r.channels.map((c: { defaultHeadroom_V: number }) => c.defaultHeadroom_V)));
+    expect(r.worstHeadroom_V).toBe(
+      Math.min(...r.channels.map((c: { defaultHeadroom_V: number }) => c.defaultHeadroom_V)),
+    );
     for (const c of r.channels) expect(c.ownHeadroom_V).toBeGreaterThanOrEqual(c.defaultHeadroom_V);
     expect(r.codes).toBeNull();
     expect(r.setting.tx.taps.length).toBe(2);
@@ -49,9 +57,13 @@ describe("population command", () => {
     const err = (req: unknown) => JSON.parse(runCommand("population", JSON.stringify(req)).text).error;
     expect(err({ pulses: [], budget }).path).toBe("pulses");
     expect(err({ pulses, budget: { ...budget, noiseRms_V: -1 } }).path).toBe("budget.noiseRms_V");
-    expect(err({ pulses, budget, registerMap: [{ name: "x", parameter: "rx[0]", bits: 4, signed: true, lsb: 1, unit: "V", min: 0, max: 1 }] }).path).toBe(
-      "registerMap.0.parameter",
-    );
+    expect(
+      err({
+        pulses,
+        budget,
+        registerMap: [{ name: "x", parameter: "rx[0]", bits: 4, signed: true, lsb: 1, unit: "V", min: 0, max: 1 }],
+      }).path,
+    ).toBe("registerMap.0.parameter");
     expect(err({ pulses: [pulses[0], { ...pulses[1], ui_s: 2e-10 }], budget }).message).toMatch(/pulses\[1\]\.ui_s/);
   });
 });

@@ -20,11 +20,15 @@ describe("sampling-phase policies", () => {
 
   it("a symmetric pulse: every policy samples its peak", () => {
     const eye = statisticalEye(cursorPulse([0, 0.2, 0.8, 0.2, 0], 2, 16), { modulation: "nrz", noiseRms_V: 0.01 });
-    for (const policy of ["centre", "max-height", "mueller-muller"] as const) expect(samplingPhase(eye, policy, 1e-12)).toBe(0);
+    for (const policy of ["centre", "max-height", "mueller-muller"] as const)
+      expect(samplingPhase(eye, policy, 1e-12)).toBe(0);
   });
 
   it("identity: max-height returns the phase whose eye height is the window's maximum", () => {
-    const eye = statisticalEye(cursorPulse([0, 0.15, 0.7, 0.35, 0.1, 0], 2, 16), { modulation: "nrz", noiseRms_V: 0.005 });
+    const eye = statisticalEye(cursorPulse([0, 0.15, 0.7, 0.35, 0.1, 0], 2, 16), {
+      modulation: "nrz",
+      noiseRms_V: 0.005,
+    });
     const w = defaultPhaseWindow(16);
     const t = maxHeightPhase(eye, 1e-12, w);
     for (let p = w.lo; p <= w.hi; p++) expect(eye.eyeHeight(p, 1e-12)).toBeLessThanOrEqual(eye.eyeHeight(t, 1e-12));
@@ -61,7 +65,9 @@ describe("samplerJitter", () => {
       let s = g(0) + g(fN);
       for (let i = 1; i < n; i++) s += (i % 2 === 1 ? 4 : 2) * g(i * h);
       const want = Math.sqrt((s * h) / 3 / fN);
-      expect(Math.abs(samplerJitter({ rjRms_UI: 0.02, djPp_UI: 0 }, "recovered", B, baud).rjFactor - want)).toBeLessThan(1e-6);
+      expect(
+        Math.abs(samplerJitter({ rjRms_UI: 0.02, djPp_UI: 0 }, "recovered", B, baud).rjFactor - want),
+      ).toBeLessThan(1e-6);
     }
   });
 
@@ -89,7 +95,9 @@ describe("samplerJitter", () => {
     expect(() => samplerJitter(undefined, "optical" as "recovered", 1e6, baud)).toThrow(/scheme/);
     expect(() => samplerJitter(undefined, "recovered", -1, baud)).toThrow(/bandwidth_Hz/);
     expect(() => samplerJitter(undefined, "recovered", 1e6, 0)).toThrow(/baud_Hz/);
-    expect(() => samplerJitter({ rjRms_UI: 0, djPp_UI: 0.1, djFreq_Hz: 0 }, "recovered", 1e6, baud)).toThrow(/djFreq_Hz/);
+    expect(() => samplerJitter({ rjRms_UI: 0, djPp_UI: 0.1, djFreq_Hz: 0 }, "recovered", 1e6, baud)).toThrow(
+      /djFreq_Hz/,
+    );
     expect(() => defaultTrackingBandwidth("recovered", Number.NaN)).toThrow(/baud_Hz/);
   });
 });

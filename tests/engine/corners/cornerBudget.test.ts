@@ -18,7 +18,13 @@ const nominal: BudgetInput = {
 
 describe("cornerBudget", () => {
   it("analytic: swing, both noises, RJ and DJ, and sensitivity are multiplied by their factors", () => {
-    const b = cornerBudget(nominal, { name: "hot, slow", txSwingScale: 0.9, noiseScale: 1.2, jitterScale: 1.5, sensitivityScale: 2 });
+    const b = cornerBudget(nominal, {
+      name: "hot, slow",
+      txSwingScale: 0.9,
+      noiseScale: 1.2,
+      jitterScale: 1.5,
+      sensitivityScale: 2,
+    });
     expect(b.txSwing_Vppd).toBeCloseTo(0.72, 12);
     expect(b.noiseRms_V).toBeCloseTo(0.0024, 12);
     expect(b.inputNoiseRms_V).toBeCloseTo(0.0012, 12);
@@ -30,7 +36,13 @@ describe("cornerBudget", () => {
   it("identities: a corner with no factors (or loss only) is the nominal budget; grids and targets never move", () => {
     const base = cornerBudget(nominal, { name: "nominal" });
     expect(cornerBudget(nominal, { name: "lossy", lossScale: 1.3 })).toEqual(base);
-    const moved = cornerBudget(nominal, { name: "all", txSwingScale: 1.1, noiseScale: 0, jitterScale: 0, sensitivityScale: 0.5 });
+    const moved = cornerBudget(nominal, {
+      name: "all",
+      txSwingScale: 1.1,
+      noiseScale: 0,
+      jitterScale: 0,
+      sensitivityScale: 0.5,
+    });
     expect(moved.ctle).toEqual(base.ctle);
     expect(moved.tx).toEqual(base.tx);
     expect(moved.dfe).toEqual(base.dfe);
@@ -42,8 +54,12 @@ describe("cornerBudget", () => {
 
   it("edges: a factor that takes a field out of the budget's range names the corner and the field", () => {
     expect(() => cornerBudget(nominal, { name: "wild", jitterScale: 4, txSwingScale: 1 })).not.toThrow();
-    expect(() => cornerBudget({ ...nominal, txSwing_Vppd: 4 }, { name: "loud", txSwingScale: 3 })).toThrow(/corner "loud": budget.txSwing_Vppd/);
-    expect(() => cornerBudget({ ...nominal, jitter: { rjRms_UI: 0.2 } }, { name: "shaky", jitterScale: 3 })).toThrow(/corner "shaky": budget.jitter.rjRms_UI/);
+    expect(() => cornerBudget({ ...nominal, txSwing_Vppd: 4 }, { name: "loud", txSwingScale: 3 })).toThrow(
+      /corner "loud": budget.txSwing_Vppd/,
+    );
+    expect(() => cornerBudget({ ...nominal, jitter: { rjRms_UI: 0.2 } }, { name: "shaky", jitterScale: 3 })).toThrow(
+      /corner "shaky": budget.jitter.rjRms_UI/,
+    );
   });
 
   it("edges: the corner schema refuses factors ≤ 0 where they make no sense, above 4, and nameless corners", () => {

@@ -38,7 +38,9 @@ describe("headroom against the loss corner", () => {
         (loss_dB, s, ds, kind) => {
           const model = { lossAtNyquist_dB: loss_dB };
           const source: CornerSource =
-            kind === "loss-model" ? { kind, model, grid } : { kind: "pulse", pulse: pulseFromLossModel(model, grid).pulse };
+            kind === "loss-model"
+              ? { kind, model, grid }
+              : { kind: "pulse", pulse: pulseFromLossModel(model, grid).pulse };
           const [less, more] = cornerPulses(source, [s, s + ds]);
           const headroom = (p: typeof less) => optimize(p, budget, { topCount: 1 }).limiterHeadroom_V;
           expect(headroom(more)).toBeLessThanOrEqual(headroom(less) + 1e-12);

@@ -50,17 +50,28 @@ describe("crosstalkTransfers", () => {
     for (let f = 0; f < 3; f++) {
       expect(got.victim.re[f]).toBeCloseTo(v.re[f], 14);
       expect(got.victim.im[f]).toBeCloseTo(v.im[f], 14);
-      for (const [k, p, n] of [[0, 11, 12], [1, 5, 6]]) {
+      for (const [k, p, n] of [
+        [0, 11, 12],
+        [1, 5, 6],
+      ]) {
         const want = 0.5 * (S(9, p).re[f] - S(9, n).re[f] - S(10, p).re[f] + S(10, n).re[f]);
         expect(got.aggressors[k].transfer.re[f]).toBeCloseTo(want, 14);
       }
     }
-    expect(got.aggressors.map((a) => [a.name, a.kind])).toEqual([["lane 2 NEXT", "next"], ["FEXT 5/6", "fext"]]);
+    expect(got.aggressors.map((a) => [a.name, a.kind])).toEqual([
+      ["lane 2 NEXT", "next"],
+      ["FEXT 5/6", "fext"],
+    ]);
   });
 
   it("identity: differentialNetwork's entries are SDD21 for every ordered pair of pairs; its reference is 100 Ω", () => {
     const net = randomNet(3, 8);
-    const pairs = [{ p: 1, n: 2 }, { p: 3, n: 4 }, { p: 5, n: 6 }, { p: 7, n: 8 }];
+    const pairs = [
+      { p: 1, n: 2 },
+      { p: 3, n: 4 },
+      { p: 5, n: 6 },
+      { p: 7, n: 8 },
+    ];
     const dd = differentialNetwork(net, pairs);
     expect(Array.from(dd.referenceOhms)).toEqual([100, 100, 100, 100]);
     for (let i = 0; i < 4; i++) {
@@ -75,9 +86,15 @@ describe("crosstalkTransfers", () => {
   it("edges: too few ports, a port in two pairs, an unknown kind or a port beyond the file", () => {
     const victim = { inP: 1, inN: 2, outP: 3, outN: 4 };
     expect(() => crosstalkTransfers(randomNet(1, 4), victim, [])).toThrow(/6 or more ports/);
-    expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "next", p: 3, n: 5 }])).toThrow(/port 3 appears in more than one pair/);
-    expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "side" as "next", p: 5, n: 6 }])).toThrow(/aggressors\[0\]\.kind/);
-    expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "fext", p: 5, n: 9 }])).toThrow(/pairs\[2\]\.n must be a port 1…8/);
+    expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "next", p: 3, n: 5 }])).toThrow(
+      /port 3 appears in more than one pair/,
+    );
+    expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "side" as "next", p: 5, n: 6 }])).toThrow(
+      /aggressors\[0\]\.kind/,
+    );
+    expect(() => crosstalkTransfers(randomNet(1, 8), victim, [{ kind: "fext", p: 5, n: 9 }])).toThrow(
+      /pairs\[2\]\.n must be a port 1…8/,
+    );
   });
 });
 
@@ -88,35 +105,67 @@ describe("linkFromTouchstone", () => {
     const fN = 14e9;
     const freqs = Float64Array.from({ length: 1200 }, (_, k) => (k + 1) * 25e6);
     const thru = lossModelS21(freqs, { lossAtNyquist_dB: 15, delay_s: 1e-9 }, fN);
-    const next = couplingTransfer({ kind: "next", backwardCoefficient: 0.02, line: { lossAtNyquist_dB: 1, delay_s: 1e-10 } }, freqs, fN);
-    const fext = couplingTransfer({ kind: "fext", forwardCoupling_s: 2e-12, line: { lossAtNyquist_dB: 15, delay_s: 1e-9 } }, freqs, fN);
+    const next = couplingTransfer(
+      { kind: "next", backwardCoefficient: 0.02, line: { lossAtNyquist_dB: 1, delay_s: 1e-10 } },
+      freqs,
+      fN,
+    );
+    const fext = couplingTransfer(
+      { kind: "fext", forwardCoupling_s: 2e-12, line: { lossAtNyquist_dB: 15, delay_s: 1e-9 } },
+      freqs,
+      fN,
+    );
     const n = 8;
     const sm = new Float64Array(freqs.length * n * n * 2);
     const put = (f: number, o: number, i: number, re: number, im: number) => {
-      for (const [a, b] of [[o, i], [i, o]]) {
+      for (const [a, b] of [
+        [o, i],
+        [i, o],
+      ]) {
         sm[2 * ((f * n + a - 1) * n + b - 1)] = re;
         sm[2 * ((f * n + a - 1) * n + b - 1) + 1] = im;
       }
     };
     for (let f = 0; f < freqs.length; f++) {
-      for (const [o, i, x] of [[5, 1, thru], [6, 2, thru], [7, 3, thru], [8, 4, thru], [5, 7, next], [6, 8, next], [5, 3, fext], [6, 4, fext]] as const) {
+      for (const [o, i, x] of [
+        [5, 1, thru],
+        [6, 2, thru],
+        [7, 3, thru],
+        [8, 4, thru],
+        [5, 7, next],
+        [6, 8, next],
+        [5, 3, fext],
+        [6, 4, fext],
+      ] as const) {
         put(f, o, i, x.re[f], x.im[f]);
       }
     }
-    const text = formatTouchstone({ ports: n, freqs_Hz: freqs, s: sm, referenceOhms: new Float64Array(n).fill(50) }, { version: 2 });
+    const text = formatTouchstone(
+      { ports: n, freqs_Hz: freqs, s: sm, referenceOhms: new Float64Array(n).fill(50) },
+      { version: 2 },
+    );
     const grid = { ui_s: 1 / 28e9, samplesPerUi: 8 };
     const link = linkFromTouchstone(text, {
       ...grid,
       victim: { inP: 1, inN: 2, outP: 5, outN: 6 },
-      aggressors: [{ kind: "next", p: 7, n: 8, name: "lane B NEXT" }, { kind: "fext", p: 3, n: 4 }],
+      aggressors: [
+        { kind: "next", p: 7, n: 8, name: "lane B NEXT" },
+        { kind: "fext", p: 3, n: 4 },
+      ],
     });
     const want = (x: { re: Float64Array; im: Float64Array }) => pulseFromS21(freqs, x, grid).pulse.values_V;
     const close = (a: Float64Array, b: Float64Array) => a.forEach((v, i) => expect(v).toBeCloseTo(b[i], 6));
     close(link.victim.pulse.values_V, want(thru));
     close(link.aggressors[0].pulse.values_V, want(next));
     close(link.aggressors[1].pulse.values_V, want(fext));
-    expect(link.aggressors.map((a) => [a.name, a.kind])).toEqual([["lane B NEXT", "next"], ["FEXT 3/4", "fext"]]);
-    expect(link.aggressors[0].insertionLoss.magnitude_dB[600]).toBeCloseTo(20 * Math.log10(Math.hypot(next.re[600], next.im[600])), 3);
+    expect(link.aggressors.map((a) => [a.name, a.kind])).toEqual([
+      ["lane B NEXT", "next"],
+      ["FEXT 3/4", "fext"],
+    ]);
+    expect(link.aggressors[0].insertionLoss.magnitude_dB[600]).toBeCloseTo(
+      20 * Math.log10(Math.hypot(next.re[600], next.im[600])),
+      3,
+    );
   });
 });
 
@@ -130,7 +179,9 @@ describe("couplingTransfer and pulseFromCoupling", () => {
     const td = 100e-12;
     const freqs = [0, 1e9, 1 / (4 * td), 3.3e9];
     const x = couplingTransfer({ kind: "next", backwardCoefficient: 0.05, line: lossless(td) }, freqs, fN);
-    freqs.forEach((f, k) => expect(Math.hypot(x.re[k], x.im[k])).toBeCloseTo(2 * 0.05 * Math.abs(Math.sin(2 * Math.PI * f * td)), 14));
+    freqs.forEach((f, k) =>
+      expect(Math.hypot(x.re[k], x.im[k])).toBeCloseTo(2 * 0.05 * Math.abs(Math.sin(2 * Math.PI * f * td)), 14),
+    );
     expect(Math.hypot(x.re[2], x.im[2])).toBeCloseTo(0.1, 14);
   });
 
@@ -144,13 +195,19 @@ describe("couplingTransfer and pulseFromCoupling", () => {
       expect(x.re[k]).toBeCloseTo(-w * h.im[k], 14);
       expect(x.im[k]).toBeCloseTo(w * h.re[k], 14);
     });
-    expect(20 * Math.log10(Math.hypot(x.re[2], x.im[2]))).toBeCloseTo(20 * Math.log10(2 * Math.PI * 14e9 * 5e-12) - 20, 10);
+    expect(20 * Math.log10(Math.hypot(x.re[2], x.im[2]))).toBeCloseTo(
+      20 * Math.log10(2 * Math.PI * 14e9 * 5e-12) - 20,
+      10,
+    );
   });
 
   it("analytic: a long lossless NEXT section's pulse is K_b·p(t) then −K_b·p(t − 2T_D); crosstalk pulses have zero area (to the tail trimmed off, 0.5 % of peak·UI)", () => {
     const ui = 1 / 28e9;
     const td = 10 * ui;
-    const next = pulseFromCoupling({ kind: "next", backwardCoefficient: 0.04, line: lossless(td) }, { ui_s: ui, samplesPerUi: 16 }).pulse;
+    const next = pulseFromCoupling(
+      { kind: "next", backwardCoefficient: 0.04, line: lossless(td) },
+      { ui_s: ui, samplesPerUi: 16 },
+    ).pulse;
     let max = 0;
     let min = 0;
     for (const v of next.values_V) {
@@ -160,20 +217,32 @@ describe("couplingTransfer and pulseFromCoupling", () => {
     expect(max).toBeCloseTo(0.04, 3);
     expect(min).toBeCloseTo(-0.04, 3);
     expect(Math.abs(pulseArea(next))).toBeLessThan(1e-4 * ui);
-    const fext = pulseFromCoupling({ kind: "fext", forwardCoupling_s: 3e-12, line: { lossAtNyquist_dB: 15, delay_s: 1e-9 } }, { ui_s: ui, samplesPerUi: 16 }).pulse;
+    const fext = pulseFromCoupling(
+      { kind: "fext", forwardCoupling_s: 3e-12, line: { lossAtNyquist_dB: 15, delay_s: 1e-9 } },
+      { ui_s: ui, samplesPerUi: 16 },
+    ).pulse;
     expect(Math.abs(pulseArea(fext))).toBeLessThan(1e-2 * ui * Math.max(...fext.values_V.map(Math.abs)));
   });
 
   it("edges: coefficients out of range and unknown kinds are refused, naming the field", () => {
     const line = lossless(1e-10);
-    expect(() => couplingTransfer({ kind: "next", backwardCoefficient: 0.6, line }, [1e9], fN)).toThrow(/backwardCoefficient/);
-    expect(() => couplingTransfer({ kind: "fext", forwardCoupling_s: 1e-6, line }, [1e9], fN)).toThrow(/forwardCoupling_s/);
+    expect(() => couplingTransfer({ kind: "next", backwardCoefficient: 0.6, line }, [1e9], fN)).toThrow(
+      /backwardCoefficient/,
+    );
+    expect(() => couplingTransfer({ kind: "fext", forwardCoupling_s: 1e-6, line }, [1e9], fN)).toThrow(
+      /forwardCoupling_s/,
+    );
     expect(() => couplingTransfer({ kind: "mid" } as never, [1e9], fN)).toThrow(/kind/);
   });
 });
 
 describe("worstPhaseSampling and crosstalkRms", () => {
-  const pulseOf = (values: number[], spu: number, mainIndex = 0): Pulse => ({ ui_s: 1e-10, samplesPerUi: spu, values_V: Float64Array.from(values), mainIndex });
+  const pulseOf = (values: number[], spu: number, mainIndex = 0): Pulse => ({
+    ui_s: 1e-10,
+    samplesPerUi: spu,
+    values_V: Float64Array.from(values),
+    mainIndex,
+  });
 
   it("the worst-phase rule: the phase with the largest Σ_k x(t + k·UI)² wins [IEEE 802.3 Annex 93A, memory]", () => {
     // Phase 0 samples 0.1, 0.1, 0.1 (energy 0.03); phase 1 samples 0.15, −0.05, 0 (0.025); phase 2 samples 0, 0.17, 0 (0.0289).
@@ -229,7 +298,9 @@ describe("integratedCrosstalkNoise", () => {
   // σ² = 2·1e9·1e-4·(2.358451e-11 + 1.552068e-11) = 7.821038e-6 V², σ = 2.796612 mV.
   it("hand-computed example from the published formula: σ = 2.7966 mV [computed, IEEE 802.3 Annex 85A, memory]", () => {
     const x = { re: Float64Array.of(0.01, 0), im: Float64Array.of(0, -0.01) };
-    const r = integratedCrosstalkNoise(Float64Array.of(1e9, 2e9), [{ kind: "next", transfer: x, amplitude_V: 0.5 }], { baud_Hz: 10e9 });
+    const r = integratedCrosstalkNoise(Float64Array.of(1e9, 2e9), [{ kind: "next", transfer: x, amplitude_V: 0.5 }], {
+      baud_Hz: 10e9,
+    });
     expect(r.rms_V * 1000).toBeCloseTo(2.796612, 5);
     expect(r.next_V).toBe(r.rms_V);
     expect(r.fext_V).toBe(0);
@@ -238,7 +309,10 @@ describe("integratedCrosstalkNoise", () => {
   it("identities: powers add over aggressors; NEXT and FEXT combine in quadrature; amplitude scales linearly", () => {
     const freqs = Float64Array.from({ length: 50 }, (_, i) => (i + 1) * 2e8);
     const r = seededRandom(2);
-    const xt = () => ({ re: Float64Array.from(freqs, () => 0.01 * r.normal()), im: Float64Array.from(freqs, () => 0.01 * r.normal()) });
+    const xt = () => ({
+      re: Float64Array.from(freqs, () => 0.01 * r.normal()),
+      im: Float64Array.from(freqs, () => 0.01 * r.normal()),
+    });
     const a = { kind: "next" as const, transfer: xt(), amplitude_V: 0.4 };
     const b = { kind: "fext" as const, transfer: xt(), amplitude_V: 0.4 };
     const both = integratedCrosstalkNoise(freqs, [a, b], { baud_Hz: 1e10 });
@@ -275,14 +349,22 @@ describe("integratedCrosstalkNoise", () => {
     );
     expect(byPulse.next_V / byTransfer.next_V).toBeCloseTo(1, 2);
     expect(byPulse.fext_V / byTransfer.fext_V).toBeCloseTo(1, 2);
-    expect(() => integratedCrosstalkNoiseOfPulses([{ kind: "next", pulse: pulseFromCoupling(next, grid).pulse, amplitude_V: 1 }], { baud_Hz: 25e9 })).toThrow(/does not match/);
+    expect(() =>
+      integratedCrosstalkNoiseOfPulses([{ kind: "next", pulse: pulseFromCoupling(next, grid).pulse, amplitude_V: 1 }], {
+        baud_Hz: 25e9,
+      }),
+    ).toThrow(/does not match/);
   });
 
   it("edges: a non-uniform grid, mismatched lengths or a bad baud rate are refused", () => {
     const x = { re: Float64Array.of(0.01, 0.01, 0.01), im: new Float64Array(3) };
     const ok = [{ kind: "next" as const, transfer: x, amplitude_V: 0.5 }];
-    expect(() => integratedCrosstalkNoise(Float64Array.of(1e9, 2e9, 4e9), ok, { baud_Hz: 1e10 })).toThrow(/uniform grid/);
-    expect(() => integratedCrosstalkNoise(Float64Array.of(1e9, 2e9), ok, { baud_Hz: 1e10 })).toThrow(/must hold 2 values/);
+    expect(() => integratedCrosstalkNoise(Float64Array.of(1e9, 2e9, 4e9), ok, { baud_Hz: 1e10 })).toThrow(
+      /uniform grid/,
+    );
+    expect(() => integratedCrosstalkNoise(Float64Array.of(1e9, 2e9), ok, { baud_Hz: 1e10 })).toThrow(
+      /must hold 2 values/,
+    );
     expect(() => integratedCrosstalkNoise(Float64Array.of(1e9, 2e9, 3e9), ok, { baud_Hz: 0 })).toThrow(/baud_Hz/);
   });
 });

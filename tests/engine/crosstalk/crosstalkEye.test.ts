@@ -13,7 +13,12 @@ import { cursorPulse } from "../analysis/helpers";
 const spu = 8;
 const ui = 1e-10;
 /** A pulse with exactly the given samples (spu per UI), main cursor at `main`. */
-const samples = (values: number[], main: number): Pulse => ({ ui_s: ui, samplesPerUi: spu, values_V: Float64Array.from(values), mainIndex: main });
+const samples = (values: number[], main: number): Pulse => ({
+  ui_s: ui,
+  samplesPerUi: spu,
+  values_V: Float64Array.from(values),
+  mainIndex: main,
+});
 /** A crosstalk pulse whose samples `k·spu + phase` are `cursors[k]` and whose other samples are smaller. */
 const aggressorAt = (cursors: number[], phase: number, leak = 0.3): Pulse => {
   const v = new Float64Array(cursors.length * spu);
@@ -31,7 +36,11 @@ describe("crosstalk in the statistical eye", () => {
     const A = 0.2;
     const victim = cursorPulse([0, A, 0], 1, spu, ui);
     for (const x of [0.003, -0.021, 0.05]) {
-      const r = eyeAnalysis(victim, { ...base, noiseRms_V: 0, aggressors: [{ name: "x", pulse: aggressorAt([x], 3, 0) }] });
+      const r = eyeAnalysis(victim, {
+        ...base,
+        noiseRms_V: 0,
+        aggressors: [{ name: "x", pulse: aggressorAt([x], 3, 0) }],
+      });
       expect(r.eyeHeightWithoutCrosstalk_V).toBeCloseTo(2 * A, 12);
       expect(r.eyeHeight_V).toBeCloseTo(2 * A - 2 * Math.abs(x), 9);
       expect(r.crosstalk!.rms_V).toBeCloseTo(Math.abs(x), 15);
@@ -41,10 +50,19 @@ describe("crosstalk in the statistical eye", () => {
   it("identity: the crosstalk rms is the root of the sampled pulse's energy (NRZ), powers adding over aggressors", () => {
     const a = aggressorAt([0.01, -0.004, 0.002], 5);
     const b = aggressorAt([0.006, 0.003], 2);
-    const r = eyeAnalysis(cursorPulse([0.02, 0.3, 0.1, 0.03], 1, spu, ui), { ...base, noiseRms_V: 0.002, aggressors: [{ name: "a", pulse: a }, { name: "b", pulse: b }] });
+    const r = eyeAnalysis(cursorPulse([0.02, 0.3, 0.1, 0.03], 1, spu, ui), {
+      ...base,
+      noiseRms_V: 0.002,
+      aggressors: [
+        { name: "a", pulse: a },
+        { name: "b", pulse: b },
+      ],
+    });
     const ea = 0.01 ** 2 + 0.004 ** 2 + 0.002 ** 2;
     const eb = 0.006 ** 2 + 0.003 ** 2;
-    expect(r.crosstalk!.perAggressor.map((x) => x.rms_V)).toEqual([Math.sqrt(ea), Math.sqrt(eb)].map((v) => expect.closeTo(v, 15)));
+    expect(r.crosstalk!.perAggressor.map((x) => x.rms_V)).toEqual(
+      [Math.sqrt(ea), Math.sqrt(eb)].map((v) => expect.closeTo(v, 15)),
+    );
     expect(r.crosstalk!.rms_V).toBeCloseTo(Math.sqrt(ea + eb), 15);
   });
 
@@ -56,7 +74,8 @@ describe("crosstalk in the statistical eye", () => {
     expect(Array.from(s.parts_V)).toEqual([0.02, 0.02]);
     const victim = cursorPulse([0.05, 0.3, 0.12, -0.04], 1, spu, ui);
     const r = eyeAnalysis(victim, { ...base, noiseRms_V: 0.003, aggressors: [{ name: "a", pulse: agg }] });
-    const at = (parts: number[]) => eyeAnalysis(victim, { ...base, noiseRms_V: 0.003, extraParts_V: Float64Array.from(parts) }).eyeHeight_V;
+    const at = (parts: number[]) =>
+      eyeAnalysis(victim, { ...base, noiseRms_V: 0.003, extraParts_V: Float64Array.from(parts) }).eyeHeight_V;
     expect(r.eyeHeight_V).toBeCloseTo(at([0.02, 0.02]), 14);
     expect(r.eyeHeight_V).toBeLessThan(at([0.006, 0.006]));
   });
@@ -72,7 +91,12 @@ describe("crosstalk in the statistical eye", () => {
     const agg = aggressorAt([0.04, 0.03, 0.02], 3, 0);
     const plain = eyeAnalysis(victim, { ...base, noiseRms_V: 0, aggressors: [{ name: "a", pulse: agg }] });
     expect(plain.eyeHeight_V).toBeCloseTo(0.6 - 2 * 0.09, 3); // the noise-free law's grid places the three parts to 0.2 mV
-    const withDfe = eyeAnalysis(victim, { ...base, noiseRms_V: 0, dfeTaps: [0.03, 0.02], aggressors: [{ name: "a", pulse: agg }] });
+    const withDfe = eyeAnalysis(victim, {
+      ...base,
+      noiseRms_V: 0,
+      dfeTaps: [0.03, 0.02],
+      aggressors: [{ name: "a", pulse: agg }],
+    });
     // The taps cancel nothing the victim has, so they become post-cursor ISI of their own: never better.
     expect(withDfe.eyeHeight_V).toBeLessThanOrEqual(plain.eyeHeight_V + 1e-12);
   });
@@ -82,7 +106,13 @@ describe("crosstalk in the statistical eye", () => {
     const agg = [0.025, -0.012, 0.006];
     const sigma = 0.004;
     const victim = cursorPulse([...victimCursors, 0], 1, spu, ui);
-    const r = eyeAnalysis(victim, { ...base, targetBer: 1e-9, policy: "centre", noiseRms_V: sigma, aggressors: [{ name: "a", pulse: aggressorAt(agg, 4, 0) }] });
+    const r = eyeAnalysis(victim, {
+      ...base,
+      targetBer: 1e-9,
+      policy: "centre",
+      noiseRms_V: sigma,
+      aggressors: [{ name: "a", pulse: aggressorAt(agg, 4, 0) }],
+    });
     // The centre policy samples where p(t − ½) = p(t + ½); the oracle takes the cursors at that phase.
     const t = r.samplingPhase_UI;
     const at = (k: number) => {
@@ -139,7 +169,10 @@ describe("crosstalk in the statistical eye", () => {
           const victim = cursorPulse([isi[0], 0.3, ...isi.slice(1)], 1, spu, ui);
           const opts = { ...base, noiseRms_V: sigma, jitter: jittered ? { rjRms_UI: 0.01, djPp_UI: 0.05 } : undefined };
           const without = eyeAnalysis(victim, opts).eyeHeight_V;
-          const withXt = eyeAnalysis(victim, { ...opts, aggressors: [{ name: "a", pulse: aggressorAt(xt, phase) }] }).eyeHeight_V;
+          const withXt = eyeAnalysis(victim, {
+            ...opts,
+            aggressors: [{ name: "a", pulse: aggressorAt(xt, phase) }],
+          }).eyeHeight_V;
           return withXt <= without + 1e-9;
         },
       ),
@@ -151,13 +184,28 @@ describe("crosstalk in the statistical eye", () => {
     const baud = 28e9;
     const grid = { ui_s: 1 / baud, samplesPerUi: 32 };
     const ctle = { fz_Hz: baud / 2.5, fp1_Hz: baud / 2.5, fp2_Hz: baud, gDc_dB: -3 };
-    const victim = trimPulse(scalePulse(createCtlePlan(pulseFromLossModel({ lossAtNyquist_dB: 8 }, grid).pulse).apply(ctle), 0.45), 8, 56);
+    const victim = trimPulse(
+      scalePulse(createCtlePlan(pulseFromLossModel({ lossAtNyquist_dB: 8 }, grid).pulse).apply(ctle), 0.45),
+      8,
+      56,
+    );
     const aggressors = Array.from({ length: 8 }, (_, k) => {
       const model =
         k % 2 === 0
-          ? { kind: "next" as const, backwardCoefficient: 0.0015 * (1 + k / 4), line: { lossAtNyquist_dB: 1, delay_s: 0.2e-9 } }
-          : { kind: "fext" as const, forwardCoupling_s: 0.3e-12 * (1 + k / 4), line: { lossAtNyquist_dB: 16, delay_s: 2e-9 } };
-      return { name: `a${k}`, pulse: trimPulse(scalePulse(createCtlePlan(pulseFromCoupling(model, grid).pulse).apply(ctle), 0.45), 16, 48) };
+          ? {
+              kind: "next" as const,
+              backwardCoefficient: 0.0015 * (1 + k / 4),
+              line: { lossAtNyquist_dB: 1, delay_s: 0.2e-9 },
+            }
+          : {
+              kind: "fext" as const,
+              forwardCoupling_s: 0.3e-12 * (1 + k / 4),
+              line: { lossAtNyquist_dB: 16, delay_s: 2e-9 },
+            };
+      return {
+        name: `a${k}`,
+        pulse: trimPulse(scalePulse(createCtlePlan(pulseFromCoupling(model, grid).pulse).apply(ctle), 0.45), 16, 48),
+      };
     });
     const opts = { ...base, noiseRms_V: 0.002, jitter: { rjRms_UI: 0.01, djPp_UI: 0.05 } };
     const lumped = eyeAnalysis(victim, { ...opts, aggressors });
@@ -174,6 +222,8 @@ describe("crosstalk in the statistical eye", () => {
   it("edges: an aggressor on another grid is refused", () => {
     const victim = cursorPulse([0, 0.3, 0], 1, spu, ui);
     const other: Pulse = { ui_s: ui, samplesPerUi: 4, values_V: Float64Array.of(0.01, 0, 0, 0), mainIndex: 0 };
-    expect(() => eyeAnalysis(victim, { ...base, noiseRms_V: 0.001, aggressors: [{ name: "a", pulse: other }] })).toThrow(/aggressors\[0\]\.pulse/);
+    expect(() =>
+      eyeAnalysis(victim, { ...base, noiseRms_V: 0.001, aggressors: [{ name: "a", pulse: other }] }),
+    ).toThrow(/aggressors\[0\]\.pulse/);
   });
 });

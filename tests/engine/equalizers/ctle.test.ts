@@ -1,12 +1,6 @@
 // CTLE (IEEE 802.3 Annex 93A form): response table, plan applied to pulses, noise gain.
 import { describe, expect, it } from "vitest";
-import {
-  createCtlePlan,
-  ctleMagnitudeDb,
-  ctleNoiseGain,
-  ctleResponse,
-  type CtleParams,
-} from "@lib/equalizers";
+import { createCtlePlan, ctleMagnitudeDb, ctleNoiseGain, ctleResponse, type CtleParams } from "@lib/equalizers";
 import { pulseArea } from "@lib/pulse";
 import type { Pulse } from "@lib/types";
 
@@ -109,7 +103,8 @@ describe("createCtlePlan", () => {
     const out = plan.apply(p);
     expect(pulseArea(out) / pulseArea(rect)).toBeCloseTo(10 ** (-9 / 20), 3);
     const id = plan.apply({ gDc_dB: 0, fz_Hz: 1e30, fp1_Hz: 1e30, fp2_Hz: 1e30 });
-    for (let i = 0; i < rect.values_V.length; i++) expect(Math.abs(id.values_V[i] - rect.values_V[i])).toBeLessThan(1e-12);
+    for (let i = 0; i < rect.values_V.length; i++)
+      expect(Math.abs(id.values_V[i] - rect.values_V[i])).toBeLessThan(1e-12);
     expect(out.values_V.length).toBe(rect.values_V.length + 64 * spu);
     expect(Array.from(rect.values_V)).toEqual(before);
     expect(plan.freqs_Hz[1]).toBeCloseTo(1 / (plan.freqs_Hz.length * 2 - 2) / (ui / spu), 0);
@@ -141,7 +136,10 @@ describe("ctleNoiseGain", () => {
     expect(g).toBeCloseTo((fp / B) * Math.atan(B / fp), 10);
   });
   it("identities: flat filter gives its gain squared; peaking raises the gain with the band", () => {
-    expect(ctleNoiseGain({ gDc_dB: -6, fz_Hz: 1e30, fp1_Hz: 1e30, fp2_Hz: 1e30 }, 1e10)).toBeCloseTo(10 ** (-6 / 10), 12);
+    expect(ctleNoiseGain({ gDc_dB: -6, fz_Hz: 1e30, fp1_Hz: 1e30, fp2_Hz: 1e30 }, 1e10)).toBeCloseTo(
+      10 ** (-6 / 10),
+      12,
+    );
     const a = ctleNoiseGain(bj(-12), fb / 4);
     const b = ctleNoiseGain(bj(-12), fb / 2);
     expect(b).toBeGreaterThan(a);

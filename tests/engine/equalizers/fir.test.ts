@@ -79,7 +79,12 @@ describe("firResponse", () => {
     const taps = [-0.1, 0.65, -0.2, -0.05];
     const f = [0.7e9, 3.3e9, 11e9];
     const a = firResponse(taps, 1, UI, f);
-    const b = firResponse(taps, 1, UI, f.map((x) => x + 1 / UI));
+    const b = firResponse(
+      taps,
+      1,
+      UI,
+      f.map((x) => x + 1 / UI),
+    );
     for (let k = 0; k < f.length; k++) {
       expect(b.magnitude_dB[k]).toBeCloseTo(a.magnitude_dB[k], 9);
       expect(10 ** (a.magnitude_dB[k] / 20)).toBeLessThanOrEqual(peakSwing(taps) + 1e-12);
@@ -169,7 +174,16 @@ describe("transmit FIR constraints and enumeration", () => {
   };
 
   it("oracle: enumeration equals a brute force over the whole grid (main at its largest legal value)", () => {
-    const small: TxFirSpec = { pre: 1, post: 1, step: 0.1, ranges: [[-0.3, 0], [0.2, 1], [-0.4, 0.1]] };
+    const small: TxFirSpec = {
+      pre: 1,
+      post: 1,
+      step: 0.1,
+      ranges: [
+        [-0.3, 0],
+        [0.2, 1],
+        [-0.4, 0.1],
+      ],
+    };
     const want = bruteForce(small);
     const got = [...enumerateTxFirs(small)];
     expect(got.length).toBe(want.size);
@@ -184,7 +198,8 @@ describe("transmit FIR constraints and enumeration", () => {
     expect(all.length).toBe(countTxFirs(spec));
     // Side taps on [−0.5, 0] in 0.05 steps (11 values each); main = 1 − Σ|side| must stay ≥ 0.
     let want = 0;
-    for (let a = 0; a <= 10; a++) for (let b = 0; b <= 10; b++) for (let c = 0; c <= 10; c++) if (a + b + c <= 20) want++;
+    for (let a = 0; a <= 10; a++)
+      for (let b = 0; b <= 10; b++) for (let c = 0; c <= 10; c++) if (a + b + c <= 20) want++;
     expect(all.length).toBe(want);
     const keys = new Set(all.map((t) => Array.from(t, (v) => Math.round(v / 0.05)).join(",")));
     expect(keys.size).toBe(all.length);
@@ -206,8 +221,28 @@ describe("transmit FIR constraints and enumeration", () => {
 
   it("edges: no taps but the main; empty when ranges exclude the grid; bad specs", () => {
     expect([...enumerateTxFirs({ pre: 0, post: 0, step: 0.1 })].map((t) => Array.from(t))).toEqual([[1]]);
-    expect(countTxFirs({ pre: 0, post: 1, step: 0.1, ranges: [[0.95, 1], [-0.5, -0.1]] })).toBe(0);
-    expect(countTxFirs({ pre: 0, post: 1, step: 0.3, ranges: [[0, 1], [-0.2, -0.1]] })).toBe(0);
+    expect(
+      countTxFirs({
+        pre: 0,
+        post: 1,
+        step: 0.1,
+        ranges: [
+          [0.95, 1],
+          [-0.5, -0.1],
+        ],
+      }),
+    ).toBe(0);
+    expect(
+      countTxFirs({
+        pre: 0,
+        post: 1,
+        step: 0.3,
+        ranges: [
+          [0, 1],
+          [-0.2, -0.1],
+        ],
+      }),
+    ).toBe(0);
     expect(() => countTxFirs({ pre: -1, post: 0, step: 0.1 })).toThrow(/spec.pre/);
     expect(() => countTxFirs({ pre: 0, post: 0, step: 0 })).toThrow(/spec.step/);
     expect(() => countTxFirs({ pre: 0, post: 1, step: 0.1, ranges: [[0, 1]] })).toThrow(/2 ranges/);

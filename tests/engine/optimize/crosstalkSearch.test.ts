@@ -45,7 +45,16 @@ function budget(policy: "centre" | "max-height", jitter: boolean) {
     limiterSensitivity_V: 0.01,
     targetBer: 1e-10,
     jitter: jitter ? { rjRms_UI: 0.02, djPp_UI: 0.1 } : undefined,
-    tx: { pre: 1, post: 1, step: 0.05, ranges: [[-0.25, 0], [0.5, 1], [-0.35, 0.1]] as [number, number][] },
+    tx: {
+      pre: 1,
+      post: 1,
+      step: 0.05,
+      ranges: [
+        [-0.25, 0],
+        [0.5, 1],
+        [-0.35, 0.1],
+      ] as [number, number][],
+    },
     ctle: { gDc_dB: [-6, 0, 3] as [number, number, number], fz_Hz: 2.5e9, fp1_Hz: 2.5e9, fp2_Hz: 1e10 },
     dfe: { taps: 2, limits_V: [0.08, 0.03] },
     clocking: { policy },
@@ -57,29 +66,36 @@ describe("joint search with aggressors — oracle: exhaustive evaluation of the 
     ["centre", false],
     ["centre", true],
     ["max-height", true],
-  ] as const)("%s / jitter %s: the best and every CTLE's optimum or bound match, NEXT fixed and FEXT through the victim's FIR", (policy, jit) => {
-    const space = searchSpace(channel, budget(policy, jit));
-    const prepared = prepareChannels(channel, space, aggressors);
-    const r = jointSearch(channel, space, { dfeCounts: [2, 0], topCount: 3 }, prepared);
-    const firs = [...enumerateTxFirs(space.firSpec)];
-    for (const [o, n] of [[0, 2], [1, 0]]) {
-      const all: number[] = [];
-      prepared.channels.forEach((ch, ci) => {
-        let local = Number.NEGATIVE_INFINITY;
-        for (const f of firs) {
-          const v = evaluateSetting(ch, space, f, n).limiterHeadroom_V;
-          all.push(v);
-          local = Math.max(local, v);
-        }
-        const out = r.perCtle[o][ci];
-        if (out.exact) expect(out.best?.limiterHeadroom_V).toBe(local);
-        expect(local).toBeLessThanOrEqual(out.upperBound_V);
-      });
-      all.sort((a, b) => b - a);
-      expect(r.best[o]?.limiterHeadroom_V).toBe(all[0]);
-      if (o === 0) expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 3));
-    }
-  }, 60_000); // the exhaustive oracle takes seconds: not a speed check
+  ] as const)(
+    "%s / jitter %s: the best and every CTLE's optimum or bound match, NEXT fixed and FEXT through the victim's FIR",
+    (policy, jit) => {
+      const space = searchSpace(channel, budget(policy, jit));
+      const prepared = prepareChannels(channel, space, aggressors);
+      const r = jointSearch(channel, space, { dfeCounts: [2, 0], topCount: 3 }, prepared);
+      const firs = [...enumerateTxFirs(space.firSpec)];
+      for (const [o, n] of [
+        [0, 2],
+        [1, 0],
+      ]) {
+        const all: number[] = [];
+        prepared.channels.forEach((ch, ci) => {
+          let local = Number.NEGATIVE_INFINITY;
+          for (const f of firs) {
+            const v = evaluateSetting(ch, space, f, n).limiterHeadroom_V;
+            all.push(v);
+            local = Math.max(local, v);
+          }
+          const out = r.perCtle[o][ci];
+          if (out.exact) expect(out.best?.limiterHeadroom_V).toBe(local);
+          expect(local).toBeLessThanOrEqual(out.upperBound_V);
+        });
+        all.sort((a, b) => b - a);
+        expect(r.best[o]?.limiterHeadroom_V).toBe(all[0]);
+        if (o === 0) expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 3));
+      }
+    },
+    60_000,
+  ); // the exhaustive oracle takes seconds: not a speed check
 });
 
 describe("optimize with aggressors", () => {
@@ -98,7 +114,10 @@ describe("optimize with aggressors", () => {
     expect(one.limiterHeadroom_V).toBeLessThanOrEqual(plain.limiterHeadroom_V);
     expect(both.limiterHeadroom_V).toBeLessThanOrEqual(one.limiterHeadroom_V);
     const x = both.crosstalk!;
-    expect(x.perAggressor.map((a) => [a.name, a.kind])).toEqual([["near", "next"], ["far", "fext"]]);
+    expect(x.perAggressor.map((a) => [a.name, a.kind])).toEqual([
+      ["near", "next"],
+      ["far", "fext"],
+    ]);
     expect(x.rms_V).toBeCloseTo(Math.hypot(...x.perAggressor.map((a) => a.rms_V)), 15);
     expect(x.eyeHeightWithoutCrosstalk_V).toBeGreaterThan(both.eye.eyeHeight_V);
     // The near-end aggressor's own swing (1 Vppd) and FIR [1] give its rms at the sampler: its cursors
@@ -111,13 +130,16 @@ describe("optimize with aggressors", () => {
     const near = aggressors[0];
     const r1 = optimize(channel, b, { aggressors: [near] });
     const r2 = optimize(channel, b, { aggressors: [{ ...near, txSwing_Vppd: 2.0 }] });
-    if (r1.ctle.gDc_dB === r2.ctle.gDc_dB) expect(r2.crosstalk!.perAggressor[0].rms_V / r1.crosstalk!.perAggressor[0].rms_V).toBeCloseTo(2, 10);
+    if (r1.ctle.gDc_dB === r2.ctle.gDc_dB)
+      expect(r2.crosstalk!.perAggressor[0].rms_V / r1.crosstalk!.perAggressor[0].rms_V).toBeCloseTo(2, 10);
     const far = aggressors[1];
     expect(at({ ...far, txTaps: [1] })).not.toBeCloseTo(at(far), 6);
   });
 
   it("the verdict names crosstalk when it alone keeps the link from closing", () => {
-    const strong: LinkAggressor[] = [{ kind: "next", name: "Slot 4 NEXT", pulse: xtPulse([0.02, -0.012, 0.005], 3), txSwing_Vppd: 1.0 }];
+    const strong: LinkAggressor[] = [
+      { kind: "next", name: "Slot 4 NEXT", pulse: xtPulse([0.02, -0.012, 0.005], 3), txSwing_Vppd: 1.0 },
+    ];
     const plain = optimize(channel, b);
     const required = plain.limiterHeadroom_V - 0.005;
     const r = optimize(channel, { ...b, requiredHeadroom_V: required }, { aggressors: strong });
@@ -148,16 +170,26 @@ describe("packages, receiver bandwidth and the receive FFE in the search", () =>
     for (const x of c) norm2 += x * x;
     const white = Math.sqrt(0.003 ** 2 + 0.004 ** 2 * ch.noisePowerGain);
     expect(ch.noiseRms_V).toBeCloseTo(white, 15); // the same formula, with the FFE's gain inside noisePowerGain
-    expect(Math.abs(ch.noisePowerGain - norm2 * prepareChannels(channel, searchSpace(channel, { ...withNoise, ffe: undefined })).channels[0].noisePowerGain)).toBeGreaterThan(1e-4);
+    expect(
+      Math.abs(
+        ch.noisePowerGain -
+          norm2 *
+            prepareChannels(channel, searchSpace(channel, { ...withNoise, ffe: undefined })).channels[0].noisePowerGain,
+      ),
+    ).toBeGreaterThan(1e-4);
   });
 
   it("a case where FFE + DFE beats CTLE + DFE: a large pre-cursor, which no DFE and no CTLE removes [practice]", () => {
     const pre = cursorPulse([0, 0.3, 0.5, 0.2, 0.08, 0.03, 0], 2, spu, ui);
     const arch = { tx: null, dfeTaps: 2 };
-    const out = evaluateArchitectures([pre], { ...b, ctle: { ...flatCtle(ui), gDc_dB: [0, 0, 1] as [number, number, number] }, inputNoiseRms_V: 0.002 }, [
-      { key: "ctle-dfe", ...arch, ctle: true, ffe: null },
-      { key: "ffe-dfe", ...arch, ctle: false, ffe: { pre: 1, post: 1 } },
-    ]);
+    const out = evaluateArchitectures(
+      [pre],
+      { ...b, ctle: { ...flatCtle(ui), gDc_dB: [0, 0, 1] as [number, number, number] }, inputNoiseRms_V: 0.002 },
+      [
+        { key: "ctle-dfe", ...arch, ctle: true, ffe: null },
+        { key: "ffe-dfe", ...arch, ctle: false, ffe: { pre: 1, post: 1 } },
+      ],
+    );
     expect(out[1].worstHeadroom_V).toBeGreaterThan(out[0].worstHeadroom_V + 0.02);
   });
 
@@ -176,11 +208,20 @@ describe("a realistic lane: coupling-model aggressors through the CTLE", () => {
   it("peaking amplifies FEXT relative to the signal: crosstalk rms over the main cursor grows as the DC gain drops", () => {
     const grid = { ui_s: 1 / 28e9, samplesPerUi: 16 };
     const lane = trimPulse(pulseFromLossModel({ lossAtNyquist_dB: 20, delay_s: 2e-9 }, grid).pulse, 8, 40);
-    const fext = trimPulse(pulseFromCoupling({ kind: "fext", forwardCoupling_s: 3e-12, line: { lossAtNyquist_dB: 20, delay_s: 2e-9 } }, grid).pulse, 8, 40);
-    const b = { ...budget("centre", false), ctle: { gDc_dB: [-9, 0, 9] as [number, number, number], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 } };
+    const fext = trimPulse(
+      pulseFromCoupling({ kind: "fext", forwardCoupling_s: 3e-12, line: { lossAtNyquist_dB: 20, delay_s: 2e-9 } }, grid)
+        .pulse,
+      8,
+      40,
+    );
+    const b = {
+      ...budget("centre", false),
+      ctle: { gDc_dB: [-9, 0, 9] as [number, number, number], fz_Hz: 7e9, fp1_Hz: 7e9, fp2_Hz: 28e9 },
+    };
     const space = searchSpace(lane, b);
     const [peaked, flat] = prepareChannels(lane, space, [{ kind: "fext", pulse: fext }]).channels;
-    const ratio = (ch: typeof flat) => crosstalkFor(ch.crosstalk!, [1]).rms_V / (ch.pulse.values_V[ch.pulse.mainIndex] * space.scale_V);
+    const ratio = (ch: typeof flat) =>
+      crosstalkFor(ch.crosstalk!, [1]).rms_V / (ch.pulse.values_V[ch.pulse.mainIndex] * space.scale_V);
     expect(peaked.setting.gDc_dB).toBe(-9);
     expect(ratio(peaked)).toBeGreaterThan(1.15 * ratio(flat)); // 1.24× here: the FEXT sits at high frequency, where the peaking lifts it
   });
@@ -188,7 +229,14 @@ describe("a realistic lane: coupling-model aggressors through the CTLE", () => {
 
 describe("crosstalk of aggressors that follow the victim's FIR", () => {
   it("identity: from per-phase cursors and correlations equals applying the FIR to the pulse and sampling it at its worst phase; the leaf's sorted parts are the same parts", () => {
-    const fext = trimPulse(pulseFromCoupling({ kind: "fext", forwardCoupling_s: 3e-12, line: { lossAtNyquist_dB: 20, delay_s: 2e-9 } }, { ui_s: ui, samplesPerUi: spu }).pulse, 8, 40);
+    const fext = trimPulse(
+      pulseFromCoupling(
+        { kind: "fext", forwardCoupling_s: 3e-12, line: { lossAtNyquist_dB: 20, delay_s: 2e-9 } },
+        { ui_s: ui, samplesPerUi: spu },
+      ).pulse,
+      8,
+      40,
+    );
     const received = [
       { name: "near", kind: "next" as const, pulse: xtPulse([0.02, -0.012, 0.005], 3), followsVictimFir: false },
       { name: "far", kind: "fext" as const, pulse: fext, followsVictimFir: true },

@@ -28,7 +28,8 @@ describe("ctleGridPulses", () => {
       expect(got.ui_s).toBe(want.ui_s);
       const peak = Math.abs(want.values_V[want.mainIndex]);
       let worst = 0;
-      for (let k = 0; k < want.values_V.length; k++) worst = Math.max(worst, Math.abs(got.values_V[k] - want.values_V[k]));
+      for (let k = 0; k < want.values_V.length; k++)
+        worst = Math.max(worst, Math.abs(got.values_V[k] - want.values_V[k]));
       expect(worst).toBeLessThan(1e-12 * peak);
     });
   });
@@ -43,14 +44,19 @@ describe("ctleGridPulses", () => {
     settings.forEach((s, i) => {
       const want = plan.apply({ ...oneStage, gDc_dB: s.gDc_dB });
       const peak = Math.abs(want.values_V[want.mainIndex]);
-      for (let k = 0; k < want.values_V.length; k += 7) expect(Math.abs(grid[i].values_V[k] - want.values_V[k])).toBeLessThan(1e-12 * peak);
+      for (let k = 0; k < want.values_V.length; k += 7)
+        expect(Math.abs(grid[i].values_V[k] - want.values_V[k])).toBeLessThan(1e-12 * peak);
     });
   });
 
   it("identity: at a fixed second-stage gain every sample is affine in the linear gain g = 10^(gDc/20)", () => {
     const dbs = [-9, -4, 0];
     const g = dbs.map((db) => 10 ** (db / 20));
-    const [x, y, z] = ctleGridPulses(pulse, twoStage, dbs.map((gDc_dB) => ({ gDc_dB, gDc2_dB: -3 })));
+    const [x, y, z] = ctleGridPulses(
+      pulse,
+      twoStage,
+      dbs.map((gDc_dB) => ({ gDc_dB, gDc2_dB: -3 })),
+    );
     const peak = Math.abs(z.values_V[z.mainIndex]);
     for (let k = 0; k < x.values_V.length; k += 5) {
       const slope1 = (y.values_V[k] - x.values_V[k]) / (g[1] - g[0]);
@@ -62,7 +68,9 @@ describe("ctleGridPulses", () => {
   it("edges: a second-stage gain without its corner, or a gain that is not finite, is refused by name", () => {
     expect(() => ctleGridPulses(pulse, oneStage, [{ gDc_dB: 0, gDc2_dB: -2 }])).toThrow(/fLf_Hz/);
     expect(() => ctleGridPulses(pulse, twoStage, [{ gDc_dB: Number.NaN, gDc2_dB: 0 }])).toThrow(/gDc_dB/);
-    expect(() => ctleGridPulses(pulse, twoStage, [{ gDc_dB: 0, gDc2_dB: Number.POSITIVE_INFINITY }])).toThrow(/gDc2_dB/);
+    expect(() => ctleGridPulses(pulse, twoStage, [{ gDc_dB: 0, gDc2_dB: Number.POSITIVE_INFINITY }])).toThrow(
+      /gDc2_dB/,
+    );
     expect(ctleGridPulses(pulse, twoStage, [])).toEqual([]);
   });
 });

@@ -32,7 +32,16 @@ function budget(policy: "centre" | "max-height" | "mueller-muller", mod: "nrz" |
     limiterSensitivity_V: 0.01,
     targetBer: 1e-10,
     jitter: jitter ? { rjRms_UI: 0.02, djPp_UI: 0.1 } : undefined,
-    tx: { pre: 1, post: 1, step: 0.05, ranges: [[-0.25, 0], [0.5, 1], [-0.35, 0.1]] as [number, number][] },
+    tx: {
+      pre: 1,
+      post: 1,
+      step: 0.05,
+      ranges: [
+        [-0.25, 0],
+        [0.5, 1],
+        [-0.35, 0.1],
+      ] as [number, number][],
+    },
     ctle: { gDc_dB: [-6, 0, 3] as [number, number, number], fz_Hz: 2.5e9, fp1_Hz: 2.5e9, fp2_Hz: 1e10 },
     dfe: { taps: 2, limits_V: [0.08, 0.03] },
     clocking: { policy },
@@ -46,32 +55,36 @@ describe("jointSearch — oracle: exhaustive evaluation of the grid", () => {
     ["mueller-muller", "pam4", false],
     ["max-height", "nrz", true],
     ["max-height", "pam4", false],
-  ] as const)("%s / %s / jitter %s: best, every CTLE's optimum or bound, and the top 5 match", (policy, mod, jit) => {
-    const space = searchSpace(channel, budget(policy, mod, jit));
-    const prepared = prepareChannels(channel, space);
-    const r = jointSearch(channel, space, { dfeCounts: [2, 0], topCount: 5 }, prepared);
-    const firs = [...enumerateTxFirs(space.firSpec)];
-    for (const [o, n] of [
-      [0, 2],
-      [1, 0],
-    ]) {
-      const all: number[] = [];
-      prepared.channels.forEach((ch, ci) => {
-        let local = Number.NEGATIVE_INFINITY;
-        for (const f of firs) {
-          const v = evaluateSetting(ch, space, f, n).limiterHeadroom_V;
-          all.push(v);
-          local = Math.max(local, v);
-        }
-        const out = r.perCtle[o][ci];
-        if (out.exact) expect(out.best?.limiterHeadroom_V).toBe(local);
-        expect(local).toBeLessThanOrEqual(out.upperBound_V);
-      });
-      all.sort((a, b) => b - a);
-      expect(r.best[o]?.limiterHeadroom_V).toBe(all[0]);
-      if (o === 0) expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 5));
-    }
-  }, 30_000); // the exhaustive oracle takes seconds (more on a busy machine): not a speed check
+  ] as const)(
+    "%s / %s / jitter %s: best, every CTLE's optimum or bound, and the top 5 match",
+    (policy, mod, jit) => {
+      const space = searchSpace(channel, budget(policy, mod, jit));
+      const prepared = prepareChannels(channel, space);
+      const r = jointSearch(channel, space, { dfeCounts: [2, 0], topCount: 5 }, prepared);
+      const firs = [...enumerateTxFirs(space.firSpec)];
+      for (const [o, n] of [
+        [0, 2],
+        [1, 0],
+      ]) {
+        const all: number[] = [];
+        prepared.channels.forEach((ch, ci) => {
+          let local = Number.NEGATIVE_INFINITY;
+          for (const f of firs) {
+            const v = evaluateSetting(ch, space, f, n).limiterHeadroom_V;
+            all.push(v);
+            local = Math.max(local, v);
+          }
+          const out = r.perCtle[o][ci];
+          if (out.exact) expect(out.best?.limiterHeadroom_V).toBe(local);
+          expect(local).toBeLessThanOrEqual(out.upperBound_V);
+        });
+        all.sort((a, b) => b - a);
+        expect(r.best[o]?.limiterHeadroom_V).toBe(all[0]);
+        if (o === 0) expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 5));
+      }
+    },
+    30_000,
+  ); // the exhaustive oracle takes seconds (more on a busy machine): not a speed check
 
   it("a given CTLE order and extra starting points change the work, not the answer", () => {
     const space = searchSpace(channel, budget("centre", "nrz", true));
@@ -102,7 +115,11 @@ describe("jointSearch — oracle on a realistic lane (250+ cursors, most of them
   // The demo's 27 in lane at 28 Gb/s (synthetic loss model, invented data), kept as the app stores it.
   const ui = 1 / 28e9;
   const raw = pulseFromLossModel({ lossAtNyquist_dB: 28, delay_s: 3.8e-9 }, { ui_s: ui, samplesPerUi: 32 }).pulse;
-  const lane = trimPulse(raw, Math.min(16, Math.floor(raw.mainIndex / 32)), Math.min(240, Math.floor((raw.values_V.length - 1 - raw.mainIndex) / 32)));
+  const lane = trimPulse(
+    raw,
+    Math.min(16, Math.floor(raw.mainIndex / 32)),
+    Math.min(240, Math.floor((raw.values_V.length - 1 - raw.mainIndex) / 32)),
+  );
   const laneBudget = (jitter: boolean) => ({
     modulation: "nrz" as const,
     txSwing_Vppd: 0.8,
@@ -115,27 +132,31 @@ describe("jointSearch — oracle on a realistic lane (250+ cursors, most of them
     dfe: { taps: 5, limits_V: [0.1, 0.05, 0.05, 0.02, 0.02] },
   });
 
-  it.each([false, true])("jitter %s: the best setting, every CTLE's optimum and the top 5 are those of exhaustive evaluation", (jit) => {
-    const space = searchSpace(lane, laneBudget(jit));
-    const prepared = prepareChannels(lane, space);
-    const r = jointSearch(lane, space, { dfeCounts: [5], topCount: 5 }, prepared);
-    const firs = [...enumerateTxFirs(space.firSpec)];
-    const all: number[] = [];
-    prepared.channels.forEach((ch, ci) => {
-      let local = Number.NEGATIVE_INFINITY;
-      for (const f of firs) {
-        const v = evaluateSetting(ch, space, f, 5).limiterHeadroom_V;
-        all.push(v);
-        local = Math.max(local, v);
-      }
-      const out = r.perCtle[0][ci];
-      if (out.exact) expect(out.best?.limiterHeadroom_V).toBe(local);
-      expect(local).toBeLessThanOrEqual(out.upperBound_V);
-    });
-    all.sort((a, b) => b - a);
-    expect(r.best[0]?.limiterHeadroom_V).toBe(all[0]);
-    expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 5));
-  }, 120_000); // the exhaustive oracle takes seconds on a busy machine: not a speed check
+  it.each([false, true])(
+    "jitter %s: the best setting, every CTLE's optimum and the top 5 are those of exhaustive evaluation",
+    (jit) => {
+      const space = searchSpace(lane, laneBudget(jit));
+      const prepared = prepareChannels(lane, space);
+      const r = jointSearch(lane, space, { dfeCounts: [5], topCount: 5 }, prepared);
+      const firs = [...enumerateTxFirs(space.firSpec)];
+      const all: number[] = [];
+      prepared.channels.forEach((ch, ci) => {
+        let local = Number.NEGATIVE_INFINITY;
+        for (const f of firs) {
+          const v = evaluateSetting(ch, space, f, 5).limiterHeadroom_V;
+          all.push(v);
+          local = Math.max(local, v);
+        }
+        const out = r.perCtle[0][ci];
+        if (out.exact) expect(out.best?.limiterHeadroom_V).toBe(local);
+        expect(local).toBeLessThanOrEqual(out.upperBound_V);
+      });
+      all.sort((a, b) => b - a);
+      expect(r.best[0]?.limiterHeadroom_V).toBe(all[0]);
+      expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual(all.slice(0, 5));
+    },
+    120_000,
+  ); // the exhaustive oracle takes seconds on a busy machine: not a speed check
 });
 
 describe("headroom bounds", () => {
@@ -192,7 +213,10 @@ describe("box bound", () => {
           const box = createTapBox(3, 1);
           box.base.set([0, 1, 0]);
           let c = 0;
-          for (const [j, [a, b]] of [[0, pre], [2, post]] as const) {
+          for (const [j, [a, b]] of [
+            [0, pre],
+            [2, post],
+          ] as const) {
             if (a === b) {
               box.base[j] = a;
               box.base[1] += a;
@@ -247,7 +271,12 @@ describe("BoxRanges", () => {
       for (let f = 0; f < F; f++) {
         const k = setup.offsets[f];
         const dfe = k >= 1 && k <= setup.limits_V.length;
-        const seen = [Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY];
+        const seen = [
+          Number.POSITIVE_INFINITY,
+          Number.NEGATIVE_INFINITY,
+          Number.POSITIVE_INFINITY,
+          Number.NEGATIVE_INFINITY,
+        ];
         for (const x of [-0.2, -0.15, -0.1, -0.05]) {
           for (const y of [-0.3, -0.25, -0.2, -0.15, -0.1]) {
             const taps = [x, 1 + x + y, y];
@@ -310,8 +339,18 @@ describe("light bound", () => {
           taps[1] = Math.min(1, 1 - Math.abs(taps[0]) - Math.abs(taps[2]));
           const exact = phaseEye(ch, space, taps, n, phase).limiterHeadroom_V;
           for (let j = 0; j < setup.shifts.length; j++) {
-            const light = lightPhaseBound(space, prepareEye(ch, space, taps, n, phase), setup.shifts[j], setup.weights[j]);
-            const heavy = heavyPhaseBound(space, prepareEye(ch, space, taps, n, phase), setup.shifts[j], setup.weights[j]);
+            const light = lightPhaseBound(
+              space,
+              prepareEye(ch, space, taps, n, phase),
+              setup.shifts[j],
+              setup.weights[j],
+            );
+            const heavy = heavyPhaseBound(
+              space,
+              prepareEye(ch, space, taps, n, phase),
+              setup.shifts[j],
+              setup.weights[j],
+            );
             if (!(light >= heavy && heavy >= exact)) return false;
           }
           return true;
@@ -336,7 +375,17 @@ describe("startingPoints", () => {
 
   it("a side tap whose range excludes 0 starts at the grid value nearest 0", () => {
     const b = budget("centre", "nrz", false);
-    const space = searchSpace(channel, { ...b, tx: { ...b.tx, ranges: [[-0.25, -0.1], [0.5, 1], [-0.35, 0.1]] } });
+    const space = searchSpace(channel, {
+      ...b,
+      tx: {
+        ...b.tx,
+        ranges: [
+          [-0.25, -0.1],
+          [0.5, 1],
+          [-0.35, 0.1],
+        ],
+      },
+    });
     const s = startingPoints(prepareChannels(channel, space).channels[0], space)[0];
     expect(Array.from(s).map((c) => Math.round(c * 1e9) / 1e9)).toEqual([-0.1, 0.9, 0]);
   });
@@ -352,7 +401,18 @@ describe("jointSearch — edges", () => {
 
   it("a FIR grid with no legal setting yields no best", () => {
     const b = budget("centre", "nrz", false);
-    const space = searchSpace(channel, { ...b, tx: { pre: 0, post: 1, step: 0.1, ranges: [[0.5, 1], [-0.9, -0.8]] } });
+    const space = searchSpace(channel, {
+      ...b,
+      tx: {
+        pre: 0,
+        post: 1,
+        step: 0.1,
+        ranges: [
+          [0.5, 1],
+          [-0.9, -0.8],
+        ],
+      },
+    });
     const r = jointSearch(channel, space, { dfeCounts: [0] });
     expect(r.best[0]).toBeNull();
   });

@@ -14,31 +14,45 @@ import { flatCtle, rcPulse, stepwisePulse } from "./fixtures.ts";
 const BER = 1e-12;
 
 describe("first-order RC channel (cursors (1 − a)·a^k) [computed from the RC step response]", () => {
-  it.each([0.3, 0.5, 0.7])("a = %s: the 2-tap FIR [1, −a]/(1 + a) removes every post-cursor and leaves (1 − a)/(1 + a)", (a) => {
-    const pulse = rcPulse(a);
-    const space = searchSpace(pulse, { txSwing_Vppd: 2, noiseRms_V: 0, limiterSensitivity_V: 0, tx: { pre: 0, post: 1 }, ctle: flatCtle() });
-    const ch = prepareChannels(pulse, space).channels[0];
-    const taps = Float64Array.of(1 / (1 + a), -a / (1 + a));
-    const g = equalizedCursors(ch, taps, 0, 0, 1);
-    expect(g.h[g.main]).toBeCloseTo((1 - a) / (1 + a), 4); // the flat CTLE's far pole leaves < 1e-4
-    for (let k = 1; k < 10; k++) expect(Math.abs(g.h[g.main + k])).toBeLessThan(1e-4);
-  });
+  it.each([0.3, 0.5, 0.7])(
+    "a = %s: the 2-tap FIR [1, −a]/(1 + a) removes every post-cursor and leaves (1 − a)/(1 + a)",
+    (a) => {
+      const pulse = rcPulse(a);
+      const space = searchSpace(pulse, {
+        txSwing_Vppd: 2,
+        noiseRms_V: 0,
+        limiterSensitivity_V: 0,
+        tx: { pre: 0, post: 1 },
+        ctle: flatCtle(),
+      });
+      const ch = prepareChannels(pulse, space).channels[0];
+      const taps = Float64Array.of(1 / (1 + a), -a / (1 + a));
+      const g = equalizedCursors(ch, taps, 0, 0, 1);
+      expect(g.h[g.main]).toBeCloseTo((1 - a) / (1 + a), 4); // the flat CTLE's far pole leaves < 1e-4
+      for (let k = 1; k < 10; k++) expect(Math.abs(g.h[g.main + k])).toBeLessThan(1e-4);
+    },
+  );
 
-  it.each([0.3, 0.5, 0.7])("a = %s: the optimizer (continuous taps, no DFE) finds that FIR and the eye 2·s·(1 − a)/(1 + a) − 2·Q(2·BER)·σ", (a) => {
-    const sigma = 1e-4;
-    const r = optimize(rcPulse(a), {
-      txSwing_Vppd: 1,
-      noiseRms_V: sigma,
-      limiterSensitivity_V: 0,
-      tx: { pre: 0, post: 1 },
-      ctle: flatCtle(),
-      clocking: { policy: "max-height" },
-    });
-    expect(Math.abs(r.tx.taps[0] - 1 / (1 + a))).toBeLessThan(1e-3);
-    expect(Math.abs(r.tx.taps[1] + a / (1 + a))).toBeLessThan(1e-3);
-    expect(Math.abs(r.eye.eyeHeight_V - (2 * 0.5 * (1 - a)) / (1 + a) + 2 * qFromBer(2 * BER) * sigma)).toBeLessThan(2e-4);
-    expect(r.refinement).not.toBeNull();
-  });
+  it.each([0.3, 0.5, 0.7])(
+    "a = %s: the optimizer (continuous taps, no DFE) finds that FIR and the eye 2·s·(1 − a)/(1 + a) − 2·Q(2·BER)·σ",
+    (a) => {
+      const sigma = 1e-4;
+      const r = optimize(rcPulse(a), {
+        txSwing_Vppd: 1,
+        noiseRms_V: sigma,
+        limiterSensitivity_V: 0,
+        tx: { pre: 0, post: 1 },
+        ctle: flatCtle(),
+        clocking: { policy: "max-height" },
+      });
+      expect(Math.abs(r.tx.taps[0] - 1 / (1 + a))).toBeLessThan(1e-3);
+      expect(Math.abs(r.tx.taps[1] + a / (1 + a))).toBeLessThan(1e-3);
+      expect(Math.abs(r.eye.eyeHeight_V - (2 * 0.5 * (1 - a)) / (1 + a) + 2 * qFromBer(2 * BER) * sigma)).toBeLessThan(
+        2e-4,
+      );
+      expect(r.refinement).not.toBeNull();
+    },
+  );
 });
 
 describe("the noise-enhancement example (channel 1 + a·z⁻¹; Barry, Lee & Messerschmitt [memory]) drives the verdict", () => {
@@ -97,11 +111,15 @@ describe("monotonicity", () => {
 
   it("property: a larger noise never raises the best headroom (beyond the grid resolution)", () => {
     fc.assert(
-      fc.property(fc.double({ min: 0.001, max: 0.02, noNaN: true }), fc.double({ min: 1.1, max: 3, noNaN: true }), (s, f) => {
-        const a = optimize(pulse, { ...base, noiseRms_V: s, dfe: { taps: 1 } });
-        const b = optimize(pulse, { ...base, noiseRms_V: s * f, dfe: { taps: 1 } });
-        return b.limiterHeadroom_V <= a.limiterHeadroom_V + 2e-4;
-      }),
+      fc.property(
+        fc.double({ min: 0.001, max: 0.02, noNaN: true }),
+        fc.double({ min: 1.1, max: 3, noNaN: true }),
+        (s, f) => {
+          const a = optimize(pulse, { ...base, noiseRms_V: s, dfe: { taps: 1 } });
+          const b = optimize(pulse, { ...base, noiseRms_V: s * f, dfe: { taps: 1 } });
+          return b.limiterHeadroom_V <= a.limiterHeadroom_V + 2e-4;
+        },
+      ),
       { seed: 11, numRuns: 8 },
     );
   });
@@ -120,7 +138,9 @@ describe("constraints and reproducibility", () => {
         fc.double({ min: 0.005, max: 0.2, noNaN: true }),
         fc.constantFrom("nrz" as const, "pam4" as const),
         (pre, post, step, sideMax, taps, limit, modulation) => {
-          const ranges = Array.from({ length: pre + 1 + post }, (_, j) => (j === pre ? [0.3, 1] : [-sideMax, 0.05])) as [number, number][];
+          const ranges = Array.from({ length: pre + 1 + post }, (_, j) =>
+            j === pre ? [0.3, 1] : [-sideMax, 0.05],
+          ) as [number, number][];
           const budget = {
             modulation,
             txSwing_Vppd: 0.8,
@@ -164,9 +184,19 @@ describe("constraints and reproducibility", () => {
 
   it("reports progress from 0 to 1, non-decreasing", () => {
     const seen: number[] = [];
-    optimize(pulse, { txSwing_Vppd: 0.8, noiseRms_V: 0.003, limiterSensitivity_V: 0.01, ctle: flatCtle(), tx: { pre: 0, post: 1, step: 0.1 } }, {
-      onProgress: (f) => seen.push(f),
-    });
+    optimize(
+      pulse,
+      {
+        txSwing_Vppd: 0.8,
+        noiseRms_V: 0.003,
+        limiterSensitivity_V: 0.01,
+        ctle: flatCtle(),
+        tx: { pre: 0, post: 1, step: 0.1 },
+      },
+      {
+        onProgress: (f) => seen.push(f),
+      },
+    );
     expect(seen[0]).toBe(0);
     expect(seen[seen.length - 1]).toBe(1);
     for (let i = 1; i < seen.length; i++) expect(seen[i]).toBeGreaterThanOrEqual(seen[i - 1]);
@@ -176,12 +206,12 @@ describe("constraints and reproducibility", () => {
 describe("edges", () => {
   const pulse = stepwisePulse([0, 1, 0.3, 0], 1);
   it("an invalid budget throws a RangeError naming the field", () => {
-    expect(() => optimize(pulse, { txSwing_Vppd: -1, noiseRms_V: 0, limiterSensitivity_V: 0, ctle: flatCtle() })).toThrow(
-      /budget\.txSwing_Vppd/,
-    );
-    expect(() => optimize(pulse, { txSwing_Vppd: 1, noiseRms_V: 0, limiterSensitivity_V: 0, ctle: flatCtle(), bitRate_bps: 5e9 })).toThrow(
-      /budget\.bitRate_bps/,
-    );
+    expect(() =>
+      optimize(pulse, { txSwing_Vppd: -1, noiseRms_V: 0, limiterSensitivity_V: 0, ctle: flatCtle() }),
+    ).toThrow(/budget\.txSwing_Vppd/);
+    expect(() =>
+      optimize(pulse, { txSwing_Vppd: 1, noiseRms_V: 0, limiterSensitivity_V: 0, ctle: flatCtle(), bitRate_bps: 5e9 }),
+    ).toThrow(/budget\.bitRate_bps/);
   });
 
   it("nelderMead: minimizes a quadratic; rejects bad starts and non-finite objectives", () => {

@@ -14,7 +14,16 @@ const budget = {
   limiterSensitivity_V: 0.01,
   targetBer: 1e-10,
   jitter: { rjRms_UI: 0.02, djPp_UI: 0.1 },
-  tx: { pre: 1, post: 1, step: 0.05, ranges: [[-0.25, 0], [0.5, 1], [-0.35, 0.1]] as [number, number][] },
+  tx: {
+    pre: 1,
+    post: 1,
+    step: 0.05,
+    ranges: [
+      [-0.25, 0],
+      [0.5, 1],
+      [-0.35, 0.1],
+    ] as [number, number][],
+  },
   ctle: { gDc_dB: [-6, 0, 3] as [number, number, number], fz_Hz: 2.5e9, fp1_Hz: 2.5e9, fp2_Hz: 1e10 },
   dfe: { taps: 2, limits_V: [0.08, 0.03] },
 };
@@ -35,7 +44,11 @@ describe("searchSize — oracle: the grids the search walks", () => {
   it.each([
     budget,
     { ...budget, tx: { pre: 1, post: 2, step: 0.04 } },
-    { ...budget, tx: { pre: 2, post: 1, step: 1 / 24 }, ctle: { ...budget.ctle, gDc_dB: [-12, 0, 1] as [number, number, number] } },
+    {
+      ...budget,
+      tx: { pre: 2, post: 1, step: 1 / 24 },
+      ctle: { ...budget.ctle, gDc_dB: [-12, 0, 1] as [number, number, number] },
+    },
     { ...budget, ctle: { ...budget.ctle, fLf_Hz: 1e8, gDc2_dB: [-6, 0, 2] as [number, number, number] } },
   ])("FIR settings = product of the side taps' grid positions; CTLE settings = the search space's (%#)", (b) => {
     const s = searchSize(b, { samplesPerUi: channel.samplesPerUi });
@@ -63,9 +76,14 @@ describe("searchSizeProblem — identities and edges", () => {
     const s = searchSize(wide, { samplesPerUi: 32 });
     expect(s.total).toBeGreaterThan(MAX_SEARCH_SIZE);
     const step = Number(/a transmit FIR step of ([\d.]+) or more/.exec(searchSizeProblem(wide, s)!)![1]);
-    expect(searchSize({ ...wide, tx: { ...wide.tx, step } }, { samplesPerUi: 32 }).total).toBeLessThanOrEqual(MAX_SEARCH_SIZE);
+    expect(searchSize({ ...wide, tx: { ...wide.tx, step } }, { samplesPerUi: 32 }).total).toBeLessThanOrEqual(
+      MAX_SEARCH_SIZE,
+    );
     const coarser = [0.0125, 0.02, 0.025, 0.04].filter((x) => x < step);
-    for (const x of coarser) expect(searchSize({ ...wide, tx: { ...wide.tx, step: x } }, { samplesPerUi: 32 }).total).toBeGreaterThan(MAX_SEARCH_SIZE);
+    for (const x of coarser)
+      expect(searchSize({ ...wide, tx: { ...wide.tx, step: x } }, { samplesPerUi: 32 }).total).toBeGreaterThan(
+        MAX_SEARCH_SIZE,
+      );
     expect(searchSizeProblem(budget, searchSize(budget, { samplesPerUi: 8 }), 10)).not.toMatch(/transmit FIR step of/);
   });
 

@@ -17,16 +17,42 @@ const budget = {
   limiterSensitivity_V: 0.01,
   targetBer: 1e-10,
   jitter: { rjRms_UI: 0.02, djPp_UI: 0.1 },
-  tx: { pre: 1, post: 1, step: 0.05, ranges: [[-0.25, 0], [0.5, 1], [-0.35, 0.1]] as [number, number][] },
+  tx: {
+    pre: 1,
+    post: 1,
+    step: 0.05,
+    ranges: [
+      [-0.25, 0],
+      [0.5, 1],
+      [-0.35, 0.1],
+    ] as [number, number][],
+  },
   ctle: { gDc_dB: [-6, 0, 3] as [number, number, number], fz_Hz: 2.5e9, fp1_Hz: 2.5e9, fp2_Hz: 1e10 },
   dfe: { taps: 2, limits_V: [0.08, 0.03] },
 };
 
 describe("firGrid — identities", () => {
   it.each([
-    { pre: 1, post: 1, step: 0.05, ranges: [[-0.25, 0], [0.5, 1], [-0.35, 0.1]] as [number, number][] },
+    {
+      pre: 1,
+      post: 1,
+      step: 0.05,
+      ranges: [
+        [-0.25, 0],
+        [0.5, 1],
+        [-0.35, 0.1],
+      ] as [number, number][],
+    },
     { pre: 1, post: 2, step: 0.04 },
-    { pre: 0, post: 1, step: 0.1, ranges: [[0.5, 0.8], [-0.6, 0]] as [number, number][] },
+    {
+      pre: 0,
+      post: 1,
+      step: 0.1,
+      ranges: [
+        [0.5, 0.8],
+        [-0.6, 0],
+      ] as [number, number][],
+    },
     { pre: 2, post: 1, step: 1 / 24 },
   ])("every grid position through the one main-tap rule gives exactly enumerateTxFirs' settings (%o)", (spec) => {
     const grid = firGrid(spec);
@@ -49,7 +75,16 @@ describe("firGrid — identities", () => {
   });
 
   it("edges: the main tap is the largest grid value the swing and its range allow, or none", () => {
-    const grid = firGrid({ pre: 1, post: 1, step: 0.05, ranges: [[-0.5, 0], [0.6, 0.9], [-0.5, 0]] });
+    const grid = firGrid({
+      pre: 1,
+      post: 1,
+      step: 0.05,
+      ranges: [
+        [-0.5, 0],
+        [0.6, 0.9],
+        [-0.5, 0],
+      ],
+    });
     expect(mainTapFor(grid, 0)).toBeCloseTo(0.9, 12); // capped by its range
     expect(mainTapFor(grid, 3)).toBeCloseTo(0.85, 12); // 1 − 3·0.05
     expect(mainTapFor(grid, 8)).toBeCloseTo(0.6, 12); // exactly its minimum
@@ -59,7 +94,13 @@ describe("firGrid — identities", () => {
 
 /** The figures of an eye with a given headroom (what the bookkeeping keeps). */
 function eye(headroom_V: number): EyeFigures {
-  return { phase: 0, dfeTaps: new Float64Array(0), dfeClipped: [], eyeHeight_V: headroom_V + 0.01, limiterHeadroom_V: headroom_V };
+  return {
+    phase: 0,
+    dfeTaps: new Float64Array(0),
+    dfeClipped: [],
+    eyeHeight_V: headroom_V + 0.01,
+    limiterHeadroom_V: headroom_V,
+  };
 }
 
 describe("SearchResults — bookkeeping", () => {
@@ -69,7 +110,14 @@ describe("SearchResults — bookkeeping", () => {
   it("keeps the top list best first, its k-th best as the first objective's threshold, the best for the others", () => {
     const r = new SearchResults([2, 0], 3, 3, undefined);
     expect(r.threshold(0)).toBe(Number.NEGATIVE_INFINITY);
-    for (const [ci, v] of [[0, 0.01], [1, 0.05], [2, 0.03], [0, 0.02], [1, 0.04]] as const) r.record(ci, ctle, 0, taps, eye(v), 0);
+    for (const [ci, v] of [
+      [0, 0.01],
+      [1, 0.05],
+      [2, 0.03],
+      [0, 0.02],
+      [1, 0.04],
+    ] as const)
+      r.record(ci, ctle, 0, taps, eye(v), 0);
     expect(r.top.map((c) => c.limiterHeadroom_V)).toEqual([0.05, 0.04, 0.03]);
     expect(r.kthBest()).toBe(0.03);
     expect(r.canEnter(0, 0.03)).toBe(false);
@@ -112,7 +160,12 @@ describe("jointSearch — re-entrancy", () => {
     const options = { dfeCounts: [2, 0], topCount: 3 };
     const alone = jointSearch(channel, space, options, prepared);
     const inner: ReturnType<typeof jointSearch>[] = [];
-    const outer = jointSearch(channel, space, { ...options, onProgress: () => void inner.push(jointSearch(channel, space, options, prepared)) }, prepared);
+    const outer = jointSearch(
+      channel,
+      space,
+      { ...options, onProgress: () => void inner.push(jointSearch(channel, space, options, prepared)) },
+      prepared,
+    );
     const figures = (r: ReturnType<typeof jointSearch>) => ({
       best: r.best.map((c) => [c?.limiterHeadroom_V, c && Array.from(c.taps), c?.ctleIndex]),
       top: r.top.map((c) => c.limiterHeadroom_V),

@@ -98,7 +98,11 @@ describe("reflectionCoefficient and terminatedTransfer", () => {
   });
 
   it("analytic: a thru between equal terminations gives 1; into a load R it gives 1 + Γ = 2R/(R0 + R)", () => {
-    const thru = transmissionLine({ length_m: 0, impedance_Ohm: 50, loss: ANNEX_93A_PACKAGE.traceLoss }, [1e9, 2e9], 50);
+    const thru = transmissionLine(
+      { length_m: 0, impedance_Ohm: 50, loss: ANNEX_93A_PACKAGE.traceLoss },
+      [1e9, 2e9],
+      50,
+    );
     const g = 0.3;
     expect(terminatedTransfer(thru, g, g).re[1]).toBeCloseTo(1, 15);
     const R = 70;
@@ -109,14 +113,23 @@ describe("reflectionCoefficient and terminatedTransfer", () => {
     const thru = shuntCapacitance(0, [1e9], 50);
     expect(() => terminatedTransfer(thru, 1, 0)).toThrow(/sourceGamma/);
     expect(() => terminatedTransfer(thru, 0, Number.NaN)).toThrow(/loadGamma/);
-    const four: NetworkData = { ports: 4, freqs_Hz: Float64Array.of(1e9), s: new Float64Array(32), referenceOhms: new Float64Array(4).fill(50) };
+    const four: NetworkData = {
+      ports: 4,
+      freqs_Hz: Float64Array.of(1e9),
+      s: new Float64Array(32),
+      referenceOhms: new Float64Array(4).fill(50),
+    };
     expect(() => terminatedTransfer(four, 0, 0)).toThrow(/2-port/);
     expect(() => reflectionCoefficient([-1, 0], 50)).toThrow(/z_Ohm/);
   });
 });
 
 describe("transmissionLine", () => {
-  const lossless: LineSegment = { length_m: 0.01, impedance_Ohm: 50, loss: { skinAt1GHz_NpPerM: 0, dielectricAt1GHz_NpPerM: 0, delay_sPerM: 6e-9 } };
+  const lossless: LineSegment = {
+    length_m: 0.01,
+    impedance_Ohm: 50,
+    loss: { skinAt1GHz_NpPerM: 0, dielectricAt1GHz_NpPerM: 0, delay_sPerM: 6e-9 },
+  };
 
   it("analytic: a matched lossless line is a pure delay e^{−i2πfτz}", () => {
     const freqs = [0, 1e9, 7.3e9];
@@ -151,7 +164,9 @@ describe("transmissionLine", () => {
   it("edges: negative length, zero impedance or delay are refused", () => {
     expect(() => transmissionLine({ ...lossless, length_m: -1 }, [1e9], 50)).toThrow(/length_m/);
     expect(() => transmissionLine({ ...lossless, impedance_Ohm: 0 }, [1e9], 50)).toThrow(/impedance_Ohm/);
-    expect(() => transmissionLine({ ...lossless, loss: { ...lossless.loss, delay_sPerM: 0 } }, [1e9], 50)).toThrow(/delay_sPerM/);
+    expect(() => transmissionLine({ ...lossless, loss: { ...lossless.loss, delay_sPerM: 0 } }, [1e9], 50)).toThrow(
+      /delay_sPerM/,
+    );
   });
 });
 
@@ -172,7 +187,10 @@ function tCascadeOracle(a: NetworkData, b: NetworkData): NetworkData {
     return { re, im };
   };
   type CM = { re: Matrix; im: Matrix };
-  const mul = (x: CM, y: CM): CM => ({ re: x.re.mmul(y.re).sub(x.im.mmul(y.im)), im: x.re.mmul(y.im).add(x.im.mmul(y.re)) });
+  const mul = (x: CM, y: CM): CM => ({
+    re: x.re.mmul(y.re).sub(x.im.mmul(y.im)),
+    im: x.re.mmul(y.im).add(x.im.mmul(y.re)),
+  });
   const sub = (x: CM, y: CM): CM => ({ re: Matrix.sub(x.re, y.re), im: Matrix.sub(x.im, y.im) });
   const neg = (x: CM): CM => ({ re: x.re.clone().mul(-1), im: x.im.clone().mul(-1) });
   // complex inverse via (A + iB)⁻¹ = (A + B·A⁻¹·B)⁻¹ − i·A⁻¹·B·(A + B·A⁻¹·B)⁻¹
@@ -190,10 +208,22 @@ function tCascadeOracle(a: NetworkData, b: NetworkData): NetworkData {
   for (let f = 0; f < a.freqs_Hz.length; f++) {
     const x = toT(a, f);
     const y = toT(b, f);
-    const t11 = { re: mul(x.t11, y.t11).re.add(mul(x.t12, y.t21).re), im: mul(x.t11, y.t11).im.add(mul(x.t12, y.t21).im) };
-    const t12 = { re: mul(x.t11, y.t12).re.add(mul(x.t12, y.t22).re), im: mul(x.t11, y.t12).im.add(mul(x.t12, y.t22).im) };
-    const t21 = { re: mul(x.t21, y.t11).re.add(mul(x.t22, y.t21).re), im: mul(x.t21, y.t11).im.add(mul(x.t22, y.t21).im) };
-    const t22 = { re: mul(x.t21, y.t12).re.add(mul(x.t22, y.t22).re), im: mul(x.t21, y.t12).im.add(mul(x.t22, y.t22).im) };
+    const t11 = {
+      re: mul(x.t11, y.t11).re.add(mul(x.t12, y.t21).re),
+      im: mul(x.t11, y.t11).im.add(mul(x.t12, y.t21).im),
+    };
+    const t12 = {
+      re: mul(x.t11, y.t12).re.add(mul(x.t12, y.t22).re),
+      im: mul(x.t11, y.t12).im.add(mul(x.t12, y.t22).im),
+    };
+    const t21 = {
+      re: mul(x.t21, y.t11).re.add(mul(x.t22, y.t21).re),
+      im: mul(x.t21, y.t11).im.add(mul(x.t22, y.t21).im),
+    };
+    const t22 = {
+      re: mul(x.t21, y.t12).re.add(mul(x.t22, y.t22).re),
+      im: mul(x.t21, y.t12).im.add(mul(x.t22, y.t22).im),
+    };
     const s21 = inv(t22);
     const s11 = mul(t12, s21);
     const s22 = neg(mul(s21, t21));
@@ -244,7 +274,12 @@ describe("cascadeNetworks", () => {
 
   it("identities: a thru on either side changes nothing; two uncoupled lanes as a 4-port cascade lane by lane", () => {
     const a = randomNet(3, 2);
-    const thru: NetworkData = { ports: 2, freqs_Hz: a.freqs_Hz, s: Float64Array.from({ length: 24 }, (_, i) => (i % 8 === 2 || i % 8 === 4 ? 1 : 0)), referenceOhms: a.referenceOhms };
+    const thru: NetworkData = {
+      ports: 2,
+      freqs_Hz: a.freqs_Hz,
+      s: Float64Array.from({ length: 24 }, (_, i) => (i % 8 === 2 || i % 8 === 4 ? 1 : 0)),
+      referenceOhms: a.referenceOhms,
+    };
     const left = cascadeNetworks(thru, a);
     const right = cascadeNetworks(a, thru);
     for (let i = 0; i < a.s.length; i++) {
@@ -255,7 +290,10 @@ describe("cascadeNetworks", () => {
     // Lane 1 is ports 1 → 3, lane 2 ports 2 → 4 of a 4-port built from two 2-ports.
     const lanes = (x: NetworkData, y: NetworkData): NetworkData => {
       const out = new Float64Array(2 * 3 * 16);
-      const map = [[0, 2], [1, 3]];
+      const map = [
+        [0, 2],
+        [1, 3],
+      ];
       for (let f = 0; f < 3; f++) {
         [x, y].forEach((net, lane) => {
           for (let i = 0; i < 2; i++) {
@@ -279,10 +317,17 @@ describe("cascadeNetworks", () => {
 
   it("edges: odd port counts, different grids, sizes or connected references are refused", () => {
     const a = randomNet(1, 2);
-    const three: NetworkData = { ports: 3, freqs_Hz: a.freqs_Hz, s: new Float64Array(54), referenceOhms: new Float64Array(3).fill(50) };
+    const three: NetworkData = {
+      ports: 3,
+      freqs_Hz: a.freqs_Hz,
+      s: new Float64Array(54),
+      referenceOhms: new Float64Array(3).fill(50),
+    };
     expect(() => cascadeNetworks(three, three)).toThrow(/even number/);
     expect(() => cascadeNetworks(a, randomNet(2, 4))).toThrow(/as many ports/);
-    expect(() => cascadeNetworks(a, { ...a, freqs_Hz: Float64Array.of(1e9, 2e9, 4e9) })).toThrow(/share their frequencies/);
+    expect(() => cascadeNetworks(a, { ...a, freqs_Hz: Float64Array.of(1e9, 2e9, 4e9) })).toThrow(
+      /share their frequencies/,
+    );
     expect(() => cascadeNetworks(a, { ...a, referenceOhms: Float64Array.of(25, 50) })).toThrow(/renormalize/);
     expect(() => cascadeNetworks(a, { ...a, s: new Float64Array(3) })).toThrow(/b\.s must hold/);
   });
@@ -293,7 +338,12 @@ describe("packageNetwork and packageTransfer", () => {
   const abcdOracle = (f: number, side: "tx" | "rx"): C => {
     const m = ANNEX_93A_PACKAGE;
     const w = 2 * Math.PI * f;
-    const shunt = (c: number): [C, C, C, C] => [[1, 0], [0, 0], [0, w * c], [1, 0]];
+    const shunt = (c: number): [C, C, C, C] => [
+      [1, 0],
+      [0, 0],
+      [0, w * c],
+      [1, 0],
+    ];
     const x = f / 1e9;
     const L = m.traceLength_m;
     const a1 = m.traceLoss.skinAt1GHz_NpPerM;
@@ -314,7 +364,10 @@ describe("packageNetwork and packageTransfer", () => {
       cadd(cmul(p[2], q[0]), cmul(p[3], q[2])),
       cadd(cmul(p[2], q[1]), cmul(p[3], q[3])),
     ];
-    const chain = side === "tx" ? mm(mm(shunt(m.dieCapacitance_F), line), shunt(m.padCapacitance_F)) : mm(mm(shunt(m.padCapacitance_F), line), shunt(m.dieCapacitance_F));
+    const chain =
+      side === "tx"
+        ? mm(mm(shunt(m.dieCapacitance_F), line), shunt(m.padCapacitance_F))
+        : mm(mm(shunt(m.padCapacitance_F), line), shunt(m.dieCapacitance_F));
     const [rs, rl] = side === "tx" ? [m.termination_Ohm, 50] : [50, m.termination_Ohm];
     // V2/Vs = 1/(A + B/RL + Rs·(C + D/RL)); the transfer is relative to half the source voltage.
     const [A, B, Cc, D] = chain;
@@ -322,22 +375,30 @@ describe("packageNetwork and packageTransfer", () => {
     return cdiv([2, 0], den);
   };
 
-  it.each(["tx", "rx"] as const)("oracle: the %s package's transfer equals the chain-matrix analysis of the same circuit", (side) => {
-    const freqs = [1e6, 1e9, 7e9, 14e9, 26.5e9, 53e9];
-    const h = packageTransfer(ANNEX_93A_PACKAGE, freqs, side);
-    freqs.forEach((f, k) => {
-      const want = abcdOracle(f, side);
-      expect(h.re[k]).toBeCloseTo(want[0], 12);
-      expect(h.im[k]).toBeCloseTo(want[1], 12);
-    });
-  });
+  it.each(["tx", "rx"] as const)(
+    "oracle: the %s package's transfer equals the chain-matrix analysis of the same circuit",
+    (side) => {
+      const freqs = [1e6, 1e9, 7e9, 14e9, 26.5e9, 53e9];
+      const h = packageTransfer(ANNEX_93A_PACKAGE, freqs, side);
+      freqs.forEach((f, k) => {
+        const want = abcdOracle(f, side);
+        expect(h.re[k]).toBeCloseTo(want[0], 12);
+        expect(h.im[k]).toBeCloseTo(want[1], 12);
+      });
+    },
+  );
 
   it("identities: the rx package is the tx package with its ports swapped; at DC the pair passes 1 − Γ²", () => {
     const freqs = [0, 5e9, 2e10];
     const tx = packageNetwork(ANNEX_93A_PACKAGE, freqs, "tx");
     const rx = packageNetwork(ANNEX_93A_PACKAGE, freqs, "rx");
     for (let f = 0; f < 3; f++) {
-      for (const [i, j] of [[0, 0], [0, 1], [1, 0], [1, 1]]) {
+      for (const [i, j] of [
+        [0, 0],
+        [0, 1],
+        [1, 0],
+        [1, 1],
+      ]) {
         expect(s(rx, f, i, j)[0]).toBeCloseTo(s(tx, f, 1 - i, 1 - j)[0], 14);
         expect(s(rx, f, i, j)[1]).toBeCloseTo(s(tx, f, 1 - i, 1 - j)[1], 14);
       }
@@ -349,7 +410,9 @@ describe("packageNetwork and packageTransfer", () => {
   });
 
   it("edges: a package with a negative capacitance or no trace delay is refused, naming the field", () => {
-    expect(() => packageNetwork({ ...ANNEX_93A_PACKAGE, dieCapacitance_F: -1 }, [1e9], "tx")).toThrow(/package\.dieCapacitance_F/);
+    expect(() => packageNetwork({ ...ANNEX_93A_PACKAGE, dieCapacitance_F: -1 }, [1e9], "tx")).toThrow(
+      /package\.dieCapacitance_F/,
+    );
     expect(() => packageTransfer({ ...ANNEX_93A_PACKAGE, termination_Ohm: 0 }, [1e9], "rx")).toThrow(/termination_Ohm/);
     expect(() => frontEndTransfer({ rxBandwidth_Hz: -1 }, [1e9])).toThrow(/rxBandwidth_Hz/);
   });

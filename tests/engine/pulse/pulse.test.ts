@@ -166,7 +166,12 @@ describe("pulseLoss_dB", () => {
   });
 
   it("identities and edges: a bare rectangle loses nothing; scaling changes nothing; bad input is refused", () => {
-    const rect = make(Array.from({ length: 3 * spu }, (_, i) => (i >= spu && i < 2 * spu ? 1 : 0)), spu, spu + 10, ui);
+    const rect = make(
+      Array.from({ length: 3 * spu }, (_, i) => (i >= spu && i < 2 * spu ? 1 : 0)),
+      spu,
+      spu + 10,
+      ui,
+    );
     expect(pulseLoss_dB(rect, 3e9)).toBeCloseTo(0, 6);
     expect(pulseLoss_dB(scalePulse(rcPulse(2e-11), 0.3), 5e9)).toBeCloseTo(pulseLoss_dB(rcPulse(2e-11), 5e9), 10);
     expect(() => pulseLoss_dB(rect, 1 / ui)).toThrow(/freq_Hz/);

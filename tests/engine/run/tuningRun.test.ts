@@ -70,7 +70,10 @@ describe("tuningRun", () => {
     // After equalization the 1e-12 contour encloses the sampling instant; before, the eye is smaller.
     expect(r.eyes.after.eyeHeight_V).toBeGreaterThan(r.eyes.before.eyeHeight_V);
     const c12 = r.eyes.after.contours.find((c) => c.log10Ber === -12);
-    const near = (c12?.paths ?? []).flat().filter(([t]) => Math.abs(t) < 0.02).map(([, v]) => v);
+    const near = (c12?.paths ?? [])
+      .flat()
+      .filter(([t]) => Math.abs(t) < 0.02)
+      .map(([, v]) => v);
     expect(Math.max(...near) - Math.min(...near)).toBeGreaterThan(0.9 * r.eyes.after.eyeHeight_V);
   });
 
@@ -124,7 +127,10 @@ describe("tuningRun with aggressors and packages", () => {
   it("carries the optimizer's crosstalk and draws the eye again without it: same symbols, its own contours and height", () => {
     plainJson(r);
     const x = r.crosstalk!;
-    expect(x.perAggressor.map((a) => [a.name, a.kind])).toEqual([["Near", "next"], ["Far", "fext"]]);
+    expect(x.perAggressor.map((a) => [a.name, a.kind])).toEqual([
+      ["Near", "next"],
+      ["Far", "fext"],
+    ]);
     expect(x).toMatchObject(r.optimize.crosstalk!);
     expect(x.eyeWithout.eyeHeight_V).toBeCloseTo(x.eyeHeightWithoutCrosstalk_V, 12);
     expect(x.eyeWithout.eyeHeight_V).toBeGreaterThan(r.eyes.after.eyeHeight_V);
@@ -141,7 +147,10 @@ describe("tuningRun with aggressors and packages", () => {
     expect(l.txPackage_dB).toBeCloseTo(frontEndLoss_dB({ txPackage: ANNEX_93A_PACKAGE }, f), 9);
     expect(l.rxPackage_dB).toBeCloseTo(frontEndLoss_dB({ rxPackage: ANNEX_93A_PACKAGE }, f), 9);
     expect(l.rxFilter_dB).toBeNull();
-    expect(l.packageShare).toBeCloseTo((l.txPackage_dB! + l.rxPackage_dB!) / (l.channelAtNyquist_dB + l.txPackage_dB! + l.rxPackage_dB!), 12);
+    expect(l.packageShare).toBeCloseTo(
+      (l.txPackage_dB! + l.rxPackage_dB!) / (l.channelAtNyquist_dB + l.txPackage_dB! + l.rxPackage_dB!),
+      12,
+    );
     expect(l.packageShare).toBeGreaterThan(0);
     expect(tuningRun(pulse, budget).loss.packageShare).toBeNull();
   });
@@ -150,22 +159,58 @@ describe("tuningRun with aggressors and packages", () => {
 describe("dfeAdaptation", () => {
   const cursors = { h: Float64Array.of(0.02, 0.5, 0.2, -0.08, 0.03), main: 1 };
   it("analytic: LMS converges to the post-cursors (0.2, −0.08, 0.03) [Haykin, LMS]", () => {
-    const r = dfeAdaptation(cursors, { modulation: "nrz", taps: 3, limits_V: [1, 1, 1], noiseRms_V: 0.01, mu: 0.01, iterations: 20_000, seed: 3, variant: "lms" });
+    const r = dfeAdaptation(cursors, {
+      modulation: "nrz",
+      taps: 3,
+      limits_V: [1, 1, 1],
+      noiseRms_V: 0.01,
+      mu: 0.01,
+      iterations: 20_000,
+      seed: 3,
+      variant: "lms",
+    });
     [0.2, -0.08, 0.03].forEach((v, k) => expect(Math.abs(r.taps[k] - v)).toBeLessThan(0.005));
     expect(r.trajectory[0]).toEqual(new Float64Array(3));
     expect(r.iterationsAt[r.iterationsAt.length - 1]).toBe(20_000);
   });
 
   it("limits clip the taps (the closed form's clipping); sign-sign and PAM4 also converge", () => {
-    const c = dfeAdaptation(cursors, { modulation: "nrz", taps: 2, limits_V: [0.1, 1], noiseRms_V: 0.01, mu: 0.01, iterations: 20_000, seed: 4, variant: "lms" });
+    const c = dfeAdaptation(cursors, {
+      modulation: "nrz",
+      taps: 2,
+      limits_V: [0.1, 1],
+      noiseRms_V: 0.01,
+      mu: 0.01,
+      iterations: 20_000,
+      seed: 4,
+      variant: "lms",
+    });
     expect(c.taps[0]).toBeCloseTo(0.1, 12);
-    const s = dfeAdaptation(cursors, { modulation: "pam4", taps: 2, limits_V: [1, 1], noiseRms_V: 0.005, mu: 0.0005, iterations: 20_000, seed: 5, variant: "sign-sign" });
+    const s = dfeAdaptation(cursors, {
+      modulation: "pam4",
+      taps: 2,
+      limits_V: [1, 1],
+      noiseRms_V: 0.005,
+      mu: 0.0005,
+      iterations: 20_000,
+      seed: 5,
+      variant: "sign-sign",
+    });
     expect(Math.abs(s.taps[0] - 0.2)).toBeLessThan(0.01);
     expect(Math.abs(s.taps[1] + 0.08)).toBeLessThan(0.01);
   });
 
   it("edges: bad arguments throw naming them", () => {
-    const base = { modulation: "nrz" as const, taps: 1, limits_V: [1], noiseRms_V: 0, mu: 0.01, iterations: 10, seed: 1, variant: "lms" as const };
+    const base = {
+      modulation: "nrz" as const,
+      taps: 1,
+      limits_V: [1],
+      noiseRms_V: 0,
+      mu: 0.01,
+      iterations: 10,
+      seed: 1,
+      variant: "lms" as const,
+    };
     expect(() => dfeAdaptation(cursors, { ...base, taps: 0 })).toThrow(/taps/);
     expect(() => dfeAdaptation(cursors, { ...base, mu: 0 })).toThrow(/mu/);
     expect(() => dfeAdaptation(cursors, { ...base, limits_V: [] })).toThrow(/limits_V/);

@@ -10,7 +10,10 @@ const omega = (k: number) => (2 * Math.PI * k) / N;
 describe("minimumPhaseSpectrum", () => {
   it("analytic: the one-pole filter 1/(1 − a·z⁻¹) gets its phase −atan(a·sin ω / (1 − a·cos ω)) (tol 1e-9) [computed; Oppenheim & Schafer, DTSP §13]", () => {
     for (const a of [0.5, -0.7, 0.9]) {
-      const logMag = Float64Array.from({ length: half }, (_, k) => -0.5 * Math.log(1 - 2 * a * Math.cos(omega(k)) + a * a));
+      const logMag = Float64Array.from(
+        { length: half },
+        (_, k) => -0.5 * Math.log(1 - 2 * a * Math.cos(omega(k)) + a * a),
+      );
       const g = minimumPhaseSpectrum(logMag, N);
       for (let k = 0; k < half; k++) {
         const want = -Math.atan2(a * Math.sin(omega(k)), 1 - a * Math.cos(omega(k)));

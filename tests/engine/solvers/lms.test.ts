@@ -8,7 +8,13 @@ const [pre, post, sigma] = [2, 4, 0.05];
 describe("lmsAdapt", () => {
   it("LMS with a small step lands near the MMSE taps (seed 1; taps within 0.02, MSE within 10 %)", () => {
     const target = mmseEqualizer(channel, pre, post, sigma);
-    const r = lmsAdapt(channel, pre, post, { noiseRms_V: sigma, mu: 0.002, iterations: 60_000, seed: 1, variant: "lms" });
+    const r = lmsAdapt(channel, pre, post, {
+      noiseRms_V: sigma,
+      mu: 0.002,
+      iterations: 60_000,
+      seed: 1,
+      variant: "lms",
+    });
     r.taps.forEach((c, j) => expect(Math.abs(c - target.taps[j])).toBeLessThan(0.02));
     expect(r.mse[r.mse.length - 1]).toBeLessThan(target.mse * 1.1);
     expect(r.mse[r.mse.length - 1]).toBeGreaterThanOrEqual(target.mse);

@@ -28,11 +28,31 @@ describe("wienerSolve", () => {
   it("edges: non-square, mismatched, singular and non-finite inputs", () => {
     expect(() => wienerSolve([[1, 2]], [1], 1)).toThrow(/square/);
     expect(() => wienerSolve([[1]], [1, 2], 1)).toThrow(/p must have 1/);
-    expect(() => wienerSolve([[0, 0], [0, 0]], [1, 1], 1)).toThrow(/singular/);
+    expect(() =>
+      wienerSolve(
+        [
+          [0, 0],
+          [0, 0],
+        ],
+        [1, 1],
+        1,
+      ),
+    ).toThrow(/singular/);
     expect(() => wienerSolve([[Number.NaN]], [1], 1)).toThrow(/R\[0\]\[0\]/);
     expect(() => wienerSolve([[1]], [1], Number.POSITIVE_INFINITY)).toThrow(/varianceD/);
     // Non-symmetric but regular: falls back to LU.
-    expect(Array.from(wienerSolve([[2, 1], [0, 1]], [3, 1], 5).w)).toEqual([1, 1]);
+    expect(
+      Array.from(
+        wienerSolve(
+          [
+            [2, 1],
+            [0, 1],
+          ],
+          [3, 1],
+          5,
+        ).w,
+      ),
+    ).toEqual([1, 1]);
   });
 });
 

@@ -10,17 +10,35 @@ import { mmseDfe, mmseEqualizer } from "@lib/solvers";
  * 41(4), 1995) [memory]: R_yy = E_s·H·Hᵀ + R_nn, R_x|y = E_s·I − E_s²·Hᵀ·R_yy⁻¹·H; over the support
  * S = {Δ … Δ + N_b} the feedback b̃_S = R_S⁻¹e₁/(e₁ᵀR_S⁻¹e₁), MSE = 1/(e₁ᵀR_S⁻¹e₁), w = R_yy⁻¹·E_s·H·b̃.
  */
-function alDhahirCioffi(h: number[], nf: number, nb: number, delay: number, r: number[], es: number, cancelled?: boolean[]) {
+function alDhahirCioffi(
+  h: number[],
+  nf: number,
+  nb: number,
+  delay: number,
+  r: number[],
+  es: number,
+  cancelled?: boolean[],
+) {
   const L = h.length;
   const cols = nf + L - 1;
   const H = new Matrix(nf, cols);
   for (let j = 0; j < nf; j++) for (let l = 0; l < L; l++) H.set(j, j + l, h[l]);
   const Rnn = new Matrix(nf, nf);
-  for (let i = 0; i < nf; i++) for (let j = 0; j < nf; j++) Rnn.set(i, j, Math.abs(i - j) < r.length ? r[Math.abs(i - j)] : 0);
+  for (let i = 0; i < nf; i++)
+    for (let j = 0; j < nf; j++) Rnn.set(i, j, Math.abs(i - j) < r.length ? r[Math.abs(i - j)] : 0);
   const Ryy = H.mmul(H.transpose()).mul(es).add(Rnn);
   const Ryyi = inverse(Ryy);
-  const Rxgy = Matrix.eye(cols).mul(es).sub(H.transpose().mmul(Ryyi).mmul(H).mul(es * es));
-  const S = Array.from({ length: nb + 1 }, (_, k) => delay + k).filter((_, k) => k === 0 || cancelled === undefined || cancelled[k - 1]);
+  const Rxgy = Matrix.eye(cols)
+    .mul(es)
+    .sub(
+      H.transpose()
+        .mmul(Ryyi)
+        .mmul(H)
+        .mul(es * es),
+    );
+  const S = Array.from({ length: nb + 1 }, (_, k) => delay + k).filter(
+    (_, k) => k === 0 || cancelled === undefined || cancelled[k - 1],
+  );
   const RSi = inverse(Rxgy.selection(S, S));
   const e1 = RSi.getColumn(0);
   const b = new Matrix(cols, 1);
@@ -48,12 +66,21 @@ describe("mmseDfe", () => {
 
   it("oracle: a feedback tap left out (e.g. one its limit keeps from cancelling) counts as ISI, as in the closed form with that tap removed", () => {
     const cancelled = [true, false, true];
-    const got = mmseDfe(cursors, { pre: 1, post: 3, feedbackTaps: 3, cancelled, noiseCorrelation_V2: [0.01, 0.004], symbolPower: 1 });
+    const got = mmseDfe(cursors, {
+      pre: 1,
+      post: 3,
+      feedbackTaps: 3,
+      cancelled,
+      noiseCorrelation_V2: [0.01, 0.004],
+      symbolPower: 1,
+    });
     const want = alDhahirCioffi(Array.from(h), 5, 3, cursors.main + 1, [0.01, 0.004], 1, cancelled);
     got.taps.forEach((c, j) => expect(c).toBeCloseTo(want.w[j], 11));
     expect(got.mse).toBeCloseTo(want.mse, 11);
     expect(got.feedback[1]).toBe(0);
-    expect(() => mmseDfe(cursors, { pre: 1, post: 1, feedbackTaps: 2, cancelled: [true], noiseCorrelation_V2: [0.01] })).toThrow(/cancelled/);
+    expect(() =>
+      mmseDfe(cursors, { pre: 1, post: 1, feedbackTaps: 2, cancelled: [true], noiseCorrelation_V2: [0.01] }),
+    ).toThrow(/cancelled/);
   });
 
   it("identities: no feedback and white noise is the linear MMSE equalizer; the reported noise is cᵀR_nc", () => {
@@ -86,9 +113,13 @@ describe("mmseDfe", () => {
 
   it("edges: negative variance, bad counts or singular systems are refused", () => {
     expect(() => mmseDfe(cursors, { pre: 1, post: 1, feedbackTaps: 0, noiseCorrelation_V2: [-1] })).toThrow(/variance/);
-    expect(() => mmseDfe(cursors, { pre: 1, post: 1, feedbackTaps: -1, noiseCorrelation_V2: [0] })).toThrow(/feedbackTaps/);
+    expect(() => mmseDfe(cursors, { pre: 1, post: 1, feedbackTaps: -1, noiseCorrelation_V2: [0] })).toThrow(
+      /feedbackTaps/,
+    );
     expect(() => mmseDfe(cursors, { pre: 1, post: 1, feedbackTaps: 0, noiseCorrelation_V2: [] })).toThrow(/r\[0\]/);
-    expect(() => mmseDfe({ h: new Float64Array(3), main: 1 }, { pre: 1, post: 1, feedbackTaps: 0, noiseCorrelation_V2: [0] })).toThrow(/singular/);
+    expect(() =>
+      mmseDfe({ h: new Float64Array(3), main: 1 }, { pre: 1, post: 1, feedbackTaps: 0, noiseCorrelation_V2: [0] }),
+    ).toThrow(/singular/);
   });
 });
 

@@ -57,7 +57,16 @@ describe("txTraining", () => {
   });
 
   it("limits: narrow post-tap and main ranges saturate at their minimum and say so", () => {
-    const narrow: TxFirSpec = { pre: 1, post: 1, step: 0.025, ranges: [[-0.5, 0], [0.7, 1], [-0.1, 0]] };
+    const narrow: TxFirSpec = {
+      pre: 1,
+      post: 1,
+      step: 0.025,
+      ranges: [
+        [-0.5, 0],
+        [0.7, 1],
+        [-0.1, 0],
+      ],
+    };
     const r = txTraining(channel, { spec: narrow, noiseRms_V: 0.01 });
     expect(r.converged).toBe(true);
     expect(r.taps[2]).toBeCloseTo(-0.1, 12);

@@ -33,11 +33,14 @@ describe("zeroForcing", () => {
   it.each([
     [0.5, 1.249],
     [0.9, 7.212],
-  ])("long ZF on 1 + a·z⁻¹ (a = %s) enhances noise by 1/(1 − a²) = %s dB [memory: Barry, Lee & Messerschmitt]", (a, db) => {
-    const r = zeroForcing(cur([1, a], 0), 0, 400);
-    expect(Math.abs(10 * Math.log10(firNoiseGain(r.taps)) - db)).toBeLessThan(1e-3);
-    for (let k = 0; k < 10; k++) expect(r.taps[k]).toBeCloseTo((-a) ** k, 10);
-  });
+  ])(
+    "long ZF on 1 + a·z⁻¹ (a = %s) enhances noise by 1/(1 − a²) = %s dB [memory: Barry, Lee & Messerschmitt]",
+    (a, db) => {
+      const r = zeroForcing(cur([1, a], 0), 0, 400);
+      expect(Math.abs(10 * Math.log10(firNoiseGain(r.taps)) - db)).toBeLessThan(1e-3);
+      for (let k = 0; k < 10; k++) expect(r.taps[k]).toBeCloseTo((-a) ** k, 10);
+    },
+  );
 
   it("oracle: the least-squares window solution equals the normal equations (seed 17, tol 1e-9)", () => {
     const rng = seededRandom(17);

@@ -48,7 +48,11 @@ describe("populationDefault", () => {
     for (const c of r.channels) {
       expect(c.ownHeadroom_V).toBeGreaterThanOrEqual(c.defaultHeadroom_V);
       const k = space.ctleSettings.findIndex((s) => s.gDc_dB === c.own.ctle.gDc_dB && s.gDc2_dB === c.own.ctle.gDc2_dB);
-      const applied = Math.min(...pulses.map((p) => evaluateSetting(prepareChannels(p, space).channels[k], space, c.own.tx, 1).limiterHeadroom_V));
+      const applied = Math.min(
+        ...pulses.map(
+          (p) => evaluateSetting(prepareChannels(p, space).channels[k], space, c.own.tx, 1).limiterHeadroom_V,
+        ),
+      );
       expect(r.worstHeadroom_V).toBeGreaterThanOrEqual(applied);
     }
   });
@@ -118,7 +122,9 @@ describe("evaluateArchitectures", () => {
     expect(a.worstHeadroom_V).toBe(Math.min(...a.headroom_V));
     expect(a.medianHeadroom_V).toBe([...a.headroom_V].sort((x, y) => x - y)[1]);
     expect(a.headroom_V[a.worstChannel]).toBe(a.worstHeadroom_V);
-    expect(architectureComplexity({ key: "x", tx: { pre: 1, post: 2 }, ctle: true, dfeTaps: 3, ffe: { pre: 1, post: 3 } })).toBe(11);
+    expect(
+      architectureComplexity({ key: "x", tx: { pre: 1, post: 2 }, ctle: true, dfeTaps: 3, ffe: { pre: 1, post: 3 } }),
+    ).toBe(11);
     expect(out[1].complexity).toBe(1);
     // The richer architecture is never worse on any channel than the CTLE alone.
     a.headroom_V.forEach((v, i) => expect(v).toBeGreaterThanOrEqual(out[1].headroom_V[i] - 2e-4));
@@ -127,7 +133,9 @@ describe("evaluateArchitectures", () => {
   it("edges: no candidates, or a malformed one, throw naming it", () => {
     expect(() => evaluateArchitectures(pulses, budget, [])).toThrow(/candidates/);
     expect(() =>
-      evaluateArchitectures(pulses, budget, [{ key: "x", tx: { pre: -1, post: 0 }, ctle: true, dfeTaps: 0, ffe: null }]),
+      evaluateArchitectures(pulses, budget, [
+        { key: "x", tx: { pre: -1, post: 0 }, ctle: true, dfeTaps: 0, ffe: null },
+      ]),
     ).toThrow(/candidates\[0\]\.tx/);
   });
 });

@@ -97,7 +97,10 @@ describe("quantizeSetting", () => {
     field({ name: "dfe1", parameter: "dfe[1]", lsb: 0.002, unit: "V", min: -0.2, max: 0.2, bits: 8 }),
   ];
   it("rounds each quantity to its code and keeps Σ|c| ≤ 1 by lowering the main tap", () => {
-    const q = quantizeSetting({ tx: [-0.071, 0.718, -0.211], txPre: 1, ctle: { gDc_dB: -6.3, gDc2_dB: 0 }, dfe: [0.0531] }, map);
+    const q = quantizeSetting(
+      { tx: [-0.071, 0.718, -0.211], txPre: 1, ctle: { gDc_dB: -6.3, gDc2_dB: 0 }, dfe: [0.0531] },
+      map,
+    );
     expect(q.codes).toEqual({ tx_pre1: -4, tx_main: 35, tx_post1: -11, ctle_gdc: -13, dfe1: 27 });
     const s = q.setting.tx.reduce((a, c) => a + Math.abs(c), 0);
     expect(s).toBeLessThanOrEqual(1 + 1e-12);
@@ -106,12 +109,20 @@ describe("quantizeSetting", () => {
   });
 
   it("the peak-swing repair: rounding [−0.095, 0.72, −0.195] to [−0.10, 0.72, −0.20] lowers the main tap to 0.70", () => {
-    const q = quantizeSetting({ tx: [-0.095, 0.72, -0.195], txPre: 1, ctle: { gDc_dB: 0, gDc2_dB: 0 }, dfe: [] }, map.slice(0, 3));
+    const q = quantizeSetting(
+      { tx: [-0.095, 0.72, -0.195], txPre: 1, ctle: { gDc_dB: 0, gDc2_dB: 0 }, dfe: [] },
+      map.slice(0, 3),
+    );
     expect(q.setting.tx.map((x) => Math.round(x * 100) / 100)).toEqual([-0.1, 0.7, -0.2]);
   });
 
   it("edges: a repeated parameter throws; quantities without a field stay", () => {
-    expect(() => quantizeSetting({ tx: [1], txPre: 0, ctle: { gDc_dB: 0, gDc2_dB: 0 }, dfe: [] }, [map[1], { ...map[1], name: "again" }])).toThrow(/twice/);
+    expect(() =>
+      quantizeSetting({ tx: [1], txPre: 0, ctle: { gDc_dB: 0, gDc2_dB: 0 }, dfe: [] }, [
+        map[1],
+        { ...map[1], name: "again" },
+      ]),
+    ).toThrow(/twice/);
     const q = quantizeSetting({ tx: [1], txPre: 0, ctle: { gDc_dB: -3.3, gDc2_dB: -1.1 }, dfe: [] }, [map[1]]);
     expect(q.setting.ctle).toEqual({ gDc_dB: -3.3, gDc2_dB: -1.1 });
   });

@@ -105,7 +105,9 @@ describe("budget form: packages, receiver bandwidth and receive FFE", () => {
     expect(draft["package.tx"]).toBe("");
     const none = budgetFromDraft({ ...draft, "package.tx.dieCapacitance_F": "300" });
     expect(none.package).toBeUndefined();
-    const on = budgetSchema.parse(budgetFromDraft({ ...draft, "package.rx": "model", "package.rx.termination_Ohm": "45" }));
+    const on = budgetSchema.parse(
+      budgetFromDraft({ ...draft, "package.rx": "model", "package.rx.termination_Ohm": "45" }),
+    );
     expect(on.package?.tx).toBeUndefined();
     expect(on.package?.rx).toEqual({ ...ANNEX_93A_PACKAGE, termination_Ohm: 45 });
     expect(on.ffe).toBeUndefined();

@@ -9,4 +9,6 @@ export const GET = endpoint(async (ctx) => {
   return listBudgets(q.limit, q.cursor);
 });
 
-export const POST = endpoint(async (ctx) => json(await createBudget(currentUser(ctx), await readJson(ctx.request, budgetRequest)), 201));
+export const POST = endpoint(async (ctx) =>
+  json(await createBudget(currentUser(ctx), await readJson(ctx.request, budgetRequest)), 201),
+);

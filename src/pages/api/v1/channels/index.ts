@@ -5,7 +5,9 @@ import { listQuery } from "@/features/channels/channels";
 import { createChannel, listChannels } from "@/features/channels/channels.server";
 import { readChannelRequest } from "@/features/channels/channelRequest.server";
 
-export const GET = endpoint(async (ctx) => listChannels(readParams(Object.fromEntries(ctx.url.searchParams), listQuery)));
+export const GET = endpoint(async (ctx) =>
+  listChannels(readParams(Object.fromEntries(ctx.url.searchParams), listQuery)),
+);
 
 export const POST = endpoint(async (ctx) => {
   const request = await readChannelRequest(ctx.request);

@@ -6,4 +6,6 @@ import { listRuns, startRun } from "@/features/runs/runs.server";
 
 export const GET = endpoint(async (ctx) => listRuns(readParams(Object.fromEntries(ctx.url.searchParams), listQuery)));
 
-export const POST = endpoint(async (ctx) => json(await startRun(currentUser(ctx), await readJson(ctx.request, startRunRequest)), 202));
+export const POST = endpoint(async (ctx) =>
+  json(await startRun(currentUser(ctx), await readJson(ctx.request, startRunRequest)), 202),
+);

@@ -3,4 +3,6 @@ import { currentUser, endpoint, readParams } from "@/server/http/handler";
 import { listQuery } from "@/features/signoff/signoff";
 import { listSignOffs } from "@/features/signoff/signoff.server";
 
-export const GET = endpoint(async (ctx) => listSignOffs(currentUser(ctx), readParams(Object.fromEntries(ctx.url.searchParams), listQuery)));
+export const GET = endpoint(async (ctx) =>
+  listSignOffs(currentUser(ctx), readParams(Object.fromEntries(ctx.url.searchParams), listQuery)),
+);

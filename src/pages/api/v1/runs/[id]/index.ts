@@ -5,7 +5,9 @@ import { endpoint, readParams } from "@/server/http/handler";
 import { idParams } from "@/features/runs/runs";
 import { runDetailResponse, runStatus } from "@/features/runs/runs.server";
 
-const query = z.object({ fields: z.enum(["status", "all"], { error: "fields must be status or all." }).default("all") });
+const query = z.object({
+  fields: z.enum(["status", "all"], { error: "fields must be status or all." }).default("all"),
+});
 
 export const GET = endpoint(async (ctx) => {
   const { id } = readParams(ctx.params, idParams);

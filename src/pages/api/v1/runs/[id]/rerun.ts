@@ -4,4 +4,6 @@ import { json } from "@/server/http/errors";
 import { idParams } from "@/features/runs/runs";
 import { rerun } from "@/features/runs/runs.server";
 
-export const POST = endpoint(async (ctx) => json(await rerun(currentUser(ctx), readParams(ctx.params, idParams).id), 202));
+export const POST = endpoint(async (ctx) =>
+  json(await rerun(currentUser(ctx), readParams(ctx.params, idParams).id), 202),
+);

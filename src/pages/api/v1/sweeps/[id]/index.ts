@@ -5,7 +5,9 @@ import { endpoint, readParams } from "@/server/http/handler";
 import { sweepParams } from "@/features/sweeps/sweeps";
 import { getSweep, getSweepStatus } from "@/features/sweeps/sweeps.server";
 
-const query = z.object({ fields: z.enum(["status", "all"], { error: "fields must be status or all." }).default("all") });
+const query = z.object({
+  fields: z.enum(["status", "all"], { error: "fields must be status or all." }).default("all"),
+});
 
 export const GET = endpoint(async (ctx) => {
   const { id } = readParams(ctx.params, sweepParams);

@@ -3,4 +3,6 @@ import { z } from "zod";
 import { currentUser, endpoint, readParams } from "@/server/http/handler";
 import { endSessions } from "@/features/people/people.server";
 
-export const DELETE = endpoint(async (ctx) => endSessions(currentUser(ctx), readParams(ctx.params, z.object({ id: z.string().min(1).max(36) })).id));
+export const DELETE = endpoint(async (ctx) =>
+  endSessions(currentUser(ctx), readParams(ctx.params, z.object({ id: z.string().min(1).max(36) })).id),
+);
