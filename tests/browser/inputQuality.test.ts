@@ -24,13 +24,11 @@ describe("input warnings in the browser", () => {
   it("shows the findings on the preview, the channel page and a run's page", async () => {
     await page.goto(`${baseUrl}/channels`);
     await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
-    await page
-      .getByLabel("Channel file", { exact: true })
-      .setInputFiles({
-        name: `hot-${stamp}.s2p`,
-        mimeType: "application/octet-stream",
-        buffer: Buffer.from(files.hotShortS2p()),
-      });
+    await page.getByLabel("Channel file", { exact: true }).setInputFiles({
+      name: `hot-${stamp}.s2p`,
+      mimeType: "application/octet-stream",
+      buffer: Buffer.from(files.hotShortS2p()),
+    });
     // A Touchstone file is previewed as soon as it is chosen.
     const warnings = page.getByTestId("upload-preview").getByTestId("input-warnings");
     await warnings.waitFor();

@@ -54,16 +54,14 @@ describe("sweeps in the browser", () => {
       { timeout: 120_000 },
     );
     await page.waitForFunction(() => !document.querySelector("astro-island[ssr]"));
-    const cells = await page
-      .locator("[data-testid=sweep-heatmap] [data-headroom-mv]")
-      .evaluateAll((els) =>
-        els.map((e) => ({
-          channel: e.getAttribute("data-channel"),
-          corner: e.getAttribute("data-corner"),
-          mV: Number(e.getAttribute("data-headroom-mv")),
-          binding: e.getAttribute("data-binding") === "true",
-        })),
-      );
+    const cells = await page.locator("[data-testid=sweep-heatmap] [data-headroom-mv]").evaluateAll((els) =>
+      els.map((e) => ({
+        channel: e.getAttribute("data-channel"),
+        corner: e.getAttribute("data-corner"),
+        mV: Number(e.getAttribute("data-headroom-mv")),
+        binding: e.getAttribute("data-binding") === "true",
+      })),
+    );
     expect(cells).toHaveLength(6);
     expect(new Set(cells.map((c) => c.corner))).toEqual(new Set(["nominal", "loss −10 %", "loss +10 %"]));
     // One binding corner per channel, at its lowest headroom.

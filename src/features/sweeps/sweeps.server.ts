@@ -102,31 +102,27 @@ export async function startSweep(user: SessionUser, req: CreateSweepRequest) {
       .values({ name: req.name, jobId, budgetId: budget.id, inputs, pairCount, createdBy: user.id })
       .$returningId();
     await tx.update(jobs).set({ targetId: id }).where(eq(jobs.id, jobId));
-    await tx
-      .insert(sweepChannels)
-      .values(
-        chans.map((c, position) => ({
-          sweepId: id,
-          position,
-          channelId: c.id,
-          kind: c.kind,
-          pulse: c.pulse,
-          derivation: c.derivation,
-        })),
-      );
+    await tx.insert(sweepChannels).values(
+      chans.map((c, position) => ({
+        sweepId: id,
+        position,
+        channelId: c.id,
+        kind: c.kind,
+        pulse: c.pulse,
+        derivation: c.derivation,
+      })),
+    );
     const batches = sweepBatches(chans.length, req.corners.length);
-    await tx
-      .insert(jobs)
-      .values(
-        batches.map((_, part) => ({
-          kind: "sweep-batch" as const,
-          targetId: id,
-          queue: config.queue.backend,
-          parentId: jobId,
-          part,
-          status: "queued" as const,
-        })),
-      );
+    await tx.insert(jobs).values(
+      batches.map((_, part) => ({
+        kind: "sweep-batch" as const,
+        targetId: id,
+        queue: config.queue.backend,
+        parentId: jobId,
+        part,
+        status: "queued" as const,
+      })),
+    );
     await recordAudit(tx, user, "sweep.start", "sweep", id, {
       name: req.name,
       budget: budget.name,

@@ -161,18 +161,16 @@ async function enqueueVersionParts(
       part: index,
       waitForChildren: true,
     });
-    await tx
-      .insert(jobs)
-      .values(
-        cls.channels.map((_, part) => ({
-          kind: "table-member" as const,
-          targetId: versionId,
-          queue: config.queue.backend,
-          parentId: classJob,
-          part,
-          status: "queued" as const,
-        })),
-      );
+    await tx.insert(jobs).values(
+      cls.channels.map((_, part) => ({
+        kind: "table-member" as const,
+        targetId: versionId,
+        queue: config.queue.backend,
+        parentId: classJob,
+        part,
+        status: "queued" as const,
+      })),
+    );
   }
 }
 
