@@ -3,6 +3,7 @@ import { useState } from "react";
 import { useStore } from "zustand";
 import { createNewStudyStore, type StudyBudgetChoice, type StudyChannelChoice } from "./newStudyStore";
 import { describeArchitecture } from "./architecture";
+import ChannelChecklist from "./ChannelChecklist";
 
 interface Props {
   budgets: StudyBudgetChoice[];
@@ -79,33 +80,13 @@ export default function NewStudy(props: Props) {
         </label>
       </div>
       <div className="grid gap-4 md:grid-cols-2">
-        <fieldset className="rounded-md border border-line p-3">
-          <legend className="px-1 text-sm font-medium text-ink-soft">
-            Channels ({s.channelIds.length} of {usable.length})
-          </legend>
-          <div className="mb-2 flex gap-2 text-xs">
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels(usable.map((c) => c.id))}>
-              All
-            </button>
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels([])}>
-              None
-            </button>
-          </div>
-          <ul className="max-h-64 overflow-auto text-sm">
-            {usable.map((c) => (
-              <li key={c.id}>
-                <label className="flex items-center gap-2 py-0.5">
-                  <input type="checkbox" checked={s.channelIds.includes(c.id)} onChange={() => s.toggleChannel(c.id)} />
-                  <span className="grow">{c.name}</span>
-                  <span className="num text-xs text-muted">
-                    {c.lossAtNyquist_dB !== null ? `${c.lossAtNyquist_dB.toFixed(1)} dB` : "—"}
-                  </span>
-                </label>
-              </li>
-            ))}
-            {usable.length === 0 && <li className="text-muted">No channel runs at this budget's bit rate.</li>}
-          </ul>
-        </fieldset>
+        <ChannelChecklist
+          channels={usable}
+          chosenIds={s.channelIds}
+          setChannels={s.setChannels}
+          toggleChannel={s.toggleChannel}
+          listHeightClass="max-h-64"
+        />
         <fieldset className="rounded-md border border-line p-3">
           <legend className="px-1 text-sm font-medium text-ink-soft">Candidate architectures</legend>
           <ul className="text-sm">

@@ -6,6 +6,7 @@ import type { StudyBudgetChoice, StudyChannelChoice } from "@/features/studies/n
 import { cornerPresets, sourceLabel } from "./presets";
 import { createNewSweepStore, factorKeys, type FactorKey } from "./newSweepStore";
 import { MAX_PAIRS } from "./sweeps";
+import ChannelChecklist from "@/features/studies/ChannelChecklist";
 
 interface Props {
   budgets: Pick<StudyBudgetChoice, "id" | "name" | "modulation" | "bitRate_bps">[];
@@ -91,33 +92,13 @@ export default function NewSweep(props: Props) {
         </label>
       </div>
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]">
-        <fieldset className="rounded-md border border-line p-3">
-          <legend className="px-1 text-sm font-medium text-ink-soft">
-            Channels ({s.channelIds.length} of {usable.length})
-          </legend>
-          <div className="mb-2 flex gap-2 text-xs">
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels(usable.map((c) => c.id))}>
-              All
-            </button>
-            <button type="button" className="btn py-0.5 text-xs" onClick={() => s.setChannels([])}>
-              None
-            </button>
-          </div>
-          <ul className="max-h-72 overflow-auto text-sm">
-            {usable.map((c) => (
-              <li key={c.id}>
-                <label className="flex items-center gap-2 py-0.5">
-                  <input type="checkbox" checked={s.channelIds.includes(c.id)} onChange={() => s.toggleChannel(c.id)} />
-                  <span className="grow">{c.name}</span>
-                  <span className="num text-xs text-muted">
-                    {c.lossAtNyquist_dB !== null ? `${c.lossAtNyquist_dB.toFixed(1)} dB` : "—"}
-                  </span>
-                </label>
-              </li>
-            ))}
-            {usable.length === 0 && <li className="text-muted">No channel runs at this budget's bit rate.</li>}
-          </ul>
-        </fieldset>
+        <ChannelChecklist
+          channels={usable}
+          chosenIds={s.channelIds}
+          setChannels={s.setChannels}
+          toggleChannel={s.toggleChannel}
+          listHeightClass="max-h-72"
+        />
         <fieldset className="rounded-md border border-line p-3">
           <legend className="px-1 text-sm font-medium text-ink-soft">Corners ({s.corners.length})</legend>
           <p className="help mb-2">
